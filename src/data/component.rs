@@ -1,0 +1,451 @@
+//! A pure component as read from `mixtures/components/<id>.toml`: constants and correlations with sources.
+
+use serde::Deserialize;
+
+use super::correlation::{Correlation, Dimension, RawCorrelation};
+use super::{toml_error_line, DataError};
+
+/// Hydrocarbon (or oxygenate) class of a component.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord, Deserialize, serde::Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum HydrocarbonClass {
+    /// Straight-chain alkanes.
+    NAlkane,
+    /// Branched alkanes.
+    IsoAlkane,
+    /// Alkylcyclohexanes and other one-ring naphthenes.
+    Monocycloalkane,
+    /// Decalins and other two-ring naphthenes.
+    Dicycloalkane,
+    /// Alkylbenzenes.
+    Alkylbenzene,
+    /// Tetralins, indanes.
+    Cycloaromatic,
+    /// Naphthalenes.
+    Diaromatic,
+    /// Alcohols and other oxygenates.
+    Oxygenate,
+}
+
+impl HydrocarbonClass {
+    /// Kebab-case name as written in files.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            HydrocarbonClass::NAlkane => "n-alkane",
+            HydrocarbonClass::IsoAlkane => "iso-alkane",
+            HydrocarbonClass::Monocycloalkane => "monocycloalkane",
+            HydrocarbonClass::Dicycloalkane => "dicycloalkane",
+            HydrocarbonClass::Alkylbenzene => "alkylbenzene",
+            HydrocarbonClass::Cycloaromatic => "cycloaromatic",
+            HydrocarbonClass::Diaromatic => "diaromatic",
+            HydrocarbonClass::Oxygenate => "oxygenate",
+        }
+    }
+
+    /// Number of aromatic rings (for Fuller volumes and the aromatics indicator).
+    pub fn aromatic_rings(self) -> u32 {
+        match self {
+            HydrocarbonClass::Alkylbenzene | HydrocarbonClass::Cycloaromatic => 1,
+            HydrocarbonClass::Diaromatic => 2,
+            _ => 0,
+        }
+    }
+
+    /// True for classes counted as aromatics.
+    pub fn is_aromatic(self) -> bool {
+        self.aromatic_rings() > 0
+    }
+
+    /// Every class, in display order.
+    pub const ALL: [HydrocarbonClass; 8] = [
+        HydrocarbonClass::NAlkane,
+        HydrocarbonClass::IsoAlkane,
+        HydrocarbonClass::Monocycloalkane,
+        HydrocarbonClass::Dicycloalkane,
+        HydrocarbonClass::Alkylbenzene,
+        HydrocarbonClass::Cycloaromatic,
+        HydrocarbonClass::Diaromatic,
+        HydrocarbonClass::Oxygenate,
+    ];
+}
+
+/// A number with its source and optional relative uncertainty.
+#[derive(Debug, Clone, PartialEq, Deserialize, serde::Serialize)]
+#[serde(deny_unknown_fields)]
+pub struct Sourced {
+    /// Value in SI units.
+    pub value: f64,
+    /// Source id or marker.
+    pub source: String,
+    /// Relative uncertainty.
+    #[serde(default)]
+    pub uncertainty: Option<f64>,
+    /// Free note.
+    #[serde(default)]
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub note: Option<String>,
+    /// For cetane numbers: "DCN" or "CN".
+    #[serde(default)]
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub kind: Option<String>,
+}
+
+/// Atom counts.
+#[derive(Debug, Clone, Copy, PartialEq, Deserialize, serde::Serialize)]
+#[serde(deny_unknown_fields)]
+pub struct Formula {
+    /// Carbon atoms.
+    #[serde(rename = "C")]
+    pub carbon: u32,
+    /// Hydrogen atoms.
+    #[serde(rename = "H")]
+    pub hydrogen: u32,
+    /// Oxygen atoms.
+    #[serde(rename = "O", default)]
+    pub oxygen: u32,
+}
+
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+struct RawConstants {
+    molar_mass: Sourced,
+    normal_boiling_point: Sourced,
+    critical_temperature: Sourced,
+    critical_pressure: Sourced,
+    critical_volume: Sourced,
+    acentric_factor: Sourced,
+    melting_point: Sourced,
+    #[serde(default)]
+    enthalpy_of_fusion: Option<Sourced>,
+    #[serde(default, rename = "density-15C")]
+    density_15c: Option<Sourced>,
+    lower_heating_value: Sourced,
+    cetane_number: Sourced,
+    #[serde(default)]
+    flash_point: Option<Sourced>,
+    #[serde(default)]
+    rackett_z: Option<Sourced>,
+    #[serde(default)]
+    diffusion_volume: Option<Sourced>,
+    #[serde(default)]
+    lennard_jones_sigma: Option<Sourced>,
+    #[serde(default)]
+    lennard_jones_epsilon_over_k: Option<Sourced>,
+}
+
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+struct RawComponent {
+    id: String,
+    name: String,
+    #[serde(default)]
+    aliases: Vec<String>,
+    cas: String,
+    class: HydrocarbonClass,
+    formula: Formula,
+    constants: RawConstants,
+    vapor_pressure: RawCorrelation,
+    liquid_density: RawCorrelation,
+    latent_heat: RawCorrelation,
+    liquid_heat_capacity: RawCorrelation,
+    liquid_viscosity: RawCorrelation,
+    liquid_conductivity: RawCorrelation,
+    surface_tension: RawCorrelation,
+    ideal_gas_heat_capacity: RawCorrelation,
+    vapor_viscosity: RawCorrelation,
+    vapor_conductivity: RawCorrelation,
+}
+
+/// Scalar constants of a component, SI units.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Constants {
+    /// Molar mass [kg/mol].
+    pub molar_mass: Sourced,
+    /// Normal boiling point [K].
+    pub normal_boiling_point: Sourced,
+    /// Critical temperature [K].
+    pub critical_temperature: Sourced,
+    /// Critical pressure [Pa].
+    pub critical_pressure: Sourced,
+    /// Critical molar volume [m³/mol].
+    pub critical_volume: Sourced,
+    /// Acentric factor [-].
+    pub acentric_factor: Sourced,
+    /// Melting point [K].
+    pub melting_point: Sourced,
+    /// Enthalpy of fusion [J/mol].
+    pub enthalpy_of_fusion: Option<Sourced>,
+    /// Published liquid density at 15 °C [kg/m³].
+    pub density_15c: Option<Sourced>,
+    /// Lower heating value of the liquid [J/kg].
+    pub lower_heating_value: Sourced,
+    /// Cetane number or derived cetane number [-] (`kind` says which).
+    pub cetane_number: Sourced,
+    /// Closed-cup flash point [K].
+    pub flash_point: Option<Sourced>,
+    /// Spencer–Danner Rackett parameter [-].
+    pub rackett_z: Option<Sourced>,
+    /// Fuller diffusion-volume sum [-].
+    pub diffusion_volume: Option<Sourced>,
+    /// Lennard-Jones collision diameter [m].
+    pub lennard_jones_sigma: Option<Sourced>,
+    /// Lennard-Jones well depth over Boltzmann constant [K].
+    pub lennard_jones_epsilon_over_k: Option<Sourced>,
+}
+
+/// A pure liquid component with its constants and property correlations.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Component {
+    /// Unique id (kebab-case).
+    pub id: String,
+    /// Display name.
+    pub name: String,
+    /// Other accepted names.
+    pub aliases: Vec<String>,
+    /// CAS registry number.
+    pub cas: String,
+    /// Hydrocarbon class.
+    pub class: HydrocarbonClass,
+    /// Atom counts.
+    pub formula: Formula,
+    /// Scalar constants.
+    pub constants: Constants,
+    /// Vapour pressure [Pa].
+    pub vapor_pressure: Correlation,
+    /// Saturated liquid density [kg/m³].
+    pub liquid_density: Correlation,
+    /// Latent heat [J/kg].
+    pub latent_heat: Correlation,
+    /// Liquid heat capacity [J/(kg·K)].
+    pub liquid_heat_capacity: Correlation,
+    /// Liquid viscosity [Pa·s].
+    pub liquid_viscosity: Correlation,
+    /// Liquid thermal conductivity [W/(m·K)].
+    pub liquid_conductivity: Correlation,
+    /// Surface tension [N/m].
+    pub surface_tension: Correlation,
+    /// Ideal-gas heat capacity [J/(kg·K)].
+    pub ideal_gas_heat_capacity: Correlation,
+    /// Vapour viscosity [Pa·s].
+    pub vapor_viscosity: Correlation,
+    /// Vapour thermal conductivity [W/(m·K)].
+    pub vapor_conductivity: Correlation,
+    /// File the component came from.
+    pub origin: String,
+}
+
+/// Default relative uncertainties (published coefficients, estimated) per property; docs/property-methods.md.
+pub const DEFAULT_UNCERTAINTY: [(&str, f64, f64); 10] = [
+    ("vapor-pressure", 0.02, 0.10),
+    ("liquid-density", 0.01, 0.03),
+    ("latent-heat", 0.03, 0.08),
+    ("liquid-heat-capacity", 0.03, 0.08),
+    ("liquid-viscosity", 0.05, 0.25),
+    ("liquid-conductivity", 0.05, 0.15),
+    ("surface-tension", 0.03, 0.10),
+    ("ideal-gas-heat-capacity", 0.02, 0.05),
+    ("vapor-viscosity", 0.05, 0.10),
+    ("vapor-conductivity", 0.05, 0.15),
+];
+
+fn check_positive(s: &Sourced, context: &str, field: &str) -> Result<(), DataError> {
+    if !(s.value.is_finite() && s.value > 0.0) {
+        return Err(DataError::Invalid { context: format!("{context}: constants.{field}"), message: format!("value {} must be a positive finite number", s.value) });
+    }
+    if let Some(u) = s.uncertainty {
+        if !(u.is_finite() && (0.0..=1.0).contains(&u)) {
+            return Err(DataError::Invalid { context: format!("{context}: constants.{field}"), message: format!("uncertainty {u} must be between 0 and 1") });
+        }
+    }
+    Ok(())
+}
+
+impl Component {
+    /// Parse and check a component file; `file` names it in messages.
+    pub fn parse(text: &str, file: &str) -> Result<Self, DataError> {
+        let raw: RawComponent = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_line(&e) })?;
+        let ctx = format!("{file} (component '{}')", raw.id);
+        if raw.id.is_empty() || !raw.id.chars().all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '-') {
+            return Err(DataError::Invalid { context: format!("{file}: id"), message: format!("'{}' must be kebab-case (a-z, 0-9, -)", raw.id) });
+        }
+        let c = &raw.constants;
+        let positives = [
+            (&c.molar_mass, "molar-mass"),
+            (&c.normal_boiling_point, "normal-boiling-point"),
+            (&c.critical_temperature, "critical-temperature"),
+            (&c.critical_pressure, "critical-pressure"),
+            (&c.critical_volume, "critical-volume"),
+            (&c.melting_point, "melting-point"),
+            (&c.lower_heating_value, "lower-heating-value"),
+        ];
+        for (s, f) in positives {
+            check_positive(s, &ctx, f)?;
+        }
+        for (s, f) in [
+            (&c.enthalpy_of_fusion, "enthalpy-of-fusion"),
+            (&c.density_15c, "density-15C"),
+            (&c.flash_point, "flash-point"),
+            (&c.rackett_z, "rackett-z"),
+            (&c.diffusion_volume, "diffusion-volume"),
+            (&c.lennard_jones_sigma, "lennard-jones-sigma"),
+            (&c.lennard_jones_epsilon_over_k, "lennard-jones-epsilon-over-k"),
+        ] {
+            if let Some(s) = s {
+                check_positive(s, &ctx, f)?;
+            }
+        }
+        let w = c.molar_mass.value;
+        if !(0.01..=2.0).contains(&w) {
+            return Err(DataError::Invalid { context: format!("{ctx}: constants.molar-mass"), message: format!("{w} kg/mol is outside 0.01–2 kg/mol (the unit is kg/mol, not g/mol)") });
+        }
+        let (tb, tc, tm) = (c.normal_boiling_point.value, c.critical_temperature.value, c.melting_point.value);
+        if !(tm < tb && tb < tc) {
+            return Err(DataError::Invalid { context: format!("{ctx}: constants"), message: format!("needs melting point {tm} K < normal boiling point {tb} K < critical temperature {tc} K") });
+        }
+        if c.critical_pressure.value < 1e5 || c.critical_pressure.value > 1e8 {
+            return Err(DataError::Invalid { context: format!("{ctx}: constants.critical-pressure"), message: format!("{} Pa is outside 1e5–1e8 Pa (the unit is Pa)", c.critical_pressure.value) });
+        }
+        let omega = c.acentric_factor.value;
+        if !(omega.is_finite() && (-0.5..=2.0).contains(&omega)) {
+            return Err(DataError::Invalid { context: format!("{ctx}: constants.acentric-factor"), message: format!("{omega} is outside -0.5–2") });
+        }
+        if !c.cetane_number.value.is_finite() || c.cetane_number.value < -20.0 || c.cetane_number.value > 150.0 {
+            return Err(DataError::Invalid { context: format!("{ctx}: constants.cetane-number"), message: format!("{} is outside -20–150", c.cetane_number.value) });
+        }
+        match c.cetane_number.kind.as_deref() {
+            Some("DCN") | Some("CN") => {}
+            other => return Err(DataError::Invalid { context: format!("{ctx}: constants.cetane-number.kind"), message: format!("{other:?} must be \"DCN\" or \"CN\"") }),
+        }
+        let wf = raw.formula;
+        let formula_mass = 12.011e-3 * f64::from(wf.carbon) + 1.008e-3 * f64::from(wf.hydrogen) + 15.999e-3 * f64::from(wf.oxygen);
+        if (formula_mass - w).abs() > 0.01 * w {
+            return Err(DataError::Invalid { context: format!("{ctx}: constants.molar-mass"), message: format!("{w} kg/mol disagrees with the formula ({formula_mass:.5} kg/mol)") });
+        }
+        let build = |r: &RawCorrelation, key: &str, dim: Dimension| -> Result<Correlation, DataError> {
+            let (published, estimated) = DEFAULT_UNCERTAINTY.iter().find(|(k, _, _)| *k == key).map(|(_, a, b)| (*a, *b)).unwrap_or((0.05, 0.2));
+            let default = if r.model == "corresponding-states" || r.source.starts_with("estimated") { estimated } else { published };
+            r.build(dim, w, default, &format!("{ctx}: [{key}]"))
+        };
+        Ok(Component {
+            vapor_pressure: build(&raw.vapor_pressure, "vapor-pressure", Dimension::Pressure)?,
+            liquid_density: build(&raw.liquid_density, "liquid-density", Dimension::Density)?,
+            latent_heat: build(&raw.latent_heat, "latent-heat", Dimension::SpecificEnergy)?,
+            liquid_heat_capacity: build(&raw.liquid_heat_capacity, "liquid-heat-capacity", Dimension::SpecificHeat)?,
+            liquid_viscosity: build(&raw.liquid_viscosity, "liquid-viscosity", Dimension::Viscosity)?,
+            liquid_conductivity: build(&raw.liquid_conductivity, "liquid-conductivity", Dimension::Conductivity)?,
+            surface_tension: build(&raw.surface_tension, "surface-tension", Dimension::SurfaceTension)?,
+            ideal_gas_heat_capacity: build(&raw.ideal_gas_heat_capacity, "ideal-gas-heat-capacity", Dimension::SpecificHeat)?,
+            vapor_viscosity: build(&raw.vapor_viscosity, "vapor-viscosity", Dimension::Viscosity)?,
+            vapor_conductivity: build(&raw.vapor_conductivity, "vapor-conductivity", Dimension::Conductivity)?,
+            id: raw.id,
+            name: raw.name,
+            aliases: raw.aliases,
+            cas: raw.cas,
+            class: raw.class,
+            formula: raw.formula,
+            constants: Constants {
+                molar_mass: raw.constants.molar_mass,
+                normal_boiling_point: raw.constants.normal_boiling_point,
+                critical_temperature: raw.constants.critical_temperature,
+                critical_pressure: raw.constants.critical_pressure,
+                critical_volume: raw.constants.critical_volume,
+                acentric_factor: raw.constants.acentric_factor,
+                melting_point: raw.constants.melting_point,
+                enthalpy_of_fusion: raw.constants.enthalpy_of_fusion,
+                density_15c: raw.constants.density_15c,
+                lower_heating_value: raw.constants.lower_heating_value,
+                cetane_number: raw.constants.cetane_number,
+                flash_point: raw.constants.flash_point,
+                rackett_z: raw.constants.rackett_z,
+                diffusion_volume: raw.constants.diffusion_volume,
+                lennard_jones_sigma: raw.constants.lennard_jones_sigma,
+                lennard_jones_epsilon_over_k: raw.constants.lennard_jones_epsilon_over_k,
+            },
+            origin: file.to_string(),
+        })
+    }
+
+    /// Every (field, source id) pair used by this component, for registry checks and reports.
+    pub fn source_ids(&self) -> Vec<(String, String)> {
+        let c = &self.constants;
+        let mut out = vec![];
+        let mut push = |f: &str, s: &Sourced| out.push((f.to_string(), s.source.clone()));
+        push("molar-mass", &c.molar_mass);
+        push("normal-boiling-point", &c.normal_boiling_point);
+        push("critical-temperature", &c.critical_temperature);
+        push("critical-pressure", &c.critical_pressure);
+        push("critical-volume", &c.critical_volume);
+        push("acentric-factor", &c.acentric_factor);
+        push("melting-point", &c.melting_point);
+        push("lower-heating-value", &c.lower_heating_value);
+        push("cetane-number", &c.cetane_number);
+        for (f, s) in [
+            ("enthalpy-of-fusion", &c.enthalpy_of_fusion),
+            ("density-15C", &c.density_15c),
+            ("flash-point", &c.flash_point),
+            ("rackett-z", &c.rackett_z),
+            ("diffusion-volume", &c.diffusion_volume),
+            ("lennard-jones-sigma", &c.lennard_jones_sigma),
+            ("lennard-jones-epsilon-over-k", &c.lennard_jones_epsilon_over_k),
+        ] {
+            if let Some(s) = s {
+                push(f, s);
+            }
+        }
+        for (f, corr) in self.correlations() {
+            out.push((f.to_string(), corr.source.clone()));
+        }
+        out
+    }
+
+    /// The ten correlations with their section names.
+    pub fn correlations(&self) -> [(&'static str, &Correlation); 10] {
+        [
+            ("vapor-pressure", &self.vapor_pressure),
+            ("liquid-density", &self.liquid_density),
+            ("latent-heat", &self.latent_heat),
+            ("liquid-heat-capacity", &self.liquid_heat_capacity),
+            ("liquid-viscosity", &self.liquid_viscosity),
+            ("liquid-conductivity", &self.liquid_conductivity),
+            ("surface-tension", &self.surface_tension),
+            ("ideal-gas-heat-capacity", &self.ideal_gas_heat_capacity),
+            ("vapor-viscosity", &self.vapor_viscosity),
+            ("vapor-conductivity", &self.vapor_conductivity),
+        ]
+    }
+
+    /// Molar mass [kg/mol].
+    #[inline]
+    pub fn molar_mass(&self) -> f64 {
+        self.constants.molar_mass.value
+    }
+
+    /// Critical temperature [K].
+    #[inline]
+    pub fn critical_temperature(&self) -> f64 {
+        self.constants.critical_temperature.value
+    }
+
+    /// Critical pressure [Pa].
+    #[inline]
+    pub fn critical_pressure(&self) -> f64 {
+        self.constants.critical_pressure.value
+    }
+
+    /// Normal boiling point [K].
+    #[inline]
+    pub fn normal_boiling_point(&self) -> f64 {
+        self.constants.normal_boiling_point.value
+    }
+
+    /// Acentric factor [-].
+    #[inline]
+    pub fn acentric_factor(&self) -> f64 {
+        self.constants.acentric_factor.value
+    }
+
+    /// True when this name is the id or one of the aliases.
+    pub fn answers_to(&self, name: &str) -> bool {
+        self.id == name || self.aliases.iter().any(|a| a == name)
+    }
+}

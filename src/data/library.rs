@@ -1,0 +1,171 @@
+//! The component library: embedded files plus user files, with every source id resolved.
+
+use std::collections::{BTreeMap, HashMap};
+use std::path::Path;
+use std::sync::Arc;
+
+use super::gases::{parse_gases, GasSpecies};
+use super::{suggest, Component, DataError, Form, SourceRegistry};
+
+include!(concat!(env!("OUT_DIR"), "/embedded.rs"));
+
+/// All components, gases, sources and named fuel files known to a run.
+#[derive(Debug, Clone)]
+pub struct Library {
+    components: Vec<Arc<Component>>,
+    index: HashMap<String, usize>,
+    /// Ambient-gas species by id.
+    pub gases: BTreeMap<String, GasSpecies>,
+    /// Source registry.
+    pub sources: SourceRegistry,
+    /// Fuel files by fuel id: (origin, text).
+    pub fuels: BTreeMap<String, (String, String)>,
+}
+
+impl Library {
+    /// The library embedded in the binary (mixtures/ at build time).
+    pub fn embedded() -> Result<Self, DataError> {
+        let mut lib = Library { components: vec![], index: HashMap::new(), gases: BTreeMap::new(), sources: SourceRegistry::default(), fuels: BTreeMap::new() };
+        for (path, text) in EMBEDDED_FILES {
+            let shown = format!("mixtures/{path}");
+            lib.add_text(path, text, &shown)?;
+        }
+        lib.check_sources()?;
+        Ok(lib)
+    }
+
+    fn add_text(&mut self, rel: &str, text: &str, shown: &str) -> Result<(), DataError> {
+        if rel.starts_with("components/") {
+            self.add_component(Component::parse(text, shown)?)?;
+        } else if rel == "gases.toml" {
+            self.gases.extend(parse_gases(text, shown)?);
+        } else if rel == "sources.toml" {
+            self.sources.extend(SourceRegistry::parse(text, shown)?);
+        } else if !rel.contains('/') {
+            let id = rel.trim_end_matches(".toml").to_string();
+            self.fuels.insert(id, (shown.to_string(), text.to_string()));
+        }
+        Ok(())
+    }
+
+    /// Add a component; an id or alias already in use is an error naming both files.
+    pub fn add_component(&mut self, c: Component) -> Result<(), DataError> {
+        if let Form::CorrespondingStates = c.ideal_gas_heat_capacity.form {
+            return Err(DataError::Invalid {
+                context: format!("{}: [ideal-gas-heat-capacity]", c.origin),
+                message: "needs coefficients (published, or a group-contribution polynomial marked estimated:joback)".into(),
+            });
+        }
+        for name in std::iter::once(&c.id).chain(c.aliases.iter()) {
+            if let Some(&i) = self.index.get(name) {
+                return Err(DataError::Invalid {
+                    context: format!("{}: id", c.origin),
+                    message: format!("'{name}' is already defined by {}", self.components[i].origin),
+                });
+            }
+        }
+        let i = self.components.len();
+        for name in std::iter::once(&c.id).chain(c.aliases.iter()) {
+            self.index.insert(name.clone(), i);
+        }
+        self.components.push(Arc::new(c));
+        Ok(())
+    }
+
+    /// Load every `*.toml` component file in a user folder (and `sources.toml` there, if any).
+    pub fn add_user_folder(&mut self, dir: &Path) -> Result<(), DataError> {
+        let rd = std::fs::read_dir(dir).map_err(|e| DataError::Io { file: dir.display().to_string(), message: e.to_string() })?;
+        let mut paths: Vec<_> = rd.filter_map(|e| e.ok()).map(|e| e.path()).filter(|p| p.extension().is_some_and(|x| x == "toml")).collect();
+        paths.sort();
+        for p in paths {
+            let shown = p.display().to_string();
+            let text = std::fs::read_to_string(&p).map_err(|e| DataError::Io { file: shown.clone(), message: e.to_string() })?;
+            if p.file_name().is_some_and(|n| n == "sources.toml") {
+                self.sources.extend(SourceRegistry::parse(&text, &shown)?);
+            } else {
+                self.add_component(Component::parse(&text, &shown)?)?;
+            }
+        }
+        self.check_sources()
+    }
+
+    /// Every source id used anywhere must resolve in the registry or be an allowed marker.
+    pub fn check_sources(&self) -> Result<(), DataError> {
+        for c in &self.components {
+            for (field, id) in c.source_ids() {
+                if !self.sources.resolves(&id) {
+                    return Err(DataError::Unknown {
+                        context: format!("{}: {field}.source", c.origin),
+                        kind: "source",
+                        id: id.clone(),
+                        hint: suggest(&id, self.sources.sources.keys().map(|s| s.as_str())),
+                    });
+                }
+            }
+        }
+        for g in self.gases.values() {
+            for (field, id) in g.source_ids() {
+                if !self.sources.resolves(&id) {
+                    return Err(DataError::Unknown { context: format!("mixtures/gases.toml: {}.{field}.source", g.id), kind: "source", id, hint: String::new() });
+                }
+            }
+        }
+        Ok(())
+    }
+
+    /// Look a component up by id or alias.
+    pub fn component(&self, name: &str) -> Option<&Arc<Component>> {
+        self.index.get(name).map(|&i| &self.components[i])
+    }
+
+    /// Look a component up, with a "did you mean" error naming `context`.
+    pub fn require_component(&self, name: &str, context: &str) -> Result<&Arc<Component>, DataError> {
+        self.component(name).ok_or_else(|| DataError::Unknown {
+            context: context.to_string(),
+            kind: "component",
+            id: name.to_string(),
+            hint: suggest(name, self.index.keys().map(|s| s.as_str())),
+        })
+    }
+
+    /// All components in load order.
+    pub fn components(&self) -> &[Arc<Component>] {
+        &self.components
+    }
+
+    /// Look an ambient-gas species up by id.
+    pub fn gas(&self, id: &str) -> Option<&GasSpecies> {
+        self.gases.get(id)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn embedded_library_loads_and_sources_resolve() {
+        let lib = Library::embedded().unwrap_or_else(|e| panic!("{e}"));
+        assert!(lib.components().len() >= 40, "{}", lib.components().len());
+        for c in lib.components() {
+            let tb = c.normal_boiling_point();
+            let p = c.vapor_pressure(tb);
+            assert!((p / 101_325.0 - 1.0).abs() < 0.05, "{} p_sat(Tb) = {p}", c.id);
+            for t in [250.0, 300.0, tb, 0.9 * c.critical_temperature()] {
+                for (name, v) in [
+                    ("rho", c.liquid_density(t)),
+                    ("L", c.latent_heat(t)),
+                    ("cp", c.liquid_heat_capacity(t)),
+                    ("mu", c.liquid_viscosity(t)),
+                    ("k", c.liquid_conductivity(t)),
+                    ("sigma", c.surface_tension(t)),
+                    ("cpig", c.ideal_gas_heat_capacity(t)),
+                    ("muv", c.vapor_viscosity(t)),
+                    ("kv", c.vapor_conductivity(t)),
+                ] {
+                    assert!(v.is_finite() && v > 0.0, "{} {name}({t}) = {v}", c.id);
+                }
+            }
+        }
+    }
+}

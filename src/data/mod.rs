@@ -1,0 +1,96 @@
+//! Data layer: component, gas and source files (TOML), validated at load time, and the embedded library.
+
+pub mod component;
+pub mod correlation;
+pub mod gases;
+pub mod library;
+pub mod sources;
+
+pub use component::{Component, Constants, HydrocarbonClass, Sourced};
+pub use correlation::{Correlation, Dimension, Form, GAS_CONSTANT};
+pub use gases::GasSpecies;
+pub use library::Library;
+pub use sources::SourceRegistry;
+
+use thiserror::Error;
+
+/// Errors raised while reading or checking data files.
+#[derive(Debug, Error, Clone, PartialEq)]
+pub enum DataError {
+    /// A file could not be parsed as TOML or has the wrong shape.
+    #[error("{file}: {message}")]
+    Parse {
+        /// File name.
+        file: String,
+        /// Parser message (names the key and line).
+        message: String,
+    },
+    /// A value is present but not acceptable.
+    #[error("{context}: {message}")]
+    Invalid {
+        /// File and field.
+        context: String,
+        /// What is wrong.
+        message: String,
+    },
+    /// A referenced id is unknown.
+    #[error("{context}: unknown {kind} '{id}'{hint}")]
+    Unknown {
+        /// File and field.
+        context: String,
+        /// What kind of id (component, source, fuel, gas).
+        kind: &'static str,
+        /// The id given.
+        id: String,
+        /// A suggestion, with leading separator, or empty.
+        hint: String,
+    },
+    /// An I/O failure.
+    #[error("{file}: {message}")]
+    Io {
+        /// File name.
+        file: String,
+        /// System message.
+        message: String,
+    },
+}
+
+/// Reduce a TOML parser error to one line naming what and where.
+pub fn toml_error_line(e: &toml::de::Error) -> String {
+    let msg = e.message().replace('\n', " ");
+    match e.span() {
+        Some(span) => format!("{} (at byte {})", msg.trim(), span.start),
+        None => msg.trim().to_string(),
+    }
+}
+
+/// Closest id in `candidates` to `id` (for "did you mean" hints), by edit distance.
+pub fn suggest<'a>(id: &str, candidates: impl Iterator<Item = &'a str>) -> String {
+    let mut best: Option<(usize, &str)> = None;
+    for c in candidates {
+        let d = edit_distance(id, c);
+        if best.is_none_or(|(bd, _)| d < bd) {
+            best = Some((d, c));
+        }
+    }
+    match best {
+        Some((d, c)) if d <= 3.max(id.len() / 3) => format!(" (did you mean '{c}'?)"),
+        _ => String::new(),
+    }
+}
+
+fn edit_distance(a: &str, b: &str) -> usize {
+    let a: Vec<char> = a.chars().collect();
+    let b: Vec<char> = b.chars().collect();
+    let mut prev: Vec<usize> = (0..=b.len()).collect();
+    let mut cur = vec![0; b.len() + 1];
+    for i in 1..=a.len() {
+        cur[0] = i;
+        for j in 1..=b.len() {
+            let cost = usize::from(a[i - 1] != b[j - 1]);
+            cur[j] = (prev[j] + 1).min(cur[j - 1] + 1).min(prev[j - 1] + cost);
+        }
+        std::mem::swap(&mut prev, &mut cur);
+    }
+    prev[b.len()]
+}

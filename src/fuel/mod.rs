@@ -1,0 +1,307 @@
+//! Fuels: components with a composition, read from fuel files (mass, mole or volume basis, or blends).
+
+use std::collections::BTreeMap;
+use std::path::Path;
+use std::sync::Arc;
+
+use serde::Deserialize;
+use thiserror::Error;
+
+use crate::data::{suggest, toml_error_line, Component, DataError, Library};
+
+/// Errors raised while building a fuel.
+#[derive(Debug, Error, Clone, PartialEq)]
+pub enum FuelError {
+    /// A data-layer error (unknown component, bad file).
+    #[error(transparent)]
+    Data(#[from] DataError),
+    /// A composition problem.
+    #[error("{context}: {message}")]
+    Composition {
+        /// File and field.
+        context: String,
+        /// What is wrong.
+        message: String,
+    },
+}
+
+/// Basis of the fractions in a fuel file.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum Basis {
+    /// Mass fractions.
+    Mass,
+    /// Mole fractions.
+    Mole,
+    /// Liquid volume fractions at 15 °C.
+    Volume,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawFuel {
+    name: Option<String>,
+    #[serde(default)]
+    description: Option<String>,
+    basis: Basis,
+    #[serde(default)]
+    composition: Option<BTreeMap<String, toml::Value>>,
+    #[serde(default)]
+    blend: Option<BTreeMap<String, toml::Value>>,
+}
+
+/// A liquid fuel: components and their mass fractions (summing to 1).
+#[derive(Debug, Clone)]
+pub struct Fuel {
+    /// Fuel name.
+    pub name: String,
+    /// One-line description.
+    pub description: String,
+    /// Components, in file order of first appearance.
+    pub components: Vec<Arc<Component>>,
+    /// Mass fractions [-], same order, sum 1.
+    pub mass_fractions: Vec<f64>,
+    /// Notices raised while reading (renormalisation, etc.).
+    pub notices: Vec<String>,
+    /// Where the fuel came from (file or "component").
+    pub origin: String,
+}
+
+/// Tolerance on the sum of fractions before renormalisation is refused.
+pub const SUM_TOLERANCE: f64 = 0.01;
+
+fn fraction_value(v: &toml::Value, context: &str) -> Result<f64, FuelError> {
+    let x = match v {
+        toml::Value::Float(f) => *f,
+        toml::Value::Integer(i) => *i as f64,
+        other => {
+            return Err(FuelError::Composition { context: context.into(), message: format!("fraction must be a number, found {}", other) });
+        }
+    };
+    if !x.is_finite() {
+        return Err(FuelError::Composition { context: context.into(), message: format!("fraction {x} is not a finite number") });
+    }
+    if x < 0.0 {
+        return Err(FuelError::Composition { context: context.into(), message: format!("fraction {x} is negative") });
+    }
+    Ok(x)
+}
+
+impl Fuel {
+    /// A fuel made of one library component.
+    pub fn pure(component: Arc<Component>) -> Self {
+        Fuel {
+            name: component.id.clone(),
+            description: format!("pure {}", component.name),
+            origin: "component library".into(),
+            components: vec![component],
+            mass_fractions: vec![1.0],
+            notices: vec![],
+        }
+    }
+
+    /// Build a fuel from components and fractions on a basis (fractions need not be normalised).
+    pub fn from_fractions(name: &str, components: Vec<Arc<Component>>, fractions: &[f64], basis: Basis) -> Result<Self, FuelError> {
+        let ctx = format!("fuel '{name}'");
+        if components.is_empty() || components.len() != fractions.len() {
+            return Err(FuelError::Composition { context: ctx, message: "needs at least one component with one fraction each".into() });
+        }
+        let mass: Vec<f64> = match basis {
+            Basis::Mass => fractions.to_vec(),
+            Basis::Mole => fractions.iter().zip(&components).map(|(x, c)| x * c.molar_mass()).collect(),
+            Basis::Volume => fractions.iter().zip(&components).map(|(v, c)| v * c.density_15c()).collect(),
+        };
+        let total: f64 = mass.iter().sum();
+        if !(total.is_finite() && total > 0.0) {
+            return Err(FuelError::Composition { context: ctx, message: "fractions sum to zero".into() });
+        }
+        Ok(Fuel {
+            name: name.to_string(),
+            description: String::new(),
+            mass_fractions: mass.iter().map(|m| m / total).collect(),
+            components,
+            notices: vec![],
+            origin: "constructed".into(),
+        })
+    }
+
+    /// Resolve a fuel given on the command line: a file path, a library fuel id, or a component id.
+    pub fn resolve(spec: &str, lib: &Library) -> Result<Self, FuelError> {
+        Self::resolve_depth(spec, lib, 0)
+    }
+
+    fn resolve_depth(spec: &str, lib: &Library, depth: usize) -> Result<Self, FuelError> {
+        if depth > 8 {
+            return Err(FuelError::Composition { context: format!("fuel '{spec}'"), message: "blends nest more than 8 levels deep (a blend that includes itself?)".into() });
+        }
+        let path = Path::new(spec);
+        if spec.ends_with(".toml") || path.is_file() {
+            let text = std::fs::read(path).map_err(|e| DataError::Io { file: spec.into(), message: e.to_string() })?;
+            let text = String::from_utf8(text).map_err(|_| DataError::Parse { file: spec.into(), message: "file is not UTF-8 text".into() })?;
+            return Self::parse_depth(&text, spec, lib, depth);
+        }
+        if let Some((origin, text)) = lib.fuels.get(spec) {
+            return Self::parse_depth(text, origin, lib, depth);
+        }
+        if let Some(c) = lib.component(spec) {
+            return Ok(Fuel::pure(c.clone()));
+        }
+        let names = lib.fuels.keys().map(|s| s.as_str()).chain(lib.components().iter().map(|c| c.id.as_str()));
+        Err(DataError::Unknown { context: "fuel".into(), kind: "fuel, component or file", id: spec.into(), hint: suggest(spec, names) }.into())
+    }
+
+    /// Parse a fuel file's text; `file` names it in messages.
+    pub fn parse(text: &str, file: &str, lib: &Library) -> Result<Self, FuelError> {
+        Self::parse_depth(text, file, lib, 0)
+    }
+
+    fn parse_depth(text: &str, file: &str, lib: &Library, depth: usize) -> Result<Self, FuelError> {
+        let raw: RawFuel = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_line(&e) })?;
+        let name = raw.name.clone().unwrap_or_else(|| Path::new(file).file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default());
+        let (entries, is_blend) = match (&raw.composition, &raw.blend) {
+            (Some(c), None) => (c, false),
+            (None, Some(b)) => (b, true),
+            (Some(_), Some(_)) => return Err(FuelError::Composition { context: file.into(), message: "has both [composition] and [blend]; use one".into() }),
+            (None, None) => return Err(FuelError::Composition { context: file.into(), message: "missing [composition] (component id = fraction) or [blend] (fuel = fraction)".into() }),
+        };
+        let section = if is_blend { "blend" } else { "composition" };
+        if entries.is_empty() {
+            return Err(FuelError::Composition { context: format!("{file}: [{section}]"), message: "is empty".into() });
+        }
+        let mut fractions = Vec::with_capacity(entries.len());
+        let mut sum = 0.0;
+        for (key, v) in entries {
+            let x = fraction_value(v, &format!("{file}: {section}.{key}"))?;
+            sum += x;
+            fractions.push((key.clone(), x));
+        }
+        let mut notices = vec![];
+        if (sum - 1.0).abs() > SUM_TOLERANCE {
+            return Err(FuelError::Composition {
+                context: format!("{file}: [{section}]"),
+                message: format!("fractions sum to {sum:.6}, not 1 (within {SUM_TOLERANCE})"),
+            });
+        }
+        if (sum - 1.0).abs() > 1e-9 {
+            notices.push(format!("{file}: fractions summed to {sum:.6}; renormalised to 1"));
+        }
+        // Collect mass of each component.
+        let mut components: Vec<Arc<Component>> = vec![];
+        let mut masses: Vec<f64> = vec![];
+        let mut add = |c: &Arc<Component>, m: f64, key: &str| -> Result<(), FuelError> {
+            if let Some(i) = components.iter().position(|x| x.id == c.id) {
+                if !is_blend {
+                    return Err(FuelError::Composition {
+                        context: format!("{file}: composition.{key}"),
+                        message: format!("component '{}' is listed twice (under another name or alias)", c.id),
+                    });
+                }
+                masses[i] += m;
+            } else {
+                components.push(c.clone());
+                masses.push(m);
+            }
+            Ok(())
+        };
+        if is_blend {
+            for (key, x) in &fractions {
+                let sub = Self::resolve_depth(key, lib, depth + 1).map_err(|e| match e {
+                    FuelError::Data(DataError::Unknown { kind, id, hint, .. }) => {
+                        FuelError::Data(DataError::Unknown { context: format!("{file}: blend.{key}"), kind, id, hint })
+                    }
+                    other => other,
+                })?;
+                let scale = match raw.basis {
+                    Basis::Mass => *x,
+                    Basis::Volume => x * sub.density_15c(),
+                    Basis::Mole => x * sub.molar_mass(),
+                };
+                for (c, w) in sub.components.iter().zip(&sub.mass_fractions) {
+                    add(c, scale * w, key)?;
+                }
+                notices.extend(sub.notices);
+            }
+        } else {
+            for (key, x) in &fractions {
+                let c = lib.require_component(key, &format!("{file}: composition"))?;
+                let m = match raw.basis {
+                    Basis::Mass => *x,
+                    Basis::Mole => x * c.molar_mass(),
+                    Basis::Volume => x * c.density_15c(),
+                };
+                add(c, m, key)?;
+            }
+        }
+        let total: f64 = masses.iter().sum();
+        if !(total > 0.0) {
+            return Err(FuelError::Composition { context: format!("{file}: [{section}]"), message: "all fractions are zero".into() });
+        }
+        // Drop exact zeros: a component with no mass plays no part.
+        let mut comps = vec![];
+        let mut w = vec![];
+        for (c, m) in components.into_iter().zip(masses) {
+            if m > 0.0 {
+                comps.push(c);
+                w.push(m / total);
+            }
+        }
+        Ok(Fuel { name, description: raw.description.unwrap_or_default(), components: comps, mass_fractions: w, notices, origin: file.to_string() })
+    }
+
+    /// Number of components.
+    pub fn len(&self) -> usize {
+        self.components.len()
+    }
+
+    /// True when the fuel has no component (never, for a built fuel).
+    pub fn is_empty(&self) -> bool {
+        self.components.is_empty()
+    }
+
+    /// Mole fractions [-].
+    pub fn mole_fractions(&self) -> Vec<f64> {
+        crate::props::liquid::mass_to_mole(&self.components, &self.mass_fractions)
+    }
+
+    /// Liquid volume fractions at 15 °C [-].
+    pub fn volume_fractions(&self) -> Vec<f64> {
+        let v: Vec<f64> = self.components.iter().zip(&self.mass_fractions).map(|(c, w)| w / c.density_15c()).collect();
+        let s: f64 = v.iter().sum();
+        v.iter().map(|x| x / s).collect()
+    }
+
+    /// Mean molar mass [kg/mol].
+    pub fn molar_mass(&self) -> f64 {
+        1.0 / self.components.iter().zip(&self.mass_fractions).map(|(c, w)| w / c.molar_mass()).sum::<f64>()
+    }
+
+    /// Density at 15 °C by ideal volume additivity of the components' 15 °C densities [kg/m³].
+    pub fn density_15c(&self) -> f64 {
+        1.0 / self.components.iter().zip(&self.mass_fractions).map(|(c, w)| w / c.density_15c()).sum::<f64>()
+    }
+
+    /// A short hash of the composition (FNV-1a over ids and fractions printed to 1e-12), for table metadata.
+    pub fn composition_hash(&self) -> String {
+        let mut h: u64 = 0xcbf29ce484222325;
+        for (c, w) in self.components.iter().zip(&self.mass_fractions) {
+            for b in format!("{}={:.12e};", c.id, w).bytes() {
+                h ^= u64::from(b);
+                h = h.wrapping_mul(0x100000001b3);
+            }
+        }
+        format!("{h:016x}")
+    }
+
+    /// Same fuel with new mass fractions (e.g. a residue), same component order.
+    pub fn with_mass_fractions(&self, name: &str, mass_fractions: &[f64]) -> Self {
+        let s: f64 = mass_fractions.iter().sum();
+        Fuel {
+            name: name.to_string(),
+            description: self.description.clone(),
+            components: self.components.clone(),
+            mass_fractions: mass_fractions.iter().map(|w| w / s).collect(),
+            notices: vec![],
+            origin: self.origin.clone(),
+        }
+    }
+}

@@ -1,0 +1,14 @@
+//! dropcut: heating and evaporation of multicomponent liquid-fuel droplets, and how the residual liquid drifts.
+//!
+//! Layers, each depending only on those above it in this list:
+//! [`units`] → [`data`] → [`props`] → [`fuel`] → [`model`] → [`post`] → [`output`] → [`cli`].
+#![warn(missing_docs)]
+
+pub mod cli;
+pub mod data;
+pub mod fuel;
+pub mod model;
+pub mod output;
+pub mod post;
+pub mod props;
+pub mod units;

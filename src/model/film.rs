@@ -1,0 +1,381 @@
+//! Quasi-steady gas film around an evaporating droplet: Abramzon & Sirignano (1989) with Raoult's law at the
+//! surface, the 1/3 reference state, lumped Wilke film mixing and Fuller diffusion. See docs/model.md.
+
+use std::sync::Arc;
+
+use crate::data::{Component, GAS_CONSTANT};
+use crate::props::gas::{wilke_phi, AmbientGas};
+
+/// Correlation for the Nusselt and Sherwood numbers of a non-evaporating sphere.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum TransferCorrelation {
+    /// Clift, Grace & Weber (1978), as recommended by Abramzon & Sirignano (1989).
+    Clift,
+    /// Ranz & Marshall (1952).
+    RanzMarshall,
+}
+
+impl TransferCorrelation {
+    /// Name as used on the command line.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            TransferCorrelation::Clift => "clift",
+            TransferCorrelation::RanzMarshall => "ranz-marshall",
+        }
+    }
+
+    /// Nu0 (or Sh0 with Sc in place of Pr) of a non-evaporating sphere.
+    #[inline]
+    pub fn nusselt0(self, re: f64, pr: f64) -> f64 {
+        match self {
+            TransferCorrelation::Clift => {
+                let f = if re <= 1.0 { 1.0 } else { re.powf(0.077) };
+                1.0 + (1.0 + re * pr).cbrt() * f
+            }
+            TransferCorrelation::RanzMarshall => 2.0 + 0.6 * re.sqrt() * pr.cbrt(),
+        }
+    }
+}
+
+/// ln(1+B)/B with its series near B = 0.
+#[inline]
+pub fn log1p_over(b: f64) -> f64 {
+    if b.abs() < 1e-6 {
+        1.0 - b / 2.0 + b * b / 3.0
+    } else {
+        b.ln_1p() / b
+    }
+}
+
+/// Abramzon–Sirignano film-thickening correction F(B) = (1+B)^0.7 ln(1+B)/B.
+#[inline]
+pub fn film_correction(b: f64) -> f64 {
+    (1.0 + b).powf(0.7) * log1p_over(b)
+}
+
+/// Abramzon–Sirignano circulation enhancement χ(Pe_L) = 1.86 + 0.86 tanh(2.225 log10(Pe_L/30)).
+#[inline]
+pub fn circulation_factor(peclet: f64) -> f64 {
+    if peclet <= 0.0 {
+        return 1.0;
+    }
+    1.86 + 0.86 * (2.225 * (peclet / 30.0).log10()).tanh()
+}
+
+/// Standard sphere drag with the blowing correction of Eisenklam et al. (1967), C_D/(1+B_M).
+#[inline]
+pub fn drag_coefficient(re: f64, b_m: f64) -> f64 {
+    let cd = if re < 1e-12 {
+        0.0
+    } else if re < 1000.0 {
+        24.0 / re * (1.0 + re.powf(2.0 / 3.0) / 6.0)
+    } else {
+        0.424
+    };
+    cd / (1.0 + b_m.max(0.0))
+}
+
+/// Fixed inputs of the film model for one fuel in one ambient.
+#[derive(Debug, Clone)]
+pub struct FilmSetup {
+    /// Liquid components.
+    pub components: Vec<Arc<Component>>,
+    /// Ambient gas.
+    pub gas: AmbientGas,
+    /// Ambient pressure [Pa].
+    pub pressure: f64,
+    /// Ambient temperature [K].
+    pub ambient_temperature: f64,
+    /// Far-field fuel-vapour mass fractions, per component [-].
+    pub ambient_vapor: Vec<f64>,
+    /// Reference-state weight A_r (1/3 rule).
+    pub reference_weight: f64,
+    /// Nu0/Sh0 correlation.
+    pub correlation: TransferCorrelation,
+}
+
+/// Results of one film evaluation (all SI).
+#[derive(Debug, Clone, Copy, Default, serde::Serialize)]
+pub struct FilmResult {
+    /// Total evaporation rate [kg/s] (negative when condensing).
+    pub evaporation_rate: f64,
+    /// Heat conducted into the liquid [W].
+    pub heat_to_liquid: f64,
+    /// Heat arriving from the gas [W].
+    pub heat_from_gas: f64,
+    /// Spalding mass-transfer number.
+    pub spalding_mass: f64,
+    /// Spalding heat-transfer number.
+    pub spalding_heat: f64,
+    /// Reynolds number (free-stream density, film viscosity).
+    pub reynolds: f64,
+    /// Modified Sherwood number.
+    pub sherwood: f64,
+    /// Modified Nusselt number.
+    pub nusselt: f64,
+    /// Film density [kg/m³].
+    pub film_density: f64,
+    /// Film viscosity [Pa·s].
+    pub film_viscosity: f64,
+    /// Film diffusion coefficient [m²/s].
+    pub film_diffusivity: f64,
+    /// Film conductivity [W/(m·K)].
+    pub film_conductivity: f64,
+    /// Film heat capacity [J/(kg·K)].
+    pub film_cp: f64,
+    /// Sum of surface vapour mole fractions (1 at the bubble point).
+    pub surface_vapor_mole_fraction: f64,
+    /// Drag coefficient with blowing correction.
+    pub drag_coefficient: f64,
+    /// Free-stream gas density [kg/m³].
+    pub ambient_density: f64,
+}
+
+/// Film model with its scratch buffers (allocated once).
+#[derive(Debug, Clone)]
+pub struct Film {
+    /// Fixed inputs.
+    pub setup: FilmSetup,
+    molar_mass: Vec<f64>,
+    sqrt_molar_mass: Vec<f64>,
+    fuller: Vec<f64>,
+    /// Surface vapour mole fractions (Raoult) [-].
+    pub surface_mole: Vec<f64>,
+    /// Surface vapour mass fractions [-].
+    pub surface_mass: Vec<f64>,
+    /// Per-component evaporation rates [kg/s].
+    pub species_rate: Vec<f64>,
+    ambient_density: f64,
+    ambient_vapor_total: f64,
+}
+
+impl Film {
+    /// Prepare a film model.
+    pub fn new(setup: FilmSetup) -> Self {
+        let n = setup.components.len();
+        let molar_mass: Vec<f64> = setup.components.iter().map(|c| c.molar_mass()).collect();
+        let fuller = setup.components.iter().map(|c| setup.gas.fuller_coefficient_of(c.molar_mass(), c.diffusion_volume())).collect();
+        let y_inf: f64 = setup.ambient_vapor.iter().sum();
+        let inv_w: f64 = setup.ambient_vapor.iter().zip(&molar_mass).map(|(y, w)| y / w).sum::<f64>() + (1.0 - y_inf) / setup.gas.molar_mass;
+        let ambient_density = setup.pressure / (inv_w * GAS_CONSTANT * setup.ambient_temperature);
+        Film {
+            sqrt_molar_mass: molar_mass.iter().map(|w| w.sqrt()).collect(),
+            molar_mass,
+            fuller,
+            surface_mole: vec![0.0; n],
+            surface_mass: vec![0.0; n],
+            species_rate: vec![0.0; n],
+            ambient_density,
+            ambient_vapor_total: y_inf,
+            setup,
+        }
+    }
+
+    /// Free-stream gas density [kg/m³].
+    pub fn ambient_density(&self) -> f64 {
+        self.ambient_density
+    }
+
+    /// Raoult's-law surface vapour (mole and mass fractions) for liquid mole fractions `x` at `t`.
+    /// Returns Σ X_s (1 at the bubble point).
+    #[inline]
+    pub fn surface_equilibrium(&mut self, x: &[f64], t: f64) -> f64 {
+        let p = self.setup.pressure;
+        let mut sum_x = 0.0;
+        let mut sum_xw = 0.0;
+        for i in 0..x.len() {
+            let xs = x[i] * self.setup.components[i].vapor_pressure(t) / p;
+            self.surface_mole[i] = xs;
+            sum_x += xs;
+            sum_xw += xs * self.molar_mass[i];
+        }
+        let denom = sum_xw + (1.0 - sum_x).max(0.0) * self.setup.gas.molar_mass;
+        for i in 0..x.len() {
+            self.surface_mass[i] = self.surface_mole[i] * self.molar_mass[i] / denom;
+        }
+        sum_x
+    }
+
+    /// Evaluate the film for a droplet of diameter `d` at surface temperature `t_s`, relative speed `speed`,
+    /// liquid mole fractions `x`. `boiling_latent` = Some(L_eff) switches to the heat-limited boiling regime,
+    /// where the whole heat flux (less the sensible part inside L_eff) evaporates liquid of surface-vapour
+    /// composition. Species rates are left in `species_rate`.
+    pub fn evaluate(&mut self, x: &[f64], t_s: f64, d: f64, speed: f64, latent: &[f64], boiling_latent: Option<f64>) -> FilmResult {
+        let n = x.len();
+        let s = &self.setup;
+        let t_inf = s.ambient_temperature;
+        let p = s.pressure;
+        let sum_x = self.surface_equilibrium(x, t_s);
+        let s = &self.setup;
+        let boiling = boiling_latent.is_some();
+        let y_fs: f64 = self.surface_mass.iter().sum();
+        let y_finf = self.ambient_vapor_total;
+        let a_r = s.reference_weight;
+        let t_ref = t_s + a_r * (t_inf - t_s);
+        // Fuel lump in the film (reference composition), Herning–Zipperer weights inside the lump.
+        let mut y_fref = 0.0;
+        let mut cp_fuel_ref = 0.0;
+        let mut lump_moles = 0.0;
+        let mut lump_w = 0.0;
+        let mut mu_num = 0.0;
+        let mut k_num = 0.0;
+        let mut hz_den = 0.0;
+        let mut d_eff = 0.0;
+        let mut cp_surface = 0.0;
+        let weight_total = if y_fs > 1e-300 { y_fs } else { 0.0 };
+        let t175 = t_ref.powf(1.75);
+        for i in 0..n {
+            let c = &s.components[i];
+            let y_ref = self.surface_mass[i] + a_r * (s.ambient_vapor[i] - self.surface_mass[i]);
+            // weights: reference composition, or liquid mole fractions when no vapour at all
+            let wgt = if weight_total > 0.0 { y_ref.max(0.0) } else { x[i] * self.molar_mass[i] };
+            let cp_i = c.ideal_gas_heat_capacity(t_ref);
+            let mu_i = c.vapor_viscosity(t_ref);
+            let k_i = c.vapor_conductivity(t_ref);
+            let moles = wgt / self.molar_mass[i];
+            y_fref += y_ref.max(0.0);
+            cp_fuel_ref += wgt * cp_i;
+            lump_moles += moles;
+            lump_w += wgt;
+            mu_num += moles * mu_i * self.sqrt_molar_mass[i];
+            k_num += moles * k_i * self.sqrt_molar_mass[i];
+            hz_den += moles * self.sqrt_molar_mass[i];
+            let dw = if weight_total > 0.0 { self.surface_mass[i] / y_fs } else { x[i] };
+            d_eff += dw * self.fuller[i] * t175 / p;
+            cp_surface += dw * cp_i;
+        }
+        let lump_total = lump_w.max(1e-300);
+        let cp_lump = cp_fuel_ref / lump_total;
+        let w_fuel = lump_w / lump_moles.max(1e-300);
+        let mu_fuel = mu_num / hz_den.max(1e-300);
+        let k_fuel = k_num / hz_den.max(1e-300);
+        let y_fref = y_fref.min(1.0);
+        let (cp_amb, mu_amb, k_amb) = s.gas.transport(t_ref);
+        let w_amb = s.gas.molar_mass;
+        let inv_w = y_fref / w_fuel + (1.0 - y_fref) / w_amb;
+        let x_f = (y_fref / w_fuel) / inv_w;
+        let x_a = 1.0 - x_f;
+        let phi_fa = wilke_phi(mu_fuel, mu_amb, w_fuel, w_amb);
+        let phi_af = wilke_phi(mu_amb, mu_fuel, w_amb, w_fuel);
+        let den_f = x_f + x_a * phi_fa;
+        let den_a = x_a + x_f * phi_af;
+        let mu_g = if x_f > 0.0 { x_f * mu_fuel / den_f } else { 0.0 } + if x_a > 0.0 { x_a * mu_amb / den_a } else { 0.0 };
+        let k_g = if x_f > 0.0 { x_f * k_fuel / den_f } else { 0.0 } + if x_a > 0.0 { x_a * k_amb / den_a } else { 0.0 };
+        let cp_g = y_fref * cp_lump + (1.0 - y_fref) * cp_amb;
+        let rho_g = p / (inv_w * GAS_CONSTANT * t_ref);
+        let re = self.ambient_density * speed.abs() * d / mu_g;
+        let pr = cp_g * mu_g / k_g;
+        let sc = mu_g / (rho_g * d_eff);
+        let nu0 = s.correlation.nusselt0(re, pr);
+        let sh0 = s.correlation.nusselt0(re, sc);
+        let r = 0.5 * d;
+        let cp_f = cp_surface;
+        let dt = t_inf - t_s;
+
+        if let Some(l_eff) = boiling_latent {
+            // Heat-limited boiling: B_T = cp_F (T∞ − T_s)/L_eff; mdot = 2π (k/cp_F) r Nu* ln(1+B_T).
+            let b_t = (cp_f * dt / l_eff).max(0.0);
+            let nu_star = 2.0 + (nu0 - 2.0) / film_correction(b_t);
+            let mdot = 2.0 * std::f64::consts::PI * (k_g / cp_f) * r * nu_star * b_t.ln_1p();
+            let q_gas = 2.0 * std::f64::consts::PI * k_g * r * nu_star * dt * log1p_over(b_t);
+            let mut q_latent = 0.0;
+            for i in 0..n {
+                let eps = self.surface_mass[i] / y_fs;
+                self.species_rate[i] = eps * mdot;
+                q_latent += self.species_rate[i] * latent[i];
+            }
+            let cd = drag_coefficient(re, 1e6f64.min(b_t));
+            return FilmResult {
+                evaporation_rate: mdot,
+                heat_to_liquid: q_gas - q_latent,
+                heat_from_gas: q_gas,
+                spalding_mass: f64::MAX.min(1e6),
+                spalding_heat: b_t,
+                reynolds: re,
+                sherwood: 2.0,
+                nusselt: nu_star,
+                film_density: rho_g,
+                film_viscosity: mu_g,
+                film_diffusivity: d_eff,
+                film_conductivity: k_g,
+                film_cp: cp_g,
+                surface_vapor_mole_fraction: sum_x,
+                drag_coefficient: cd,
+                ambient_density: self.ambient_density,
+            };
+        }
+        let _ = boiling;
+        // Mass transfer: B_M and species rates mdot_i = G ln(1+B)/B [(1+B) Y_s,i − Y_∞,i].
+        let y_fs_c = y_fs.min(1.0 - 1e-12);
+        let b_m = (y_fs_c - y_finf) / (1.0 - y_fs_c);
+        let sh_star = 2.0 + (sh0 - 2.0) / film_correction(b_m);
+        let g = 2.0 * std::f64::consts::PI * rho_g * d_eff * r * sh_star;
+        let ratio = log1p_over(b_m);
+        let mut mdot = 0.0;
+        let mut q_latent = 0.0;
+        for i in 0..n {
+            let rate = g * ratio * ((1.0 + b_m) * self.surface_mass[i] - s.ambient_vapor[i]);
+            self.species_rate[i] = rate;
+            mdot += rate;
+            q_latent += rate * latent[i];
+        }
+        // Heat transfer: B_T = (1+B_M)^φ − 1, φ = (cp_F/cp_g)(Sh*/Nu*)/Le, Nu* via F(B_T): fixed point.
+        let lewis = k_g / (rho_g * cp_g * d_eff);
+        let mut b_t = b_m;
+        let mut nu_star;
+        for _ in 0..100 {
+            nu_star = 2.0 + (nu0 - 2.0) / film_correction(b_t);
+            let phi = (cp_f / cp_g) * (sh_star / nu_star) / lewis;
+            let next = (1.0 + b_m).powf(phi) - 1.0;
+            let done = (next - b_t).abs() <= 1e-12 * (1.0 + b_t.abs());
+            b_t = next;
+            if done {
+                break;
+            }
+        }
+        nu_star = 2.0 + (nu0 - 2.0) / film_correction(b_t);
+        let q_gas = 2.0 * std::f64::consts::PI * k_g * r * nu_star * dt * log1p_over(b_t);
+        FilmResult {
+            evaporation_rate: mdot,
+            heat_to_liquid: q_gas - q_latent,
+            heat_from_gas: q_gas,
+            spalding_mass: b_m,
+            spalding_heat: b_t,
+            reynolds: re,
+            sherwood: sh_star,
+            nusselt: nu_star,
+            film_density: rho_g,
+            film_viscosity: mu_g,
+            film_diffusivity: d_eff,
+            film_conductivity: k_g,
+            film_cp: cp_g,
+            surface_vapor_mole_fraction: sum_x,
+            drag_coefficient: drag_coefficient(re, b_m),
+            ambient_density: self.ambient_density,
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Check values computed from the published formulas (../shared physics notes A.10).
+    #[test]
+    fn published_formula_values() {
+        for (b, f) in [(0.1, 1.01886), (0.5, 1.07708), (1.0, 1.12602), (2.0, 1.18522), (5.0, 1.25608), (10.0, 1.28471)] {
+            assert!((film_correction(b) - f).abs() < 1e-5 * f, "F({b})");
+        }
+        assert!((film_correction(0.0) - 1.0).abs() < 1e-12);
+        let c = TransferCorrelation::Clift;
+        for (re, pr, nu) in [(0.0, 0.7, 2.0), (1.0, 0.7, 2.19348), (10.0, 0.7, 3.38798), (100.0, 0.7, 6.90318), (100.0, 2.0, 9.35088)] {
+            assert!((c.nusselt0(re, pr) - nu).abs() < 1e-4 * nu, "Nu0({re},{pr})");
+        }
+        let nu_star = 2.0 + (c.nusselt0(100.0, 0.7) - 2.0) / film_correction(1.0);
+        assert!((nu_star - 6.35443).abs() < 1e-4 * 6.35443);
+        for (pe, chi) in [(10.0, 1.18380), (30.0, 1.86), (100.0, 2.56705), (500.0, 2.71255)] {
+            assert!((circulation_factor(pe) - chi).abs() < 1e-4, "chi({pe})");
+        }
+    }
+}

@@ -1,0 +1,358 @@
+//! Adaptive explicit Runge–Kutta integrator: Dormand–Prince 5(4) with FSAL, the error control and step-size
+//! rule of Hairer, Nørsett & Wanner (Solving ODEs I, 2nd ed., §II.4–5), and its 4th-order dense output
+//! (ibid. §II.6) for locating events by bisection. Buffers are allocated once; stepping never allocates.
+
+/// An ODE system y' = f(t, y) of fixed dimension.
+pub trait OdeSystem {
+    /// Number of unknowns.
+    fn dim(&self) -> usize;
+    /// Right-hand side written into `dydt` (no allocation).
+    fn rhs(&mut self, t: f64, y: &[f64], dydt: &mut [f64]);
+}
+
+/// Integration statistics, pinned in tests so slowdowns show.
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, serde::Serialize)]
+pub struct Stats {
+    /// Accepted steps.
+    pub steps: u64,
+    /// Rejected steps.
+    pub rejected: u64,
+    /// Right-hand-side evaluations.
+    pub rhs_calls: u64,
+}
+
+/// Tolerances: error of unknown i is scaled by `atol[i] + rtol·|y_i|`.
+#[derive(Debug, Clone)]
+pub struct Tolerances {
+    /// Relative tolerance.
+    pub rtol: f64,
+    /// Absolute tolerance per unknown.
+    pub atol: Vec<f64>,
+}
+
+const C2: f64 = 1.0 / 5.0;
+const C3: f64 = 3.0 / 10.0;
+const C4: f64 = 4.0 / 5.0;
+const C5: f64 = 8.0 / 9.0;
+const A21: f64 = 1.0 / 5.0;
+const A31: f64 = 3.0 / 40.0;
+const A32: f64 = 9.0 / 40.0;
+const A41: f64 = 44.0 / 45.0;
+const A42: f64 = -56.0 / 15.0;
+const A43: f64 = 32.0 / 9.0;
+const A51: f64 = 19372.0 / 6561.0;
+const A52: f64 = -25360.0 / 2187.0;
+const A53: f64 = 64448.0 / 6561.0;
+const A54: f64 = -212.0 / 729.0;
+const A61: f64 = 9017.0 / 3168.0;
+const A62: f64 = -355.0 / 33.0;
+const A63: f64 = 46732.0 / 5247.0;
+const A64: f64 = 49.0 / 176.0;
+const A65: f64 = -5103.0 / 18656.0;
+const A71: f64 = 35.0 / 384.0;
+const A73: f64 = 500.0 / 1113.0;
+const A74: f64 = 125.0 / 192.0;
+const A75: f64 = -2187.0 / 6784.0;
+const A76: f64 = 11.0 / 84.0;
+const E1: f64 = 71.0 / 57600.0;
+const E3: f64 = -71.0 / 16695.0;
+const E4: f64 = 71.0 / 1920.0;
+const E5: f64 = -17253.0 / 339200.0;
+const E6: f64 = 22.0 / 525.0;
+const E7: f64 = -1.0 / 40.0;
+const D1: f64 = -12715105075.0 / 11282082432.0;
+const D3: f64 = 87487479700.0 / 32700410799.0;
+const D4: f64 = -10690763975.0 / 1880347072.0;
+const D5: f64 = 701980252875.0 / 199316789632.0;
+const D6: f64 = -1453857185.0 / 822651844.0;
+const D7: f64 = 69997945.0 / 29380423.0;
+
+/// Dormand–Prince 5(4) stepper with dense output of the last accepted step.
+#[derive(Debug, Clone)]
+pub struct DormandPrince {
+    n: usize,
+    k: [Vec<f64>; 7],
+    y_stage: Vec<f64>,
+    y_new: Vec<f64>,
+    err: Vec<f64>,
+    rcont: [Vec<f64>; 5],
+    /// Current time.
+    pub t: f64,
+    /// Current state.
+    pub y: Vec<f64>,
+    /// Time at the start of the last accepted step.
+    pub t_old: f64,
+    /// Length of the last accepted step.
+    pub h_last: f64,
+    h: f64,
+    /// Statistics so far.
+    pub stats: Stats,
+    tol: Tolerances,
+    fsal_ready: bool,
+    /// Largest allowed step.
+    pub h_max: f64,
+    fac_old: f64,
+}
+
+/// Why a step failed.
+#[derive(Debug, Clone, PartialEq)]
+pub enum StepError {
+    /// The step size fell below the round-off limit.
+    StepTooSmall {
+        /// Time reached.
+        t: f64,
+    },
+    /// The right-hand side produced a non-finite value.
+    NonFinite {
+        /// Time reached.
+        t: f64,
+    },
+}
+
+impl DormandPrince {
+    /// New stepper at (t0, y0) with a first step guess `h0` (0 = automatic).
+    pub fn new<S: OdeSystem>(sys: &mut S, t0: f64, y0: &[f64], tol: Tolerances, h0: f64, h_max: f64) -> Self {
+        let n = y0.len();
+        let z = || vec![0.0; n];
+        let mut s = DormandPrince {
+            n,
+            k: [z(), z(), z(), z(), z(), z(), z()],
+            y_stage: z(),
+            y_new: z(),
+            err: z(),
+            rcont: [z(), z(), z(), z(), z()],
+            t: t0,
+            y: y0.to_vec(),
+            t_old: t0,
+            h_last: 0.0,
+            h: h0,
+            stats: Stats::default(),
+            tol,
+            fsal_ready: false,
+            h_max,
+            fac_old: 1e-4,
+        };
+        sys.rhs(t0, &s.y, &mut s.k[0]);
+        s.stats.rhs_calls += 1;
+        s.fsal_ready = true;
+        if s.h <= 0.0 {
+            s.h = s.initial_step(sys);
+        }
+        s
+    }
+
+    fn norm(&self, v: &[f64], y: &[f64]) -> f64 {
+        let mut acc = 0.0;
+        for i in 0..self.n {
+            let sc = self.tol.atol[i] + self.tol.rtol * y[i].abs();
+            let r = v[i] / sc;
+            acc += r * r;
+        }
+        (acc / self.n as f64).sqrt()
+    }
+
+    fn initial_step<S: OdeSystem>(&mut self, sys: &mut S) -> f64 {
+        // Hairer's starting-step heuristic (Solving ODEs I, §II.4).
+        let d0 = self.norm(&self.y, &self.y);
+        let d1 = self.norm(&self.k[0], &self.y);
+        let h0 = if d0 < 1e-5 || d1 < 1e-5 { 1e-6 } else { 0.01 * d0 / d1 };
+        let h0 = h0.min(self.h_max);
+        for i in 0..self.n {
+            self.y_stage[i] = self.y[i] + h0 * self.k[0][i];
+        }
+        sys.rhs(self.t + h0, &self.y_stage, &mut self.k[1]);
+        self.stats.rhs_calls += 1;
+        for i in 0..self.n {
+            self.err[i] = self.k[1][i] - self.k[0][i];
+        }
+        let d2 = self.norm(&self.err, &self.y) / h0;
+        let h1 = if d1.max(d2) <= 1e-15 { (h0 * 1e-3).max(1e-6) } else { (0.01 / d1.max(d2)).powf(0.2) };
+        (100.0 * h0).min(h1).min(self.h_max)
+    }
+
+    /// Take one accepted step (retrying internally after rejections); returns the new time.
+    pub fn step<S: OdeSystem>(&mut self, sys: &mut S) -> Result<f64, StepError> {
+        let n = self.n;
+        loop {
+            let h = self.h.min(self.h_max);
+            if h.abs() < 1e-14 * self.t.abs().max(1e-300) || h < 1e-300 {
+                return Err(StepError::StepTooSmall { t: self.t });
+            }
+            let (t, y) = (self.t, &self.y);
+            macro_rules! stage {
+                ($dst:expr, $c:expr, $($a:expr => $ki:expr),+) => {{
+                    for i in 0..n {
+                        self.y_stage[i] = y[i] + h * (0.0 $(+ $a * self.k[$ki][i])+);
+                    }
+                    let (head, tail) = self.k.split_at_mut($dst);
+                    let _ = head;
+                    sys.rhs(t + $c * h, &self.y_stage, &mut tail[0]);
+                }};
+            }
+            stage!(1, C2, A21 => 0);
+            stage!(2, C3, A31 => 0, A32 => 1);
+            stage!(3, C4, A41 => 0, A42 => 1, A43 => 2);
+            stage!(4, C5, A51 => 0, A52 => 1, A53 => 2, A54 => 3);
+            stage!(5, 1.0, A61 => 0, A62 => 1, A63 => 2, A64 => 3, A65 => 4);
+            for i in 0..n {
+                self.y_new[i] = y[i] + h * (A71 * self.k[0][i] + A73 * self.k[2][i] + A74 * self.k[3][i] + A75 * self.k[4][i] + A76 * self.k[5][i]);
+            }
+            {
+                let (head, tail) = self.k.split_at_mut(6);
+                let _ = head;
+                sys.rhs(t + h, &self.y_new, &mut tail[0]);
+            }
+            self.stats.rhs_calls += 6;
+            for i in 0..n {
+                self.err[i] = h * (E1 * self.k[0][i] + E3 * self.k[2][i] + E4 * self.k[3][i] + E5 * self.k[4][i] + E6 * self.k[5][i] + E7 * self.k[6][i]);
+            }
+            if self.y_new.iter().chain(self.k[6].iter()).any(|v| !v.is_finite()) {
+                self.stats.rejected += 1;
+                self.h = h * 0.1;
+                if self.h < 1e-300 {
+                    return Err(StepError::NonFinite { t: self.t });
+                }
+                continue;
+            }
+            // error norm with max(|y|, |y_new|) scaling
+            let mut acc = 0.0;
+            for i in 0..n {
+                let sc = self.tol.atol[i] + self.tol.rtol * y[i].abs().max(self.y_new[i].abs());
+                let r = self.err[i] / sc;
+                acc += r * r;
+            }
+            let err = (acc / n as f64).sqrt();
+            // PI step-size control (Hairer's DOPRI5: beta = 0.04, safety 0.9, factors 0.2..10)
+            let fac11 = err.max(1e-300).powf(0.2 - 0.04 * 0.75);
+            let mut fac = fac11 / self.fac_old.powf(0.04);
+            fac = (fac / 0.9).clamp(0.1, 5.0);
+            let h_new = h / fac;
+            if err <= 1.0 {
+                self.fac_old = err.max(1e-4);
+                // dense output coefficients
+                for i in 0..n {
+                    let ydiff = self.y_new[i] - y[i];
+                    let bspl = h * self.k[0][i] - ydiff;
+                    self.rcont[0][i] = y[i];
+                    self.rcont[1][i] = ydiff;
+                    self.rcont[2][i] = bspl;
+                    self.rcont[3][i] = ydiff - h * self.k[6][i] - bspl;
+                    self.rcont[4][i] = h * (D1 * self.k[0][i] + D3 * self.k[2][i] + D4 * self.k[3][i] + D5 * self.k[4][i] + D6 * self.k[5][i] + D7 * self.k[6][i]);
+                }
+                self.t_old = t;
+                self.h_last = h;
+                self.t = t + h;
+                std::mem::swap(&mut self.y, &mut self.y_new);
+                self.k.swap(0, 6);
+                self.stats.steps += 1;
+                self.h = h_new.min(self.h_max);
+                return Ok(self.t);
+            }
+            self.stats.rejected += 1;
+            self.h = h / (fac11 / 0.9).min(10.0).max(1.0);
+        }
+    }
+
+    /// Dense output of the last accepted step at time `t` (t_old ≤ t ≤ t) into `out`.
+    pub fn dense(&self, t: f64, out: &mut [f64]) {
+        let theta = if self.h_last > 0.0 { (t - self.t_old) / self.h_last } else { 1.0 };
+        let theta1 = 1.0 - theta;
+        for i in 0..self.n {
+            out[i] = self.rcont[0][i] + theta * (self.rcont[1][i] + theta1 * (self.rcont[2][i] + theta * (self.rcont[3][i] + theta1 * self.rcont[4][i])));
+        }
+    }
+
+    /// Replace the state (after a regime switch) and recompute the FSAL derivative.
+    pub fn reset<S: OdeSystem>(&mut self, sys: &mut S, t: f64, y: &[f64]) {
+        self.t = t;
+        self.y.copy_from_slice(y);
+        sys.rhs(t, &self.y, &mut self.k[0]);
+        self.stats.rhs_calls += 1;
+        self.h = (self.h * 0.1).max(1e-12);
+    }
+
+    /// Next step size the controller proposes [s].
+    pub fn proposed_step(&self) -> f64 {
+        self.h
+    }
+}
+
+/// Find t in [t_a, t_b] (within the last step) where `g(dense(t))` crosses zero, by bisection to `tol`.
+pub fn locate_event(stepper: &DormandPrince, mut g: impl FnMut(&[f64]) -> f64, buf: &mut [f64], tol: f64) -> f64 {
+    let (mut a, mut b) = (stepper.t_old, stepper.t);
+    stepper.dense(a, buf);
+    let ga = g(buf);
+    for _ in 0..200 {
+        if b - a <= tol {
+            break;
+        }
+        let m = 0.5 * (a + b);
+        stepper.dense(m, buf);
+        let gm = g(buf);
+        if (gm > 0.0) == (ga > 0.0) {
+            a = m;
+        } else {
+            b = m;
+        }
+    }
+    0.5 * (a + b)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    struct Decay;
+    impl OdeSystem for Decay {
+        fn dim(&self) -> usize {
+            1
+        }
+        fn rhs(&mut self, _t: f64, y: &[f64], dy: &mut [f64]) {
+            dy[0] = -y[0];
+        }
+    }
+
+    #[test]
+    fn exponential_decay_and_event() {
+        let mut sys = Decay;
+        let mut dp = DormandPrince::new(&mut sys, 0.0, &[1.0], Tolerances { rtol: 1e-10, atol: vec![1e-12] }, 0.0, 1.0);
+        let mut buf = [0.0];
+        let mut t_half = None;
+        while dp.t < 2.0 {
+            let before = dp.y[0];
+            dp.step(&mut sys).unwrap();
+            if before > 0.5 && dp.y[0] <= 0.5 {
+                t_half = Some(locate_event(&dp, |y| y[0] - 0.5, &mut buf, 1e-14));
+            }
+        }
+        assert!((dp.y[0] - (-dp.t).exp()).abs() < 1e-9);
+        assert!((t_half.unwrap() - std::f64::consts::LN_2).abs() < 1e-8);
+    }
+
+    struct Oscillator;
+    impl OdeSystem for Oscillator {
+        fn dim(&self) -> usize {
+            2
+        }
+        fn rhs(&mut self, _t: f64, y: &[f64], dy: &mut [f64]) {
+            dy[0] = y[1];
+            dy[1] = -y[0];
+        }
+    }
+
+    #[test]
+    fn dense_output_is_accurate() {
+        let mut sys = Oscillator;
+        let mut dp = DormandPrince::new(&mut sys, 0.0, &[0.0, 1.0], Tolerances { rtol: 1e-9, atol: vec![1e-12; 2] }, 0.0, 10.0);
+        let mut buf = [0.0; 2];
+        let mut worst: f64 = 0.0;
+        while dp.t < 10.0 {
+            dp.step(&mut sys).unwrap();
+            let tm = 0.5 * (dp.t_old + dp.t);
+            dp.dense(tm, &mut buf);
+            worst = worst.max((buf[0] - tm.sin()).abs());
+        }
+        assert!(worst < 1e-7, "{worst}");
+        assert!(dp.stats.rhs_calls < 2000, "{:?}", dp.stats);
+    }
+}

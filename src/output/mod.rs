@@ -1,0 +1,1 @@
+//! Outputs: CSV and JSON writers.

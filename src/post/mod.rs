@@ -1,0 +1,1 @@
+//! Post-processing: residual-liquid indicators and distillation.

@@ -1,0 +1,255 @@
+//! Liquid-mixture properties for any composition and temperature; the mixing rules are named per function
+//! (docs/property-methods.md). Functions take component slices and fractions and never allocate.
+
+use std::sync::Arc;
+
+use crate::data::Component;
+
+use super::PropertyError;
+
+/// Mass fractions → mole fractions.
+pub fn mass_to_mole(components: &[Arc<Component>], mass_fractions: &[f64]) -> Vec<f64> {
+    let mut x = vec![0.0; components.len()];
+    mass_to_mole_into(components, mass_fractions, &mut x);
+    x
+}
+
+/// Mass fractions → mole fractions, written into `out`.
+#[inline]
+pub fn mass_to_mole_into(components: &[Arc<Component>], mass_fractions: &[f64], out: &mut [f64]) {
+    let mut s = 0.0;
+    for ((c, w), o) in components.iter().zip(mass_fractions).zip(out.iter_mut()) {
+        *o = w / c.molar_mass();
+        s += *o;
+    }
+    if s > 0.0 {
+        for o in out.iter_mut() {
+            *o /= s;
+        }
+    }
+}
+
+/// Mole fractions → mass fractions.
+pub fn mole_to_mass(components: &[Arc<Component>], mole_fractions: &[f64]) -> Vec<f64> {
+    let mut w: Vec<f64> = components.iter().zip(mole_fractions).map(|(c, x)| x * c.molar_mass()).collect();
+    let s: f64 = w.iter().sum();
+    if s > 0.0 {
+        w.iter_mut().for_each(|v| *v /= s);
+    }
+    w
+}
+
+/// Mean molar mass from mole fractions [kg/mol].
+#[inline]
+pub fn molar_mass(components: &[Arc<Component>], x: &[f64]) -> f64 {
+    components.iter().zip(x).map(|(c, x)| x * c.molar_mass()).sum()
+}
+
+/// Liquid density by ideal mixing of molar volumes (Amagat) [kg/m³]; mass fractions `w`.
+#[inline]
+pub fn density(components: &[Arc<Component>], w: &[f64], t: f64) -> f64 {
+    1.0 / components.iter().zip(w).map(|(c, w)| w / c.liquid_density(t)).sum::<f64>()
+}
+
+/// Liquid heat capacity, mass-fraction weighted [J/(kg·K)].
+#[inline]
+pub fn heat_capacity(components: &[Arc<Component>], w: &[f64], t: f64) -> f64 {
+    components.iter().zip(w).map(|(c, w)| w * c.liquid_heat_capacity(t)).sum()
+}
+
+/// Latent heat, mass-fraction weighted [J/kg].
+#[inline]
+pub fn latent_heat(components: &[Arc<Component>], w: &[f64], t: f64) -> f64 {
+    components.iter().zip(w).map(|(c, w)| w * c.latent_heat(t)).sum()
+}
+
+/// Dynamic viscosity by Grunberg–Nissan with zero interaction (ln μ = Σ x ln μ_i) [Pa·s]; mole fractions `x`.
+#[inline]
+pub fn viscosity(components: &[Arc<Component>], x: &[f64], t: f64) -> f64 {
+    components.iter().zip(x).map(|(c, x)| x * c.liquid_viscosity(t).ln()).sum::<f64>().exp()
+}
+
+/// Refutas viscosity-blending number of a kinematic viscosity given in mm²/s (Maples 2000).
+#[inline]
+pub fn refutas_blending_number(nu_mm2_s: f64) -> f64 {
+    14.534 * (nu_mm2_s + 0.8).ln().ln() + 10.975
+}
+
+/// Kinematic viscosity [mm²/s] from a Refutas blending number (inverse of [`refutas_blending_number`]).
+#[inline]
+pub fn refutas_viscosity(vbn: f64) -> f64 {
+    ((vbn - 10.975) / 14.534).exp().exp() - 0.8
+}
+
+/// Kinematic viscosity by the Refutas blending-index method on mass fractions (ASTM D7152 practice) [m²/s].
+pub fn kinematic_viscosity_refutas(components: &[Arc<Component>], w: &[f64], t: f64) -> f64 {
+    let vbn: f64 = components
+        .iter()
+        .zip(w)
+        .map(|(c, w)| w * refutas_blending_number(c.liquid_viscosity(t) / c.liquid_density(t) * 1e6))
+        .sum();
+    refutas_viscosity(vbn) * 1e-6
+}
+
+/// Thermal conductivity by the DIPPR 9H (Vredeveld) rule k = (Σ w k_i⁻²)^(-1/2) [W/(m·K)].
+#[inline]
+pub fn conductivity(components: &[Arc<Component>], w: &[f64], t: f64) -> f64 {
+    let s: f64 = components.iter().zip(w).map(|(c, w)| w / c.liquid_conductivity(t).powi(2)).sum();
+    1.0 / s.sqrt()
+}
+
+/// Surface tension, mole-fraction weighted [N/m].
+#[inline]
+pub fn surface_tension(components: &[Arc<Component>], x: &[f64], t: f64) -> f64 {
+    components.iter().zip(x).map(|(c, x)| x * c.surface_tension(t)).sum()
+}
+
+/// Bubble pressure by Raoult's law Σ x_i p_sat,i(T) [Pa].
+#[inline]
+pub fn bubble_pressure(components: &[Arc<Component>], x: &[f64], t: f64) -> f64 {
+    components.iter().zip(x).map(|(c, x)| x * c.vapor_pressure(t)).sum()
+}
+
+/// Highest temperature at which bubble and dew points are searched [K].
+fn search_ceiling(components: &[Arc<Component>]) -> f64 {
+    components.iter().map(|c| c.critical_temperature()).fold(0.0, f64::max) * 1.5
+}
+
+/// Solve a monotone increasing `f(T) = 0` on [lo, hi] by bisection refined with secant steps.
+fn solve_increasing(mut f: impl FnMut(f64) -> f64, mut lo: f64, mut hi: f64, tol: f64) -> Option<f64> {
+    let mut flo = f(lo);
+    let mut fhi = f(hi);
+    if !(flo <= 0.0 && fhi >= 0.0) {
+        return None;
+    }
+    for _ in 0..200 {
+        // Regula falsi (Illinois-free; guarded by bisection every other step)
+        let mut t = lo - flo * (hi - lo) / (fhi - flo);
+        if !(t > lo && t < hi) || (hi - lo) > 50.0 {
+            t = 0.5 * (lo + hi);
+        }
+        let ft = f(t);
+        if ft.abs() < 1e-14 || (hi - lo) < tol {
+            return Some(t);
+        }
+        if ft < 0.0 {
+            lo = t;
+            flo = ft;
+        } else {
+            hi = t;
+            fhi = ft;
+        }
+        // keep shrinking even when secant is one-sided
+        let mid = 0.5 * (lo + hi);
+        let fm = f(mid);
+        if fm < 0.0 {
+            lo = mid;
+            flo = fm;
+        } else {
+            hi = mid;
+            fhi = fm;
+        }
+        if hi - lo < tol {
+            return Some(0.5 * (lo + hi));
+        }
+    }
+    Some(0.5 * (lo + hi))
+}
+
+/// Bubble-point temperature at pressure `p` (Raoult's law) [K].
+pub fn bubble_point(components: &[Arc<Component>], x: &[f64], p: f64) -> Result<f64, PropertyError> {
+    if !(p.is_finite() && p > 0.0) {
+        return Err(PropertyError::Invalid { what: "pressure", value: p });
+    }
+    let hi = search_ceiling(components);
+    solve_increasing(|t| (bubble_pressure(components, x, t) / p).ln(), 20.0, hi, 1e-9)
+        .ok_or(PropertyError::NoSolution { what: "bubble point", pressure: p })
+}
+
+/// Dew-point temperature at pressure `p` for vapour mole fractions `y` (Raoult's law) [K].
+pub fn dew_point(components: &[Arc<Component>], y: &[f64], p: f64) -> Result<f64, PropertyError> {
+    if !(p.is_finite() && p > 0.0) {
+        return Err(PropertyError::Invalid { what: "pressure", value: p });
+    }
+    let hi = search_ceiling(components);
+    // Σ y_i p / p_sat,i(T) = 1, decreasing in T: solve -ln(Σ...) increasing.
+    solve_increasing(
+        |t| -(components.iter().zip(y).map(|(c, y)| y * p / c.vapor_pressure(t)).sum::<f64>()).ln(),
+        20.0,
+        hi,
+        1e-9,
+    )
+    .ok_or(PropertyError::NoSolution { what: "dew point", pressure: p })
+}
+
+/// Mixture pseudo-critical temperature by Kay's rule Σ x_i T_c,i [K].
+pub fn pseudo_critical_temperature(components: &[Arc<Component>], x: &[f64]) -> f64 {
+    components.iter().zip(x).map(|(c, x)| x * c.critical_temperature()).sum()
+}
+
+/// Mixture pseudo-critical pressure by Kay's rule Σ x_i p_c,i [Pa].
+pub fn pseudo_critical_pressure(components: &[Arc<Component>], x: &[f64]) -> f64 {
+    components.iter().zip(x).map(|(c, x)| x * c.critical_pressure()).sum()
+}
+
+/// A snapshot of the mixture liquid properties at one temperature.
+#[derive(Debug, Clone, serde::Serialize)]
+#[allow(non_snake_case)]
+pub struct LiquidState {
+    /// Temperature [K].
+    pub temperature_K: f64,
+    /// Bubble (vapour) pressure [Pa].
+    pub vapor_pressure_Pa: f64,
+    /// Density [kg/m³].
+    pub density_kg_m3: f64,
+    /// Latent heat [J/kg].
+    pub latent_heat_J_kg: f64,
+    /// Heat capacity [J/(kg·K)].
+    pub cp_J_kgK: f64,
+    /// Dynamic viscosity [Pa·s].
+    pub viscosity_Pa_s: f64,
+    /// Kinematic viscosity [m²/s].
+    pub kinematic_viscosity_m2_s: f64,
+    /// Thermal conductivity [W/(m·K)].
+    pub conductivity_W_mK: f64,
+    /// Surface tension [N/m].
+    pub surface_tension_N_m: f64,
+}
+
+/// Evaluate all mixture liquid properties at `t` for mass fractions `w`.
+#[allow(non_snake_case)]
+pub fn state(components: &[Arc<Component>], w: &[f64], t: f64) -> LiquidState {
+    let x = mass_to_mole(components, w);
+    let rho = density(components, w, t);
+    let mu = viscosity(components, &x, t);
+    LiquidState {
+        temperature_K: t,
+        vapor_pressure_Pa: bubble_pressure(components, &x, t),
+        density_kg_m3: rho,
+        latent_heat_J_kg: latent_heat(components, w, t),
+        cp_J_kgK: heat_capacity(components, w, t),
+        viscosity_Pa_s: mu,
+        kinematic_viscosity_m2_s: mu / rho,
+        conductivity_W_mK: conductivity(components, w, t),
+        surface_tension_N_m: surface_tension(components, &x, t),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Refutas round trip and the ASTM D7152-style hand calculation: equal masses of 2 and 10 mm²/s.
+    #[test]
+    fn refutas_round_trip_and_blend() {
+        for nu in [0.5, 1.0, 2.0, 8.0, 100.0] {
+            assert!((refutas_viscosity(refutas_blending_number(nu)) - nu).abs() < 1e-9 * nu.max(1.0));
+        }
+        let vbn = 0.5 * refutas_blending_number(2.0) + 0.5 * refutas_blending_number(10.0);
+        // hand calculation with the Refutas equations (Maples 2000): VBN(2) = 10.975 + 14.534·ln(ln 2.8)
+        // = 11.39924; VBN(10) = 10.975 + 14.534·ln(ln 10.8) = 23.57467; mean 17.48695 → ν = 3.98390 mm²/s
+        assert!((vbn - 17.48695).abs() < 1e-4, "{vbn}");
+        let nu = refutas_viscosity(vbn);
+        assert!((nu - 3.98390).abs() < 1e-4, "{nu}");
+    }
+}

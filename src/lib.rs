@@ -4,6 +4,7 @@
 //! [`units`] → [`data`] → [`props`] → [`fuel`] → [`model`] → [`post`] → [`output`] → [`cli`].
 #![warn(missing_docs)]
 
+pub mod checks;
 pub mod cli;
 pub mod data;
 pub mod fuel;

@@ -3,6 +3,7 @@
 //! Layers, each depending only on those above it in this list:
 //! [`units`] → [`data`] → [`props`] → [`fuel`] → [`model`] → [`post`] → [`output`] → [`cli`].
 #![warn(missing_docs)]
+#![allow(non_snake_case)] // SI-unit suffixes in names: temperature_K, pressure_Pa
 
 pub mod checks;
 pub mod cli;

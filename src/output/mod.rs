@@ -1,1 +1,160 @@
-//! Outputs: CSV and JSON writers.
+//! Outputs: CSV and JSON writers. Consumers of results, never producers of physics. Files are written to a
+//! temporary name and renamed, so an interrupted run never leaves a truncated file behind.
+
+pub mod history;
+
+use std::fs;
+use std::io::Write;
+use std::path::{Path, PathBuf};
+
+use thiserror::Error;
+
+/// Errors raised while writing outputs.
+#[derive(Debug, Error)]
+pub enum OutputError {
+    /// File-system failure.
+    #[error("{path}: {message}")]
+    Io {
+        /// Path concerned.
+        path: String,
+        /// System message.
+        message: String,
+    },
+    /// A value that must never be written (NaN or infinity) reached a writer.
+    #[error("{path}: refusing to write a non-finite value in column '{column}'")]
+    NonFinite {
+        /// File.
+        path: String,
+        /// Column.
+        column: String,
+    },
+}
+
+fn io_err(path: &Path, e: std::io::Error) -> OutputError {
+    OutputError::Io { path: path.display().to_string(), message: e.to_string() }
+}
+
+/// Create a folder (and parents).
+pub fn ensure_dir(dir: &Path) -> Result<(), OutputError> {
+    fs::create_dir_all(dir).map_err(|e| io_err(dir, e))
+}
+
+/// Write `contents` to `path` atomically (temporary file in the same folder, then rename).
+pub fn write_atomic(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
+    if let Some(parent) = path.parent() {
+        if !parent.as_os_str().is_empty() {
+            ensure_dir(parent)?;
+        }
+    }
+    let tmp: PathBuf = {
+        let mut name = path.file_name().map(|s| s.to_os_string()).unwrap_or_default();
+        name.push(format!(".tmp-{}", std::process::id()));
+        path.with_file_name(name)
+    };
+    {
+        let mut f = fs::File::create(&tmp).map_err(|e| io_err(&tmp, e))?;
+        f.write_all(contents).map_err(|e| io_err(&tmp, e))?;
+        f.sync_all().map_err(|e| io_err(&tmp, e))?;
+    }
+    fs::rename(&tmp, path).map_err(|e| io_err(path, e))
+}
+
+/// Format a float for CSV: shortest round-trip representation; refuses NaN/infinity.
+#[inline]
+pub fn fmt_f64(v: f64) -> Option<String> {
+    if v.is_finite() {
+        Some(format!("{v}"))
+    } else {
+        None
+    }
+}
+
+/// A CSV table under construction: `#` metadata lines, a header and rows of numbers or text.
+#[derive(Debug, Default, Clone)]
+pub struct CsvTable {
+    /// Metadata lines (without the leading `# `).
+    pub metadata: Vec<String>,
+    /// Column names.
+    pub header: Vec<String>,
+    /// Rows, already formatted.
+    pub rows: Vec<Vec<String>>,
+}
+
+/// A cell value for [`CsvTable::push`].
+#[derive(Debug, Clone)]
+pub enum Cell {
+    /// A number (must be finite).
+    Num(f64),
+    /// An optional number (empty cell when None).
+    Opt(Option<f64>),
+    /// Text.
+    Text(String),
+}
+
+impl CsvTable {
+    /// New table with a header.
+    pub fn new(header: Vec<String>) -> Self {
+        CsvTable { header, ..Default::default() }
+    }
+
+    /// Append a row; a non-finite number is an error naming the column.
+    pub fn push(&mut self, cells: Vec<Cell>, path_for_errors: &str) -> Result<(), OutputError> {
+        let mut row = Vec::with_capacity(cells.len());
+        for (i, c) in cells.into_iter().enumerate() {
+            let s = match c {
+                Cell::Num(v) => fmt_f64(v).ok_or_else(|| OutputError::NonFinite { path: path_for_errors.into(), column: self.header.get(i).cloned().unwrap_or_default() })?,
+                Cell::Opt(None) => String::new(),
+                Cell::Opt(Some(v)) => fmt_f64(v).ok_or_else(|| OutputError::NonFinite { path: path_for_errors.into(), column: self.header.get(i).cloned().unwrap_or_default() })?,
+                Cell::Text(t) => {
+                    if t.contains([',', '"', '\n']) {
+                        format!("\"{}\"", t.replace('"', "\"\""))
+                    } else {
+                        t
+                    }
+                }
+            };
+            row.push(s);
+        }
+        self.rows.push(row);
+        Ok(())
+    }
+
+    /// Render as text.
+    pub fn render(&self) -> String {
+        let mut s = String::new();
+        for m in &self.metadata {
+            s.push_str("# ");
+            s.push_str(&m.replace('\n', " "));
+            s.push('\n');
+        }
+        s.push_str(&self.header.join(","));
+        s.push('\n');
+        for r in &self.rows {
+            s.push_str(&r.join(","));
+            s.push('\n');
+        }
+        s
+    }
+
+    /// Write atomically to `path`.
+    pub fn write(&self, path: &Path) -> Result<(), OutputError> {
+        write_atomic(path, self.render().as_bytes())
+    }
+}
+
+/// Serialize to pretty JSON and write atomically; refuses NaN (serde_json writes null for it, so check first).
+pub fn write_json<T: serde::Serialize>(path: &Path, value: &T) -> Result<(), OutputError> {
+    let text = to_json_string(value).map_err(|m| OutputError::Io { path: path.display().to_string(), message: m })?;
+    write_atomic(path, text.as_bytes())
+}
+
+/// Pretty JSON text with a trailing newline.
+pub fn to_json_string<T: serde::Serialize>(value: &T) -> Result<String, String> {
+    let v = serde_json::to_value(value).map_err(|e| e.to_string())?;
+    let mut s = serde_json::to_string_pretty(&v).map_err(|e| e.to_string())?;
+    s.push('\n');
+    Ok(s)
+}
+
+/// Version string written into metadata.
+pub const TOOL_VERSION: &str = concat!("dropcut ", env!("CARGO_PKG_VERSION"));

@@ -1,0 +1,133 @@
+//! Clap definitions (first stage: text). Values with units stay strings here; commands.rs converts them.
+
+use std::path::PathBuf;
+
+use clap::{Args, Parser, Subcommand, ValueEnum};
+
+/// Heating and evaporation of multicomponent fuel droplets, and how the residual liquid drifts.
+#[derive(Debug, Parser)]
+#[command(name = "dropcut", version, about, long_about = None)]
+pub struct Cli {
+    /// Extra folder of component files (TOML) added to the built-in library.
+    #[arg(long, global = true, value_name = "DIR")]
+    pub components: Option<PathBuf>,
+    /// The command.
+    #[command(subcommand)]
+    pub command: Command,
+}
+
+/// Commands.
+#[derive(Debug, Subcommand)]
+pub enum Command {
+    /// List the component library (class, boiling point, sources).
+    Components {
+        /// Print JSON instead of a table.
+        #[arg(long)]
+        json: bool,
+    },
+    /// Fuel definitions: show one.
+    Fuel {
+        /// What to do.
+        #[command(subcommand)]
+        action: FuelAction,
+    },
+    /// Simulate one droplet and write history.csv and summary.json.
+    Simulate(SimulateArgs),
+    /// Run the built-in demonstration: demo fuels at a combustor-like and a relight-like condition.
+    Demo {
+        /// Output folder.
+        #[arg(long, default_value = "dropcut-out/demo")]
+        out: PathBuf,
+    },
+    /// Rerun every validation check and write the report (Markdown).
+    Validate {
+        /// Report file.
+        #[arg(long, default_value = "docs/validation.md")]
+        out: PathBuf,
+    },
+}
+
+/// `fuel` subcommands.
+#[derive(Debug, Subcommand)]
+pub enum FuelAction {
+    /// Composition, molar mass, density, bubble/dew points and liquid properties of a fuel.
+    Show {
+        /// Fuel file, library fuel id, or component id.
+        fuel: String,
+        /// Temperature for the liquid properties (e.g. 300K, 26.85degC).
+        #[arg(long, default_value = "288.15K")]
+        temperature: String,
+        /// Pressure for bubble and dew points (e.g. 1atm, 10bar).
+        #[arg(long, default_value = "1atm")]
+        pressure: String,
+        /// Print JSON.
+        #[arg(long)]
+        json: bool,
+    },
+}
+
+/// Nusselt/Sherwood correlation choice.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum CorrelationArg {
+    /// Clift, Grace & Weber (1978).
+    Clift,
+    /// Ranz & Marshall (1952).
+    RanzMarshall,
+}
+
+/// Options shared by every droplet run.
+#[derive(Debug, Clone, Args)]
+pub struct ConditionArgs {
+    /// Ambient gas temperature.
+    #[arg(long, default_value = "800K")]
+    pub ambient_temperature: String,
+    /// Ambient pressure.
+    #[arg(long, default_value = "1atm")]
+    pub pressure: String,
+    /// Ambient gas: air, n2, or mole fractions like o2=0.15,n2=0.75,co2=0.05,h2o=0.05.
+    #[arg(long, default_value = "air")]
+    pub gas: String,
+    /// Initial droplet diameter.
+    #[arg(long, default_value = "50um")]
+    pub diameter: String,
+    /// Initial droplet temperature.
+    #[arg(long, default_value = "300K")]
+    pub droplet_temperature: String,
+    /// Relative velocity between droplet and gas (kept constant unless --injected).
+    #[arg(long, default_value = "0")]
+    pub velocity: String,
+    /// The droplet is injected at --velocity into gas at rest and slows down by drag.
+    #[arg(long)]
+    pub injected: bool,
+    /// Far-field fuel vapour, as component=mass-fraction pairs (e.g. n-decane=0.01).
+    #[arg(long, default_value = "")]
+    pub ambient_vapor: String,
+    /// Nusselt/Sherwood correlation of the non-evaporating sphere.
+    #[arg(long, value_enum, default_value = "clift")]
+    pub correlation: CorrelationArg,
+    /// Relative tolerance of the time integration.
+    #[arg(long, default_value = "1e-6")]
+    pub rtol: String,
+    /// Give up after this simulated time.
+    #[arg(long, default_value = "30s")]
+    pub max_time: String,
+}
+
+/// `simulate` arguments.
+#[derive(Debug, Clone, Args)]
+pub struct SimulateArgs {
+    /// Fuel file, library fuel id, or component id.
+    pub fuel: String,
+    /// Conditions.
+    #[command(flatten)]
+    pub condition: ConditionArgs,
+    /// Output folder.
+    #[arg(long, default_value = "dropcut-out/simulate")]
+    pub out: PathBuf,
+    /// Also print the summary as JSON on stdout.
+    #[arg(long)]
+    pub json: bool,
+    /// Do not draw charts.
+    #[arg(long)]
+    pub no_plots: bool,
+}

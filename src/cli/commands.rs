@@ -1,0 +1,354 @@
+//! Command handlers (second stage: validate text, convert to SI config, call the library, write outputs).
+
+use std::io::{IsTerminal, Write};
+use std::path::Path;
+
+use serde::Serialize;
+
+use super::args::{Cli, Command, ConditionArgs, CorrelationArg, FuelAction, SimulateArgs};
+use super::CliError;
+use crate::data::Library;
+use crate::fuel::Fuel;
+use crate::model::{self, DropletInputs, Motion, TransferCorrelation};
+use crate::output;
+use crate::props::gas::AmbientGas;
+use crate::props::liquid;
+use crate::units::{self, Quantity};
+
+/// Route a parsed command line to its handler.
+pub fn dispatch(cli: Cli) -> Result<(), CliError> {
+    let mut lib = Library::embedded().map_err(|e| CliError::runtime(format!("built-in library: {e}")))?;
+    if let Some(dir) = &cli.components {
+        lib.add_user_folder(dir)?;
+    }
+    match cli.command {
+        Command::Components { json } => components(&lib, json),
+        Command::Fuel { action: FuelAction::Show { fuel, temperature, pressure, json } } => fuel_show(&lib, &fuel, &temperature, &pressure, json),
+        Command::Simulate(args) => simulate(&lib, &args),
+        Command::Demo { out } => demo(&lib, &out),
+        Command::Validate { out } => validate(&out),
+    }
+}
+
+fn stdout_write(text: &str) -> Result<(), CliError> {
+    let mut out = std::io::stdout().lock();
+    match out.write_all(text.as_bytes()).and_then(|_| out.flush()) {
+        Ok(()) => Ok(()),
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
+        Err(e) => Err(CliError::runtime(format!("stdout: {e}"))),
+    }
+}
+
+fn progress(msg: &str) {
+    if std::io::stderr().is_terminal() {
+        let _ = writeln!(std::io::stderr(), "{msg}");
+    }
+}
+
+fn notice(msg: &str) {
+    let _ = writeln!(std::io::stderr(), "note: {msg}");
+}
+
+fn parse_q(option: &str, text: &str, q: Quantity) -> Result<f64, CliError> {
+    units::parse(text, q).map_err(|e| CliError::input(format!("--{option}: {e}")))
+}
+
+#[derive(Serialize)]
+struct ComponentRow {
+    id: String,
+    name: String,
+    cas: String,
+    class: String,
+    molar_mass_kg_mol: f64,
+    normal_boiling_point_K: f64,
+    critical_temperature_K: f64,
+    critical_pressure_Pa: f64,
+    density_15C_kg_m3: f64,
+    cetane_number: f64,
+    cetane_kind: String,
+    estimated_properties: Vec<String>,
+    sources: Vec<(String, String)>,
+}
+
+fn components(lib: &Library, json: bool) -> Result<(), CliError> {
+    let rows: Vec<ComponentRow> = lib
+        .components()
+        .iter()
+        .map(|c| ComponentRow {
+            id: c.id.clone(),
+            name: c.name.clone(),
+            cas: c.cas.clone(),
+            class: c.class.as_str().into(),
+            molar_mass_kg_mol: c.molar_mass(),
+            normal_boiling_point_K: c.normal_boiling_point(),
+            critical_temperature_K: c.critical_temperature(),
+            critical_pressure_Pa: c.critical_pressure(),
+            density_15C_kg_m3: c.density_15c(),
+            cetane_number: c.constants.cetane_number.value,
+            cetane_kind: c.constants.cetane_number.kind.clone().unwrap_or_default(),
+            estimated_properties: c.estimated_properties().iter().map(|s| s.to_string()).collect(),
+            sources: c.source_ids(),
+        })
+        .collect();
+    if json {
+        return stdout_write(&output::to_json_string(&rows).map_err(CliError::runtime)?);
+    }
+    let mut s = format!("{:<34} {:<16} {:>9} {:>8} {:>8} {:>6}  {}\n", "id", "class", "W g/mol", "Tb K", "rho15", "CN", "estimated properties");
+    for r in &rows {
+        s.push_str(&format!(
+            "{:<34} {:<16} {:>9.3} {:>8.2} {:>8.1} {:>6.1}  {}\n",
+            r.id,
+            r.class,
+            r.molar_mass_kg_mol * 1e3,
+            r.normal_boiling_point_K,
+            r.density_15C_kg_m3,
+            r.cetane_number,
+            if r.estimated_properties.is_empty() { "-".to_string() } else { r.estimated_properties.join(", ") }
+        ));
+    }
+    s.push_str(&format!("{} components; sources: `dropcut components --json` lists the source id of every value.\n", rows.len()));
+    stdout_write(&s)
+}
+
+#[derive(Serialize)]
+struct FuelShow {
+    name: String,
+    description: String,
+    origin: String,
+    composition: Vec<CompositionRow>,
+    molar_mass_kg_mol: f64,
+    density_15C_kg_m3: f64,
+    pressure_Pa: f64,
+    bubble_point_K: f64,
+    dew_point_K: f64,
+    liquid_at_T: liquid::LiquidState,
+    notices: Vec<String>,
+}
+
+#[derive(Serialize)]
+struct CompositionRow {
+    id: String,
+    class: String,
+    mass_fraction: f64,
+    mole_fraction: f64,
+    volume_fraction: f64,
+}
+
+fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, json: bool) -> Result<(), CliError> {
+    let t = parse_q("temperature", temperature, Quantity::Temperature)?;
+    let p = parse_q("pressure", pressure, Quantity::Pressure)?;
+    if !(100.0..=1500.0).contains(&t) {
+        return Err(CliError::input(format!("--temperature {temperature}: {t} K is outside 100–1500 K")));
+    }
+    if !(100.0..=1e8).contains(&p) {
+        return Err(CliError::input(format!("--pressure {pressure}: {p} Pa is outside 100 Pa – 1000 bar")));
+    }
+    let fuel = Fuel::resolve(spec, lib)?;
+    for n in &fuel.notices {
+        notice(n);
+    }
+    let x = fuel.mole_fractions();
+    let v = fuel.volume_fractions();
+    let bubble = liquid::bubble_point(&fuel.components, &x, p)?;
+    let dew = liquid::dew_point(&fuel.components, &x, p)?;
+    let state = liquid::state(&fuel.components, &fuel.mass_fractions, t);
+    let show = FuelShow {
+        name: fuel.name.clone(),
+        description: fuel.description.clone(),
+        origin: fuel.origin.clone(),
+        composition: fuel
+            .components
+            .iter()
+            .enumerate()
+            .map(|(i, c)| CompositionRow { id: c.id.clone(), class: c.class.as_str().into(), mass_fraction: fuel.mass_fractions[i], mole_fraction: x[i], volume_fraction: v[i] })
+            .collect(),
+        molar_mass_kg_mol: fuel.molar_mass(),
+        density_15C_kg_m3: fuel.density_15c(),
+        pressure_Pa: p,
+        bubble_point_K: bubble,
+        dew_point_K: dew,
+        liquid_at_T: state,
+        notices: fuel.notices.clone(),
+    };
+    if json {
+        return stdout_write(&output::to_json_string(&show).map_err(CliError::runtime)?);
+    }
+    let mut s = format!("fuel {} ({})\n{}\n\n", show.name, show.origin, show.description);
+    s.push_str(&format!("{:<34} {:<16} {:>9} {:>9} {:>9}\n", "component", "class", "mass %", "mole %", "vol %"));
+    for r in &show.composition {
+        s.push_str(&format!("{:<34} {:<16} {:>9.3} {:>9.3} {:>9.3}\n", r.id, r.class, 100.0 * r.mass_fraction, 100.0 * r.mole_fraction, 100.0 * r.volume_fraction));
+    }
+    let l = &show.liquid_at_T;
+    s.push_str(&format!(
+        "\nmolar mass            {:.2} g/mol\ndensity at 15 °C      {:.1} kg/m³\nbubble point          {} at {}\ndew point             {}\n\nliquid at {}:\n  vapour pressure     {:.4e} Pa\n  density             {:.1} kg/m³\n  latent heat         {:.1} kJ/kg\n  heat capacity       {:.1} J/(kg K)\n  viscosity           {:.4e} Pa s ({:.4} mm²/s)\n  conductivity        {:.4} W/(m K)\n  surface tension     {:.2} mN/m\n",
+        show.molar_mass_kg_mol * 1e3,
+        show.density_15C_kg_m3,
+        units::format_temperature(bubble),
+        units::format_pressure(p),
+        units::format_temperature(dew),
+        units::format_temperature(t),
+        l.vapor_pressure_Pa,
+        l.density_kg_m3,
+        l.latent_heat_J_kg / 1e3,
+        l.cp_J_kgK,
+        l.viscosity_Pa_s,
+        l.kinematic_viscosity_m2_s * 1e6,
+        l.conductivity_W_mK,
+        l.surface_tension_N_m * 1e3
+    ));
+    stdout_write(&s)
+}
+
+/// Second stage: turn condition options into SI droplet inputs.
+pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<DropletInputs, CliError> {
+    let t_inf = parse_q("ambient-temperature", &c.ambient_temperature, Quantity::Temperature)?;
+    let p = parse_q("pressure", &c.pressure, Quantity::Pressure)?;
+    let d0 = parse_q("diameter", &c.diameter, Quantity::Length)?;
+    let t0 = parse_q("droplet-temperature", &c.droplet_temperature, Quantity::Temperature)?;
+    let v = parse_q("velocity", &c.velocity, Quantity::Velocity)?;
+    let rtol = parse_q("rtol", &c.rtol, Quantity::Dimensionless)?;
+    let max_time = parse_q("max-time", &c.max_time, Quantity::Time)?;
+    let gas = AmbientGas::parse(lib, &c.gas).map_err(|e| CliError::input(format!("--gas: {e}")))?;
+    let mut ambient_vapor = vec![];
+    if !c.ambient_vapor.trim().is_empty() {
+        ambient_vapor = vec![0.0; fuel.len()];
+        for item in c.ambient_vapor.split(',') {
+            let (id, y) = item
+                .split_once('=')
+                .ok_or_else(|| CliError::input(format!("--ambient-vapor: cannot read '{item}': use component=mass-fraction pairs")))?;
+            let comp = lib.require_component(id.trim(), "--ambient-vapor")?;
+            let i = fuel
+                .components
+                .iter()
+                .position(|x| x.id == comp.id)
+                .ok_or_else(|| CliError::input(format!("--ambient-vapor: '{}' is not a component of fuel '{}'", id.trim(), fuel.name)))?;
+            let y: f64 = y.trim().parse().map_err(|_| CliError::input(format!("--ambient-vapor: '{}' is not a number", y.trim())))?;
+            if !(y.is_finite() && (0.0..0.5).contains(&y)) {
+                return Err(CliError::input(format!("--ambient-vapor: mass fraction {y} of '{}' must be in [0, 0.5)", id.trim())));
+            }
+            ambient_vapor[i] = y;
+        }
+    }
+    let mut inp = DropletInputs::new(fuel, gas, t_inf, p, d0, t0);
+    inp.motion = if c.injected { Motion::Injected { velocity: v } } else { Motion::Fixed { velocity: v } };
+    inp.correlation = match c.correlation {
+        CorrelationArg::Clift => TransferCorrelation::Clift,
+        CorrelationArg::RanzMarshall => TransferCorrelation::RanzMarshall,
+    };
+    inp.rtol = rtol;
+    inp.max_time = max_time;
+    inp.ambient_vapor = ambient_vapor;
+    Ok(inp)
+}
+
+fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
+    let fuel = Fuel::resolve(&args.fuel, lib)?;
+    for n in &fuel.notices {
+        notice(n);
+    }
+    let inp = droplet_inputs(lib, fuel, &args.condition)?;
+    progress(&format!("simulating {} ...", inp.fuel.name));
+    let mut rec = model::droplet::Recorder::default();
+    let run = model::simulate(&inp, &mut rec)?;
+    output::history::write_run(&args.out, &inp, &run.history, &run.outcome)?;
+    for n in &run.outcome.regime_notes {
+        notice(n);
+    }
+    let _ = args.no_plots;
+    if args.json {
+        let summary = output::history::Summary::of(&inp, &run.outcome);
+        stdout_write(&output::to_json_string(&summary).map_err(CliError::runtime)?)?;
+    } else {
+        stdout_write(&format_outcome_line(&inp.fuel.name, "", &run.outcome))?;
+        stdout_write(&format!("wrote {}/history.csv and summary.json\n", args.out.display()))?;
+    }
+    Ok(())
+}
+
+fn ms(v: Option<f64>) -> String {
+    v.map(|t| format!("{:.3}", t * 1e3)).unwrap_or_else(|| "-".into())
+}
+
+fn format_outcome_line(fuel: &str, condition: &str, o: &model::RunOutcome) -> String {
+    format!(
+        "{:<12} {:<10} {:>10} {:>9} {:>9} {:>9} {:>9} {:>8.1} {:>7.1}\n",
+        fuel,
+        condition,
+        ms(o.lifetime),
+        ms(o.t10),
+        ms(o.t50),
+        ms(o.t90),
+        ms(o.heatup_end),
+        o.max_surface_temperature,
+        100.0 * o.final_evaporated_fraction
+    )
+}
+
+fn table_header() -> String {
+    format!(
+        "{:<12} {:<10} {:>10} {:>9} {:>9} {:>9} {:>9} {:>8} {:>7}\n",
+        "fuel", "condition", "life ms", "t10 ms", "t50 ms", "t90 ms", "heatup ms", "Tmax K", "evap %"
+    )
+}
+
+/// The demo conditions: (name, description, ambient T, pressure, diameter, droplet T, velocity, max time).
+pub const DEMO_CONDITIONS: [(&str, &str, &str, &str, &str, &str, &str, &str); 2] = [
+    ("combustor", "combustor-like: 800 K air at 10 bar, 30 um droplet at 300 K injected at 20 m/s", "800K", "10bar", "30um", "300K", "20", "1s"),
+    ("relight", "altitude-relight-like: 260 K air at 0.4 bar, 40 um droplet at 250 K, 10 m/s slip", "260K", "0.4bar", "40um", "250K", "10", "2s"),
+];
+
+/// Demo fuels.
+pub const DEMO_FUELS: [&str; 3] = ["demo-narrow", "demo-wide", "demo-blend"];
+
+fn demo(lib: &Library, out: &Path) -> Result<(), CliError> {
+    output::ensure_dir(out)?;
+    let mut table = table_header();
+    let mut report = String::from("# dropcut demo\n\nInvented demo fuels at two invented conditions.\n\n");
+    for (name, desc, t, p, d, t0, v, tmax) in DEMO_CONDITIONS {
+        report.push_str(&format!("- **{name}**: {desc}\n"));
+        for fuel_id in DEMO_FUELS {
+            progress(&format!("demo: {fuel_id} at the {name} condition ..."));
+            let fuel = Fuel::resolve(fuel_id, lib)?;
+            let cond = ConditionArgs {
+                ambient_temperature: t.into(),
+                pressure: p.into(),
+                gas: "air".into(),
+                diameter: d.into(),
+                droplet_temperature: t0.into(),
+                velocity: v.into(),
+                injected: name == "combustor",
+                ambient_vapor: String::new(),
+                correlation: CorrelationArg::Clift,
+                rtol: "1e-6".into(),
+                max_time: tmax.into(),
+            };
+            let inp = droplet_inputs(lib, fuel, &cond)?;
+            let mut rec = model::droplet::Recorder::default();
+            let run = model::simulate(&inp, &mut rec)?;
+            let dir = out.join(format!("{fuel_id}_{name}"));
+            output::history::write_run(&dir, &inp, &run.history, &run.outcome)?;
+            table.push_str(&format_outcome_line(fuel_id, name, &run.outcome));
+        }
+    }
+    output::write_atomic(&out.join("comparison.txt"), table.as_bytes())?;
+    report.push_str("\n```\n");
+    report.push_str(&table);
+    report.push_str("```\n");
+    output::write_atomic(&out.join("README.md"), report.as_bytes())?;
+    stdout_write(&table)?;
+    stdout_write(&format!("wrote {}\n", out.display()))
+}
+
+fn validate(out: &Path) -> Result<(), CliError> {
+    let results = crate::checks::all();
+    let passed = results.iter().filter(|r| r.passed).count();
+    let mut doc = String::from("# Validation report\n\nWritten by `dropcut validate`; the same check definitions (src/checks/) drive `cargo test` (tests/validation_*.rs).\n\n");
+    doc.push_str(&format!("{passed} of {} checks pass.\n\n", results.len()));
+    doc.push_str(&crate::checks::markdown_table(&results));
+    output::write_atomic(out, doc.as_bytes())?;
+    stdout_write(&format!("{passed} passed, {} failed\nwrote {}\n", results.len() - passed, out.display()))?;
+    if passed != results.len() {
+        return Err(CliError::runtime("some validation checks failed (see the report)"));
+    }
+    Ok(())
+}

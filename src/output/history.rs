@@ -1,0 +1,206 @@
+//! Droplet history (history.csv) and run summary (summary.json).
+
+use std::path::Path;
+
+use serde::Serialize;
+
+use crate::model::{DropletInputs, HistoryRow, Motion, RunOutcome};
+
+use super::{Cell, CsvTable, OutputError, TOOL_VERSION};
+
+/// Build the history table of a run.
+pub fn history_table(inputs: &DropletInputs, rows: &[HistoryRow]) -> Result<CsvTable, OutputError> {
+    let ids: Vec<&str> = inputs.fuel.components.iter().map(|c| c.id.as_str()).collect();
+    let mut header: Vec<String> = [
+        "time_s",
+        "time_over_d0sq_s_m2",
+        "diameter_m",
+        "d2_ratio",
+        "surface_temperature_K",
+        "mass_kg",
+        "evaporated_fraction",
+        "velocity_m_s",
+        "reynolds",
+        "evaporation_rate_kg_s",
+        "spalding_BM",
+        "spalding_BT",
+        "sherwood",
+        "nusselt",
+        "heat_to_liquid_W",
+        "regime",
+    ]
+    .iter()
+    .map(|s| s.to_string())
+    .collect();
+    header.extend(ids.iter().map(|id| format!("Yliq_{id}")));
+    header.extend(ids.iter().map(|id| format!("Yvap_{id}")));
+    let mut t = CsvTable::new(header);
+    t.metadata = vec![
+        format!("{TOOL_VERSION} droplet history (well-mixed liquid, Abramzon-Sirignano film)"),
+        format!("fuel: {} ({} components)", inputs.fuel.name, inputs.fuel.len()),
+        format!(
+            "ambient: {} K, {} Pa, gas {}; initial diameter {} m, droplet {} K",
+            inputs.ambient_temperature, inputs.pressure, inputs.gas.label, inputs.initial_diameter, inputs.initial_temperature
+        ),
+        "Yliq_*: liquid mass fractions; Yvap_*: mass fractions of the vapour leaving the surface at that instant".into(),
+    ];
+    let d0sq = inputs.initial_diameter * inputs.initial_diameter;
+    for r in rows {
+        let mut cells = vec![
+            Cell::Num(r.time),
+            Cell::Num(r.time / d0sq),
+            Cell::Num(r.diameter),
+            Cell::Num(r.d2_ratio),
+            Cell::Num(r.surface_temperature),
+            Cell::Num(r.mass),
+            Cell::Num(r.evaporated_fraction),
+            Cell::Num(r.velocity),
+            Cell::Num(r.film.reynolds),
+            Cell::Num(r.film.evaporation_rate),
+            Cell::Num(r.film.spalding_mass),
+            Cell::Num(r.film.spalding_heat),
+            Cell::Num(r.film.sherwood),
+            Cell::Num(r.film.nusselt),
+            Cell::Num(r.film.heat_to_liquid),
+            Cell::Text(format!("{:?}", r.regime).to_lowercase()),
+        ];
+        cells.extend(r.liquid_mass_fractions.iter().map(|v| Cell::Num(*v)));
+        cells.extend(r.vapor_mass_fractions.iter().map(|v| Cell::Num(*v)));
+        t.push(cells, "history.csv")?;
+    }
+    Ok(t)
+}
+
+/// Echo of the inputs, SI units.
+#[derive(Debug, Clone, Serialize)]
+pub struct InputEcho {
+    /// Fuel name.
+    pub fuel: String,
+    /// Fuel origin (file or library).
+    pub fuel_origin: String,
+    /// Components and mass fractions.
+    pub composition_mass_fractions: Vec<(String, f64)>,
+    /// Ambient temperature [K].
+    pub ambient_temperature_K: f64,
+    /// Pressure [Pa].
+    pub pressure_Pa: f64,
+    /// Ambient gas mole fractions.
+    pub ambient_gas: Vec<(String, f64)>,
+    /// Initial diameter [m].
+    pub initial_diameter_m: f64,
+    /// Initial droplet temperature [K].
+    pub droplet_temperature_K: f64,
+    /// Motion.
+    pub motion: Motion,
+    /// Nu0/Sh0 correlation.
+    pub correlation: String,
+    /// Reference-state weight.
+    pub reference_weight: f64,
+    /// Relative tolerance.
+    pub rtol: f64,
+    /// Time limit [s].
+    pub max_time_s: f64,
+    /// Liquid model.
+    pub liquid_model: String,
+    /// Far-field fuel-vapour mass fractions.
+    pub ambient_vapor_mass_fractions: Vec<(String, f64)>,
+}
+
+impl InputEcho {
+    /// Echo of a run's inputs.
+    pub fn of(inp: &DropletInputs) -> Self {
+        let ids = || inp.fuel.components.iter().map(|c| c.id.clone());
+        InputEcho {
+            fuel: inp.fuel.name.clone(),
+            fuel_origin: inp.fuel.origin.clone(),
+            composition_mass_fractions: ids().zip(inp.fuel.mass_fractions.iter().copied()).collect(),
+            ambient_temperature_K: inp.ambient_temperature,
+            pressure_Pa: inp.pressure,
+            ambient_gas: inp.gas.species.iter().map(|s| s.id.clone()).zip(inp.gas.mole_fractions.iter().copied()).collect(),
+            initial_diameter_m: inp.initial_diameter,
+            droplet_temperature_K: inp.initial_temperature,
+            motion: inp.motion,
+            correlation: inp.correlation.as_str().into(),
+            reference_weight: inp.reference_weight,
+            rtol: inp.rtol,
+            max_time_s: inp.max_time,
+            liquid_model: "well-mixed".into(),
+            ambient_vapor_mass_fractions: if inp.ambient_vapor.is_empty() { vec![] } else { ids().zip(inp.ambient_vapor.iter().copied()).collect() },
+        }
+    }
+}
+
+/// The summary.json document.
+#[derive(Debug, Clone, Serialize)]
+#[allow(non_snake_case)]
+pub struct Summary {
+    /// Tool and version.
+    pub tool: String,
+    /// How the run ended.
+    pub status: String,
+    /// Time when 0.1 % of the initial mass remains [s].
+    pub lifetime_s: Option<f64>,
+    /// 10 % evaporated [s].
+    pub t10_s: Option<f64>,
+    /// 50 % evaporated [s].
+    pub t50_s: Option<f64>,
+    /// 90 % evaporated [s].
+    pub t90_s: Option<f64>,
+    /// End of heat-up [s].
+    pub heatup_end_s: Option<f64>,
+    /// Highest surface temperature [K].
+    pub max_surface_temperature_K: f64,
+    /// Boiling onset [s].
+    pub boiling_onset_s: Option<f64>,
+    /// Final time [s].
+    pub end_time_s: f64,
+    /// Evaporated fraction at the end.
+    pub final_evaporated_fraction: f64,
+    /// Regime and validity notes.
+    pub regime_notes: Vec<String>,
+    /// Integrator statistics.
+    pub integrator: crate::model::integrator::Stats,
+    /// Mass-balance error (liquid + evaporated vs initial, max over components).
+    pub mass_balance_error: f64,
+    /// Estimated (not published) properties used, per component.
+    pub estimated_properties: Vec<(String, Vec<String>)>,
+    /// Inputs echoed back.
+    pub input: InputEcho,
+}
+
+impl Summary {
+    /// Summary of a run.
+    pub fn of(inp: &DropletInputs, o: &RunOutcome) -> Self {
+        Summary {
+            tool: TOOL_VERSION.into(),
+            status: format!("{:?}", o.status).to_lowercase(),
+            lifetime_s: o.lifetime,
+            t10_s: o.t10,
+            t50_s: o.t50,
+            t90_s: o.t90,
+            heatup_end_s: o.heatup_end,
+            max_surface_temperature_K: o.max_surface_temperature,
+            boiling_onset_s: o.boiling_onset,
+            end_time_s: o.end_time,
+            final_evaporated_fraction: o.final_evaporated_fraction,
+            regime_notes: o.regime_notes.clone(),
+            integrator: o.stats,
+            mass_balance_error: o.mass_balance_error,
+            estimated_properties: inp
+                .fuel
+                .components
+                .iter()
+                .filter(|c| !c.estimated_properties().is_empty())
+                .map(|c| (c.id.clone(), c.estimated_properties().iter().map(|s| s.to_string()).collect()))
+                .collect(),
+            input: InputEcho::of(inp),
+        }
+    }
+}
+
+/// Write history.csv and summary.json into `dir`.
+pub fn write_run(dir: &Path, inputs: &DropletInputs, rows: &[HistoryRow], outcome: &RunOutcome) -> Result<(), OutputError> {
+    super::ensure_dir(dir)?;
+    history_table(inputs, rows)?.write(&dir.join("history.csv"))?;
+    super::write_json(&dir.join("summary.json"), &Summary::of(inputs, outcome))
+}

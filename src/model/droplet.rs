@@ -460,9 +460,62 @@ pub fn simulate(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunR
         reason: e.to_string(),
     })?;
     if !inp.fixed_temperature && t0 >= t_bubble0 - 1e-9 {
+        // Superheated at injection: adiabatic flash at the ambient pressure. The superheat m cp (T − T_b)
+        // evaporates liquid of the equilibrium-vapour composition, in small portions, until the droplet sits at
+        // the bubble point of what is left.
+        let mut masses: Vec<f64> = (0..n).map(|i| m0 * w0[i]).collect();
+        let mut t = t0;
+        let mut w = vec![0.0; n];
+        let mut x = vec![0.0; n];
+        let mut eps = vec![0.0; n];
+        for _ in 0..10_000 {
+            let m: f64 = masses.iter().sum();
+            if m <= inp.end_mass_fraction * m0 {
+                break;
+            }
+            for i in 0..n {
+                w[i] = masses[i] / m;
+            }
+            liquid::mass_to_mole_into(&comps, &w, &mut x);
+            let tb = liquid::bubble_point(&comps, &x, inp.pressure).unwrap_or(t);
+            if t <= tb + 1e-9 {
+                t = t.max(tb);
+                break;
+            }
+            let mut s = 0.0;
+            for i in 0..n {
+                eps[i] = x[i] * comps[i].vapor_pressure(tb) * comps[i].molar_mass();
+                s += eps[i];
+            }
+            let mut l = 0.0;
+            for i in 0..n {
+                eps[i] /= s;
+                l += eps[i] * comps[i].latent_heat(tb);
+            }
+            let cp = liquid::heat_capacity(&comps, &w, 0.5 * (t + tb));
+            let dm_full = m * cp * (t - tb) / l;
+            let dm = dm_full.min(0.01 * m);
+            for i in 0..n {
+                masses[i] = (masses[i] - dm * eps[i]).max(0.0);
+            }
+            t = if dm >= dm_full { tb } else { t - dm * l / (m * cp) };
+        }
+        let m_left: f64 = masses.iter().sum();
+        for i in 0..n {
+            y0[i] = masses[i];
+            y0[n + 2 + i] = m0 * w0[i] - masses[i];
+        }
+        for i in 0..n {
+            w[i] = masses[i] / m_left.max(1e-300);
+        }
+        liquid::mass_to_mole_into(&comps, &w, &mut x);
+        let tb = liquid::bubble_point(&comps, &x, inp.pressure).unwrap_or(t);
         sys.regime = Regime::Boiling;
-        y0[n] = t_bubble0;
-        notes.push(format!("initial temperature {t0:.2} K is at or above the bubble point {t_bubble0:.2} K at the ambient pressure: starting in the boiling regime at the bubble point"));
+        y0[n] = tb;
+        notes.push(format!(
+            "initial temperature {t0:.2} K is above the bubble point {t_bubble0:.2} K at the ambient pressure: {:.3} % of the mass flashed at injection (adiabatic flash), then heat-limited boiling at the bubble point ({tb:.2} K)",
+            100.0 * (1.0 - m_left / m0)
+        ));
     }
     let mut atol = vec![inp.rtol * 1e-3 * m0; 2 * n + 2];
     atol[n] = inp.rtol * 1.0;

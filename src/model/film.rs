@@ -290,7 +290,7 @@ impl Film {
                 evaporation_rate: mdot,
                 heat_to_liquid: q_gas - q_latent,
                 heat_from_gas: q_gas,
-                spalding_mass: f64::MAX.min(1e6),
+                spalding_mass: 0.0, // unbounded at the bubble point; writers leave it empty in the boiling regime
                 spalding_heat: b_t,
                 reynolds: re,
                 sherwood: 2.0,

@@ -5,7 +5,7 @@ pub mod droplet;
 pub mod film;
 pub mod integrator;
 
-pub use droplet::{simulate, DropletInputs, HistoryRow, Motion, Observer, RunOutcome, RunResult, Status};
+pub use droplet::{simulate, DropletInputs, HistoryRow, Motion, Observer, Regime, RunOutcome, RunResult, Status};
 pub use film::TransferCorrelation;
 
 use thiserror::Error;

@@ -57,7 +57,8 @@ pub fn history_table(inputs: &DropletInputs, rows: &[HistoryRow]) -> Result<CsvT
             Cell::Num(r.velocity),
             Cell::Num(r.film.reynolds),
             Cell::Num(r.film.evaporation_rate),
-            Cell::Num(r.film.spalding_mass),
+            // B_M is unbounded at the bubble point: left empty in the boiling regime (see the regime column)
+            if r.regime == crate::model::droplet::Regime::Boiling { Cell::Opt(None) } else { Cell::Num(r.film.spalding_mass) },
             Cell::Num(r.film.spalding_heat),
             Cell::Num(r.film.sherwood),
             Cell::Num(r.film.nusselt),

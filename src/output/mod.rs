@@ -63,7 +63,12 @@ pub fn write_atomic(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
 #[inline]
 pub fn fmt_f64(v: f64) -> Option<String> {
     if v.is_finite() {
-        Some(format!("{v}"))
+        let a = v.abs();
+        if a == 0.0 || (1e-4..1e7).contains(&a) {
+            Some(format!("{v}"))
+        } else {
+            Some(format!("{v:e}"))
+        }
     } else {
         None
     }

@@ -4,6 +4,8 @@
 
 use serde::Serialize;
 
+pub mod model;
+
 /// Outcome of one validation check.
 #[derive(Debug, Clone, Serialize)]
 pub struct CheckResult {
@@ -29,7 +31,7 @@ impl CheckResult {
             check,
             source: source.into(),
             tolerance: format!("{:.3} % relative", 100.0 * tolerance_rel),
-            achieved: format!("{:.3} % (max)", 100.0 * max_rel_error),
+            achieved: format!("{} % (max)", compact(100.0 * max_rel_error)),
             passed: max_rel_error.is_finite() && max_rel_error <= tolerance_rel,
         }
     }
@@ -41,9 +43,21 @@ impl CheckResult {
             check,
             source: source.into(),
             tolerance: format!("{tolerance} {unit}"),
-            achieved: format!("{abs_error:.4} {unit}"),
+            achieved: format!("{} {unit}", compact(abs_error)),
             passed: abs_error.is_finite() && abs_error <= tolerance,
         }
+    }
+}
+
+/// Three significant digits, in exponent form below 1e-3.
+pub fn compact(v: f64) -> String {
+    if !v.is_finite() {
+        return "not computed".into();
+    }
+    if v != 0.0 && v.abs() < 1e-3 {
+        format!("{v:.2e}")
+    } else {
+        format!("{v:.4}")
     }
 }
 
@@ -76,6 +90,9 @@ pub fn markdown_table(results: &[CheckResult]) -> String {
 
 /// Every validation check of the project, in report order.
 pub fn all() -> Vec<CheckResult> {
-    let v = vec![];
+    let mut v = vec![];
+    if let Ok(lib) = crate::data::Library::embedded() {
+        v.extend(model::analytic_checks(&lib));
+    }
     v
 }

@@ -454,11 +454,8 @@ pub fn simulate(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunR
     y0[n + 1] = velocity0;
     // Starting above the bubble point: flash to the boiling regime at once.
     let x0 = inp.fuel.mole_fractions();
-    let t_bubble0 = liquid::bubble_point(&comps, &x0, inp.pressure).map_err(|e| ModelError::Input {
-        field: "pressure",
-        value: format!("{} Pa", inp.pressure),
-        reason: e.to_string(),
-    })?;
+    // No bubble point (vapour pressure below the ambient pressure at every temperature) means no boiling.
+    let t_bubble0 = liquid::bubble_point(&comps, &x0, inp.pressure).unwrap_or(f64::INFINITY);
     if !inp.fixed_temperature && t0 >= t_bubble0 - 1e-9 {
         // Superheated at injection: adiabatic flash at the ambient pressure. The superheat m cp (T − T_b)
         // evaporates liquid of the equilibrium-vapour composition, in small portions, until the droplet sits at

@@ -1,0 +1,273 @@
+//! Analytic limits of the droplet model: the d²-law, the wet-bulb temperature, Rayleigh's batch-distillation
+//! law, mass conservation and tolerance convergence. The reference values are computed here by independent,
+//! short code from the published equations (not by calling the film model).
+
+use std::sync::Arc;
+
+use super::CheckResult;
+use crate::data::gases::parse_gases;
+use crate::data::{Component, Library, GAS_CONSTANT};
+use crate::fuel::{Basis, Fuel};
+use crate::model::droplet::{NoHistory, Recorder};
+use crate::model::{simulate, DropletInputs};
+use crate::props::gas::AmbientGas;
+
+const GROUP: &str = "droplet model: analytic limits";
+
+/// Properties of an idealised constant-property liquid (heptane-like molar mass).
+pub struct IdealLiquid {
+    /// Id.
+    pub id: &'static str,
+    /// Vapour-pressure section (TOML body).
+    pub vapor_pressure: String,
+    /// Liquid density [kg/m³].
+    pub density: f64,
+    /// Latent heat [J/kg].
+    pub latent_heat: f64,
+    /// Liquid cp [J/(kg·K)].
+    pub cp_liquid: f64,
+    /// Vapour cp [J/(kg·K)].
+    pub cp_vapor: f64,
+    /// Vapour viscosity [Pa·s].
+    pub mu_vapor: f64,
+    /// Vapour conductivity [W/(m·K)].
+    pub k_vapor: f64,
+}
+
+/// Molar mass of the idealised liquids (C7H16) [kg/mol].
+pub const IDEAL_W: f64 = 0.100_204;
+/// Fuller volume of the idealised liquids (C7H16 by atomic increments).
+pub const IDEAL_V: f64 = 7.0 * 15.9 + 16.0 * 2.31;
+/// Idealised inert gas: molar mass [kg/mol], cp [J/(kg·K)], μ [Pa·s], k [W/(m·K)], Fuller volume.
+pub const GAS: (f64, f64, f64, f64, f64) = (0.028_96, 1100.0, 3.0e-5, 0.05, 19.7);
+
+fn constant(name: &str, value: f64, unit: &str) -> String {
+    format!("[{name}]\nmodel = \"constant\"\ncoefficients = [{value:e}]\nunit = \"{unit}\"\nsource = \"estimated:constant-property-test\"\n")
+}
+
+impl IdealLiquid {
+    /// The component built from TOML text (exercises the same loader as the library).
+    pub fn component(&self) -> Arc<Component> {
+        let text = format!(
+            "id = \"{id}\"\nname = \"{id}\"\ncas = \"0-00-0\"\nclass = \"n-alkane\"\nformula = {{ C = 7, H = 16, O = 0 }}\n\
+             [constants]\n\
+             molar-mass = {{ value = {w}, source = \"user\" }}\n\
+             normal-boiling-point = {{ value = 400.0, source = \"user\" }}\n\
+             critical-temperature = {{ value = 600.0, source = \"user\" }}\n\
+             critical-pressure = {{ value = 2.5e6, source = \"user\" }}\n\
+             critical-volume = {{ value = 4.3e-4, source = \"user\" }}\n\
+             acentric-factor = {{ value = 0.35, source = \"user\" }}\n\
+             melting-point = {{ value = 180.0, source = \"user\" }}\n\
+             density-15C = {{ value = {rho}, source = \"user\" }}\n\
+             lower-heating-value = {{ value = 4.45e7, source = \"user\" }}\n\
+             cetane-number = {{ value = 50.0, kind = \"CN\", source = \"user\" }}\n\
+             diffusion-volume = {{ value = {v}, source = \"user\" }}\n\
+             {vp}{rho_s}{l}{cpl}{mul}{kl}{sig}{cpv}{muv}{kv}",
+            id = self.id,
+            w = IDEAL_W,
+            rho = self.density,
+            v = IDEAL_V,
+            vp = self.vapor_pressure,
+            rho_s = constant("liquid-density", self.density, "kg/m3"),
+            l = constant("latent-heat", self.latent_heat, "J/kg"),
+            cpl = constant("liquid-heat-capacity", self.cp_liquid, "J/kg/K"),
+            mul = constant("liquid-viscosity", 1e-3, "Pa*s"),
+            kl = constant("liquid-conductivity", 0.12, "W/m/K"),
+            sig = constant("surface-tension", 0.02, "N/m"),
+            cpv = constant("ideal-gas-heat-capacity", self.cp_vapor, "J/kg/K"),
+            muv = constant("vapor-viscosity", self.mu_vapor, "Pa*s"),
+            kv = constant("vapor-conductivity", self.k_vapor, "W/m/K"),
+        );
+        Arc::new(Component::parse(&text, &format!("<{}>", self.id)).expect("idealised component parses"))
+    }
+}
+
+/// The idealised inert gas as an ambient gas.
+pub fn ideal_gas() -> AmbientGas {
+    let (w, cp, mu, k, v) = GAS;
+    let text = format!(
+        "[inert]\nname = \"inert\"\nmolar-mass = {{ value = {w}, source = \"user\" }}\ndiffusion-volume = {{ value = {v}, source = \"user\" }}\n\
+         [inert.ideal-gas-heat-capacity]\nmodel = \"constant\"\ncoefficients = [{cp}]\nunit = \"J/kg/K\"\nsource = \"user\"\n\
+         [inert.vapor-viscosity]\nmodel = \"constant\"\ncoefficients = [{mu:e}]\nunit = \"Pa*s\"\nsource = \"user\"\n\
+         [inert.vapor-conductivity]\nmodel = \"constant\"\ncoefficients = [{k}]\nunit = \"W/m/K\"\nsource = \"user\"\n"
+    );
+    let species = parse_gases(&text, "<inert>").expect("inert gas parses");
+    let g = species.into_values().next().expect("one species");
+    AmbientGas { species: vec![g], mole_fractions: vec![1.0], mass_fractions: vec![1.0], molar_mass: w, label: "inert".into() }
+}
+
+/// Fuller–Schettler–Giddings D [m²/s], written out independently (Poling et al. 2001 eq. 11-4.4).
+fn fuller(t: f64, p: f64) -> f64 {
+    let w_ab = 2.0 / (1.0 / (IDEAL_W * 1e3) + 1.0 / (GAS.0 * 1e3));
+    0.00143 * t.powf(1.75) / ((p / 1e5) * w_ab.sqrt() * (IDEAL_V.cbrt() + GAS.4.cbrt()).powi(2)) * 1e-4
+}
+
+/// Wilke viscosity / Wassiljewa–Mason–Saxena conductivity of a binary (Wilke 1950), written out independently.
+fn wilke2(v1: f64, v2: f64, mu1: f64, mu2: f64, w1: f64, w2: f64, x1: f64) -> f64 {
+    let phi = |ma: f64, mb: f64, wa: f64, wb: f64| (1.0 + (ma / mb).sqrt() * (wb / wa).powf(0.25)).powi(2) / (8.0 * (1.0 + wa / wb)).sqrt();
+    let x2 = 1.0 - x1;
+    x1 * v1 / (x1 + x2 * phi(mu1, mu2, w1, w2)) + x2 * v2 / (x2 + x1 * phi(mu2, mu1, w2, w1))
+}
+
+fn liquid(id: &'static str, vapor_pressure: String) -> IdealLiquid {
+    IdealLiquid { id, vapor_pressure, density: 700.0, latent_heat: 3.0e5, cp_liquid: 2200.0, cp_vapor: 2000.0, mu_vapor: 1.0e-5, k_vapor: 0.02 }
+}
+
+/// d²-law: still droplet, constant properties, temperature held: K = 8 ρ_g D_g ln(1+B_M)/ρ_L (physics notes A.6).
+pub fn d2_law() -> CheckResult {
+    let p = 101_325.0;
+    let psat = 1.0e4;
+    let (t_s, t_inf, d0) = (350.0, 800.0, 100e-6);
+    let liq = liquid("ideal-a", constant("vapor-pressure", psat, "Pa"));
+    let fuel = Fuel::from_fractions("ideal-a", vec![liq.component()], &[1.0], Basis::Mass).expect("fuel");
+    let mut inp = DropletInputs::new(fuel, ideal_gas(), t_inf, p, d0, t_s);
+    inp.fixed_temperature = true;
+    inp.rtol = 1e-8;
+    let run = simulate(&inp, &mut NoHistory).expect("run");
+    // independent expectation
+    let x_s = psat / p;
+    let y_s = x_s * IDEAL_W / (x_s * IDEAL_W + (1.0 - x_s) * GAS.0);
+    let b_m = y_s / (1.0 - y_s);
+    let t_ref = t_s + (t_inf - t_s) / 3.0;
+    let y_ref = y_s * 2.0 / 3.0;
+    let w_ref = 1.0 / (y_ref / IDEAL_W + (1.0 - y_ref) / GAS.0);
+    let rho_g = p * w_ref / (GAS_CONSTANT * t_ref);
+    let k = 8.0 * rho_g * fuller(t_ref, p) * (1.0 + b_m).ln() / liq.density;
+    let expected = d0 * d0 * (1.0 - 1e-3f64.powf(2.0 / 3.0)) / k;
+    let got = run.outcome.lifetime.unwrap_or(f64::INFINITY);
+    CheckResult::relative(
+        GROUP,
+        format!("d²-law lifetime, still droplet at fixed 350 K in 800 K gas, constant properties (K = {:.4} mm²/s)", k * 1e6),
+        "analytical: K = 8 ρg Dg ln(1+B_M)/ρL (Spalding; Abramzon & Sirignano 1989 with Re = 0)",
+        (got / expected - 1.0).abs(),
+        0.01,
+    )
+}
+
+/// Wet-bulb temperature: heat/mass balance Q_L = 0 solved independently, vs the simulated steady temperature.
+pub fn wet_bulb() -> CheckResult {
+    let p = 101_325.0;
+    let t_inf = 700.0;
+    let lw_r = 3.0e5 * IDEAL_W / GAS_CONSTANT;
+    let a = 101_325f64.ln() + lw_r / 400.0;
+    // Clausius–Clapeyron with constant latent heat: ln p = A − (L W/R)/T, boiling at 400 K
+    let liq = liquid("ideal-b", format!("[vapor-pressure]\nmodel = \"dippr101\"\ncoefficients = [{a}, {}]\nunit = \"Pa\"\nsource = \"estimated:clausius-clapeyron-test\"\n", -lw_r));
+    let fuel = Fuel::from_fractions("ideal-b", vec![liq.component()], &[1.0], Basis::Mass).expect("fuel");
+    let mut inp = DropletInputs::new(fuel, ideal_gas(), t_inf, p, 200e-6, 300.0);
+    inp.rtol = 1e-8;
+    let mut rec = Recorder::default();
+    simulate(&inp, &mut rec).expect("run");
+    let t_sim = rec.rows.iter().find(|r| r.evaporated_fraction >= 0.9).map(|r| r.surface_temperature).unwrap_or(0.0);
+    // independent solve of (1+B_M)^φ − 1 = cp_F (T∞ − T)/L with Nu* = Sh* = 2 (Re = 0)
+    let residual = |t: f64| {
+        let psat = (a - lw_r / t).exp();
+        let x_s = psat / p;
+        let y_s = x_s * IDEAL_W / (x_s * IDEAL_W + (1.0 - x_s) * GAS.0);
+        let b_m = y_s / (1.0 - y_s);
+        let t_ref = t + (t_inf - t) / 3.0;
+        let y_ref = y_s * 2.0 / 3.0;
+        let w_ref = 1.0 / (y_ref / IDEAL_W + (1.0 - y_ref) / GAS.0);
+        let x_ref = (y_ref / IDEAL_W) * w_ref;
+        let cp_g = y_ref * liq.cp_vapor + (1.0 - y_ref) * GAS.1;
+        let k_g = wilke2(liq.k_vapor, GAS.3, liq.mu_vapor, GAS.2, IDEAL_W, GAS.0, x_ref);
+        let rho_g = p * w_ref / (GAS_CONSTANT * t_ref);
+        let lewis = k_g / (rho_g * cp_g * fuller(t_ref, p));
+        let phi = (liq.cp_vapor / cp_g) / lewis;
+        (1.0 + b_m).powf(phi) - 1.0 - liq.cp_vapor * (t_inf - t) / liq.latent_heat
+    };
+    let (mut lo, mut hi) = (250.0, 399.99);
+    for _ in 0..200 {
+        let m = 0.5 * (lo + hi);
+        if residual(m) > 0.0 {
+            hi = m;
+        } else {
+            lo = m;
+        }
+    }
+    let t_wb = 0.5 * (lo + hi);
+    CheckResult::absolute(
+        GROUP,
+        format!("wet-bulb temperature, still droplet in 700 K gas, constant properties (expected {t_wb:.3} K)"),
+        "analytical: Q_L = 0 ⇒ B_T = cp_F (T∞ − T)/L = (1+B_M)^φ − 1 (Abramzon & Sirignano 1989)",
+        (t_sim - t_wb).abs(),
+        0.5,
+        "K",
+    )
+}
+
+/// Rayleigh's batch-distillation law for a binary with constant relative volatility (temperature held fixed).
+pub fn rayleigh() -> CheckResult {
+    let (p1, p2) = (2.0e4, 2.0e3);
+    let alpha = p1 / p2;
+    let light = liquid("ideal-light", constant("vapor-pressure", p1, "Pa")).component();
+    let heavy = liquid("ideal-heavy", constant("vapor-pressure", p2, "Pa")).component();
+    let fuel = Fuel::from_fractions("ideal-binary", vec![light, heavy], &[0.5, 0.5], Basis::Mole).expect("fuel");
+    let mut inp = DropletInputs::new(fuel, ideal_gas(), 800.0, 101_325.0, 100e-6, 330.0);
+    inp.fixed_temperature = true;
+    inp.rtol = 1e-8;
+    let mut rec = Recorder::default();
+    let _ = simulate(&inp, &mut rec).expect("run");
+    let x0: f64 = 0.5;
+    // ln(n/n0) = [ln(x/x0) + α ln((1−x0)/(1−x))]/(α − 1); equal molar masses make n/n0 = m/m0 and x = w.
+    let ln_ratio = |x: f64| ((x / x0).ln() + alpha * ((1.0 - x0) / (1.0 - x)).ln()) / (alpha - 1.0);
+    let mut worst: f64 = 0.0;
+    let mut count = 0;
+    for r in rec.rows.iter().filter(|r| r.evaporated_fraction <= 0.99) {
+        let target = (1.0 - r.evaporated_fraction).ln();
+        let (mut lo, mut hi) = (1e-15, x0);
+        for _ in 0..200 {
+            let m = 0.5 * (lo + hi);
+            if ln_ratio(m) > target {
+                hi = m;
+            } else {
+                lo = m;
+            }
+        }
+        worst = worst.max((0.5 * (lo + hi) - r.liquid_mass_fractions[0]).abs());
+        count += 1;
+    }
+    CheckResult::absolute(
+        GROUP,
+        format!("liquid composition vs evaporated fraction of a binary (α = {alpha}) at fixed temperature, {count} points to 99 % evaporated"),
+        "analytical: Rayleigh (1902) batch-distillation equation",
+        worst,
+        1e-3,
+        "mole fraction",
+    )
+}
+
+/// Mass of each component: liquid + evaporated = initial, over a full run of the wide-cut demo fuel.
+pub fn mass_conservation(lib: &Library) -> CheckResult {
+    let fuel = Fuel::resolve("demo-wide", lib).expect("demo-wide");
+    let gas = AmbientGas::air(lib).expect("air");
+    let mut inp = DropletInputs::new(fuel, gas, 800.0, 1.0e6, 30e-6, 300.0);
+    inp.motion = crate::model::Motion::Injected { velocity: 20.0 };
+    let run = simulate(&inp, &mut NoHistory).expect("run");
+    CheckResult::absolute(
+        GROUP,
+        "per-component mass balance (liquid + evaporated vs initial), demo-wide, 800 K, 10 bar, injected".into(),
+        "conservation of mass (exact)",
+        run.outcome.mass_balance_error,
+        1e-9,
+        "relative",
+    )
+}
+
+/// Halving the tolerance changes the lifetime by less than 0.1 %.
+pub fn convergence(lib: &Library) -> CheckResult {
+    let lifetime = |rtol: f64| {
+        let fuel = Fuel::resolve("demo-wide", lib).expect("demo-wide");
+        let gas = AmbientGas::air(lib).expect("air");
+        let mut inp = DropletInputs::new(fuel, gas, 800.0, 1.0e6, 30e-6, 300.0);
+        inp.motion = crate::model::Motion::Injected { velocity: 20.0 };
+        inp.rtol = rtol;
+        simulate(&inp, &mut NoHistory).expect("run").outcome.lifetime.unwrap_or(f64::NAN)
+    };
+    let (a, b) = (lifetime(1e-6), lifetime(5e-7));
+    CheckResult::relative(GROUP, "lifetime change when the tolerance is halved (1e-6 → 5e-7), demo-wide".into(), "numerical convergence (issue requirement)", (a / b - 1.0).abs(), 1e-3)
+}
+
+/// All analytic checks.
+pub fn analytic_checks(lib: &Library) -> Vec<CheckResult> {
+    vec![d2_law(), wet_bulb(), rayleigh(), mass_conservation(lib), convergence(lib)]
+}

@@ -111,6 +111,42 @@ pub struct ConditionArgs {
     /// Give up after this simulated time.
     #[arg(long, default_value = "30s")]
     pub max_time: String,
+    /// Species inside the droplet: well-mixed (rapid mixing) or diffusion (effective diffusivity).
+    #[arg(long, value_enum, default_value = "well-mixed")]
+    pub liquid_mixing: MixingArg,
+    /// Heat inside the droplet: uniform (infinite conductivity) or conduction (effective conductivity).
+    #[arg(long, value_enum, default_value = "uniform")]
+    pub liquid_heat: HeatArg,
+    /// Radial cells of the resolved liquid models.
+    #[arg(long, default_value = "40")]
+    pub nodes: String,
+    /// Langmuir–Knudsen non-equilibrium surface vapour (Miller, Harstad & Bellan 1998).
+    #[arg(long)]
+    pub non_equilibrium: bool,
+    /// Multiply the liquid diffusivity (limit studies).
+    #[arg(long, default_value = "1", hide_short_help = true)]
+    pub liquid_diffusivity_factor: String,
+    /// Multiply the liquid conductivity (limit studies).
+    #[arg(long, default_value = "1", hide_short_help = true)]
+    pub liquid_conductivity_factor: String,
+}
+
+/// Liquid species mixing.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum MixingArg {
+    /// Uniform composition.
+    WellMixed,
+    /// Transient diffusion.
+    Diffusion,
+}
+
+/// Liquid heat transport.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum HeatArg {
+    /// Uniform temperature.
+    Uniform,
+    /// Transient conduction.
+    Conduction,
 }
 
 /// `simulate` arguments.

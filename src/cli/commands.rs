@@ -5,7 +5,7 @@ use std::path::Path;
 
 use serde::Serialize;
 
-use super::args::{Cli, Command, ConditionArgs, CorrelationArg, FuelAction, SimulateArgs};
+use super::args::{Cli, Command, ConditionArgs, CorrelationArg, FuelAction, HeatArg, MixingArg, SimulateArgs};
 use super::CliError;
 use crate::data::Library;
 use crate::fuel::Fuel;
@@ -238,6 +238,31 @@ pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<Dr
     inp.rtol = rtol;
     inp.max_time = max_time;
     inp.ambient_vapor = ambient_vapor;
+    let nodes: usize = c.nodes.trim().parse().map_err(|_| CliError::input(format!("--nodes: '{}' is not a whole number", c.nodes)))?;
+    if !(4..=400).contains(&nodes) {
+        return Err(CliError::input(format!("--nodes: {nodes} must lie between 4 and 400")));
+    }
+    let factor = |name: &str, text: &str| -> Result<f64, CliError> {
+        let v = parse_q(name, text, Quantity::Dimensionless)?;
+        if !(v > 0.0 && v <= 1e8) {
+            return Err(CliError::input(format!("--{name}: {v} must be a positive factor up to 1e8")));
+        }
+        Ok(v)
+    };
+    inp.liquid = model::droplet::LiquidOptions {
+        mixing: match c.liquid_mixing {
+            MixingArg::WellMixed => model::droplet::LiquidMixing::WellMixed,
+            MixingArg::Diffusion => model::droplet::LiquidMixing::Diffusion,
+        },
+        heat: match c.liquid_heat {
+            HeatArg::Uniform => model::droplet::LiquidHeat::Uniform,
+            HeatArg::Conduction => model::droplet::LiquidHeat::Conduction,
+        },
+        nodes,
+        non_equilibrium: c.non_equilibrium,
+        diffusivity_factor: factor("liquid-diffusivity-factor", &c.liquid_diffusivity_factor)?,
+        conductivity_factor: factor("liquid-conductivity-factor", &c.liquid_conductivity_factor)?,
+    };
     Ok(inp)
 }
 
@@ -250,7 +275,7 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
     progress(&format!("simulating {} ...", inp.fuel.name));
     let mut rec = model::droplet::Recorder::default();
     let run = model::simulate(&inp, &mut rec)?;
-    output::history::write_run(&args.out, &inp, &run.history, &run.outcome)?;
+    output::history::write_run(&args.out, &inp, &run)?;
     for n in &run.outcome.regime_notes {
         notice(n);
     }
@@ -321,12 +346,18 @@ fn demo(lib: &Library, out: &Path) -> Result<(), CliError> {
                 correlation: CorrelationArg::Clift,
                 rtol: "1e-6".into(),
                 max_time: tmax.into(),
+                liquid_mixing: MixingArg::WellMixed,
+                liquid_heat: HeatArg::Uniform,
+                nodes: "40".into(),
+                non_equilibrium: false,
+                liquid_diffusivity_factor: "1".into(),
+                liquid_conductivity_factor: "1".into(),
             };
             let inp = droplet_inputs(lib, fuel, &cond)?;
             let mut rec = model::droplet::Recorder::default();
             let run = model::simulate(&inp, &mut rec)?;
             let dir = out.join(format!("{fuel_id}_{name}"));
-            output::history::write_run(&dir, &inp, &run.history, &run.outcome)?;
+            output::history::write_run(&dir, &inp, &run)?;
             table.push_str(&format_outcome_line(fuel_id, name, &run.outcome));
         }
     }

@@ -4,6 +4,7 @@
 
 use serde::Serialize;
 
+pub mod droplet;
 pub mod model;
 
 /// Outcome of one validation check.

@@ -6,6 +6,7 @@ use serde::Serialize;
 
 pub mod droplet;
 pub mod model;
+pub mod properties;
 
 /// Outcome of one validation check.
 #[derive(Debug, Clone, Serialize)]

@@ -23,3 +23,9 @@ fn resolved_liquid_limits_and_grid_convergence() {
     let lib = Library::embedded().unwrap();
     assert_all_passed(&model::resolved_limit_checks(&lib));
 }
+
+#[test]
+fn joback_viscosity_estimate_against_published_correlations() {
+    let lib = Library::embedded().unwrap();
+    assert_all_passed(&dropcut::checks::estimation::joback_viscosity_checks(&lib));
+}

@@ -39,12 +39,38 @@ pub enum Command {
         #[arg(long, default_value = "dropcut-out/demo")]
         out: PathBuf,
     },
+    /// Residual liquid of a fuel weathered in an open vessel at a fixed temperature (Rayleigh path): indicators
+    /// at each evaporated fraction.
+    Residue(ResidueArgs),
     /// Rerun every validation check and write the report (Markdown).
     Validate {
         /// Report file.
         #[arg(long, default_value = "docs/validation.md")]
         out: PathBuf,
     },
+}
+
+/// `residue` arguments.
+#[derive(Debug, Clone, Args)]
+pub struct ResidueArgs {
+    /// Fuel file, library fuel id, or component id.
+    pub fuel: String,
+    /// Temperature of the open-vessel evaporation.
+    #[arg(long, default_value = "350K")]
+    pub temperature: String,
+    /// Evaporated mass fractions, comma-separated (default 0, 0.05, ..., 0.95).
+    #[arg(long, default_value = "")]
+    pub steps: String,
+    /// Limits file (TOML windows) to flag indicators in or out; `aviation` for the built-in
+    /// aviation-turbine-fuel windows.
+    #[arg(long)]
+    pub limits: Option<String>,
+    /// Print the rows as JSON (a list) instead of a table.
+    #[arg(long)]
+    pub json: bool,
+    /// Also write the table as CSV to this file.
+    #[arg(long)]
+    pub out: Option<std::path::PathBuf>,
 }
 
 /// `fuel` subcommands.
@@ -166,4 +192,7 @@ pub struct SimulateArgs {
     /// Do not draw charts.
     #[arg(long)]
     pub no_plots: bool,
+    /// Limits file for the residue table (`aviation` = built-in aviation-turbine-fuel windows).
+    #[arg(long)]
+    pub limits: Option<String>,
 }

@@ -86,7 +86,7 @@ fn absolute(p: &Path) -> Result<PathBuf, CliError> {
 /// `dropcut sweep SPEC ...`
 pub fn sweep(lib: &Library, args: &SweepArgs, components: Option<&Path>) -> Result<(), CliError> {
     let spec = SweepSpec::load(&args.spec, lib)?;
-    for f in &spec.fuels {
+    for f in spec.fuels() {
         for n in &f.fuel.notices {
             notice(n);
         }

@@ -216,16 +216,12 @@ pub struct SweepSpec {
     pub name: Option<String>,
     /// Optional description.
     pub description: Option<String>,
-    /// Fuels, in spec order.
-    pub fuels: Vec<SweepFuel>,
-    /// Values of each condition variable, indexed like [`VARIABLES`].
-    pub values: Vec<Values>,
-    /// Groups of variable indices in case-id order; a zipped group has several members.
-    pub groups: Vec<Vec<usize>>,
-    /// Model options.
-    pub model: ModelOptions,
     /// Write per-case histories (the `[output] histories` option).
     pub histories: bool,
+    fuels: Vec<SweepFuel>,
+    values: Vec<Values>,
+    groups: Vec<Vec<usize>>,
+    model: ModelOptions,
     count: u64,
     fingerprint: String,
     fallback_gas: AmbientGas,
@@ -370,6 +366,26 @@ impl SweepSpec {
         let mut spec = SweepSpec { file: file.to_string(), name, description, fuels, values, groups, model, histories, count, fingerprint: String::new(), fallback_gas };
         spec.fingerprint = spec.compute_fingerprint();
         Ok(spec)
+    }
+
+    /// Fuels, in spec order.
+    pub fn fuels(&self) -> &[SweepFuel] {
+        &self.fuels
+    }
+
+    /// Values of each condition variable, indexed like [`VARIABLES`].
+    pub fn values(&self) -> &[Values] {
+        &self.values
+    }
+
+    /// Groups of variable indices in case-id order (slowest first); a zipped group has several members.
+    pub fn groups(&self) -> &[Vec<usize>] {
+        &self.groups
+    }
+
+    /// Model options.
+    pub fn model(&self) -> ModelOptions {
+        self.model
     }
 
     /// Number of cases.

@@ -135,7 +135,7 @@ impl RowFormatter {
     }
 
     fn input_cells(spec: &SweepSpec, case: &Case) -> Vec<Cell> {
-        let mut cells = vec![Cell::Text(case.id.to_string()), Cell::Text(spec.fuels[case.fuel].entry.clone())];
+        let mut cells = vec![Cell::Text(case.id.to_string()), Cell::Text(spec.fuels()[case.fuel].entry.clone())];
         cells.extend(case.values.iter().map(|v| Cell::Text(v.csv_text())));
         cells
     }

@@ -24,6 +24,7 @@ fn sweep_throughput(c: &mut Criterion) {
     let root = std::env::temp_dir().join(format!("dropcut-bench-sweep-{}", std::process::id()));
     let mut group = c.benchmark_group("sweep");
     group.sample_size(10);
+    group.measurement_time(std::time::Duration::from_secs(10));
     group.throughput(Throughput::Elements(spec.case_count()));
     let mut n = 0u64;
     group.bench_function("ten-component well-mixed, 64 cases, all cores", |b| {

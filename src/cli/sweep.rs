@@ -49,7 +49,11 @@ impl Progress for StderrProgress {
         self.last_line = Instant::now();
         if std::io::stderr().is_terminal() {
             let bar = ProgressBar::with_draw_target(Some(total), ProgressDrawTarget::stderr());
-            let style = ProgressStyle::with_template("sweep {bar:30} {pos}/{len} cases, {per_sec}, ETA {eta}").unwrap_or_else(|_| ProgressStyle::default_bar());
+            let style = ProgressStyle::with_template("sweep {bar:30} {pos}/{len} cases, {rate}, ETA {eta}")
+                .unwrap_or_else(|_| ProgressStyle::default_bar())
+                .with_key("rate", |state: &indicatif::ProgressState, w: &mut dyn std::fmt::Write| {
+                    let _ = write!(w, "{:.1} cases/s", state.per_sec());
+                });
             bar.set_style(style);
             bar.set_position(already_done);
             bar.reset_eta();

@@ -1,11 +1,12 @@
 //! Sweep throughput: cases per second for a ten-component well-mixed fuel on every core.
-//! Run with `cargo bench --bench sweep`; criterion reports the time per sweep of 64 cases and the throughput.
+//! Run with `cargo bench --bench sweep`; criterion reports the time per sweep of 64 cases and the throughput
+//! (cases/s), without and with the residual-liquid indicator columns the CLI adds by default.
 
 use std::path::Path;
 
 use criterion::{criterion_group, criterion_main, Criterion, Throughput};
 use dropcut::data::Library;
-use dropcut::sweep::{self, runner::NoProgress, RunOptions, SweepSpec};
+use dropcut::sweep::{self, runner::NoProgress, ResidueIndicators, RunOptions, SweepSpec};
 
 const SPEC: &str = r#"
 fuels = ["ten-component.toml"]
@@ -27,15 +28,20 @@ fn sweep_throughput(c: &mut Criterion) {
     group.measurement_time(std::time::Duration::from_secs(10));
     group.throughput(Throughput::Elements(spec.case_count()));
     let mut n = 0u64;
-    group.bench_function("ten-component well-mixed, 64 cases, all cores", |b| {
-        b.iter(|| {
-            n += 1;
-            let dir = root.join(n.to_string());
-            let report = sweep::run(&spec, &dir, &RunOptions::default(), &mut NoProgress).expect("sweep");
-            assert_eq!(report.failed, 0);
-            let _ = std::fs::remove_dir_all(&dir);
-        })
-    });
+    for residue in [false, true] {
+        let name = if residue { "ten-component well-mixed, 64 cases, all cores, with residue indicators" } else { "ten-component well-mixed, 64 cases, all cores" };
+        group.bench_function(name, |b| {
+            b.iter(|| {
+                n += 1;
+                let dir = root.join(n.to_string());
+                let extra_columns: Vec<Box<dyn sweep::ExtraColumns>> = if residue { vec![Box::new(ResidueIndicators::default())] } else { vec![] };
+                let opts = RunOptions { extra_columns, ..RunOptions::default() };
+                let report = sweep::run(&spec, &dir, &opts, &mut NoProgress).expect("sweep");
+                assert_eq!(report.failed, 0);
+                let _ = std::fs::remove_dir_all(&dir);
+            })
+        });
+    }
     group.finish();
     let _ = std::fs::remove_dir_all(&root);
 }

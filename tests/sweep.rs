@@ -303,6 +303,35 @@ fn a_failing_case_is_recorded_and_the_sweep_goes_on() {
     assert!(rows[0].ends_with(",evaporated"));
     assert!(rows[1].contains(",failed: ambient-temperature"), "{}", rows[1]);
     assert!(rows[2].ends_with(",evaporated"));
+    // the failed row has empty result and residue cells
+    assert!(rows[1].contains(",,,,,,,,,,,,,,,,failed: "), "{}", rows[1]);
+}
+
+#[test]
+fn residue_indicator_columns_and_switching_them_off() {
+    let t = TempDir::new("residue");
+    let spec = "fuels = [\"ten-component.toml\"]\n[conditions]\ndiameter = [\"10um\", \"20um\"]\nmax-time = \"1s\"\n";
+    t.write("on.toml", spec);
+    t.write("off.toml", &format!("{spec}[output]\nresidue-indicators = false\n"));
+    ok(t.path(), &["sweep", "on.toml", "--out", "on"]);
+    ok(t.path(), &["sweep", "off.toml", "--out", "off"]);
+    let on = String::from_utf8(read(t.path().join("on/summary.csv"))).unwrap();
+    let off = String::from_utf8(read(t.path().join("off/summary.csv"))).unwrap();
+    let header_on = on.lines().find(|l| !l.starts_with('#')).unwrap();
+    let header_off = off.lines().find(|l| !l.starts_with('#')).unwrap();
+    for col in ["residue_t50_K", "residue_flash_point_K", "residue_density_15C_kg_m3", "residue_dcn"] {
+        assert!(header_on.contains(col), "{header_on}");
+    }
+    assert!(!header_off.contains("residue_"));
+    assert!(header_on.ends_with(",status") && header_off.ends_with(",status"));
+    // the residue of an evaporated ten-component droplet is heavier than the fuel: its flash point is above
+    // the fresh fuel's lightest components' and it has a value
+    let cols: Vec<&str> = header_on.split(',').collect();
+    let fp = cols.iter().position(|c| *c == "residue_flash_point_K").unwrap();
+    for row in data_rows(on.as_bytes()) {
+        let v: f64 = row.split(',').nth(fp).unwrap().parse().unwrap();
+        assert!(v > 300.0 && v < 500.0, "{row}");
+    }
 }
 
 #[test]

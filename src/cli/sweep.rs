@@ -108,7 +108,13 @@ pub fn sweep(lib: &Library, args: &SweepArgs, components: Option<&Path>) -> Resu
             None => Shard::WHOLE,
         },
     };
-    let opts = RunOptions { threads: args.threads, shard, histories: args.histories, resume: args.resume, extra_columns: vec![] };
+    let opts = RunOptions {
+        threads: args.threads,
+        shard,
+        histories: args.histories,
+        resume: args.resume,
+        extra_columns: if spec.residue_indicators { vec![Box::new(sweep::ResidueIndicators::default())] } else { vec![] },
+    };
     let started = Instant::now();
     let mut progress = StderrProgress::new();
     let report = sweep::run(&spec, &args.out, &opts, &mut progress)?;

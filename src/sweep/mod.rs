@@ -4,6 +4,7 @@
 //! (journal file, resume, shards) are described in `docs/sweeps.md`.
 
 pub mod merge;
+pub mod residue;
 pub mod runner;
 pub mod shard;
 pub mod slurm;
@@ -11,6 +12,7 @@ pub mod spec;
 pub mod summary;
 
 pub use merge::{merge, MergeReport};
+pub use residue::ResidueIndicators;
 pub use runner::{run, Progress, RunOptions, SweepReport};
 pub use shard::Shard;
 pub use spec::{Case, SweepSpec, Value, VARIABLES};

@@ -68,7 +68,7 @@ pub const VARIABLES: [Variable; 11] = [
 const TOP_KEYS: [&str; 7] = ["name", "description", "fuels", "zipped", "conditions", "model", "output"];
 const RANGE_KEYS: [&str; 4] = ["from", "to", "steps", "scale"];
 const MODEL_KEYS: [&str; 3] = ["liquid", "reference-weight", "end-mass-fraction"];
-const OUTPUT_KEYS: [&str; 1] = ["histories"];
+const OUTPUT_KEYS: [&str; 2] = ["histories", "residue-indicators"];
 /// Largest number of cases a spec may describe.
 pub const MAX_CASES: u64 = 1_000_000_000_000;
 /// Largest `steps` of one range.
@@ -218,6 +218,8 @@ pub struct SweepSpec {
     pub description: Option<String>,
     /// Write per-case histories (the `[output] histories` option).
     pub histories: bool,
+    /// Add the residual-liquid indicator columns (the `[output] residue-indicators` option, default true).
+    pub residue_indicators: bool,
     fuels: Vec<SweepFuel>,
     values: Vec<Values>,
     groups: Vec<Vec<usize>>,
@@ -356,14 +358,14 @@ impl SweepSpec {
 
         let groups = parse_zipped(&ctx, table.get("zipped"), &given, &values)?;
         let model = parse_model(&ctx, table.get("model"))?;
-        let histories = parse_output(&ctx, table.get("output"))?;
+        let (histories, residue_indicators) = parse_output(&ctx, table.get("output"))?;
 
         let mut count: u64 = fuels.len() as u64;
         for g in &groups {
             count = count.checked_mul(values[g[0]].len()).filter(|c| *c <= MAX_CASES).ok_or_else(|| ctx.err("conditions", format!("the spec describes more than {MAX_CASES} cases")))?;
         }
         let fallback_gas = AmbientGas::air(lib).map_err(|e| ctx.err("conditions.gas", e.to_string()))?;
-        let mut spec = SweepSpec { file: file.to_string(), name, description, fuels, values, groups, model, histories, count, fingerprint: String::new(), fallback_gas };
+        let mut spec = SweepSpec { file: file.to_string(), name, description, fuels, values, groups, model, histories, residue_indicators, count, fingerprint: String::new(), fallback_gas };
         spec.fingerprint = spec.compute_fingerprint();
         Ok(spec)
     }
@@ -707,21 +709,25 @@ fn parse_model(ctx: &Ctx, v: Option<&toml::Value>) -> Result<ModelOptions, Sweep
     Ok(m)
 }
 
-fn parse_output(ctx: &Ctx, v: Option<&toml::Value>) -> Result<bool, SweepError> {
-    let Some(v) = v else { return Ok(false) };
+fn parse_output(ctx: &Ctx, v: Option<&toml::Value>) -> Result<(bool, bool), SweepError> {
+    let (mut histories, mut residue) = (false, true);
+    let Some(v) = v else { return Ok((histories, residue)) };
     let toml::Value::Table(t) = v else {
         return Err(ctx.err("output", format!("expected a table [output], found {}", type_name(v))));
     };
-    let mut histories = false;
     for (key, v) in t {
         let field = format!("output.{key}");
-        match (key.as_str(), v) {
-            ("histories", toml::Value::Boolean(b)) => histories = *b,
-            ("histories", other) => return Err(ctx.err(field, format!("expected true or false, found {}", show(other)))),
+        let slot = match key.as_str() {
+            "histories" => &mut histories,
+            "residue-indicators" => &mut residue,
             _ => return Err(unknown_key(ctx, &field, key, &OUTPUT_KEYS)),
+        };
+        match v {
+            toml::Value::Boolean(b) => *slot = *b,
+            other => return Err(ctx.err(field, format!("expected true or false, found {}", show(other)))),
         }
     }
-    Ok(histories)
+    Ok((histories, residue))
 }
 
 #[cfg(test)]

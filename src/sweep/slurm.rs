@@ -87,6 +87,7 @@ pub fn batch_script(b: &BatchScript) -> String {
     s.push_str("fi\n\n");
     s.push_str("# Submitting (run with bash outside a job): the array, then the merge job that depends on it.\n");
     s.push_str("mkdir -p \"$OUT/logs\"\n");
+    s.push_str("rm -f \"$OUT/summary.csv\"   # an earlier merge result; the shards keep every row\n");
     s.push_str("array_job=$(sbatch --parsable \"$0\")\n");
     s.push_str("array_job=${array_job%%;*}\n");
     s.push_str(&format!("echo \"submitted job array $array_job: {} shards\"\n", b.shards));
@@ -99,6 +100,11 @@ pub fn batch_script(b: &BatchScript) -> String {
     s.push_str("if [ \"${1:-}\" = --wait ]; then\n");
     s.push_str("  echo \"waiting for the merge job (it starts when every array task has succeeded) ...\"\n");
     s.push_str("  sbatch --wait \"${merge_opts[@]}\" --wrap=\"$merge_cmd\"\n");
+    s.push_str("  # a merge job cancelled because a task failed also ends sbatch --wait with 0: check its result\n");
+    s.push_str("  if [ ! -s \"$OUT/summary.csv\" ]; then\n");
+    s.push_str("    echo \"error: no merged summary: an array task failed and the merge job was cancelled; see $OUT/logs/\" >&2\n");
+    s.push_str("    exit 1\n");
+    s.push_str("  fi\n");
     s.push_str("  echo \"merged summary: $OUT/summary.csv\"\n");
     s.push_str("else\n");
     s.push_str("  merge_job=$(sbatch --parsable \"${merge_opts[@]}\" --wrap=\"$merge_cmd\")\n");

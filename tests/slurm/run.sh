@@ -2,7 +2,8 @@
 # Real cluster test of `dropcut sweep --slurm-script`: starts a one-node Slurm (../shared/slurm-single-node.sh,
 # Debian's packages, needs root), submits a small sweep as a job array with the generated batch script
 # (`bash job.sh --wait`: array + merge job with --dependency=afterok), and checks that the merged summary.csv
-# equals a local single-machine run byte for byte.
+# equals a local single-machine run byte for byte; then checks that a failing array task makes
+# `bash job.sh --wait` fail (the merge job is cancelled) instead of hanging or reporting success.
 #
 #   bash tests/slurm/run.sh        # from the repository; uses ${CARGO_TARGET_DIR:-target}/release/dropcut
 #
@@ -81,4 +82,12 @@ if ! cmp "$WORK/local/summary.csv" "$WORK/cluster/summary.csv"; then
   diff "$WORK/local/summary.csv" "$WORK/cluster/summary.csv" | head -20 >&2 || true
   exit 1
 fi
+log "a failing array task must make 'bash job.sh --wait' fail, not hang or report success"
+"$BIN" sweep "$WORK/spec.toml" --slurm-script --shards 2 --cpus-per-task 1 --out "$WORK/failing" >"$WORK/failing.sh"
+if (cd "$WORK" && DROPCUT=/bin/false timeout "$TIMEOUT" bash failing.sh --wait); then
+  log "FAIL: the script reported success although every array task failed"
+  exit 1
+fi
+[ ! -e "$WORK/failing/summary.csv" ] || { log "FAIL: a merged summary appeared although the tasks failed"; exit 1; }
+
 log "PASS: merged summary of the Slurm job array equals the local run byte for byte ($(($(grep -vc '^#' "$WORK/local/summary.csv") - 1)) cases)"

@@ -254,6 +254,17 @@ fn resume_refuses_another_spec_and_run_refuses_a_used_folder() {
     assert_eq!(other.status.code(), Some(2));
     let fresh = dropcut(t.path(), &["sweep", "spec.toml", "--out", "half"]);
     assert_eq!(fresh.status.code(), Some(2), "an unfinished sweep must need --resume");
+    // while another process holds the journal, a second run stops without touching it
+    let journal = t.path().join("half/summary.csv.partial");
+    let before = read(&journal);
+    {
+        let held = fs::OpenOptions::new().read(true).write(true).open(&journal).unwrap();
+        held.try_lock().unwrap();
+        let second = dropcut(t.path(), &["sweep", "spec.toml", "--out", "half", "--resume"]);
+        assert_eq!(second.status.code(), Some(2));
+        assert!(String::from_utf8_lossy(&second.stderr).contains("another dropcut sweep is writing"), "{}", String::from_utf8_lossy(&second.stderr));
+        assert!(read(&journal) == before, "the journal was changed while locked");
+    }
     ok(t.path(), &["sweep", "spec.toml", "--out", "half", "--resume"]);
     assert!(read(t.path().join("half/summary.csv")) == read(t.path().join("out/summary.csv")));
 }

@@ -143,9 +143,12 @@ pub fn run(spec: &SweepSpec, out: &Path, opts: &RunOptions, progress: &mut dyn P
                 message: "holds an unfinished sweep (summary.csv.partial); pass --resume to continue it, or choose another --out".into(),
             });
         }
-        recover_journal(&journal, &head, opts.shard, header.len(), total)?
+        let f = OpenOptions::new().read(true).write(true).open(&journal).map_err(|e| SweepError::io(&journal, e))?;
+        lock_journal(&f, &journal, out)?;
+        recover_journal(f, &journal, &head, opts.shard, header.len(), total)?
     } else {
         let mut f = OpenOptions::new().write(true).create_new(true).open(&journal).map_err(|e| SweepError::io(&journal, e))?;
+        lock_journal(&f, &journal, out)?;
         f.write_all(head.as_bytes()).and_then(|_| f.sync_data()).map_err(|e| SweepError::io(&journal, e))?;
         (f, 0, 0)
     };
@@ -358,10 +361,23 @@ fn scan_rows(path: &Path, head: &str, shard: Shard, n_fields: usize, total: u64)
     Ok(scan)
 }
 
-fn recover_journal(path: &Path, head: &str, shard: Shard, n_fields: usize, total: u64) -> Result<(File, u64, u64), SweepError> {
+/// Hold an advisory lock on the journal while the run writes it, so a second run on the same folder stops at
+/// once instead of interleaving rows. The lock ends with the process, however it ends.
+fn lock_journal(file: &File, journal: &Path, out: &Path) -> Result<(), SweepError> {
+    match file.try_lock() {
+        Ok(()) => Ok(()),
+        Err(std::fs::TryLockError::WouldBlock) => Err(SweepError::Mismatch {
+            path: out.display().to_string(),
+            message: format!("another dropcut sweep is writing {} right now; wait for it or choose another --out", journal.display()),
+        }),
+        // File systems without locks: go on without one.
+        Err(std::fs::TryLockError::Error(_)) => Ok(()),
+    }
+}
+
+fn recover_journal(mut f: File, path: &Path, head: &str, shard: Shard, n_fields: usize, total: u64) -> Result<(File, u64, u64), SweepError> {
     let scan = scan_rows(path, head, shard, n_fields, total)?;
     let io = |e: std::io::Error| SweepError::io(path, e);
-    let mut f = OpenOptions::new().read(true).write(true).open(path).map_err(io)?;
     if !scan.head_ok {
         if scan.head_is_prefix {
             // Killed while writing the header lines: start over.

@@ -206,7 +206,7 @@ mod tests {
                 assert_eq!(defaults, [var.default], "default of --{}", var.key);
             }
         }
-        let not_conditions = ["out", "json", "no-plots", "components", "help", "version"];
+        let not_conditions = ["out", "json", "no-plots", "limits", "components", "help", "version"];
         for arg in sim.get_arguments() {
             if let Some(long) = arg.get_long() {
                 if !not_conditions.contains(&long) {

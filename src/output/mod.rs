@@ -2,6 +2,7 @@
 //! temporary name and renamed, so an interrupted run never leaves a truncated file behind.
 
 pub mod history;
+pub mod residue;
 
 use std::fs;
 use std::io::Write;

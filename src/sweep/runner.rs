@@ -247,7 +247,7 @@ fn run_case(spec: &SweepSpec, id: u64, out: &Path, histories: bool, extra: &[Box
     match result {
         Ok(Ok(run)) => {
             if histories {
-                crate::output::history::write_run(&case_dir, &inputs, &run.history, &run.outcome)?;
+                crate::output::history::write_run(&case_dir, &inputs, &run)?;
             }
             Ok(fmt.finished(spec, &case, &inputs, &run.outcome, extra))
         }

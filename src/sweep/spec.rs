@@ -12,6 +12,7 @@ use std::sync::Arc;
 
 use crate::data::{suggest, toml_error_line, Library};
 use crate::fuel::Fuel;
+use crate::model::droplet::{LiquidHeat, LiquidMixing, LiquidOptions};
 use crate::model::{DropletInputs, Motion, TransferCorrelation};
 use crate::props::gas::AmbientGas;
 use crate::units::{self, Quantity};
@@ -27,8 +28,10 @@ pub enum Kind {
     Flag,
     /// Ambient gas text: `air`, `n2` or mole fractions like `o2=0.15,n2=0.85`.
     Gas,
-    /// Nusselt/Sherwood correlation name: `clift` or `ranz-marshall`.
-    Correlation,
+    /// One of a fixed set of names (e.g. `clift` / `ranz-marshall`).
+    Choice(&'static [&'static str]),
+    /// A whole number between the two bounds (inclusive).
+    Count(u64, u64),
     /// Far-field fuel vapour as component=mass-fraction pairs (empty for none).
     AmbientVapor,
 }
@@ -44,14 +47,27 @@ pub struct Variable {
     pub kind: Kind,
     /// Value used when the spec does not set the variable (the `simulate` default).
     pub default: &'static str,
+    /// Largest accepted value of a quantity (SI); larger values are spec errors.
+    pub max: f64,
 }
 
 const fn var(key: &'static str, column: &'static str, kind: Kind, default: &'static str) -> Variable {
-    Variable { key, column, kind, default }
+    Variable { key, column, kind, default, max: f64::INFINITY }
 }
 
+const fn factor(key: &'static str, column: &'static str) -> Variable {
+    Variable { key, column, kind: Kind::Quantity(Quantity::Dimensionless), default: "1", max: 1e8 }
+}
+
+/// Names of the Nusselt/Sherwood correlations.
+pub const CORRELATIONS: [&str; 2] = ["clift", "ranz-marshall"];
+/// Names of the liquid species-mixing models.
+pub const LIQUID_MIXING: [&str; 2] = ["well-mixed", "diffusion"];
+/// Names of the liquid heat-transport models.
+pub const LIQUID_HEAT: [&str; 2] = ["uniform", "conduction"];
+
 /// The condition variables in case-id order (the last varies fastest); defaults equal those of `simulate`.
-pub const VARIABLES: [Variable; 11] = [
+pub const VARIABLES: [Variable; 17] = [
     var("ambient-temperature", "ambient_temperature_K", Kind::Quantity(Quantity::Temperature), "800K"),
     var("pressure", "pressure_Pa", Kind::Quantity(Quantity::Pressure), "1atm"),
     var("gas", "gas", Kind::Gas, "air"),
@@ -59,15 +75,40 @@ pub const VARIABLES: [Variable; 11] = [
     var("droplet-temperature", "droplet_temperature_K", Kind::Quantity(Quantity::Temperature), "300K"),
     var("velocity", "velocity_m_s", Kind::Quantity(Quantity::Velocity), "0"),
     var("injected", "injected", Kind::Flag, "false"),
-    var("correlation", "correlation", Kind::Correlation, "clift"),
+    var("correlation", "correlation", Kind::Choice(&CORRELATIONS), "clift"),
     var("rtol", "rtol", Kind::Quantity(Quantity::Dimensionless), "1e-6"),
     var("max-time", "max_time_s", Kind::Quantity(Quantity::Time), "30s"),
     var("ambient-vapor", "ambient_vapor", Kind::AmbientVapor, ""),
+    var("liquid-mixing", "liquid_mixing", Kind::Choice(&LIQUID_MIXING), "well-mixed"),
+    var("liquid-heat", "liquid_heat", Kind::Choice(&LIQUID_HEAT), "uniform"),
+    var("nodes", "nodes", Kind::Count(4, 400), "40"),
+    var("non-equilibrium", "non_equilibrium", Kind::Flag, "false"),
+    factor("liquid-diffusivity-factor", "liquid_diffusivity_factor"),
+    factor("liquid-conductivity-factor", "liquid_conductivity_factor"),
 ];
+
+// Positions in VARIABLES (checked by a unit test).
+const AMBIENT_TEMPERATURE: usize = 0;
+const PRESSURE: usize = 1;
+const GAS: usize = 2;
+const DIAMETER: usize = 3;
+const DROPLET_TEMPERATURE: usize = 4;
+const VELOCITY: usize = 5;
+const INJECTED: usize = 6;
+const CORRELATION: usize = 7;
+const RTOL: usize = 8;
+const MAX_TIME: usize = 9;
+const AMBIENT_VAPOR: usize = 10;
+const MIXING: usize = 11;
+const HEAT: usize = 12;
+const NODES: usize = 13;
+const NON_EQUILIBRIUM: usize = 14;
+const DIFFUSIVITY_FACTOR: usize = 15;
+const CONDUCTIVITY_FACTOR: usize = 16;
 
 const TOP_KEYS: [&str; 7] = ["name", "description", "fuels", "zipped", "conditions", "model", "output"];
 const RANGE_KEYS: [&str; 4] = ["from", "to", "steps", "scale"];
-const MODEL_KEYS: [&str; 3] = ["liquid", "reference-weight", "end-mass-fraction"];
+const MODEL_KEYS: [&str; 2] = ["reference-weight", "end-mass-fraction"];
 const OUTPUT_KEYS: [&str; 2] = ["histories", "residue-indicators"];
 /// Largest number of cases a spec may describe.
 pub const MAX_CASES: u64 = 1_000_000_000_000;
@@ -101,8 +142,8 @@ pub enum Value {
     Flag(bool),
     /// An ambient gas.
     Gas(Arc<GasValue>),
-    /// A transfer correlation.
-    Correlation(TransferCorrelation),
+    /// One of a fixed set of names.
+    Choice(&'static str),
     /// Far-field fuel vapour.
     AmbientVapor(Arc<VaporValue>),
 }
@@ -114,7 +155,7 @@ impl Value {
             Value::Number(x) => crate::output::fmt_f64(*x).unwrap_or_default(),
             Value::Flag(b) => b.to_string(),
             Value::Gas(g) => g.text.clone(),
-            Value::Correlation(c) => c.as_str().to_string(),
+            Value::Choice(c) => c.to_string(),
             Value::AmbientVapor(v) => v.text.clone(),
         }
     }
@@ -449,22 +490,33 @@ impl SweepSpec {
             Value::Number(x) => *x,
             _ => f64::NAN, // cannot happen: kinds are checked at parse time; NaN is refused by the model
         };
+        let flag = |v: usize| matches!(case.values[v], Value::Flag(true));
+        let choice = |v: usize| match &case.values[v] {
+            Value::Choice(c) => *c,
+            _ => "",
+        };
         let fuel = &self.fuels[case.fuel].fuel;
-        let gas = match &case.values[2] {
+        let gas = match &case.values[GAS] {
             Value::Gas(g) => g.gas.clone(),
             _ => self.fallback_gas.clone(), // cannot happen: the gas variable holds gases
         };
-        let mut inp = DropletInputs::new(fuel.clone(), gas, num(0), num(1), num(3), num(4));
-        let injected = matches!(case.values[6], Value::Flag(true));
-        inp.motion = if injected { Motion::Injected { velocity: num(5) } } else { Motion::Fixed { velocity: num(5) } };
-        if let Value::Correlation(c) = case.values[7] {
-            inp.correlation = c;
-        }
-        inp.rtol = num(8);
-        inp.max_time = num(9);
-        if let Value::AmbientVapor(v) = &case.values[10] {
+        let mut inp = DropletInputs::new(fuel.clone(), gas, num(AMBIENT_TEMPERATURE), num(PRESSURE), num(DIAMETER), num(DROPLET_TEMPERATURE));
+        let velocity = num(VELOCITY);
+        inp.motion = if flag(INJECTED) { Motion::Injected { velocity } } else { Motion::Fixed { velocity } };
+        inp.correlation = if choice(CORRELATION) == "ranz-marshall" { TransferCorrelation::RanzMarshall } else { TransferCorrelation::Clift };
+        inp.rtol = num(RTOL);
+        inp.max_time = num(MAX_TIME);
+        if let Value::AmbientVapor(v) = &case.values[AMBIENT_VAPOR] {
             inp.ambient_vapor = v.per_fuel[case.fuel].clone();
         }
+        inp.liquid = LiquidOptions {
+            mixing: if choice(MIXING) == "diffusion" { LiquidMixing::Diffusion } else { LiquidMixing::WellMixed },
+            heat: if choice(HEAT) == "conduction" { LiquidHeat::Conduction } else { LiquidHeat::Uniform },
+            nodes: num(NODES) as usize,
+            non_equilibrium: flag(NON_EQUILIBRIUM),
+            diffusivity_factor: num(DIFFUSIVITY_FACTOR),
+            conductivity_factor: num(CONDUCTIVITY_FACTOR),
+        };
         inp.reference_weight = self.model.reference_weight;
         inp.end_mass_fraction = self.model.end_mass_fraction;
         inp
@@ -523,6 +575,9 @@ fn scalar(ctx: &Ctx, var: &Variable, v: &toml::Value, field: &str, fuels: &[Swee
             if (positive && x <= 0.0) || x < 0.0 {
                 return Err(ctx.err(field, format!("{} must be {}", show(v), if positive { "positive" } else { "zero or positive" })));
             }
+            if x > var.max {
+                return Err(ctx.err(field, format!("{} must not exceed {}", show(v), var.max)));
+            }
             Ok(Value::Number(x))
         }
         Kind::Flag => match v {
@@ -537,14 +592,24 @@ fn scalar(ctx: &Ctx, var: &Variable, v: &toml::Value, field: &str, fuels: &[Swee
             }
             _ => Err(ctx.err(field, format!("expected a gas such as \"air\", \"n2\" or \"o2=0.15,n2=0.85\", {}", found()))),
         },
-        Kind::Correlation => match v {
-            toml::Value::String(s) => match s.trim() {
-                "clift" => Ok(Value::Correlation(TransferCorrelation::Clift)),
-                "ranz-marshall" => Ok(Value::Correlation(TransferCorrelation::RanzMarshall)),
-                other => Err(ctx.err(field, format!("unknown correlation '{other}'{}; use clift or ranz-marshall", suggest(other, ["clift", "ranz-marshall"].into_iter())))),
+        Kind::Choice(names) => match v {
+            toml::Value::String(text) => match names.iter().find(|n| **n == text.trim()) {
+                Some(n) => Ok(Value::Choice(n)),
+                None => Err(ctx.err(field, format!("unknown {} '{}'{}; use {}", var.key, text.trim(), suggest(text.trim(), names.iter().copied()), names.join(" or ")))),
             },
-            _ => Err(ctx.err(field, format!("expected \"clift\" or \"ranz-marshall\", {}", found()))),
+            _ => Err(ctx.err(field, format!("expected {}, {}", names.iter().map(|n| format!("\"{n}\"")).collect::<Vec<_>>().join(" or "), found()))),
         },
+        Kind::Count(lo, hi) => {
+            let n = match v {
+                toml::Value::Integer(i) => Some(*i),
+                toml::Value::String(t) => t.trim().parse::<i64>().ok(),
+                _ => None,
+            };
+            match n {
+                Some(n) if n >= lo as i64 && n <= hi as i64 => Ok(Value::Number(n as f64)),
+                _ => Err(ctx.err(field, format!("expected a whole number from {lo} to {hi}, {}", found()))),
+            }
+        }
         Kind::AmbientVapor => match v {
             toml::Value::String(s) => {
                 let mut per_fuel = vec![];
@@ -685,10 +750,6 @@ fn parse_model(ctx: &Ctx, v: Option<&toml::Value>) -> Result<ModelOptions, Sweep
             other => Err(ctx.err(&field, format!("expected a number, found {}", show(other)))),
         };
         match key.as_str() {
-            "liquid" => match v {
-                toml::Value::String(s) if s == "well-mixed" => {}
-                other => return Err(ctx.err(&field, format!("{}: the only liquid model is \"well-mixed\"", show(other)))),
-            },
             "reference-weight" => {
                 let x = number()?;
                 if !(0.0..=1.0).contains(&x) {
@@ -806,6 +867,50 @@ velocity = [0, 5, 10]
         approx::assert_relative_eq!(d[1], 1e-4, max_relative = 1e-12);
         approx::assert_relative_eq!(d[2], 1e-3, max_relative = 1e-15);
         assert_eq!(s.case(2).unwrap().values[5].csv_text(), "10");
+    }
+
+    #[test]
+    fn position_constants_match_the_table() {
+        let keys = [
+            (AMBIENT_TEMPERATURE, "ambient-temperature"),
+            (PRESSURE, "pressure"),
+            (GAS, "gas"),
+            (DIAMETER, "diameter"),
+            (DROPLET_TEMPERATURE, "droplet-temperature"),
+            (VELOCITY, "velocity"),
+            (INJECTED, "injected"),
+            (CORRELATION, "correlation"),
+            (RTOL, "rtol"),
+            (MAX_TIME, "max-time"),
+            (AMBIENT_VAPOR, "ambient-vapor"),
+            (MIXING, "liquid-mixing"),
+            (HEAT, "liquid-heat"),
+            (NODES, "nodes"),
+            (NON_EQUILIBRIUM, "non-equilibrium"),
+            (DIFFUSIVITY_FACTOR, "liquid-diffusivity-factor"),
+            (CONDUCTIVITY_FACTOR, "liquid-conductivity-factor"),
+        ];
+        assert_eq!(keys.len(), VARIABLES.len());
+        for (i, k) in keys {
+            assert_eq!(VARIABLES[i].key, k);
+        }
+    }
+
+    #[test]
+    fn liquid_model_options() {
+        let s = parse("fuels = \"n-decane\"\n[conditions]\nliquid-mixing = [\"well-mixed\", \"diffusion\"]\nliquid-heat = \"conduction\"\nnodes = 20\nnon-equilibrium = true\nliquid-diffusivity-factor = 2\n").unwrap();
+        assert_eq!(s.case_count(), 2);
+        let inp = s.inputs(&s.case(1).unwrap());
+        assert_eq!(inp.liquid.mixing, LiquidMixing::Diffusion);
+        assert_eq!(inp.liquid.heat, LiquidHeat::Conduction);
+        assert_eq!(inp.liquid.nodes, 20);
+        assert!(inp.liquid.non_equilibrium);
+        assert_eq!(inp.liquid.diffusivity_factor, 2.0);
+        assert_eq!(inp.liquid.conductivity_factor, 1.0);
+        assert_eq!(s.inputs(&s.case(0).unwrap()).liquid.mixing, LiquidMixing::WellMixed);
+        assert!(parse("fuels = \"n-decane\"\n[conditions]\nnodes = 2\n").is_err());
+        assert!(parse("fuels = \"n-decane\"\n[conditions]\nliquid-mixing = \"difusion\"\n").is_err());
+        assert!(parse("fuels = \"n-decane\"\n[conditions]\nliquid-conductivity-factor = 1e9\n").is_err());
     }
 
     #[test]

@@ -549,6 +549,9 @@ fn parse_fuels(ctx: &Ctx, v: Option<&toml::Value>, base_dir: &Path) -> Result<Ve
         if trimmed.is_empty() {
             return Err(ctx.err(field, "empty fuel name"));
         }
+        if trimmed.chars().any(char::is_control) {
+            return Err(ctx.err(field, format!("{trimmed:?}: a fuel name or path may not hold control characters (line breaks, tabs)")));
+        }
         let rel = Path::new(trimmed);
         let beside_spec = base_dir.join(rel);
         let target = if rel.is_relative() && !base_dir.as_os_str().is_empty() && beside_spec.is_file() { beside_spec.display().to_string() } else { trimmed.to_string() };

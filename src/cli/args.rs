@@ -39,6 +39,10 @@ pub enum Command {
         #[arg(long, default_value = "dropcut-out/demo")]
         out: PathBuf,
     },
+    /// Run a sweep of fuels × conditions from a TOML spec on all cores, or print its Slurm batch script.
+    Sweep(SweepArgs),
+    /// Merge finished sweep shards into one summary.csv, identical to a single-machine run.
+    Merge(MergeArgs),
     /// Residual liquid of a fuel weathered in an open vessel at a fixed temperature (Rayleigh path): indicators
     /// at each evaporated fraction.
     Residue(ResidueArgs),
@@ -195,4 +199,53 @@ pub struct SimulateArgs {
     /// Limits file for the residue table (`aviation` = built-in aviation-turbine-fuel windows).
     #[arg(long)]
     pub limits: Option<String>,
+}
+
+/// `sweep` arguments.
+#[derive(Debug, Clone, Args)]
+pub struct SweepArgs {
+    /// Sweep spec (TOML): fuels and condition values, lists or ranges (see docs/sweeps.md).
+    pub spec: PathBuf,
+    /// Output folder: summary.csv (one row per case, in case-id order) and, with --histories, cases/<case_id>/.
+    #[arg(long, default_value = "dropcut-out/sweep")]
+    pub out: PathBuf,
+    /// Worker threads (0 = every core).
+    #[arg(long, default_value_t = 0, value_name = "N")]
+    pub threads: usize,
+    /// Also write each case's history.csv and summary.json into OUT/cases/<case_id>/.
+    #[arg(long)]
+    pub histories: bool,
+    /// Continue the sweep already in OUT, skipping the cases it holds (starts afresh when OUT holds none).
+    #[arg(long)]
+    pub resume: bool,
+    /// Run only part K of N, K from 0: the cases with case_id % N == K. Inside a Slurm job array the default
+    /// comes from SLURM_ARRAY_TASK_ID, SLURM_ARRAY_TASK_MIN and SLURM_ARRAY_TASK_COUNT.
+    #[arg(long, value_name = "K/N", conflicts_with = "slurm_script")]
+    pub shard: Option<String>,
+    /// Print a Slurm job-array batch script for this sweep (one task per shard, then a merge job) and exit.
+    #[arg(long)]
+    pub slurm_script: bool,
+    /// With --slurm-script: number of shards (array tasks).
+    #[arg(long, default_value_t = 4, value_name = "N", requires = "slurm_script")]
+    pub shards: u64,
+    /// With --slurm-script: CPUs per array task (the threads of each shard).
+    #[arg(long, default_value_t = 4, value_name = "N", requires = "slurm_script")]
+    pub cpus_per_task: u32,
+    /// With --slurm-script: Slurm job name.
+    #[arg(long, default_value = "dropcut-sweep", requires = "slurm_script")]
+    pub job_name: String,
+    /// With --slurm-script: an extra sbatch option for every job, e.g. --sbatch=--partition=short (repeatable).
+    #[arg(long = "sbatch", value_name = "OPTION", allow_hyphen_values = true, requires = "slurm_script")]
+    pub sbatch: Vec<String>,
+}
+
+/// `merge` arguments.
+#[derive(Debug, Clone, Args)]
+pub struct MergeArgs {
+    /// Output folders of the shards (each holds a finished summary.csv), in any order.
+    #[arg(required = true, value_name = "DIR")]
+    pub dirs: Vec<PathBuf>,
+    /// Folder for the merged summary.csv (and the shards' cases/ histories, if any).
+    #[arg(long)]
+    pub out: PathBuf,
 }

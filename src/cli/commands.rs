@@ -26,12 +26,14 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
         Command::Fuel { action: FuelAction::Show { fuel, temperature, pressure, json } } => fuel_show(&lib, &fuel, &temperature, &pressure, json),
         Command::Simulate(args) => simulate(&lib, &args),
         Command::Demo { out } => demo(&lib, &out),
+        Command::Sweep(args) => super::sweep::sweep(&lib, &args, cli.components.as_deref()),
+        Command::Merge(args) => super::sweep::merge(&args),
         Command::Validate { out } => validate(&out),
         Command::Residue(args) => residue(&lib, &args),
     }
 }
 
-fn stdout_write(text: &str) -> Result<(), CliError> {
+pub(super) fn stdout_write(text: &str) -> Result<(), CliError> {
     let mut out = std::io::stdout().lock();
     match out.write_all(text.as_bytes()).and_then(|_| out.flush()) {
         Ok(()) => Ok(()),
@@ -46,7 +48,7 @@ fn progress(msg: &str) {
     }
 }
 
-fn notice(msg: &str) {
+pub(super) fn notice(msg: &str) {
     let _ = writeln!(std::io::stderr(), "note: {msg}");
 }
 

@@ -3,6 +3,7 @@
 
 mod args;
 mod commands;
+mod sweep;
 
 use std::ffi::OsString;
 use std::io::Write;
@@ -63,6 +64,16 @@ impl From<crate::model::ModelError> for CliError {
         match e {
             crate::model::ModelError::Input { .. } => CliError::input(e.to_string()),
             _ => CliError::runtime(e.to_string()),
+        }
+    }
+}
+
+impl From<crate::sweep::SweepError> for CliError {
+    fn from(e: crate::sweep::SweepError) -> Self {
+        if e.is_input() {
+            CliError::input(e.to_string())
+        } else {
+            CliError::runtime(e.to_string())
         }
     }
 }

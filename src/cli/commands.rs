@@ -28,6 +28,7 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
         Command::Demo { out } => demo(&lib, &out),
         Command::Validate { out } => validate(&out),
         Command::Residue(args) => residue(&lib, &args),
+        Command::Table(args) => super::table::table(&lib, &args),
     }
 }
 

@@ -158,7 +158,7 @@ pub fn least_squares(rows: &[Vec<f64>], rhs: &[f64]) -> Option<Vec<f64>> {
     let mut b = rhs.to_vec();
     for k in 0..n {
         let norm = a[k][k..].iter().map(|v| v * v).sum::<f64>().sqrt();
-        if !(norm > 1e-13) {
+        if norm.is_nan() || norm <= 1e-13 {
             return None;
         }
         let alpha = if a[k][k] > 0.0 { -norm } else { norm };

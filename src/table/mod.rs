@@ -165,7 +165,7 @@ fn grid_points(from: f64, to: f64, step: f64) -> Vec<f64> {
 }
 
 fn check_step(step: f64) -> Result<(), TableError> {
-    if !(step.is_finite() && step >= 1e-3 && step <= 500.0) {
+    if !(1e-3..=500.0).contains(&step) {
         return Err(input("step", format!("{step} K"), "must lie between 0.001 K and 500 K"));
     }
     Ok(())

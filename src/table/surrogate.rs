@@ -414,6 +414,9 @@ pub struct Surrogate {
     pub notes: Vec<String>,
 }
 
+/// A point of the outer problem: (ln f, t10 residual, inner solution).
+type Point = (f64, f64, Trial);
+
 /// One evaluated point of the inner problem.
 #[derive(Clone, Copy)]
 struct Trial {
@@ -564,7 +567,7 @@ pub fn fit_surrogate(fuel: &Fuel, gas: &AmbientGas, liquid_grid: &super::Tempera
         let slope = (r1 - r0) / std::f64::consts::LN_2;
         let dir = if slope == 0.0 { 1.0 } else if (r0 > 0.0) == (slope > 0.0) { -1.0 } else { 1.0 };
         let (mut a, mut ra, mut ta) = if dir > 0.0 { (std::f64::consts::LN_2, r1, t1) } else { (0.0, r0, t0) };
-        let mut bracket: Option<((f64, f64, Trial), (f64, f64, Trial))> = None;
+        let mut bracket: Option<(Point, Point)> = None;
         if (r0 > 0.0) != (r1 > 0.0) {
             bracket = Some(((0.0, r0, t0), (std::f64::consts::LN_2, r1, t1)));
         }

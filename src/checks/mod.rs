@@ -9,6 +9,7 @@ pub mod estimation;
 pub mod model;
 pub mod properties;
 pub mod residue;
+pub mod tables;
 
 /// Outcome of one validation check.
 #[derive(Debug, Clone, Serialize)]
@@ -101,6 +102,7 @@ pub fn all() -> Vec<CheckResult> {
         v.extend(estimation::joback_viscosity_checks(&lib));
         v.extend(model::analytic_checks(&lib));
         v.extend(droplet::experiment_checks());
+        v.extend(tables::all(&lib));
     }
     v
 }

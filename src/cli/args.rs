@@ -46,6 +46,9 @@ pub enum Command {
     /// Residual liquid of a fuel weathered in an open vessel at a fixed temperature (Rayleigh path): indicators
     /// at each evaporated fraction.
     Residue(ResidueArgs),
+    /// Property tables for spray CFD: mixture, components, weathered residues, a single-component surrogate
+    /// and polynomial fits (CSV or JSON).
+    Table(TableArgs),
     /// Rerun every validation check and write the report (Markdown).
     Validate {
         /// Report file.
@@ -248,4 +251,63 @@ pub struct MergeArgs {
     /// Folder for the merged summary.csv (and the shards' cases/ histories, if any).
     #[arg(long)]
     pub out: PathBuf,
+}
+
+/// Table file format.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum TableFormatArg {
+    /// CSV with `#` metadata lines.
+    Csv,
+    /// JSON.
+    Json,
+}
+
+/// `table` arguments.
+#[derive(Debug, Clone, Args)]
+pub struct TableArgs {
+    /// Fuel file, library fuel id, or component id.
+    pub fuel: String,
+    /// First liquid temperature (default: the ideal-solubility freezing point, else 230 K).
+    #[arg(long)]
+    pub from: Option<String>,
+    /// Last liquid temperature (default: the bubble point at --pressure or 0.95 of the lowest major Tc).
+    #[arg(long)]
+    pub to: Option<String>,
+    /// Temperature step.
+    #[arg(long, default_value = "5K")]
+    pub step: String,
+    /// Table pressure (bubble point, vapour diffusivities).
+    #[arg(long, default_value = "1atm")]
+    pub pressure: String,
+    /// Ambient gas of the vapour diffusivities and the surrogate runs: air, n2, or o2=0.21,n2=0.79 style.
+    #[arg(long, default_value = "air")]
+    pub gas: String,
+    /// First temperature of the vapour columns of the component tables.
+    #[arg(long, default_value = "250K")]
+    pub vapor_from: String,
+    /// Last temperature of the vapour columns of the component tables.
+    #[arg(long, default_value = "1500K")]
+    pub vapor_to: String,
+    /// Evaporated mass fractions of weathered residues to tabulate, e.g. 0,0.3,0.6.
+    #[arg(long, default_value = "")]
+    pub residue: String,
+    /// Temperature of the open-vessel weathering that makes the residues.
+    #[arg(long, default_value = "350K")]
+    pub residue_temperature: String,
+    /// Surrogate fit condition as key=value pairs (ambient-temperature, pressure, diameter, velocity,
+    /// droplet-temperature); keys not given keep their defaults.
+    #[arg(long, default_value = "ambient-temperature=800K,pressure=1atm,diameter=50um,velocity=0,droplet-temperature=300K")]
+    pub reference: String,
+    /// Skip the single-component surrogate (no droplet runs).
+    #[arg(long)]
+    pub no_surrogate: bool,
+    /// File format.
+    #[arg(long, value_enum, default_value = "csv")]
+    pub format: TableFormatArg,
+    /// Output folder.
+    #[arg(long, default_value = "dropcut-out/table")]
+    pub out: PathBuf,
+    /// Leave the date out of the metadata (byte-identical reruns); SOURCE_DATE_EPOCH, if set, fixes the date instead.
+    #[arg(long)]
+    pub no_date: bool,
 }

@@ -30,6 +30,7 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
         Command::Merge(args) => super::sweep::merge(&args),
         Command::Validate { out } => validate(&out),
         Command::Residue(args) => residue(&lib, &args),
+        Command::Table(args) => super::table::table(&lib, &args),
     }
 }
 

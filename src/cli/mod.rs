@@ -4,6 +4,7 @@
 mod args;
 mod commands;
 mod sweep;
+mod table;
 
 use std::ffi::OsString;
 use std::io::Write;

@@ -3,6 +3,7 @@
 
 pub mod history;
 pub mod residue;
+pub mod tables;
 
 use std::fs;
 use std::io::Write;

@@ -6,6 +6,7 @@ use std::path::Path;
 use serde::Serialize;
 
 use super::args::{Cli, Command, ConditionArgs, CorrelationArg, FuelAction, SimulateArgs};
+use super::plot;
 use super::CliError;
 use crate::data::Library;
 use crate::fuel::Fuel;
@@ -25,12 +26,14 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
         Command::Components { json } => components(&lib, json),
         Command::Fuel { action: FuelAction::Show { fuel, temperature, pressure, json } } => fuel_show(&lib, &fuel, &temperature, &pressure, json),
         Command::Simulate(args) => simulate(&lib, &args),
-        Command::Demo { out } => demo(&lib, &out),
+        Command::Demo { out, no_plots } => demo(&lib, &out, no_plots),
+        Command::Compare(args) => plot::compare(&lib, &args),
+        Command::Plot { dir } => plot::plot(&lib, &dir),
         Command::Validate { out } => validate(&out),
     }
 }
 
-fn stdout_write(text: &str) -> Result<(), CliError> {
+pub(super) fn stdout_write(text: &str) -> Result<(), CliError> {
     let mut out = std::io::stdout().lock();
     match out.write_all(text.as_bytes()).and_then(|_| out.flush()) {
         Ok(()) => Ok(()),
@@ -39,13 +42,13 @@ fn stdout_write(text: &str) -> Result<(), CliError> {
     }
 }
 
-fn progress(msg: &str) {
+pub(super) fn progress(msg: &str) {
     if std::io::stderr().is_terminal() {
         let _ = writeln!(std::io::stderr(), "{msg}");
     }
 }
 
-fn notice(msg: &str) {
+pub(super) fn notice(msg: &str) {
     let _ = writeln!(std::io::stderr(), "note: {msg}");
 }
 
@@ -254,13 +257,14 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
     for n in &run.outcome.regime_notes {
         notice(n);
     }
-    let _ = args.no_plots;
+    plot::finish_run(lib, &args.out, !args.no_plots)?;
     if args.json {
         let summary = output::history::Summary::of(&inp, &run.outcome);
         stdout_write(&output::to_json_string(&summary).map_err(CliError::runtime)?)?;
     } else {
         stdout_write(&format_outcome_line(&inp.fuel.name, "", &run.outcome))?;
-        stdout_write(&format!("wrote {}/history.csv and summary.json\n", args.out.display()))?;
+        let what = if args.no_plots { "history.csv, summary.json and index.html" } else { "history.csv, summary.json, charts and index.html" };
+        stdout_write(&format!("wrote {what} in {}\n", args.out.display()))?;
     }
     Ok(())
 }
@@ -300,12 +304,18 @@ pub const DEMO_CONDITIONS: [(&str, &str, &str, &str, &str, &str, &str, &str); 2]
 /// Demo fuels.
 pub const DEMO_FUELS: [&str; 3] = ["demo-narrow", "demo-wide", "demo-blend"];
 
-fn demo(lib: &Library, out: &Path) -> Result<(), CliError> {
+fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
     output::ensure_dir(out)?;
     let mut table = table_header();
-    let mut report = String::from("# dropcut demo\n\nInvented demo fuels at two invented conditions.\n\n");
+    let mut report = String::from("# dropcut demo\n\nInvented demo fuels at two invented conditions. Open `index.html` for the charts and comparison tables.\n\n");
+    let mut study = output::compare::Study {
+        title: "dropcut demo".into(),
+        description: "Invented demo fuels at two invented conditions; each condition compares the fuels with each other.".into(),
+        groups: vec![],
+    };
     for (name, desc, t, p, d, t0, v, tmax) in DEMO_CONDITIONS {
         report.push_str(&format!("- **{name}**: {desc}\n"));
+        let mut group = output::compare::StudyGroup { name: name.into(), title: format!("{name} condition"), description: desc.into(), runs: vec![] };
         for fuel_id in DEMO_FUELS {
             progress(&format!("demo: {fuel_id} at the {name} condition ..."));
             let fuel = Fuel::resolve(fuel_id, lib)?;
@@ -325,18 +335,21 @@ fn demo(lib: &Library, out: &Path) -> Result<(), CliError> {
             let inp = droplet_inputs(lib, fuel, &cond)?;
             let mut rec = model::droplet::Recorder::default();
             let run = model::simulate(&inp, &mut rec)?;
-            let dir = out.join(format!("{fuel_id}_{name}"));
-            output::history::write_run(&dir, &inp, &run.history, &run.outcome)?;
+            let dir_name = format!("{fuel_id}_{name}");
+            output::history::write_run(&out.join(&dir_name), &inp, &run.history, &run.outcome)?;
             table.push_str(&format_outcome_line(fuel_id, name, &run.outcome));
+            group.runs.push(output::compare::StudyRun { label: fuel_id.into(), dir: dir_name });
         }
+        study.groups.push(group);
     }
-    output::write_atomic(&out.join("comparison.txt"), table.as_bytes())?;
+    study.write(out)?;
+    plot::finish_study(lib, out, &study, !no_plots)?;
     report.push_str("\n```\n");
     report.push_str(&table);
     report.push_str("```\n");
     output::write_atomic(&out.join("README.md"), report.as_bytes())?;
     stdout_write(&table)?;
-    stdout_write(&format!("wrote {}\n", out.display()))
+    stdout_write(&format!("wrote {} (open index.html)\n", out.display()))
 }
 
 fn validate(out: &Path) -> Result<(), CliError> {

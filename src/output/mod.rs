@@ -1,7 +1,12 @@
-//! Outputs: CSV and JSON writers. Consumers of results, never producers of physics. Files are written to a
-//! temporary name and renamed, so an interrupted run never leaves a truncated file behind.
+//! Outputs: CSV and JSON writers, readers of saved results, charts and HTML pages. Consumers of results,
+//! never producers of physics. Files are written to a temporary name and renamed, so an interrupted run never
+//! leaves a truncated file behind.
 
+pub mod charts;
+pub mod compare;
 pub mod history;
+pub mod html;
+pub mod read;
 
 use std::fs;
 use std::io::Write;
@@ -27,6 +32,22 @@ pub enum OutputError {
         path: String,
         /// Column.
         column: String,
+    },
+    /// A saved result file that cannot be read (missing, malformed, or lacking a column).
+    #[error("{path}: {message}")]
+    Read {
+        /// File or folder.
+        path: String,
+        /// What is wrong.
+        message: String,
+    },
+    /// A chart that could not be drawn.
+    #[error("{path}: cannot draw the chart: {message}")]
+    Chart {
+        /// Chart file.
+        path: String,
+        /// Drawing-library message.
+        message: String,
     },
 }
 

@@ -62,7 +62,7 @@ pub(super) fn finish_study(lib: &Library, dir: &Path, study: &Study, plots: bool
     let mut pages = vec![];
     for g in &study.groups {
         let pairs: Vec<(&StudyRun, &SavedRun)> = g.runs.iter().map(|r| (r, &loaded[&r.dir])).collect();
-        let table = ComparisonTable::from_runs(&g.name, &g.title, &pairs)?;
+        let table = ComparisonTable::from_runs(g, &pairs)?;
         let labelled: Vec<LabelledRun> = pairs.iter().map(|(r, s)| LabelledRun { label: &r.label, run: s }).collect();
         let charts = if plots { charts::write_comparison_charts(dir, &format!("chart_{}", safe_name(&g.name)), &g.description, &labelled)? } else { vec![] };
         count += charts.len();
@@ -158,18 +158,25 @@ fn apply_vary(c: &ConditionArgs, option: &str, value: &str) -> Result<ConditionA
 }
 
 fn describe_condition(c: &ConditionArgs, varied: Option<&str>) -> String {
-    let mut parts = vec![];
-    let mut add = |name: &str, text: String| {
-        if varied != Some(name) {
-            parts.push(text);
-        }
-    };
-    add("ambient-temperature", format!("gas at {}", c.ambient_temperature));
-    add("pressure", format!("pressure {}", c.pressure));
-    add("gas", format!("gas {}", c.gas));
-    add("diameter", format!("d0 {}", c.diameter));
-    add("droplet-temperature", format!("T0 {}", c.droplet_temperature));
-    add("velocity", format!("{} {} m/s", if c.injected { "injected at" } else { "slip" }, c.velocity.trim_end_matches("m/s")));
+    let is = |name: &str| varied == Some(name);
+    let mut parts = vec![match (is("gas"), is("ambient-temperature")) {
+        (true, true) => "gas".to_string(),
+        (true, false) => format!("gas at {}", c.ambient_temperature),
+        (false, true) => c.gas.clone(),
+        (false, false) => format!("{} at {}", c.gas, c.ambient_temperature),
+    }];
+    if !is("pressure") {
+        parts.push(c.pressure.clone());
+    }
+    if !is("diameter") {
+        parts.push(format!("d0 = {}", c.diameter));
+    }
+    if !is("droplet-temperature") {
+        parts.push(format!("T0 = {}", c.droplet_temperature));
+    }
+    if !is("velocity") {
+        parts.push(format!("{} {} m/s", if c.injected { "injected at" } else { "slip" }, c.velocity.trim_end_matches("m/s")));
+    }
     let mut s = parts.join(", ");
     if let Some(v) = varied {
         s.push_str(&format!("; varied: {v}"));
@@ -278,7 +285,12 @@ pub(super) fn compare(lib: &Library, args: &CompareArgs) -> Result<(), CliError>
         None => format!("dropcut comparison: {names}"),
         Some(v) => format!("dropcut comparison: {names} over {}", v.option),
     };
-    let study = Study { title, description: describe_condition(&args.condition, vary.as_ref().map(|v| v.option.as_str())), groups };
+    let description = if vary.is_some() && fuels.len() > 1 {
+        format!("Each fuel at {} values of {}; one comparison per value, the first fuel being the reference.", runs_per_fuel, vary.as_ref().map(|v| v.option.as_str()).unwrap_or(""))
+    } else {
+        "The same options for every run except what varies; the first run is the reference for differences.".into()
+    };
+    let study = Study { title, description, groups };
     study.write(&args.out)?;
     let (text, _) = finish_study(lib, &args.out, &study, !args.no_plots)?;
     stdout_write(&text)?;

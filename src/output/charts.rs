@@ -285,7 +285,7 @@ fn padded_range(values: impl Iterator<Item = f64>, pad: f64, from_zero: bool) ->
 
 /// Time axis scale for a largest time [s]: (factor, unit).
 pub fn time_scale(max_time: f64) -> (f64, &'static str) {
-    if max_time < 2e-3 {
+    if max_time < 2e-4 {
         (1e6, "µs")
     } else if max_time < 20.0 {
         (1e3, "ms")
@@ -1192,7 +1192,8 @@ mod tests {
 
     #[test]
     fn time_scale_picks_readable_units() {
-        assert_eq!(time_scale(0.0005).1, "µs");
+        assert_eq!(time_scale(0.0001).1, "µs");
+        assert_eq!(time_scale(0.0005).1, "ms");
         assert_eq!(time_scale(0.003).1, "ms");
         assert_eq!(time_scale(2.0).1, "ms");
         assert_eq!(time_scale(40.0).1, "s");

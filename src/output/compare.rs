@@ -143,6 +143,8 @@ pub struct ComparisonTable {
     pub group: String,
     /// Heading.
     pub title: String,
+    /// What is held fixed and what varies.
+    pub description: String,
     /// Quantities compared (rows of the printed table).
     pub metrics: Vec<Metric>,
     /// Runs (columns of the printed table).
@@ -178,7 +180,7 @@ pub const RESIDUE_AT: [f64; 2] = [0.5, 0.9];
 impl ComparisonTable {
     /// Build the table of a group from its saved runs: summary quantities for every run, and residue indicators
     /// at 50 % and 90 % evaporated for every indicator that at least one run's residue.csv carries.
-    pub fn from_runs(group: &str, title: &str, runs: &[(&StudyRun, &SavedRun)]) -> Result<Self, OutputError> {
+    pub fn from_runs(group: &StudyGroup, runs: &[(&StudyRun, &SavedRun)]) -> Result<Self, OutputError> {
         let mut metrics: Vec<Metric> = SUMMARY_METRICS
             .iter()
             .map(|(key, label, unit, scale, dec, diff)| Metric::new(key, label, unit, *scale, 0.0, *dec, *diff))
@@ -207,7 +209,7 @@ impl ComparisonTable {
             let values = extractors.iter().map(|f| f(run)).collect::<Result<Vec<_>, _>>()?;
             rows.push(ComparisonRow { label: sr.label.clone(), dir: sr.dir.clone(), values });
         }
-        Ok(ComparisonTable { group: group.into(), title: title.into(), metrics, rows })
+        Ok(ComparisonTable { group: group.name.clone(), title: group.title.clone(), description: group.description.clone(), metrics, rows })
     }
 
     /// Difference of row `row` to the first row for metric `m`: percent (relative) or display units (absolute).
@@ -230,10 +232,26 @@ impl ComparisonTable {
         let metric = &self.metrics[m];
         let (dec, unit) = match metric.difference {
             Difference::Relative => (1, "%".to_string()),
-            Difference::Absolute => (metric.decimals, if metric.unit == "%" { "pts".into() } else if metric.unit == "°C" { "K".into() } else { metric.unit.clone() }),
+            Difference::Absolute => (
+                metric.decimals,
+                match metric.unit.as_str() {
+                    "%" => "pts".to_string(),
+                    "°C" => "K".into(),
+                    "-" => String::new(),
+                    u => u.into(),
+                },
+            ),
         };
-        let s = format!("{:+.*}", dec, d);
-        format!("{} {}", s.replace('-', "−"), unit)
+        let mut s = format!("{:+.*}", dec, d);
+        if s[1..].chars().all(|c| c == '0' || c == '.') {
+            s = format!("±{}", &s[1..]);
+        }
+        let s = s.replace('-', "−");
+        if unit.is_empty() {
+            s
+        } else {
+            format!("{s} {unit}")
+        }
     }
 
     /// Plain-text table: one line per quantity, one column per run, differences to the first run in brackets.
@@ -256,6 +274,9 @@ impl ComparisonTable {
         }
         let widths: Vec<usize> = cols.iter().map(|c| c.iter().map(|s| s.chars().count()).max().unwrap_or(0)).collect();
         let mut s = format!("{}\n", self.title);
+        if !self.description.is_empty() {
+            s.push_str(&format!("{}\n", self.description));
+        }
         for line in 0..cols[0].len() {
             let mut parts = vec![];
             for (k, c) in cols.iter().enumerate() {
@@ -312,6 +333,7 @@ mod tests {
         ComparisonTable {
             group: "g".into(),
             title: "test".into(),
+            description: String::new(),
             metrics: vec![
                 Metric::new("lifetime_s", "lifetime", "ms", 1e3, 0.0, 3, Difference::Relative),
                 Metric::new("max_surface_temperature_K", "highest surface temperature", "K", 1.0, 0.0, 1, Difference::Absolute),
@@ -333,6 +355,7 @@ mod tests {
         assert_eq!(t.difference(2, 0), None);
         assert_eq!(t.format_difference(1, 0), "+50.0 %");
         assert_eq!(t.format_difference(1, 1), "−10.0 K");
+        assert_eq!(t.format_difference(2, 1), "±0.0 K");
         let text = t.render_text();
         assert!(text.contains("3.000 (+50.0 %)"), "{text}");
         assert!(text.contains("–"));

@@ -142,7 +142,11 @@ pub fn run_key_values(run: &SavedRun) -> Vec<(String, String)> {
 /// Write `index.html` into a run folder: key values, charts, notes and links to the data files.
 pub fn write_run_page(run: &SavedRun, charts: &[ChartFiles]) -> Result<PathBuf, OutputError> {
     let fuel = run.fuel_name();
-    let mut b = format!("<h1>Droplet run: {}</h1>\n<p class=\"sub\">{}</p>\n", escape(&fuel), escape(&super::charts::run_subtitle(run)));
+    let mut b = String::new();
+    if run.dir.parent().is_some_and(|p| p.join(super::compare::STUDY_FILE).is_file()) {
+        b.push_str("<p><a href=\"../index.html\">← all runs of this comparison</a></p>\n");
+    }
+    b.push_str(&format!("<h1>Droplet run: {}</h1>\n<p class=\"sub\">{}</p>\n", escape(&fuel), escape(&super::charts::run_subtitle(run))));
     b.push_str("<h2>Summary</h2>\n<table>\n");
     for (k, v) in run_key_values(run) {
         b.push_str(&format!("<tr><th>{}</th><td>{}</td></tr>\n", escape(&k), escape(&v)));

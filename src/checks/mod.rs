@@ -4,7 +4,10 @@
 
 use serde::Serialize;
 
+pub mod droplet;
 pub mod model;
+pub mod properties;
+pub mod residue;
 
 /// Outcome of one validation check.
 #[derive(Debug, Clone, Serialize)]

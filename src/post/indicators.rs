@@ -1,0 +1,813 @@
+//! Fuel-quality indicators of any liquid composition: simulated distillation, bubble point, vapour
+//! pressure, flash point, density, viscosity, surface tension, derived cetane number, heating value,
+//! hydrogen content, aromatics and freezing point. All values SI; every indicator carries a `method`
+//! string, and an indicator that cannot be computed is `None` (JSON null) with a note saying why.
+//!
+//! These are screening estimates from an ideal-solution model (see [`super::limits::CAUTION`]); a flash
+//! point estimate in particular never replaces a measured one for handling or safety decisions.
+//!
+//! # The simulated distillation curve and the standard ones
+//! The curve here is a single-stage batch (Rayleigh) distillation at 1 atm: the vapour leaving is in
+//! equilibrium with the whole liquid, which is at its bubble point throughout. The initial boiling point
+//! (IBP) is the feed's bubble point; the final boiling point (FBP) is *defined* here as the temperature at
+//! 99.5 % evaporated (the curve only reaches the heaviest component's boiling point as F → 1). By default
+//! the evaporated fraction is on a liquid-volume basis at 15 °C, as distillations report % recovered.
+//!
+//! How it relates to the standard curves: a true-boiling-point distillation (TBP, ASTM D2892, many
+//! theoretical plates with reflux) separates the components almost by boiling point, so its curve is the
+//! widest (lower IBP, higher end point); simulated distillation by gas chromatography (D2887) approximates
+//! TBP. ASTM D86 is a nearly single-stage batch distillation without reflux, close to the Rayleigh model,
+//! so this curve is the natural D86 proxy — but D86 also has heat losses, vapour hold-up and a
+//! thermometer reading the vapour, which shift its ends (its IBP reads high and its end point low
+//! compared with the bubble-point curve), and it is not corrected for the ideal-solution assumption. An
+//! equilibrium flash vaporisation curve is flatter still. Compare T10/T50/T90 with D86 limits as a
+//! screening aid only; the ends of the curve are the least comparable points.
+
+use std::collections::BTreeMap;
+use std::sync::Arc;
+
+use serde::{Deserialize, Serialize};
+
+use crate::data::{Component, GAS_CONSTANT};
+use crate::props::liquid;
+
+use super::rayleigh::{self, PathMode};
+use super::{normalised, PostError};
+
+/// Standard atmosphere [Pa].
+pub const STANDARD_PRESSURE: f64 = 101_325.0;
+/// 15 °C [K].
+pub const T_15C: f64 = 288.15;
+/// 20 °C [K].
+pub const T_20C: f64 = 293.15;
+/// 38 °C [K] (100 °F, the vapour-pressure and flash-point reference temperature).
+pub const T_38C: f64 = 311.15;
+/// 40 °C [K].
+pub const T_40C: f64 = 313.15;
+/// −20 °C [K].
+pub const T_MINUS_20C: f64 = 253.15;
+/// −40 °C [K].
+pub const T_MINUS_40C: f64 = 233.15;
+/// Default evaporated fraction that defines the final boiling point of the simulated curve [-].
+pub const DEFAULT_FINAL_FRACTION: f64 = 0.995;
+/// Default largest RK4 step in φ = −ln(1 − F) for the simulated distillation [-].
+pub const DEFAULT_MAX_STEP: f64 = 0.5;
+
+/// Basis of the recovered (evaporated) fraction of a distillation curve.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum RecoveryBasis {
+    /// Liquid volume at 15 °C (as standard distillations report % recovered).
+    Volume,
+    /// Mass.
+    Mass,
+    /// Moles.
+    Mole,
+}
+
+impl RecoveryBasis {
+    /// Name as written in files and on the command line.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            RecoveryBasis::Volume => "volume",
+            RecoveryBasis::Mass => "mass",
+            RecoveryBasis::Mole => "mole",
+        }
+    }
+}
+
+/// Blending rule for the mixture liquid viscosity.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum ViscosityRule {
+    /// Grunberg–Nissan (1949) with zero interaction: ln μ = Σ x_i ln μ_i, then ν = μ/ρ.
+    GrunbergNissan,
+    /// Refutas viscosity-blending number on mass fractions (Maples 2000; the ASTM D7152 practice).
+    Refutas,
+}
+
+impl ViscosityRule {
+    /// Name as written in files and on the command line.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            ViscosityRule::GrunbergNissan => "grunberg-nissan",
+            ViscosityRule::Refutas => "refutas",
+        }
+    }
+}
+
+/// Blending rule for the derived cetane number.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum CetaneRule {
+    /// Σ v_i CN_i with liquid volume fractions at 15 °C: the definition of the cetane scale for the
+    /// primary reference fuels (ASTM D613) and the usual first approximation for other blends.
+    VolumeLinear,
+    /// Σ x_i CN_i with mole fractions: a simple alternative, no standard behind it.
+    MoleLinear,
+    /// Σ w_i CN_i with mass fractions: a simple alternative, no standard behind it.
+    MassLinear,
+}
+
+impl CetaneRule {
+    /// Name as written in files and on the command line.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            CetaneRule::VolumeLinear => "volume-linear",
+            CetaneRule::MoleLinear => "mole-linear",
+            CetaneRule::MassLinear => "mass-linear",
+        }
+    }
+}
+
+/// Options of [`indicators`].
+#[derive(Debug, Clone, PartialEq)]
+pub struct IndicatorOptions {
+    /// Pressure of the bubble point and the simulated distillation [Pa].
+    pub pressure: f64,
+    /// Basis of the distillation recovered fraction.
+    pub recovery_basis: RecoveryBasis,
+    /// Viscosity blending rule.
+    pub viscosity_rule: ViscosityRule,
+    /// Cetane blending rule.
+    pub cetane_rule: CetaneRule,
+    /// Evaporated fraction that defines the final boiling point [-], in (0.5, 1).
+    pub final_fraction: f64,
+    /// Largest RK4 step in φ = −ln(1 − F) along the distillation [-].
+    pub max_step: f64,
+}
+
+impl Default for IndicatorOptions {
+    fn default() -> Self {
+        IndicatorOptions {
+            pressure: STANDARD_PRESSURE,
+            recovery_basis: RecoveryBasis::Volume,
+            viscosity_rule: ViscosityRule::GrunbergNissan,
+            cetane_rule: CetaneRule::VolumeLinear,
+            final_fraction: DEFAULT_FINAL_FRACTION,
+            max_step: DEFAULT_MAX_STEP,
+        }
+    }
+}
+
+/// Every numeric indicator key with its SI unit, in table order.
+pub const INDICATOR_KEYS: [(&str, &str); 23] = [
+    ("evaporated_fraction", "-"),
+    ("bubble_point_K", "K"),
+    ("initial_boiling_point_K", "K"),
+    ("t10_K", "K"),
+    ("t20_K", "K"),
+    ("t50_K", "K"),
+    ("t90_K", "K"),
+    ("final_boiling_point_K", "K"),
+    ("vapor_pressure_38C_Pa", "Pa"),
+    ("flash_point_K", "K"),
+    ("density_15C_kg_m3", "kg/m3"),
+    ("kinematic_viscosity_minus40C_m2_s", "m2/s"),
+    ("kinematic_viscosity_minus20C_m2_s", "m2/s"),
+    ("kinematic_viscosity_40C_m2_s", "m2/s"),
+    ("surface_tension_20C_N_m", "N/m"),
+    ("dcn", "-"),
+    ("lhv_J_kg", "J/kg"),
+    ("lhv_volume_J_m3", "J/m3"),
+    ("hydrogen_mass_fraction", "-"),
+    ("hc_ratio", "-"),
+    ("aromatics_volume_fraction", "-"),
+    ("molar_mass_kg_mol", "kg/mol"),
+    ("freezing_point_K", "K"),
+];
+
+/// Fuel-quality indicators of one liquid composition. Serialises with snake_case, SI-suffixed keys;
+/// `None` is written as null and `notes` says why.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[allow(non_snake_case)]
+pub struct Indicators {
+    /// Evaporated fraction of the parent liquid this composition is the residue of [-] (set by callers).
+    pub evaporated_fraction: Option<f64>,
+    /// Bubble point at the distillation pressure (1 atm by default) [K].
+    pub bubble_point_K: Option<f64>,
+    /// Initial boiling point of the simulated distillation (= bubble point) [K].
+    pub initial_boiling_point_K: Option<f64>,
+    /// Temperature at 10 % evaporated [K].
+    pub t10_K: Option<f64>,
+    /// Temperature at 20 % evaporated [K].
+    pub t20_K: Option<f64>,
+    /// Temperature at 50 % evaporated [K].
+    pub t50_K: Option<f64>,
+    /// Temperature at 90 % evaporated [K].
+    pub t90_K: Option<f64>,
+    /// Final boiling point: temperature at `final_fraction` evaporated (99.5 % by default) [K].
+    pub final_boiling_point_K: Option<f64>,
+    /// True vapour pressure at 38 °C (Raoult; not a Reid vapour pressure) [Pa].
+    pub vapor_pressure_38C_Pa: Option<f64>,
+    /// Closed-cup flash point estimate [K].
+    pub flash_point_K: Option<f64>,
+    /// Density at 15 °C [kg/m³].
+    pub density_15C_kg_m3: Option<f64>,
+    /// Kinematic viscosity at −40 °C [m²/s].
+    pub kinematic_viscosity_minus40C_m2_s: Option<f64>,
+    /// Kinematic viscosity at −20 °C [m²/s].
+    pub kinematic_viscosity_minus20C_m2_s: Option<f64>,
+    /// Kinematic viscosity at 40 °C [m²/s].
+    pub kinematic_viscosity_40C_m2_s: Option<f64>,
+    /// Surface tension at 20 °C [N/m].
+    pub surface_tension_20C_N_m: Option<f64>,
+    /// Derived cetane number by the chosen blending rule [-].
+    pub dcn: Option<f64>,
+    /// Lower heating value, mass basis [J/kg].
+    pub lhv_J_kg: Option<f64>,
+    /// Lower heating value per liquid volume at 15 °C [J/m³].
+    pub lhv_volume_J_m3: Option<f64>,
+    /// Hydrogen mass fraction [-].
+    pub hydrogen_mass_fraction: Option<f64>,
+    /// Hydrogen-to-carbon atom ratio [-].
+    pub hc_ratio: Option<f64>,
+    /// Aromatics (alkylbenzenes, cycloaromatics, diaromatics) volume fraction at 15 °C [-].
+    pub aromatics_volume_fraction: Option<f64>,
+    /// Mean molar mass [kg/mol].
+    pub molar_mass_kg_mol: Option<f64>,
+    /// Freezing point estimate (last crystal to disappear) [K].
+    pub freezing_point_K: Option<f64>,
+    /// Pressure of the bubble point and distillation [Pa].
+    pub distillation_pressure_Pa: f64,
+    /// Basis of the distillation recovered fraction.
+    pub distillation_basis: RecoveryBasis,
+    /// Evaporated fraction that defines the final boiling point [-].
+    pub final_boiling_fraction: f64,
+    /// Viscosity blending rule used.
+    pub viscosity_rule: ViscosityRule,
+    /// Cetane blending rule used.
+    pub cetane_rule: CetaneRule,
+    /// How each indicator was estimated, by key.
+    pub methods: BTreeMap<&'static str, String>,
+    /// Reasons for missing values and caveats (estimated inputs, extrapolations), by key.
+    pub notes: BTreeMap<&'static str, String>,
+}
+
+impl Indicators {
+    /// Value of a numeric indicator by key: `None` for an unknown key, `Some(None)` when not computed.
+    pub fn get(&self, key: &str) -> Option<Option<f64>> {
+        Some(match key {
+            "evaporated_fraction" => self.evaporated_fraction,
+            "bubble_point_K" => self.bubble_point_K,
+            "initial_boiling_point_K" => self.initial_boiling_point_K,
+            "t10_K" => self.t10_K,
+            "t20_K" => self.t20_K,
+            "t50_K" => self.t50_K,
+            "t90_K" => self.t90_K,
+            "final_boiling_point_K" => self.final_boiling_point_K,
+            "vapor_pressure_38C_Pa" => self.vapor_pressure_38C_Pa,
+            "flash_point_K" => self.flash_point_K,
+            "density_15C_kg_m3" => self.density_15C_kg_m3,
+            "kinematic_viscosity_minus40C_m2_s" => self.kinematic_viscosity_minus40C_m2_s,
+            "kinematic_viscosity_minus20C_m2_s" => self.kinematic_viscosity_minus20C_m2_s,
+            "kinematic_viscosity_40C_m2_s" => self.kinematic_viscosity_40C_m2_s,
+            "surface_tension_20C_N_m" => self.surface_tension_20C_N_m,
+            "dcn" => self.dcn,
+            "lhv_J_kg" => self.lhv_J_kg,
+            "lhv_volume_J_m3" => self.lhv_volume_J_m3,
+            "hydrogen_mass_fraction" => self.hydrogen_mass_fraction,
+            "hc_ratio" => self.hc_ratio,
+            "aromatics_volume_fraction" => self.aromatics_volume_fraction,
+            "molar_mass_kg_mol" => self.molar_mass_kg_mol,
+            "freezing_point_K" => self.freezing_point_K,
+            _ => return None,
+        })
+    }
+
+    /// Method string of an indicator, if any.
+    pub fn method(&self, key: &str) -> Option<&str> {
+        self.methods.get(key).map(|s| s.as_str())
+    }
+
+    /// SI unit of an indicator key, if the key is known.
+    pub fn unit(key: &str) -> Option<&'static str> {
+        INDICATOR_KEYS.iter().find(|(k, _)| *k == key).map(|(_, u)| *u)
+    }
+
+    fn empty(opts: &IndicatorOptions) -> Self {
+        Indicators {
+            evaporated_fraction: None,
+            bubble_point_K: None,
+            initial_boiling_point_K: None,
+            t10_K: None,
+            t20_K: None,
+            t50_K: None,
+            t90_K: None,
+            final_boiling_point_K: None,
+            vapor_pressure_38C_Pa: None,
+            flash_point_K: None,
+            density_15C_kg_m3: None,
+            kinematic_viscosity_minus40C_m2_s: None,
+            kinematic_viscosity_minus20C_m2_s: None,
+            kinematic_viscosity_40C_m2_s: None,
+            surface_tension_20C_N_m: None,
+            dcn: None,
+            lhv_J_kg: None,
+            lhv_volume_J_m3: None,
+            hydrogen_mass_fraction: None,
+            hc_ratio: None,
+            aromatics_volume_fraction: None,
+            molar_mass_kg_mol: None,
+            freezing_point_K: None,
+            distillation_pressure_Pa: opts.pressure,
+            distillation_basis: opts.recovery_basis,
+            final_boiling_fraction: opts.final_fraction,
+            viscosity_rule: opts.viscosity_rule,
+            cetane_rule: opts.cetane_rule,
+            methods: BTreeMap::new(),
+            notes: BTreeMap::new(),
+        }
+    }
+
+    fn slot(&mut self, key: &str) -> &mut Option<f64> {
+        match key {
+            "bubble_point_K" => &mut self.bubble_point_K,
+            "initial_boiling_point_K" => &mut self.initial_boiling_point_K,
+            "t10_K" => &mut self.t10_K,
+            "t20_K" => &mut self.t20_K,
+            "t50_K" => &mut self.t50_K,
+            "t90_K" => &mut self.t90_K,
+            "final_boiling_point_K" => &mut self.final_boiling_point_K,
+            "vapor_pressure_38C_Pa" => &mut self.vapor_pressure_38C_Pa,
+            "flash_point_K" => &mut self.flash_point_K,
+            "density_15C_kg_m3" => &mut self.density_15C_kg_m3,
+            "kinematic_viscosity_minus40C_m2_s" => &mut self.kinematic_viscosity_minus40C_m2_s,
+            "kinematic_viscosity_minus20C_m2_s" => &mut self.kinematic_viscosity_minus20C_m2_s,
+            "kinematic_viscosity_40C_m2_s" => &mut self.kinematic_viscosity_40C_m2_s,
+            "surface_tension_20C_N_m" => &mut self.surface_tension_20C_N_m,
+            "dcn" => &mut self.dcn,
+            "lhv_J_kg" => &mut self.lhv_J_kg,
+            "lhv_volume_J_m3" => &mut self.lhv_volume_J_m3,
+            "hydrogen_mass_fraction" => &mut self.hydrogen_mass_fraction,
+            "hc_ratio" => &mut self.hc_ratio,
+            "aromatics_volume_fraction" => &mut self.aromatics_volume_fraction,
+            "molar_mass_kg_mol" => &mut self.molar_mass_kg_mol,
+            "freezing_point_K" => &mut self.freezing_point_K,
+            _ => &mut self.evaporated_fraction,
+        }
+    }
+
+    /// Store a value with its method; a non-finite value becomes None with a note.
+    fn set(&mut self, key: &'static str, value: Option<f64>, method: impl Into<String>) {
+        self.methods.insert(key, method.into());
+        match value {
+            Some(v) if v.is_finite() => *self.slot(key) = Some(v),
+            Some(v) => {
+                *self.slot(key) = None;
+                self.note(key, format!("not computed: the estimate was not a finite number ({v})"));
+            }
+            None => *self.slot(key) = None,
+        }
+    }
+
+    fn note(&mut self, key: &'static str, text: impl Into<String>) {
+        let text = text.into();
+        self.notes.entry(key).and_modify(|s| {
+            s.push_str("; ");
+            s.push_str(&text);
+        }).or_insert(text);
+    }
+}
+
+/// Where a component's pure flash point comes from.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum FlashPointOrigin {
+    /// The component file's published closed-cup value.
+    Published,
+    /// Estimated from the normal boiling point by [`butler_flash_point`].
+    EstimatedButler,
+}
+
+/// Flash point estimated from the normal boiling point, T_fp = 0.683 T_b + 14.84 [K].
+///
+/// Butler et al. (1956), Ind. Eng. Chem. 48, 808, as the °F form T_fp = 0.683 T_b − 119 °F (recalled
+/// from memory, not read in the original), converted exactly to kelvin. Checked in
+/// `checks::residue` against the published flash points of the component library's hydrocarbons.
+pub fn butler_flash_point(normal_boiling_point: f64) -> f64 {
+    0.683 * normal_boiling_point + (-119.0 + 459.67 - 0.683 * 459.67) / 1.8
+}
+
+/// A component's closed-cup flash point [K]: the file's value, else the Butler estimate.
+pub fn component_flash_point(c: &Component) -> (f64, FlashPointOrigin) {
+    match &c.constants.flash_point {
+        Some(f) => (f.value, FlashPointOrigin::Published),
+        None => (butler_flash_point(c.normal_boiling_point()), FlashPointOrigin::EstimatedButler),
+    }
+}
+
+/// Solve an increasing `f(T) = 0` bracketed by [lo, hi] (Illinois regula falsi, tolerance in K).
+pub(crate) fn solve_increasing(mut f: impl FnMut(f64) -> f64, mut lo: f64, mut hi: f64, tol: f64) -> Option<f64> {
+    let mut flo = f(lo);
+    let mut fhi = f(hi);
+    if !(flo.is_finite() && fhi.is_finite()) || flo > 0.0 || fhi < 0.0 {
+        return None;
+    }
+    if flo == 0.0 {
+        return Some(lo);
+    }
+    if fhi == 0.0 {
+        return Some(hi);
+    }
+    let mut side = 0i8;
+    for _ in 0..200 {
+        let t = (lo * fhi - hi * flo) / (fhi - flo);
+        let t = if t > lo && t < hi { t } else { 0.5 * (lo + hi) };
+        let ft = f(t);
+        if !ft.is_finite() {
+            return None;
+        }
+        if ft.abs() < 1e-14 || hi - lo < tol {
+            return Some(t);
+        }
+        if ft < 0.0 {
+            lo = t;
+            flo = ft;
+            if side == -1 {
+                fhi *= 0.5;
+            }
+            side = -1;
+        } else {
+            hi = t;
+            fhi = ft;
+            if side == 1 {
+                flo *= 0.5;
+            }
+            side = 1;
+        }
+        if hi - lo < tol {
+            return Some(0.5 * (lo + hi));
+        }
+    }
+    Some(0.5 * (lo + hi))
+}
+
+/// Liaw et al. (2002) flash point of an ideal liquid mixture [K]: the T that solves
+/// Σ x_i p_sat,i(T) / p_sat,i(T_fp,i) = 1 (Le Chatelier's rule with Raoult's law, activity coefficients 1),
+/// given each component's closed-cup flash point `pure_flash_points[i]`. Components with x_i = 0 are
+/// ignored. `None` when no solution is bracketed.
+pub fn liaw_flash_point(components: &[Arc<Component>], mole_fractions: &[f64], pure_flash_points: &[f64]) -> Option<f64> {
+    let mut lo = f64::INFINITY;
+    let mut hi = f64::NEG_INFINITY;
+    let mut terms: Vec<(&Component, f64, f64)> = Vec::with_capacity(components.len());
+    for ((c, &x), &tf) in components.iter().zip(mole_fractions).zip(pure_flash_points) {
+        if x > 0.0 {
+            let p_fp = c.vapor_pressure(tf);
+            if !(p_fp.is_finite() && p_fp > 0.0) {
+                return None;
+            }
+            terms.push((c.as_ref(), x, p_fp));
+            lo = lo.min(tf);
+            hi = hi.max(tf);
+        }
+    }
+    if terms.is_empty() {
+        return None;
+    }
+    let g = |t: f64| terms.iter().map(|(c, x, p_fp)| x * c.vapor_pressure(t) / p_fp).sum::<f64>().ln();
+    // The root lies between the lowest and the highest pure flash point (each term is ≤ x_i at the
+    // lowest and ≥ x_i at the highest); widen slightly for round-off.
+    solve_increasing(g, lo - 0.5, hi + 0.5, 1e-7)
+}
+
+/// Blend of component cetane numbers by `rule`; `w` mass fractions, `x` mole fractions, `v` volume fractions.
+pub fn blend_cetane(components: &[Arc<Component>], w: &[f64], x: &[f64], v: &[f64], rule: CetaneRule) -> f64 {
+    let f = match rule {
+        CetaneRule::VolumeLinear => v,
+        CetaneRule::MoleLinear => x,
+        CetaneRule::MassLinear => w,
+    };
+    components.iter().zip(f).map(|(c, f)| f * c.constants.cetane_number.value).sum()
+}
+
+/// Ideal solid–liquid solubility (Schröder–van Laar, ΔCp neglected): the saturation temperature of each
+/// component with an enthalpy of fusion, T_i = 1 / (1/T_m,i − R ln x_i / ΔH_fus,i); the freezing point is
+/// the highest. Returns the value (None if no component qualifies), the controlling component, and the
+/// ids of components skipped for lack of an enthalpy of fusion.
+pub fn freezing_point(components: &[Arc<Component>], mole_fractions: &[f64]) -> (Option<f64>, Option<String>, Vec<String>) {
+    let mut best: Option<(f64, &str)> = None;
+    let mut skipped = vec![];
+    for (c, &x) in components.iter().zip(mole_fractions) {
+        if x <= 0.0 {
+            continue;
+        }
+        let Some(h) = c.constants.enthalpy_of_fusion.as_ref() else {
+            skipped.push(c.id.clone());
+            continue;
+        };
+        let tm = c.constants.melting_point.value;
+        let t = 1.0 / (1.0 / tm - GAS_CONSTANT * x.ln() / h.value);
+        if best.is_none_or(|(b, _)| t > b) {
+            best = Some((t, c.id.as_str()));
+        }
+    }
+    (best.map(|b| b.0), best.map(|b| b.1.to_string()), skipped)
+}
+
+/// Temperatures of the simulated batch (Rayleigh) distillation at `pressure` at each evaporated fraction of
+/// `fractions` (ascending, in [0, 1)) on `basis` [K]. `mole_fractions` may contain zeros.
+pub fn distillation_temperatures(
+    components: &[Arc<Component>],
+    mole_fractions: &[f64],
+    pressure: f64,
+    basis: RecoveryBasis,
+    fractions: &[f64],
+    max_step: f64,
+) -> Result<Vec<f64>, PostError> {
+    let (comps, x): (Vec<Arc<Component>>, Vec<f64>) =
+        components.iter().zip(mole_fractions).filter(|(_, x)| **x > 0.0).map(|(c, x)| (c.clone(), *x)).unzip();
+    let weights = rayleigh::basis_weights(&comps, basis);
+    let (pts, _) = rayleigh::integrate(&comps, &x, &weights, PathMode::Isobaric(pressure), fractions, max_step)?;
+    Ok(pts.into_iter().map(|p| p.temperature).collect())
+}
+
+/// Names of the components whose viscosity at `t` comes from outside the correlation's validity range or
+/// below the melting point (sub-cooled liquid).
+fn viscosity_extrapolated<'a>(components: &'a [Arc<Component>], x: &[f64], t: f64) -> Vec<&'a str> {
+    components
+        .iter()
+        .zip(x)
+        .filter(|(c, x)| **x > 0.0 && (!c.liquid_viscosity.in_range(t) || t < c.constants.melting_point.value))
+        .map(|(c, _)| c.id.as_str())
+        .collect()
+}
+
+fn join_ids(ids: &[&str]) -> String {
+    if ids.len() <= 6 {
+        ids.join(", ")
+    } else {
+        format!("{} and {} more", ids[..6].join(", "), ids.len() - 6)
+    }
+}
+
+/// Compute every indicator of a liquid with these components and mass fractions (normalised here).
+///
+/// Errors only for unusable input (lengths, negative or non-finite fractions, bad options); an indicator
+/// that cannot be estimated is `None` with a note.
+pub fn indicators(components: &[Arc<Component>], mass_fractions: &[f64], opts: &IndicatorOptions) -> Result<Indicators, PostError> {
+    let w = normalised(components, mass_fractions, "mass fractions")?;
+    if !(opts.pressure.is_finite() && opts.pressure > 0.0) {
+        return Err(PostError::Input { what: "pressure", message: format!("{} Pa must be positive", opts.pressure) });
+    }
+    if !(opts.final_fraction > 0.9 && opts.final_fraction < 1.0) {
+        return Err(PostError::Input { what: "final boiling fraction", message: format!("{} must lie in (0.9, 1)", opts.final_fraction) });
+    }
+    if !(opts.max_step.is_finite() && opts.max_step > 0.0 && opts.max_step <= 1.0) {
+        return Err(PostError::Input { what: "distillation step", message: format!("{} must lie in (0, 1]", opts.max_step) });
+    }
+    let x = liquid::mass_to_mole(components, &w);
+    let vol: Vec<f64> = {
+        let v: Vec<f64> = components.iter().zip(&w).map(|(c, w)| w / c.density_15c()).collect();
+        let s: f64 = v.iter().sum();
+        v.iter().map(|v| v / s).collect()
+    };
+    let mut ind = Indicators::empty(opts);
+    let p_text = if (opts.pressure - STANDARD_PRESSURE).abs() < 1e-6 { "1 atm".to_string() } else { format!("{} Pa", opts.pressure) };
+
+    // --- bubble point and simulated distillation -------------------------------------------------
+    let fb = opts.final_fraction;
+    let fractions = [0.0, 0.1, 0.2, 0.5, 0.9, fb];
+    let basis_text = match opts.recovery_basis {
+        RecoveryBasis::Volume => "liquid volume at 15 °C",
+        RecoveryBasis::Mass => "mass",
+        RecoveryBasis::Mole => "moles",
+    };
+    let curve_method = |what: &str| {
+        format!(
+            "simulated single-stage batch (Rayleigh) distillation at {p_text}, ideal liquid (Raoult), liquid at its bubble point; {what}, evaporated fraction on a {basis_text} basis; RK4 in −ln(1−F)"
+        )
+    };
+    match distillation_temperatures(components, &x, opts.pressure, opts.recovery_basis, &fractions, opts.max_step) {
+        Ok(t) => {
+            ind.set("bubble_point_K", Some(t[0]), format!("bubble point at {p_text} by Raoult's law, Σ x_i p_sat,i(T) = p"));
+            ind.set("initial_boiling_point_K", Some(t[0]), curve_method("IBP = bubble point of the initial liquid"));
+            ind.set("t10_K", Some(t[1]), curve_method("T at 10 % evaporated"));
+            ind.set("t20_K", Some(t[2]), curve_method("T at 20 % evaporated"));
+            ind.set("t50_K", Some(t[3]), curve_method("T at 50 % evaporated"));
+            ind.set("t90_K", Some(t[4]), curve_method("T at 90 % evaporated"));
+            ind.set("final_boiling_point_K", Some(t[5]), curve_method(&format!("FBP defined as T at {:.1} % evaporated", 100.0 * fb)));
+        }
+        Err(e) => {
+            for key in ["bubble_point_K", "initial_boiling_point_K", "t10_K", "t20_K", "t50_K", "t90_K", "final_boiling_point_K"] {
+                ind.set(key, None, curve_method("distillation"));
+                ind.note(key, format!("not computed: {e}"));
+            }
+        }
+    }
+
+    // --- vapour pressure at 38 °C ------------------------------------------------------------------
+    ind.set(
+        "vapor_pressure_38C_Pa",
+        Some(liquid::bubble_pressure(components, &x, T_38C)),
+        "true vapour pressure at 38 °C by Raoult's law, Σ x_i p_sat,i (no air, no vapour/liquid ratio: not a Reid vapour pressure)",
+    );
+
+    // --- flash point -------------------------------------------------------------------------------
+    let mut estimated = vec![];
+    let pure_fp: Vec<f64> = components
+        .iter()
+        .zip(&x)
+        .map(|(c, xi)| {
+            let (t, origin) = component_flash_point(c);
+            if origin == FlashPointOrigin::EstimatedButler && *xi > 0.0 {
+                estimated.push(c.id.as_str());
+            }
+            t
+        })
+        .collect();
+    let fp = liaw_flash_point(components, &x, &pure_fp);
+    ind.set(
+        "flash_point_K",
+        fp,
+        "Liaw et al. (2002) ideal-solution model: Σ x_i p_sat,i(T)/p_sat,i(T_fp,i) = 1 with the components' closed-cup flash points (Le Chatelier + Raoult)",
+    );
+    if fp.is_none() {
+        ind.note("flash_point_K", "not computed: no root between the lowest and highest component flash points");
+    }
+    if !estimated.is_empty() {
+        let ids = join_ids(&estimated);
+        ind.note(
+            "flash_point_K",
+            format!("component flash points estimated from the normal boiling point (Butler et al. 1956, T_fp = 0.683 T_b + 14.84 K, from memory) for: {ids}"),
+        );
+    }
+
+    // --- density at 15 °C ----------------------------------------------------------------------------
+    let rho15 = 1.0 / components.iter().zip(&w).map(|(c, w)| w / c.density_15c()).sum::<f64>();
+    ind.set("density_15C_kg_m3", Some(rho15), "ideal volume additivity of the components' 15 °C densities, 1/ρ = Σ w_i/ρ_i");
+
+    // --- kinematic viscosities ---------------------------------------------------------------------
+    for (key, t, label) in [
+        ("kinematic_viscosity_minus40C_m2_s", T_MINUS_40C, "−40 °C"),
+        ("kinematic_viscosity_minus20C_m2_s", T_MINUS_20C, "−20 °C"),
+        ("kinematic_viscosity_40C_m2_s", T_40C, "40 °C"),
+    ] {
+        let (nu, method) = match opts.viscosity_rule {
+            ViscosityRule::GrunbergNissan => {
+                let mu = liquid::viscosity(components, &x, t);
+                let rho = liquid::density(components, &w, t);
+                (mu / rho, format!("Grunberg–Nissan ideal blend (ln μ = Σ x_i ln μ_i, no interaction term) at {label}, ν = μ/ρ with ideal-mixing density"))
+            }
+            ViscosityRule::Refutas => (
+                liquid::kinematic_viscosity_refutas(components, &w, t),
+                format!("Refutas viscosity-blending number on mass fractions (ASTM D7152-style practice) of the component kinematic viscosities at {label}"),
+            ),
+        };
+        ind.set(key, Some(nu), method);
+        let ext = viscosity_extrapolated(components, &x, t);
+        if !ext.is_empty() {
+            ind.note(key, format!("component viscosities extrapolated outside their correlation range or below their melting point (sub-cooled liquid) for: {}", join_ids(&ext)));
+        }
+    }
+
+    // --- surface tension at 20 °C --------------------------------------------------------------------
+    ind.set("surface_tension_20C_N_m", Some(liquid::surface_tension(components, &x, T_20C)), "mole-fraction average of the component surface tensions at 20 °C");
+
+    // --- cetane -------------------------------------------------------------------------------------
+    let cn = blend_cetane(components, &w, &x, &vol, opts.cetane_rule);
+    let cn_method = match opts.cetane_rule {
+        CetaneRule::VolumeLinear => "volume-linear blend Σ v_i CN_i of the component cetane numbers (15 °C volume fractions; exact for n-hexadecane/HMN reference blends, ASTM D613 scale)",
+        CetaneRule::MoleLinear => "mole-linear blend Σ x_i CN_i of the component cetane numbers (simple alternative, not a standard rule)",
+        CetaneRule::MassLinear => "mass-linear blend Σ w_i CN_i of the component cetane numbers (simple alternative, not a standard rule)",
+    };
+    ind.set("dcn", Some(cn), cn_method);
+    let mixed_kinds = components.iter().zip(&x).filter(|(_, x)| **x > 0.0).map(|(c, _)| c.constants.cetane_number.kind.as_deref().unwrap_or("CN")).collect::<std::collections::BTreeSet<_>>();
+    if mixed_kinds.len() > 1 {
+        ind.note("dcn", "component values mix engine cetane numbers (CN) and derived cetane numbers (DCN)");
+    }
+
+    // --- heating value, hydrogen, H/C, aromatics, molar mass ---------------------------------------
+    let lhv: f64 = components.iter().zip(&w).map(|(c, w)| w * c.constants.lower_heating_value.value).sum();
+    ind.set("lhv_J_kg", Some(lhv), "mass-weighted component lower heating values (liquid, water as vapour), Σ w_i LHV_i");
+    ind.set("lhv_volume_J_m3", Some(lhv * rho15), "mass-basis LHV × density at 15 °C");
+    let h: f64 = components.iter().zip(&w).map(|(c, w)| w * c.hydrogen_mass_fraction()).sum();
+    ind.set("hydrogen_mass_fraction", Some(h), "from the component formulas, Σ w_i w_H,i");
+    let (hn, cn_atoms) = components.iter().zip(&x).fold((0.0, 0.0), |(a, b), (c, x)| (a + x * f64::from(c.formula.hydrogen), b + x * f64::from(c.formula.carbon)));
+    ind.set("hc_ratio", if cn_atoms > 0.0 { Some(hn / cn_atoms) } else { None }, "atom ratio from the component formulas, Σ x_i H_i / Σ x_i C_i");
+    if cn_atoms <= 0.0 {
+        ind.note("hc_ratio", "not computed: no carbon");
+    }
+    let arom: f64 = components.iter().zip(&vol).filter(|(c, _)| c.class.is_aromatic()).fold(0.0, |a, (_, v)| a + v);
+    ind.set("aromatics_volume_fraction", Some(arom), "liquid volume fraction at 15 °C of the alkylbenzene, cycloaromatic and diaromatic components (composition-based, not a D1319 measurement)");
+    ind.set("molar_mass_kg_mol", Some(liquid::molar_mass(components, &x)), "mole-fraction average Σ x_i M_i");
+
+    // --- freezing point ------------------------------------------------------------------------------
+    let (tf, controlling, skipped) = freezing_point(components, &x);
+    ind.set(
+        "freezing_point_K",
+        tf,
+        "ideal solid–liquid solubility (Schröder–van Laar, ΔCp neglected): highest T_i = 1/(1/T_m,i − R ln x_i/ΔH_fus,i); no solid solutions",
+    );
+    match (&controlling, tf) {
+        (Some(id), Some(_)) => ind.note("freezing_point_K", format!("controlled by {id}")),
+        _ => ind.note("freezing_point_K", "not computed: no component with an enthalpy of fusion"),
+    }
+    if !skipped.is_empty() {
+        let ids: Vec<&str> = skipped.iter().map(|s| s.as_str()).collect();
+        ind.note("freezing_point_K", format!("skipped for lack of an enthalpy of fusion: {}", join_ids(&ids)));
+    }
+    Ok(ind)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::data::Library;
+    use crate::fuel::Fuel;
+
+    fn lib() -> Library {
+        Library::embedded().unwrap()
+    }
+
+    #[test]
+    fn butler_conversion_is_exact() {
+        // 0.683 T_b[°F] − 119 °F, at T_b = 400 K
+        let tb_f = 400.0 * 1.8 - 459.67;
+        let tf_f = 0.683 * tb_f - 119.0;
+        let expected = (tf_f + 459.67) / 1.8;
+        assert!((butler_flash_point(400.0) - expected).abs() < 1e-10);
+    }
+
+    #[test]
+    fn pure_component_identities() {
+        let l = lib();
+        let c = l.component("n-decane").unwrap().clone();
+        let ind = indicators(std::slice::from_ref(&c), &[1.0], &IndicatorOptions::default()).unwrap();
+        // flash point reproduces the component's own input
+        let fp = c.constants.flash_point.as_ref().unwrap().value;
+        assert!((ind.flash_point_K.unwrap() - fp).abs() < 1e-5);
+        // flat distillation
+        let ibp = ind.initial_boiling_point_K.unwrap();
+        for t in [ind.t10_K, ind.t50_K, ind.t90_K, ind.final_boiling_point_K] {
+            assert!((t.unwrap() - ibp).abs() < 1e-6);
+        }
+        assert!((ind.density_15C_kg_m3.unwrap() - c.density_15c()).abs() < 1e-9);
+        assert!((ind.lhv_J_kg.unwrap() - c.constants.lower_heating_value.value).abs() < 1e-3);
+        assert!((ind.hc_ratio.unwrap() - 2.2).abs() < 1e-12);
+        assert_eq!(ind.aromatics_volume_fraction, Some(0.0));
+        // pure freezing point = melting point (ln 1 = 0)
+        assert!((ind.freezing_point_K.unwrap() - c.constants.melting_point.value).abs() < 1e-9);
+        assert!((ind.dcn.unwrap() - c.constants.cetane_number.value).abs() < 1e-12);
+    }
+
+    #[test]
+    fn serialises_without_nan_and_with_keys() {
+        let l = lib();
+        let fuel = Fuel::resolve("demo-wide", &l).unwrap();
+        let ind = indicators(&fuel.components, &fuel.mass_fractions, &IndicatorOptions::default()).unwrap();
+        let json = serde_json::to_value(&ind).unwrap();
+        for (k, _) in INDICATOR_KEYS {
+            assert!(json.get(k).is_some(), "missing key {k}");
+            assert!(ind.get(k).is_some());
+        }
+        for (k, _) in INDICATOR_KEYS.iter().skip(1) {
+            assert!(ind.get(k).unwrap().is_some(), "{k} not computed: {:?}", ind.notes.get(k));
+            assert!(ind.method(k).is_some(), "{k} has no method");
+        }
+        assert!(ind.get("no_such_key").is_none());
+        assert!(ind.notes["flash_point_K"].contains("n-dodecane"), "{}", ind.notes["flash_point_K"]);
+        // physically ordered distillation
+        let t = [ind.initial_boiling_point_K, ind.t10_K, ind.t20_K, ind.t50_K, ind.t90_K, ind.final_boiling_point_K];
+        for p in t.windows(2) {
+            assert!(p[1].unwrap() > p[0].unwrap());
+        }
+        // the flash point of a wide cut is far below its IBP
+        assert!(ind.flash_point_K.unwrap() < ind.initial_boiling_point_K.unwrap());
+    }
+
+    #[test]
+    fn bad_input_is_an_error() {
+        let l = lib();
+        let c = l.component("n-decane").unwrap().clone();
+        assert!(indicators(std::slice::from_ref(&c), &[f64::NAN], &IndicatorOptions::default()).is_err());
+        assert!(indicators(std::slice::from_ref(&c), &[1.0, 0.0], &IndicatorOptions::default()).is_err());
+        assert!(indicators(std::slice::from_ref(&c), &[-1.0], &IndicatorOptions::default()).is_err());
+        let o = IndicatorOptions { final_fraction: 1.0, ..Default::default() };
+        assert!(indicators(&[c], &[1.0], &o).is_err());
+    }
+
+    #[test]
+    fn liaw_binary_lies_between_pure_values() {
+        let l = lib();
+        let comps = vec![l.component("n-decane").unwrap().clone(), l.component("n-dodecane").unwrap().clone()];
+        let fp = [319.15, 347.15];
+        let t = liaw_flash_point(&comps, &[0.5, 0.5], &fp).unwrap();
+        assert!(t > fp[0] && t < fp[1]);
+        // more of the light component lowers it
+        let t2 = liaw_flash_point(&comps, &[0.8, 0.2], &fp).unwrap();
+        assert!(t2 < t);
+    }
+
+    #[test]
+    fn basis_options_change_only_what_they_should() {
+        let l = lib();
+        let fuel = Fuel::resolve("demo-wide", &l).unwrap();
+        let a = indicators(&fuel.components, &fuel.mass_fractions, &IndicatorOptions::default()).unwrap();
+        let b = indicators(&fuel.components, &fuel.mass_fractions, &IndicatorOptions { recovery_basis: RecoveryBasis::Mass, viscosity_rule: ViscosityRule::Refutas, cetane_rule: CetaneRule::MoleLinear, ..Default::default() }).unwrap();
+        assert_eq!(a.initial_boiling_point_K, b.initial_boiling_point_K);
+        assert_eq!(a.flash_point_K, b.flash_point_K);
+        assert!((a.t50_K.unwrap() - b.t50_K.unwrap()).abs() > 1e-3);
+        assert!(a.method("dcn") != b.method("dcn"));
+        assert!(b.method("kinematic_viscosity_minus20C_m2_s").unwrap().contains("Refutas"));
+    }
+}

@@ -1,0 +1,60 @@
+//! Validation of the component library and the mixture rules against the outside world: reference
+//! equations of state (CoolProp 8.0.0), handbook constants, hand calculations and Cantera 3.2.0.
+//! The check definitions, expected values and their sources live in src/checks/properties.rs (the same code
+//! writes the `dropcut validate` report); validation/README.md describes the reference tables.
+
+use dropcut::checks::properties::{self, is_known_failure, KNOWN_FAILURES};
+use dropcut::checks::{assert_all_passed, CheckResult};
+
+/// Every check passes, except exactly the investigated failures listed in `properties::KNOWN_FAILURES`,
+/// which must still fail (an entry whose check now passes is stale and must be removed).
+fn assert_passed_except_known(results: &[CheckResult]) {
+    for r in results {
+        println!("{} | {} | {} | {} | {}", if r.passed { "pass" } else { "FAIL" }, r.check, r.tolerance, r.achieved, r.source);
+    }
+    let (known, rest): (Vec<CheckResult>, Vec<CheckResult>) = results.iter().cloned().partition(is_known_failure);
+    assert_all_passed(&rest);
+    for k in &known {
+        assert!(!k.passed, "listed as a known failure but passes now; remove it from KNOWN_FAILURES: {}", k.check);
+    }
+}
+
+/// CoolProp 8.0.0 reference EOS and transport correlations (validation/coolprop/*.csv); tolerances of the
+/// issue (vapour pressure 2 %, density 1.5 %, latent heat 3 %, cp 5 %, viscosity and conductivity 10 %,
+/// surface tension 5 %) and our own for the dilute gas (cp 3 %, viscosity 10 %, conductivity 15 %).
+#[test]
+fn coolprop_reference_properties() {
+    let results = properties::coolprop_checks();
+    // 14 fluids × 7 liquid properties, less the columns CoolProp lacks (n-undecane μ, k; cyclohexane k),
+    // plus the dilute-gas properties (validation/README.md lists the empty columns).
+    assert!(results.len() >= 14 * 7 - 3 + 14 * 3 - 3, "only {} checks ran", results.len());
+    assert_passed_except_known(&results);
+}
+
+/// Handbook T_b, T_c, p_c and liquid density at 20 °C (validation/handbook/constants.csv, with the file's
+/// tolerances and sources), at least 10 components.
+#[test]
+fn handbook_constants() {
+    let results = properties::handbook_checks();
+    assert!(results.len() >= 4 * 10, "only {} checks ran", results.len());
+    assert_passed_except_known(&results);
+}
+
+/// Raoult bubble points and surface equilibrium (hand calculations with CoolProp pure-fluid vapour
+/// pressures; physics notes A.7), the Refutas blending hand example, Fuller vs Cantera diffusion
+/// coefficients, and the mixture identities.
+#[test]
+fn mixture_rules() {
+    let results = properties::mixture_checks();
+    assert_passed_except_known(&results);
+}
+
+/// Every entry of the known-failure list names a check that exists (no stale entries).
+#[test]
+fn known_failures_are_current() {
+    let all = properties::all();
+    for k in KNOWN_FAILURES {
+        let found = all.iter().any(|r| is_known_failure(r) && r.check.contains(k.reason));
+        assert!(found, "known failure {} / {} matches no check", k.component, k.property);
+    }
+}

@@ -262,9 +262,8 @@ pub(super) fn compare(lib: &Library, args: &CompareArgs) -> Result<(), CliError>
             };
             let dir = unique(dir_base, &mut dirs_taken);
             let inp = droplet_inputs(lib, fuel.clone(), cond)?;
-            match model::simulate(&inp, &mut FirstStep) {
-                Err(e @ model::ModelError::Input { .. }) => return Err(CliError::input(format!("{label}: {e}"))),
-                _ => {}
+            if let Err(e @ model::ModelError::Input { .. }) = model::simulate(&inp, &mut FirstStep) {
+                return Err(CliError::input(format!("{label}: {e}")));
             }
             groups[gi].runs.push(StudyRun { label: label.clone(), dir: dir.clone() });
             plan.push((label, dir, inp));

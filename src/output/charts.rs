@@ -619,7 +619,7 @@ fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &GridMap) -> R
     let xlabels = |v: &SegmentValue<i32>| match v {
         SegmentValue::CenterOf(i) if *i >= 0 && *i < nx => {
             let step = (nx as usize).div_ceil(12).max(1);
-            if (*i as usize) % step == 0 {
+            if (*i as usize).is_multiple_of(step) {
                 format_tick(m.x[*i as usize], xd)
             } else {
                 String::new()
@@ -630,7 +630,7 @@ fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &GridMap) -> R
     let ylabels = |v: &SegmentValue<i32>| match v {
         SegmentValue::CenterOf(j) if *j >= 0 && *j < ny => {
             let step = (ny as usize).div_ceil(12).max(1);
-            if (*j as usize) % step == 0 {
+            if (*j as usize).is_multiple_of(step) {
                 format_tick(m.y[*j as usize], yd)
             } else {
                 String::new()

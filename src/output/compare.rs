@@ -174,6 +174,9 @@ const RESIDUE_METRICS: [(&str, &str, &str, &str, &str, f64, f64, usize, Differen
     ("dcn", "dcn", "", "derived cetane number", "-", 1.0, 0.0, 1, Difference::Absolute),
 ];
 
+/// Reads one compared value from a saved run.
+type Extractor = Box<dyn Fn(&SavedRun) -> Result<Option<f64>, OutputError>>;
+
 /// Evaporated fractions at which residue indicators are compared.
 pub const RESIDUE_AT: [f64; 2] = [0.5, 0.9];
 
@@ -185,8 +188,7 @@ impl ComparisonTable {
             .iter()
             .map(|(key, label, unit, scale, dec, diff)| Metric::new(key, label, unit, *scale, 0.0, *dec, *diff))
             .collect();
-        let mut extractors: Vec<Box<dyn Fn(&SavedRun) -> Result<Option<f64>, OutputError>>> =
-            SUMMARY_METRICS.iter().map(|(key, ..)| Box::new(move |r: &SavedRun| Ok(r.summary_number(key))) as Box<dyn Fn(&SavedRun) -> _>).collect();
+        let mut extractors: Vec<Extractor> = SUMMARY_METRICS.iter().map(|(key, ..)| Box::new(move |r: &SavedRun| Ok(r.summary_number(key))) as Extractor).collect();
         for (col, name, unit_suffix, label, unit, scale, offset, dec, diff) in RESIDUE_METRICS {
             if !runs.iter().any(|(_, r)| r.residue.as_ref().is_some_and(|t| t.has(col) && t.has("evaporated_fraction"))) {
                 continue;

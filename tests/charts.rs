@@ -88,8 +88,14 @@ fn simulate_draws_every_run_chart_and_a_page() {
     check_chart(&dir, "chart_surface_temperature", &["Droplet surface temperature", "surface temperature", "[K]", "[°C]", "time", "[ms]"]);
     check_chart(&dir, "chart_liquid_composition", &["Liquid composition against evaporated fraction", "n-heptane", "n-decane", "mass %"]);
     check_chart(&dir, "chart_vapor_composition", &["Composition of the released vapour", "n-heptane", "n-decane"]);
-    assert!(!dir.join("chart_residue.png").exists(), "no residue.csv, so no residue chart");
-    check_page(&dir.join("index.html"), &["chart_d2.png", "chart_d2.svg", "chart_vapor_composition.png", "lifetime", "history.csv", "summary.json"]);
+    // the run's residual liquid, with the columns the residue chart reads
+    let residue = std::fs::read_to_string(dir.join("residue.csv")).unwrap();
+    let header = residue.lines().find(|l| !l.starts_with('#')).unwrap();
+    for col in ["evaporated_fraction", "bubble_point_K", "t50_K", "flash_point_K", "kinematic_viscosity_minus20C_m2_s", "density_15C_kg_m3", "dcn"] {
+        assert!(header.split(',').any(|h| h == col), "residue.csv lacks {col}");
+    }
+    check_chart(&dir, "chart_residue", &["Residual liquid against evaporated fraction", "Flash point", "Derived cetane number"]);
+    check_page(&dir.join("index.html"), &["chart_d2.png", "chart_d2.svg", "chart_vapor_composition.png", "chart_residue.png", "lifetime", "history.csv", "summary.json", "residue.csv"]);
     // the summary records component classes so charts can group when redrawn
     let s = json(&dir.join("summary.json"));
     assert_eq!(s["component_classes"][0][1], "n-alkane");
@@ -202,7 +208,10 @@ fn compare_fuels_equals_separate_simulate_runs() {
     }
     check_page(&cmp.join("index.html"), &["chart_all_d2.png", "test-decane/index.html", "lifetime", "comparison.csv"]);
     check_page(&cmp.join("test-decane").join("index.html"), &["../index.html", "chart_d2.png"]);
-    assert!(std::fs::read_to_string(cmp.join("comparison.txt")).unwrap().contains("t50 (50 % evaporated)"));
+    let text = std::fs::read_to_string(cmp.join("comparison.txt")).unwrap();
+    assert!(text.contains("t50 (50 % evaporated)") && text.contains("flash point, residue at 90 % evaporated"), "{text}");
+    assert!(rows[1]["flash_point_at50pct_K"].parse::<f64>().is_ok());
+    check_chart(&cmp, "chart_all_residue", &["test-heptane-decane", "test-decane"]);
 }
 
 #[test]
@@ -249,7 +258,7 @@ fn demo_writes_charts_and_pages_and_plot_redraws_them() {
     check_page(&demo.join("index.html"), &["combustor condition", "relight condition", "chart_relight_d2.png", "demo-blend_relight/index.html"]);
     let svg = std::fs::read(demo.join("chart_combustor_d2.svg")).unwrap();
     let out = ok(&["plot", p(&demo)]);
-    assert!(out.contains("drew 30 charts"), "{out}");
+    assert!(out.contains("drew 38 charts"), "{out}");
     assert_eq!(std::fs::read(demo.join("chart_combustor_d2.svg")).unwrap(), svg);
 
     // a folder of run folders without study.json: compared as one group

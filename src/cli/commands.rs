@@ -254,6 +254,7 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
     let mut rec = model::droplet::Recorder::default();
     let run = model::simulate(&inp, &mut rec)?;
     output::history::write_run(&args.out, &inp, &run.history, &run.outcome)?;
+    plot::write_droplet_residue(&args.out, &inp, &run.history)?;
     for n in &run.outcome.regime_notes {
         notice(n);
     }
@@ -337,6 +338,7 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
             let run = model::simulate(&inp, &mut rec)?;
             let dir_name = format!("{fuel_id}_{name}");
             output::history::write_run(&out.join(&dir_name), &inp, &run.history, &run.outcome)?;
+            plot::write_droplet_residue(&out.join(&dir_name), &inp, &run.history)?;
             table.push_str(&format_outcome_line(fuel_id, name, &run.outcome));
             group.runs.push(output::compare::StudyRun { label: fuel_id.into(), dir: dir_name });
         }

@@ -13,7 +13,7 @@ use plotters::style::text_anchor::{HPos, Pos, VPos};
 use plotters::style::{register_font, FontStyle};
 
 use super::read::{CsvData, SavedRun};
-use super::{write_atomic, OutputError};
+use super::{write_replace, OutputError};
 
 /// Font family name every text element uses (registered with the built-in Noto Sans).
 const FONT: &str = "sans-serif";
@@ -207,7 +207,7 @@ fn save(dir: &Path, stem: &str, title: &str, size: (u32, u32), fig: Figure) -> R
         draw_figure(&root, &fig).map_err(|m| chart_err(&svg_path, m))?;
         root.present().map_err(|e| chart_err(&svg_path, de(e)))?;
     }
-    write_atomic(&svg_path, svg.as_bytes())?;
+    write_replace(&svg_path, svg.as_bytes())?;
     // The bitmap encoder picks the format from the extension: the temporary name must end in .png.
     let tmp = dir.join(format!(".{stem}.tmp-{}.png", std::process::id()));
     {
@@ -237,6 +237,11 @@ fn draw_figure<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, fig: &Figure) 
 /// Tick positions plotters will use for a range and label count.
 fn ticks(range: (f64, f64), n: usize) -> Vec<f64> {
     RangedCoordf64::from(range.0..range.1).key_points(n)
+}
+
+/// Smallest label count, from `n` up, that gives at least four ticks (a 1-2-5 step can leave only two).
+fn enough_ticks(range: (f64, f64), n: usize) -> usize {
+    (n..=n + 8).find(|&k| ticks(range, k).len() >= 4).unwrap_or(n)
 }
 
 /// Decimals that show the tick step exactly (steps are 1, 2 or 5 × 10^k).
@@ -437,6 +442,7 @@ fn panel_ranges(p: &Panel) -> ((f64, f64), (f64, f64)) {
 fn draw_panel<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, area: &DrawingArea<DB, Shift>, p: &Panel, multi: bool) -> Result<(), String> {
     let (xr, yr) = panel_ranges(p);
     let (xn, yn) = if multi { (6, 6) } else { (10, 8) };
+    let (xn, yn) = (enough_ticks(xr, xn), enough_ticks(yr, yn));
     let label_size: u32 = if multi { 16 } else { 18 };
     let desc_size: u32 = if multi { 17 } else { 20 };
     let xd = tick_decimals(xr, xn);
@@ -1171,6 +1177,13 @@ mod tests {
         assert_eq!(exact_decimals(&[500.0, 800.0, 1100.0]), 0);
         assert_eq!(exact_decimals(&[0.5, 1.25, 2.0]), 2);
         assert_eq!(exact_decimals(&[0.0, 0.1]), 1);
+    }
+
+    #[test]
+    fn at_least_four_ticks() {
+        let n = enough_ticks((786.0, 798.5), 6);
+        assert!(ticks((786.0, 798.5), n).len() >= 4);
+        assert_eq!(enough_ticks((0.0, 100.0), 6), 6);
     }
 
     #[test]

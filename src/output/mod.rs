@@ -7,6 +7,7 @@ pub mod compare;
 pub mod history;
 pub mod html;
 pub mod read;
+pub mod residue;
 
 use std::fs;
 use std::io::Write;
@@ -62,6 +63,16 @@ pub fn ensure_dir(dir: &Path) -> Result<(), OutputError> {
 
 /// Write `contents` to `path` atomically (temporary file in the same folder, then rename).
 pub fn write_atomic(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
+    write_via_temp(path, contents, true)
+}
+
+/// Like [`write_atomic`] but without forcing the data to disk: for files that can be redrawn from saved data
+/// (charts, pages), where dozens of syncs per run would dominate the run time.
+pub fn write_replace(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
+    write_via_temp(path, contents, false)
+}
+
+fn write_via_temp(path: &Path, contents: &[u8], sync: bool) -> Result<(), OutputError> {
     if let Some(parent) = path.parent() {
         if !parent.as_os_str().is_empty() {
             ensure_dir(parent)?;
@@ -75,7 +86,9 @@ pub fn write_atomic(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
     {
         let mut f = fs::File::create(&tmp).map_err(|e| io_err(&tmp, e))?;
         f.write_all(contents).map_err(|e| io_err(&tmp, e))?;
-        f.sync_all().map_err(|e| io_err(&tmp, e))?;
+        if sync {
+            f.sync_all().map_err(|e| io_err(&tmp, e))?;
+        }
     }
     fs::rename(&tmp, path).map_err(|e| io_err(path, e))
 }

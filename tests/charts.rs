@@ -42,12 +42,35 @@ fn check_png(path: &Path) -> (u32, u32) {
     (w, h)
 }
 
+/// Elements open and close in order (a small XML well-formedness check: tags, self-closing tags, no stray `<`).
+fn assert_balanced(text: &str, void: &[&str], what: &str) {
+    let mut stack: Vec<String> = vec![];
+    let mut rest = text;
+    while let Some(i) = rest.find('<') {
+        let end = rest[i..].find('>').unwrap_or_else(|| panic!("{what}: unclosed '<'")) + i;
+        let tag = &rest[i + 1..end];
+        rest = &rest[end + 1..];
+        if tag.starts_with('!') || tag.starts_with('?') {
+            continue;
+        }
+        let name: String = tag.trim_start_matches('/').chars().take_while(|c| c.is_ascii_alphanumeric()).collect();
+        assert!(!name.is_empty(), "{what}: bad tag <{tag}>");
+        if let Some(closing) = tag.strip_prefix('/') {
+            let open = stack.pop().unwrap_or_else(|| panic!("{what}: </{closing}> without opening"));
+            assert_eq!(open, name, "{what}: <{open}> closed by </{name}>");
+        } else if !tag.ends_with('/') && !void.contains(&name.as_str()) {
+            stack.push(name);
+        }
+    }
+    assert!(stack.is_empty(), "{what}: unclosed {stack:?}");
+}
+
 /// Check an SVG is well formed enough (root element, balanced text elements) and contains every expected text.
 fn check_svg(path: &Path, expected: &[&str]) -> String {
     let s = std::fs::read_to_string(path).unwrap_or_else(|e| panic!("{}: {e}", path.display()));
     assert!(s.starts_with("<svg"), "{}", path.display());
     assert!(s.trim_end().ends_with("</svg>"), "{}", path.display());
-    assert_eq!(s.matches("<text").count(), s.matches("</text>").count());
+    assert_balanced(&s, &[], &path.display().to_string());
     assert!(s.matches("<text").count() > 10);
     for e in expected {
         assert!(s.contains(e), "{} lacks '{e}'", path.display());
@@ -65,6 +88,7 @@ fn check_page(path: &Path, expected: &[&str]) -> String {
     assert!(s.starts_with("<!DOCTYPE html>"));
     assert!(!s.contains("http:") && !s.contains("https:") && !s.contains("//"), "{}: external address", path.display());
     assert!(!s.contains("<script"), "{}", path.display());
+    assert_balanced(&s, &["meta", "img", "br"], &path.display().to_string());
     for e in expected {
         assert!(s.contains(e), "{} lacks '{e}'", path.display());
     }

@@ -367,7 +367,7 @@ fn enough_ticks(range: (f64, f64), n: usize) -> usize {
 fn tick_decimals(range: (f64, f64), n: usize) -> usize {
     let t = ticks(range, n);
     let step = if t.len() >= 2 { (t[1] - t[0]).abs() } else { (range.1 - range.0).abs().max(1e-12) };
-    let d = (-(step.log10()) + 1e-9).ceil();
+    let d = (-(step.log10()) - 1e-9).ceil();
     if d.is_finite() && d > 0.0 {
         (d as usize).min(8)
     } else {
@@ -1287,6 +1287,8 @@ mod tests {
         assert_eq!(tick_decimals((0.0, 100.0), 10), 0);
         assert_eq!(tick_decimals((300.0, 520.0), 8), 0);
         assert_eq!(tick_decimals((0.0, 0.012), 6), 3);
+        assert_eq!(tick_decimals((300.0, 300.06), 8), 2);
+        assert_eq!(tick_decimals((0.0, 10.0), 10), 0);
         assert_eq!(format_tick(-0.0001, 2), "0.00");
         assert_eq!(format_tick(-1.5, 1), "−1.5");
     }

@@ -139,6 +139,39 @@ pub fn run_key_values(run: &SavedRun) -> Vec<(String, String)> {
     rows
 }
 
+/// Residue indicators at 0, 50 and 90 % evaporated, from residue.csv (`None` without one).
+fn residue_table_html(run: &SavedRun) -> Option<String> {
+    let t = run.residue.as_ref()?;
+    let x = t.numbers("evaporated_fraction").ok()?;
+    let cols: [(&str, &str, f64, f64, usize); 6] = [
+        ("bubble_point_K", "bubble point [°C]", 1.0, -273.15, 1),
+        ("t50_K", "T50 [°C]", 1.0, -273.15, 1),
+        ("flash_point_K", "flash point [°C]", 1.0, -273.15, 1),
+        ("kinematic_viscosity_minus20C_m2_s", "viscosity at −20 °C [mm²/s]", 1e6, 0.0, 2),
+        ("density_15C_kg_m3", "density at 15 °C [kg/m³]", 1.0, 0.0, 1),
+        ("dcn", "DCN [-]", 1.0, 0.0, 1),
+    ];
+    let present: Vec<_> = cols.iter().filter(|c| t.has(c.0)).collect();
+    if present.is_empty() {
+        return None;
+    }
+    let mut s = String::from("<table>\n<tr><th>evaporated</th>");
+    for c in &present {
+        s.push_str(&format!("<th>{}</th>", escape(c.1)));
+    }
+    s.push_str("</tr>\n");
+    for at in [0.0, 0.5, 0.9] {
+        s.push_str(&format!("<tr><td class=\"num\">{:.0} %</td>", at * 100.0));
+        for c in &present {
+            let v = t.numbers(c.0).ok().and_then(|y| super::read::interpolate_at(&x, &y, at));
+            s.push_str(&format!("<td class=\"num\">{}</td>", v.map(|v| format!("{:.*}", c.4, v * c.2 + c.3)).unwrap_or_else(|| "–".into())));
+        }
+        s.push_str("</tr>\n");
+    }
+    s.push_str("</table>\n<p class=\"sub\">Screening estimates of the liquid left in the droplet (residue.csv), not certified fuel properties.</p>\n");
+    Some(s)
+}
+
 /// Write `index.html` into a run folder: key values, charts, notes and links to the data files.
 pub fn write_run_page(run: &SavedRun, charts: &[ChartFiles]) -> Result<PathBuf, OutputError> {
     let fuel = run.fuel_name();
@@ -152,6 +185,10 @@ pub fn write_run_page(run: &SavedRun, charts: &[ChartFiles]) -> Result<PathBuf, 
         b.push_str(&format!("<tr><th>{}</th><td>{}</td></tr>\n", escape(&k), escape(&v)));
     }
     b.push_str("</table>\n");
+    if let Some(t) = residue_table_html(run) {
+        b.push_str("<h2>Residual liquid</h2>\n");
+        b.push_str(&t);
+    }
     if !charts.is_empty() {
         b.push_str("<h2>Charts</h2>\n");
         b.push_str(&figures("", charts));

@@ -306,6 +306,9 @@ mod tests {
             liquid_mass_fractions: vec![],
             vapor_mass_fractions: vec![],
             regime: Regime::Evaporating,
+            mean_temperature: temp,
+            center_temperature: temp,
+            surface_liquid_mass_fractions: vec![],
         }
     }
 

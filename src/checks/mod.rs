@@ -5,6 +5,7 @@
 use serde::Serialize;
 
 pub mod droplet;
+pub mod estimation;
 pub mod model;
 pub mod properties;
 pub mod residue;
@@ -95,7 +96,11 @@ pub fn markdown_table(results: &[CheckResult]) -> String {
 pub fn all() -> Vec<CheckResult> {
     let mut v = vec![];
     if let Ok(lib) = crate::data::Library::embedded() {
+        v.extend(properties::all());
+        v.extend(residue::all(&lib));
+        v.extend(estimation::joback_viscosity_checks(&lib));
         v.extend(model::analytic_checks(&lib));
+        v.extend(droplet::experiment_checks());
     }
     v
 }

@@ -49,12 +49,38 @@ pub enum Command {
         /// A run folder (history.csv, summary.json) or a demo/compare folder with one sub-folder per run.
         dir: PathBuf,
     },
+    /// Residual liquid of a fuel weathered in an open vessel at a fixed temperature (Rayleigh path): indicators
+    /// at each evaporated fraction.
+    Residue(ResidueArgs),
     /// Rerun every validation check and write the report (Markdown).
     Validate {
         /// Report file.
         #[arg(long, default_value = "docs/validation.md")]
         out: PathBuf,
     },
+}
+
+/// `residue` arguments.
+#[derive(Debug, Clone, Args)]
+pub struct ResidueArgs {
+    /// Fuel file, library fuel id, or component id.
+    pub fuel: String,
+    /// Temperature of the open-vessel evaporation.
+    #[arg(long, default_value = "350K")]
+    pub temperature: String,
+    /// Evaporated mass fractions, comma-separated (default 0, 0.05, ..., 0.95).
+    #[arg(long, default_value = "")]
+    pub steps: String,
+    /// Limits file (TOML windows) to flag indicators in or out; `aviation` for the built-in
+    /// aviation-turbine-fuel windows.
+    #[arg(long)]
+    pub limits: Option<String>,
+    /// Print the rows as JSON (a list) instead of a table.
+    #[arg(long)]
+    pub json: bool,
+    /// Also write the table as CSV to this file.
+    #[arg(long)]
+    pub out: Option<std::path::PathBuf>,
 }
 
 /// `fuel` subcommands.
@@ -121,6 +147,42 @@ pub struct ConditionArgs {
     /// Give up after this simulated time.
     #[arg(long, default_value = "30s")]
     pub max_time: String,
+    /// Species inside the droplet: well-mixed (rapid mixing) or diffusion (effective diffusivity).
+    #[arg(long, value_enum, default_value = "well-mixed")]
+    pub liquid_mixing: MixingArg,
+    /// Heat inside the droplet: uniform (infinite conductivity) or conduction (effective conductivity).
+    #[arg(long, value_enum, default_value = "uniform")]
+    pub liquid_heat: HeatArg,
+    /// Radial cells of the resolved liquid models.
+    #[arg(long, default_value = "40")]
+    pub nodes: String,
+    /// Langmuir–Knudsen non-equilibrium surface vapour (Miller, Harstad & Bellan 1998).
+    #[arg(long)]
+    pub non_equilibrium: bool,
+    /// Multiply the liquid diffusivity (limit studies).
+    #[arg(long, default_value = "1", hide_short_help = true)]
+    pub liquid_diffusivity_factor: String,
+    /// Multiply the liquid conductivity (limit studies).
+    #[arg(long, default_value = "1", hide_short_help = true)]
+    pub liquid_conductivity_factor: String,
+}
+
+/// Liquid species mixing.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum MixingArg {
+    /// Uniform composition.
+    WellMixed,
+    /// Transient diffusion.
+    Diffusion,
+}
+
+/// Liquid heat transport.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum HeatArg {
+    /// Uniform temperature.
+    Uniform,
+    /// Transient conduction.
+    Conduction,
 }
 
 /// `simulate` arguments.
@@ -140,6 +202,9 @@ pub struct SimulateArgs {
     /// Do not draw charts.
     #[arg(long)]
     pub no_plots: bool,
+    /// Limits file for the residue table (`aviation` = built-in aviation-turbine-fuel windows).
+    #[arg(long)]
+    pub limits: Option<String>,
 }
 
 /// `compare` arguments.

@@ -5,7 +5,7 @@ use std::path::Path;
 
 use serde::Serialize;
 
-use super::args::{Cli, Command, ConditionArgs, CorrelationArg, FuelAction, SimulateArgs};
+use super::args::{Cli, Command, ConditionArgs, CorrelationArg, FuelAction, HeatArg, MixingArg, ResidueArgs, SimulateArgs};
 use super::plot;
 use super::CliError;
 use crate::data::Library;
@@ -30,6 +30,7 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
         Command::Compare(args) => plot::compare(&lib, &args),
         Command::Plot { dir } => plot::plot(&lib, &dir),
         Command::Validate { out } => validate(&out),
+        Command::Residue(args) => residue(&lib, &args),
     }
 }
 
@@ -241,6 +242,31 @@ pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<Dr
     inp.rtol = rtol;
     inp.max_time = max_time;
     inp.ambient_vapor = ambient_vapor;
+    let nodes: usize = c.nodes.trim().parse().map_err(|_| CliError::input(format!("--nodes: '{}' is not a whole number", c.nodes)))?;
+    if !(4..=400).contains(&nodes) {
+        return Err(CliError::input(format!("--nodes: {nodes} must lie between 4 and 400")));
+    }
+    let factor = |name: &str, text: &str| -> Result<f64, CliError> {
+        let v = parse_q(name, text, Quantity::Dimensionless)?;
+        if !(v > 0.0 && v <= 1e8) {
+            return Err(CliError::input(format!("--{name}: {v} must be a positive factor up to 1e8")));
+        }
+        Ok(v)
+    };
+    inp.liquid = model::droplet::LiquidOptions {
+        mixing: match c.liquid_mixing {
+            MixingArg::WellMixed => model::droplet::LiquidMixing::WellMixed,
+            MixingArg::Diffusion => model::droplet::LiquidMixing::Diffusion,
+        },
+        heat: match c.liquid_heat {
+            HeatArg::Uniform => model::droplet::LiquidHeat::Uniform,
+            HeatArg::Conduction => model::droplet::LiquidHeat::Conduction,
+        },
+        nodes,
+        non_equilibrium: c.non_equilibrium,
+        diffusivity_factor: factor("liquid-diffusivity-factor", &c.liquid_diffusivity_factor)?,
+        conductivity_factor: factor("liquid-conductivity-factor", &c.liquid_conductivity_factor)?,
+    };
     Ok(inp)
 }
 
@@ -253,8 +279,9 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
     progress(&format!("simulating {} ...", inp.fuel.name));
     let mut rec = model::droplet::Recorder::default();
     let run = model::simulate(&inp, &mut rec)?;
-    output::history::write_run(&args.out, &inp, &run.history, &run.outcome)?;
-    plot::write_droplet_residue(&args.out, &inp, &run.history)?;
+    output::history::write_run(&args.out, &inp, &run)?;
+    let limits = load_limits(args.limits.as_deref())?;
+    write_droplet_residue(&args.out, &inp, &run, limits.as_ref())?;
     for n in &run.outcome.regime_notes {
         notice(n);
     }
@@ -332,13 +359,20 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
                 correlation: CorrelationArg::Clift,
                 rtol: "1e-6".into(),
                 max_time: tmax.into(),
+                liquid_mixing: MixingArg::WellMixed,
+                liquid_heat: HeatArg::Uniform,
+                nodes: "40".into(),
+                non_equilibrium: false,
+                liquid_diffusivity_factor: "1".into(),
+                liquid_conductivity_factor: "1".into(),
             };
             let inp = droplet_inputs(lib, fuel, &cond)?;
             let mut rec = model::droplet::Recorder::default();
             let run = model::simulate(&inp, &mut rec)?;
             let dir_name = format!("{fuel_id}_{name}");
-            output::history::write_run(&out.join(&dir_name), &inp, &run.history, &run.outcome)?;
-            plot::write_droplet_residue(&out.join(&dir_name), &inp, &run.history)?;
+            let dir = out.join(&dir_name);
+            output::history::write_run(&dir, &inp, &run)?;
+            write_droplet_residue(&dir, &inp, &run, Some(&crate::post::Limits::aviation_turbine_fuel()))?;
             table.push_str(&format_outcome_line(fuel_id, name, &run.outcome));
             group.runs.push(output::compare::StudyRun { label: fuel_id.into(), dir: dir_name });
         }
@@ -366,4 +400,125 @@ fn validate(out: &Path) -> Result<(), CliError> {
         return Err(CliError::runtime("some validation checks failed (see the report)"));
     }
     Ok(())
+}
+
+fn load_limits(spec: Option<&str>) -> Result<Option<crate::post::Limits>, CliError> {
+    match spec {
+        None => Ok(None),
+        Some("aviation") => Ok(Some(crate::post::Limits::aviation_turbine_fuel())),
+        Some(path) => crate::post::Limits::load(Path::new(path)).map(Some).map_err(|e| CliError::input(e.to_string())),
+    }
+}
+
+/// Residual-liquid indicators along a droplet history (mean liquid, and the surface layer of a resolved
+/// droplet) written to residue.csv.
+pub(super) fn write_droplet_residue(dir: &Path, inp: &DropletInputs, run: &model::RunResult, limits: Option<&crate::post::Limits>) -> Result<(), CliError> {
+    use crate::post::droplet::{residues_along_history, Layer};
+    let fractions = crate::post::weathering::default_fractions();
+    let opts = crate::post::IndicatorOptions::default();
+    let comps = &inp.fuel.components;
+    let mean = residues_along_history(&run.history, &fractions, Layer::Mean);
+    let mean_rows = crate::post::residue_table(comps, &mean, &opts).map_err(|e| CliError::runtime(e.to_string()))?;
+    let mut sets = vec![output::residue::ResidueSet { label: "mean", rows: &mean_rows }];
+    let surface_rows;
+    if inp.liquid.mixing == model::droplet::LiquidMixing::Diffusion {
+        let surface = residues_along_history(&run.history, &fractions, Layer::Surface);
+        surface_rows = crate::post::residue_table(comps, &surface, &opts).map_err(|e| CliError::runtime(e.to_string()))?;
+        sets.push(output::residue::ResidueSet { label: "surface", rows: &surface_rows });
+    }
+    output::residue::write_residue(&dir.join("residue.csv"), &format!("residual liquid along the droplet history of {}", inp.fuel.name), &sets, limits)?;
+    Ok(())
+}
+
+fn residue(lib: &Library, args: &ResidueArgs) -> Result<(), CliError> {
+    let t = parse_q("temperature", &args.temperature, Quantity::Temperature)?;
+    if !(150.0..=800.0).contains(&t) {
+        return Err(CliError::input(format!("--temperature {}: {t} K is outside 150–800 K", args.temperature)));
+    }
+    let fractions: Vec<f64> = if args.steps.trim().is_empty() {
+        crate::post::weathering::default_fractions()
+    } else {
+        let mut v = vec![];
+        for item in args.steps.split(',') {
+            let f = parse_q("steps", item.trim(), Quantity::Dimensionless)?;
+            if !(0.0..1.0).contains(&f) {
+                return Err(CliError::input(format!("--steps: evaporated fraction {f} must be in [0, 1)")));
+            }
+            v.push(f);
+        }
+        if v.windows(2).any(|w| w[1] <= w[0]) {
+            return Err(CliError::input(format!("--steps '{}': fractions must increase", args.steps)));
+        }
+        v
+    };
+    let limits = load_limits(args.limits.as_deref())?;
+    let fuel = Fuel::resolve(&args.fuel, lib)?;
+    for n in &fuel.notices {
+        notice(n);
+    }
+    let opts = crate::post::IndicatorOptions::default();
+    let residues = crate::post::weathering_residues(&fuel.components, &fuel.mass_fractions, t, &fractions).map_err(|e| CliError::input(e.to_string()))?;
+    let rows = crate::post::residue_table(&fuel.components, &residues, &opts).map_err(|e| CliError::runtime(e.to_string()))?;
+    notice(crate::post::CAUTION);
+    if let Some(path) = &args.out {
+        output::residue::write_residue(path, &format!("open-vessel weathering of {} at {t} K", fuel.name), &[output::residue::ResidueSet { label: "weathering", rows: &rows }], limits.as_ref())?;
+    }
+    if args.json {
+        #[derive(Serialize)]
+        struct Row<'a> {
+            #[serde(flatten)]
+            indicators: &'a crate::post::Indicators,
+            mass_fractions: Vec<(String, f64)>,
+            #[serde(skip_serializing_if = "Vec::is_empty")]
+            limit_flags: Vec<crate::post::LimitFlag>,
+        }
+        let out: Vec<Row> = rows
+            .iter()
+            .map(|r| Row {
+                indicators: &r.indicators,
+                mass_fractions: fuel.components.iter().map(|c| c.id.clone()).zip(r.mass_fractions.iter().copied()).collect(),
+                limit_flags: limits.as_ref().map(|l| l.check(&r.indicators)).unwrap_or_default(),
+            })
+            .collect();
+        return stdout_write(&output::to_json_string(&out).map_err(CliError::runtime)?);
+    }
+    let k = |v: Option<f64>| v.map(|x| format!("{:.1}", x - 273.15)).unwrap_or_else(|| "-".into());
+    let mut s = format!("open-vessel weathering of {} at {:.2} K (Rayleigh path)\n", fuel.name, t);
+    s.push_str(&format!(
+        "{:>6} {:>8} {:>8} {:>8} {:>8} {:>8} {:>9} {:>10} {:>6} {:>7} {:>7}\n",
+        "evap%", "IBP °C", "T10 °C", "T50 °C", "T90 °C", "flash°C", "rho15", "nu-20 mm2/s", "DCN", "LHV MJ", "arom%"
+    ));
+    for r in &rows {
+        let i = &r.indicators;
+        let out_mark = |key: &str| -> &str {
+            match limits.as_ref().map(|l| l.check(i)).and_then(|f| f.into_iter().find(|f| f.key == key)) {
+                Some(f) if f.status == crate::post::LimitStatus::Out => "*",
+                _ => "",
+            }
+        };
+        s.push_str(&format!(
+            "{:>6.1} {:>8} {:>8}{} {:>8} {:>8} {:>7}{} {:>8.1}{} {:>9.3}{} {:>6.1} {:>7.2}{} {:>6.1}{}\n",
+            100.0 * r.evaporated_fraction,
+            k(i.bubble_point_K),
+            k(i.t10_K),
+            out_mark("t10_K"),
+            k(i.t50_K),
+            k(i.t90_K),
+            k(i.flash_point_K),
+            out_mark("flash_point_K"),
+            i.density_15C_kg_m3.unwrap_or(0.0),
+            out_mark("density_15C_kg_m3"),
+            i.kinematic_viscosity_minus20C_m2_s.map(|v| v * 1e6).unwrap_or(0.0),
+            out_mark("kinematic_viscosity_minus20C_m2_s"),
+            i.dcn.unwrap_or(0.0),
+            i.lhv_J_kg.map(|v| v / 1e6).unwrap_or(0.0),
+            out_mark("lhv_J_kg"),
+            100.0 * i.aromatics_volume_fraction.unwrap_or(0.0),
+            out_mark("aromatics_volume_fraction"),
+        ));
+    }
+    if limits.is_some() {
+        s.push_str("* outside the limits window\n");
+    }
+    stdout_write(&s)
 }

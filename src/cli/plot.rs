@@ -7,12 +7,11 @@ use std::path::Path;
 use clap::ValueEnum;
 
 use super::args::{CompareArgs, ConditionArgs, CorrelationArg};
-use super::commands::{droplet_inputs, notice, progress, stdout_write};
+use super::commands::{droplet_inputs, notice, progress, stdout_write, write_droplet_residue};
 use super::CliError;
 use crate::data::Library;
 use crate::fuel::Fuel;
 use crate::model::{self, Observer};
-use crate::post;
 use crate::output::charts::{self, LabelledRun};
 use crate::output::compare::{comparison_csv, safe_name, ComparisonTable, Study, StudyGroup, StudyRun, STUDY_FILE};
 use crate::output::read::SavedRun;
@@ -29,37 +28,6 @@ fn fill_classes(lib: &Library, run: &mut SavedRun) {
             }
         }
     }
-}
-
-/// Residual liquid of a droplet run: the well-mixed liquid composition at evaporated fractions 0, 5, …, 95 %
-/// (those the run reached), interpolated between history rows, with its indicators written to residue.csv.
-/// Indicators that cannot be estimated leave a note, not a failure.
-pub(super) fn write_droplet_residue(dir: &Path, inp: &model::DropletInputs, history: &[model::HistoryRow]) -> Result<(), CliError> {
-    let mut residues = vec![];
-    for f in post::weathering::default_fractions() {
-        let Some(i) = history.iter().position(|r| r.evaporated_fraction >= f) else { break };
-        let row = &history[i];
-        let w: Vec<f64> = if i == 0 {
-            row.liquid_mass_fractions.clone()
-        } else {
-            let prev = &history[i - 1];
-            let span = row.evaporated_fraction - prev.evaporated_fraction;
-            let a = if span > 0.0 { ((f - prev.evaporated_fraction) / span).clamp(0.0, 1.0) } else { 1.0 };
-            prev.liquid_mass_fractions.iter().zip(&row.liquid_mass_fractions).map(|(p, q)| (p + a * (q - p)).max(0.0)).collect()
-        };
-        residues.push(post::Residue { evaporated_fraction: f, mass_fractions: w });
-    }
-    if residues.is_empty() {
-        return Ok(());
-    }
-    match post::residue_table(&inp.fuel.components, &residues, &post::IndicatorOptions::default()) {
-        Ok(rows) => {
-            let desc = format!("residual liquid of the droplet ({}) when the given fraction of its initial mass has evaporated; composition from history.csv", inp.fuel.name);
-            output::residue::write_residue(dir, &rows, &desc)?;
-        }
-        Err(e) => notice(&format!("{}: residual-liquid indicators not written: {e}", inp.fuel.name)),
-    }
-    Ok(())
 }
 
 /// Load a run folder, draw its charts (unless `plots` is false) and write its index.html.
@@ -309,8 +277,8 @@ pub(super) fn compare(lib: &Library, args: &CompareArgs) -> Result<(), CliError>
             let c: CliError = e.into();
             CliError { code: c.code, message: format!("{label}: {}", c.message) }
         })?;
-        output::history::write_run(&args.out.join(dir), inp, &run.history, &run.outcome)?;
-        write_droplet_residue(&args.out.join(dir), inp, &run.history)?;
+        output::history::write_run(&args.out.join(dir), inp, &run)?;
+        write_droplet_residue(&args.out.join(dir), inp, &run, None)?;
     }
     let names = fuels.iter().map(|f| f.name.as_str()).collect::<Vec<_>>().join(", ");
     let title = match &vary {

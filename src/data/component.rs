@@ -143,6 +143,8 @@ struct RawComponent {
     cas: String,
     class: HydrocarbonClass,
     formula: Formula,
+    #[serde(default)]
+    joback_groups: Option<std::collections::BTreeMap<String, u32>>,
     constants: RawConstants,
     vapor_pressure: RawCorrelation,
     liquid_density: RawCorrelation,
@@ -208,6 +210,8 @@ pub struct Component {
     pub class: HydrocarbonClass,
     /// Atom counts.
     pub formula: Formula,
+    /// Joback groups (for group-contribution estimates), in file order.
+    pub joback_groups: Vec<(&'static super::joback_groups::Group, u32)>,
     /// Scalar constants.
     pub constants: Constants,
     /// Vapour pressure [Pa].
@@ -326,7 +330,23 @@ impl Component {
             let default = if r.model == "corresponding-states" || r.source.starts_with("estimated") { estimated } else { published };
             r.build(dim, w, default, &format!("{ctx}: [{key}]"))
         };
+        let mut joback_groups = vec![];
+        if let Some(map) = &raw.joback_groups {
+            for (key, count) in map {
+                let g = super::joback_groups::group(key).ok_or_else(|| DataError::Invalid {
+                    context: format!("{ctx}: joback-groups.{key}"),
+                    message: format!(
+                        "unknown Joback group '{key}' (known: {})",
+                        super::joback_groups::GROUPS.iter().map(|g| g.key).collect::<Vec<_>>().join(", ")
+                    ),
+                })?;
+                if *count > 0 {
+                    joback_groups.push((g, *count));
+                }
+            }
+        }
         Ok(Component {
+            joback_groups,
             vapor_pressure: build(&raw.vapor_pressure, "vapor-pressure", Dimension::Pressure)?,
             liquid_density: build(&raw.liquid_density, "liquid-density", Dimension::Density)?,
             latent_heat: build(&raw.latent_heat, "latent-heat", Dimension::SpecificEnergy)?,

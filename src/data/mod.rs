@@ -3,6 +3,7 @@
 pub mod component;
 pub mod correlation;
 pub mod gases;
+pub mod joback_groups;
 pub mod library;
 pub mod sources;
 

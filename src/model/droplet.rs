@@ -56,6 +56,58 @@ pub struct DropletInputs {
     pub fixed_temperature: bool,
     /// Remaining mass fraction that counts as evaporated (0.001 = 0.1 %).
     pub end_mass_fraction: f64,
+    /// Liquid-side model: mixing, heat, grid, non-equilibrium surface.
+    pub liquid: LiquidOptions,
+}
+
+/// How species mix inside the droplet.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum LiquidMixing {
+    /// Rapid mixing: uniform composition.
+    WellMixed,
+    /// Transient diffusion with the Abramzon–Sirignano effective diffusivity.
+    Diffusion,
+}
+
+/// How heat moves inside the droplet.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum LiquidHeat {
+    /// Infinite conductivity: uniform temperature.
+    Uniform,
+    /// Transient conduction with the Abramzon–Sirignano effective conductivity.
+    Conduction,
+}
+
+/// Liquid-side model options.
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+pub struct LiquidOptions {
+    /// Species mixing.
+    pub mixing: LiquidMixing,
+    /// Heat transport.
+    pub heat: LiquidHeat,
+    /// Radial cells for the resolved models.
+    pub nodes: usize,
+    /// Langmuir–Knudsen non-equilibrium surface (Miller, Harstad & Bellan 1998).
+    pub non_equilibrium: bool,
+    /// Multiplier on the liquid diffusivity (1 = Wilke–Chang; tests use 1e4 for the well-mixed limit).
+    pub diffusivity_factor: f64,
+    /// Multiplier on the liquid conductivity.
+    pub conductivity_factor: f64,
+}
+
+impl Default for LiquidOptions {
+    fn default() -> Self {
+        LiquidOptions { mixing: LiquidMixing::WellMixed, heat: LiquidHeat::Uniform, nodes: 40, non_equilibrium: false, diffusivity_factor: 1.0, conductivity_factor: 1.0 }
+    }
+}
+
+impl LiquidOptions {
+    /// True when the liquid is resolved radially (anything but well-mixed + uniform).
+    pub fn is_resolved(&self) -> bool {
+        self.mixing == LiquidMixing::Diffusion || self.heat == LiquidHeat::Conduction
+    }
 }
 
 impl DropletInputs {
@@ -76,6 +128,7 @@ impl DropletInputs {
             max_time: 30.0,
             fixed_temperature: false,
             end_mass_fraction: 1e-3,
+            liquid: LiquidOptions::default(),
         }
     }
 }
@@ -115,6 +168,29 @@ pub struct HistoryRow {
     pub vapor_mass_fractions: Vec<f64>,
     /// Regime.
     pub regime: Regime,
+    /// Mass-mean liquid temperature [K] (= surface temperature for a uniform droplet).
+    pub mean_temperature: f64,
+    /// Centre temperature [K] (= surface temperature for a uniform droplet).
+    pub center_temperature: f64,
+    /// Liquid mass fractions at the surface [-] (empty for a well-mixed liquid).
+    pub surface_liquid_mass_fractions: Vec<f64>,
+}
+
+/// Radial profiles inside the droplet at one instant (resolved models).
+#[derive(Debug, Clone, serde::Serialize)]
+pub struct Profile {
+    /// Time [s].
+    pub time: f64,
+    /// Evaporated fraction [-].
+    pub evaporated_fraction: f64,
+    /// Droplet radius [m].
+    pub radius: f64,
+    /// Normalised radius of each cell centre r/r_s [-].
+    pub radius_fraction: Vec<f64>,
+    /// Temperature per cell [K].
+    pub temperature: Vec<f64>,
+    /// Mass fractions per component, per cell [-] (component-major).
+    pub mass_fractions: Vec<Vec<f64>>,
 }
 
 /// Receives each accepted step; can stop the run.
@@ -207,6 +283,8 @@ pub struct RunResult {
     pub outcome: RunOutcome,
     /// History rows (empty with [`NoHistory`]).
     pub history: Vec<HistoryRow>,
+    /// Radial profiles (resolved models only).
+    pub profiles: Vec<Profile>,
 }
 
 /// Threshold of Σ X_s at which the heat-limited boiling regime takes over.
@@ -292,6 +370,7 @@ impl WellMixed {
         let d = (6.0 * m.max(1e-300) / (std::f64::consts::PI * rho_l)).cbrt();
         let speed = y[n + 1];
         let boiling = if self.regime == Regime::Boiling { Some(self.boiling_latent(t_s, cp_l)) } else { None };
+        self.film.liquid_density = rho_l;
         let x = std::mem::take(&mut self.x);
         let latent = std::mem::take(&mut self.latent);
         let f = self.film.evaluate(&x, t_s, d, speed, &latent, boiling);
@@ -331,7 +410,7 @@ impl OdeSystem for WellMixed {
     }
 }
 
-fn check_inputs(inp: &DropletInputs) -> Result<(), ModelError> {
+pub(crate) fn check_inputs(inp: &DropletInputs) -> Result<(), ModelError> {
     let bad = |field: &'static str, value: String, reason: &str| Err(ModelError::Input { field, value, reason: reason.into() });
     if !(inp.ambient_temperature.is_finite() && inp.ambient_temperature >= 150.0 && inp.ambient_temperature <= 4000.0) {
         return bad("ambient-temperature", format!("{} K", inp.ambient_temperature), "must lie between 150 K and 4000 K");
@@ -373,7 +452,7 @@ fn check_inputs(inp: &DropletInputs) -> Result<(), ModelError> {
 }
 
 /// Validity notes for a condition (pressure vs critical, freezing, hot droplet).
-fn validity_notes(inp: &DropletInputs) -> Vec<String> {
+pub(crate) fn validity_notes(inp: &DropletInputs) -> Vec<String> {
     let comps = &inp.fuel.components;
     let x = inp.fuel.mole_fractions();
     let mut notes = vec![];
@@ -411,6 +490,30 @@ fn validity_notes(inp: &DropletInputs) -> Vec<String> {
 /// Run one droplet with the well-mixed liquid model.
 pub fn simulate(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {
     check_inputs(inp)?;
+    if inp.liquid.non_equilibrium {
+        // Run the equilibrium case as well and say when the Langmuir–Knudsen correction matters (> 1 % lifetime).
+        let mut eq = inp.clone();
+        eq.liquid.non_equilibrium = false;
+        let reference = simulate(&eq, &mut NoHistory)?;
+        let mut res = simulate_model(inp, observer)?;
+        if let (Some(a), Some(b)) = (res.outcome.lifetime, reference.outcome.lifetime) {
+            let change = a / b - 1.0;
+            let note = format!("non-equilibrium (Langmuir–Knudsen) surface changes the lifetime by {:+.2} % against the equilibrium surface", 100.0 * change);
+            if change.abs() > 0.01 {
+                res.outcome.regime_notes.push(note);
+            } else {
+                res.outcome.regime_notes.push(format!("{note} (below 1 %: negligible at this condition)"));
+            }
+        }
+        return Ok(res);
+    }
+    simulate_model(inp, observer)
+}
+
+fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {
+    if inp.liquid.is_resolved() {
+        return super::resolved::simulate_resolved(inp, observer);
+    }
     let n = inp.fuel.len();
     let comps = inp.fuel.components.clone();
     let ambient_vapor = if inp.ambient_vapor.is_empty() { vec![0.0; n] } else { inp.ambient_vapor.clone() };
@@ -422,6 +525,7 @@ pub fn simulate(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunR
         ambient_vapor,
         reference_weight: inp.reference_weight,
         correlation: inp.correlation,
+        non_equilibrium: inp.liquid.non_equilibrium,
     });
     let mut notes = validity_notes(inp);
     let w0 = &inp.fuel.mass_fractions;
@@ -457,56 +561,12 @@ pub fn simulate(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunR
     // No bubble point (vapour pressure below the ambient pressure at every temperature) means no boiling.
     let t_bubble0 = liquid::bubble_point(&comps, &x0, inp.pressure).unwrap_or(f64::INFINITY);
     if !inp.fixed_temperature && t0 >= t_bubble0 - 1e-9 {
-        // Superheated at injection: adiabatic flash at the ambient pressure. The superheat m cp (T − T_b)
-        // evaporates liquid of the equilibrium-vapour composition, in small portions, until the droplet sits at
-        // the bubble point of what is left.
-        let mut masses: Vec<f64> = (0..n).map(|i| m0 * w0[i]).collect();
-        let mut t = t0;
-        let mut w = vec![0.0; n];
-        let mut x = vec![0.0; n];
-        let mut eps = vec![0.0; n];
-        for _ in 0..10_000 {
-            let m: f64 = masses.iter().sum();
-            if m <= inp.end_mass_fraction * m0 {
-                break;
-            }
-            for i in 0..n {
-                w[i] = masses[i] / m;
-            }
-            liquid::mass_to_mole_into(&comps, &w, &mut x);
-            let tb = liquid::bubble_point(&comps, &x, inp.pressure).unwrap_or(t);
-            if t <= tb + 1e-9 {
-                t = t.max(tb);
-                break;
-            }
-            let mut s = 0.0;
-            for i in 0..n {
-                eps[i] = x[i] * comps[i].vapor_pressure(tb) * comps[i].molar_mass();
-                s += eps[i];
-            }
-            let mut l = 0.0;
-            for i in 0..n {
-                eps[i] /= s;
-                l += eps[i] * comps[i].latent_heat(tb);
-            }
-            let cp = liquid::heat_capacity(&comps, &w, 0.5 * (t + tb));
-            let dm_full = m * cp * (t - tb) / l;
-            let dm = dm_full.min(0.01 * m);
-            for i in 0..n {
-                masses[i] = (masses[i] - dm * eps[i]).max(0.0);
-            }
-            t = if dm >= dm_full { tb } else { t - dm * l / (m * cp) };
-        }
+        let (masses, tb) = adiabatic_flash(&comps, w0, t0, m0, inp.pressure, inp.end_mass_fraction);
         let m_left: f64 = masses.iter().sum();
         for i in 0..n {
             y0[i] = masses[i];
             y0[n + 2 + i] = m0 * w0[i] - masses[i];
         }
-        for i in 0..n {
-            w[i] = masses[i] / m_left.max(1e-300);
-        }
-        liquid::mass_to_mole_into(&comps, &w, &mut x);
-        let tb = liquid::bubble_point(&comps, &x, inp.pressure).unwrap_or(t);
         sys.regime = Regime::Boiling;
         y0[n] = tb;
         notes.push(format!(
@@ -548,6 +608,9 @@ pub fn simulate(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunR
             liquid_mass_fractions: sys.w.clone(),
             vapor_mass_fractions: vapor,
             regime: sys.regime,
+            mean_temperature: sys.last_surface_temperature,
+            center_temperature: sys.last_surface_temperature,
+            surface_liquid_mass_fractions: vec![],
         }
     };
     let remaining = |y: &[f64]| -> f64 { y[..n].iter().sum::<f64>() / m0 };
@@ -686,7 +749,7 @@ pub fn simulate(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunR
         evaporated_mass: y[n + 2..].to_vec(),
         final_liquid_mass_fractions: y[..n].iter().map(|v| v.max(0.0) / m_end.max(1e-300)).collect(),
     };
-    Ok(RunResult { outcome, history })
+    Ok(RunResult { outcome, history, profiles: vec![] })
 }
 
 #[cfg(test)]
@@ -711,4 +774,50 @@ mod tests {
         // order of magnitude: K ≈ 0.3–1 mm²/s for decane at 800 K → lifetime 2.5–10 ms for 50 µm
         assert!(life > 1e-3 && life < 2e-2, "{life}");
     }
+}
+
+/// Adiabatic flash of a superheated liquid at pressure `p`: the superheat m cp (T − T_b) evaporates liquid of
+/// the equilibrium-vapour composition, in portions of at most 1 %, until the liquid sits at its bubble point.
+/// Returns the component masses left and the final temperature [K].
+pub fn adiabatic_flash(comps: &[std::sync::Arc<crate::data::Component>], w0: &[f64], t0: f64, m0: f64, p: f64, end_mass_fraction: f64) -> (Vec<f64>, f64) {
+    let n = comps.len();
+    let mut masses: Vec<f64> = (0..n).map(|i| m0 * w0[i]).collect();
+    let mut t = t0;
+    let mut w = vec![0.0; n];
+    let mut x = vec![0.0; n];
+    let mut eps = vec![0.0; n];
+    for _ in 0..10_000 {
+        let m: f64 = masses.iter().sum();
+        if m <= end_mass_fraction * m0 {
+            break;
+        }
+        for i in 0..n {
+            w[i] = masses[i] / m;
+        }
+        liquid::mass_to_mole_into(comps, &w, &mut x);
+        let tb = liquid::bubble_point(comps, &x, p).unwrap_or(t);
+        if t <= tb + 1e-9 {
+            t = t.max(tb);
+            break;
+        }
+        let mut s = 0.0;
+        for i in 0..n {
+            eps[i] = x[i] * comps[i].vapor_pressure(tb) * comps[i].molar_mass();
+            s += eps[i];
+        }
+        let mut l = 0.0;
+        for i in 0..n {
+            eps[i] /= s;
+            l += eps[i] * comps[i].latent_heat(tb);
+        }
+        let cp = liquid::heat_capacity(comps, &w, 0.5 * (t + tb));
+        let dm_full = m * cp * (t - tb) / l;
+        let dm = dm_full.min(0.01 * m);
+        for i in 0..n {
+            masses[i] = (masses[i] - dm * eps[i]).max(0.0);
+        }
+        t = if dm >= dm_full { tb } else { t - dm * l / (m * cp) };
+    }
+
+    (masses, t)
 }

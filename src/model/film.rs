@@ -93,6 +93,8 @@ pub struct FilmSetup {
     pub reference_weight: f64,
     /// Nu0/Sh0 correlation.
     pub correlation: TransferCorrelation,
+    /// Langmuir–Knudsen non-equilibrium surface mole fractions (Miller, Harstad & Bellan 1998).
+    pub non_equilibrium: bool,
 }
 
 /// Results of one film evaluation (all SI).
@@ -148,6 +150,11 @@ pub struct Film {
     pub species_rate: Vec<f64>,
     ambient_density: f64,
     ambient_vapor_total: f64,
+    surface_mole_eq: Vec<f64>,
+    /// Liquid density used by the non-equilibrium correction [kg/m³] (set by the droplet model).
+    pub liquid_density: f64,
+    /// Ratio of non-equilibrium to equilibrium total surface vapour mole fraction in the last evaluation.
+    pub non_equilibrium_factor: f64,
 }
 
 impl Film {
@@ -168,6 +175,9 @@ impl Film {
             species_rate: vec![0.0; n],
             ambient_density,
             ambient_vapor_total: y_inf,
+            surface_mole_eq: vec![0.0; n],
+            liquid_density: 700.0,
+            non_equilibrium_factor: 1.0,
             setup,
         }
     }
@@ -202,12 +212,56 @@ impl Film {
     /// where the whole heat flux (less the sensible part inside L_eff) evaporates liquid of surface-vapour
     /// composition. Species rates are left in `species_rate`.
     pub fn evaluate(&mut self, x: &[f64], t_s: f64, d: f64, speed: f64, latent: &[f64], boiling_latent: Option<f64>) -> FilmResult {
+        let sum_x = self.surface_equilibrium(x, t_s);
+        self.non_equilibrium_factor = 1.0;
+        if !self.setup.non_equilibrium || boiling_latent.is_some() || sum_x <= 0.0 {
+            return self.evaluate_surface(x, t_s, d, speed, latent, boiling_latent, sum_x);
+        }
+        // Langmuir–Knudsen law (Miller, Harstad & Bellan 1998): X_s,neq = X_s,eq − (2 L_K/d) β, with the Knudsen
+        // length L_K = μ_g sqrt(2π T_s R/W_F)/(α_e Sc_g p), α_e = 1, and the blowing number
+        // β = (3 Pr_g τ_d / 2)(ṁ/m_d), τ_d = ρ_L d²/(18 μ_g). Applied to the total fuel mole fraction, each
+        // component scaled alike; β from the previous iterate (three fixed-point passes).
+        self.surface_mole_eq.copy_from_slice(&self.surface_mole);
+        let mut r = self.evaluate_surface(x, t_s, d, speed, latent, None, sum_x);
+        for _ in 0..3 {
+            let w_f: f64 = {
+                let (mut num, mut den) = (0.0, 0.0);
+                for i in 0..x.len() {
+                    num += self.surface_mole_eq[i] * self.molar_mass[i];
+                    den += self.surface_mole_eq[i];
+                }
+                num / den
+            };
+            let sc = r.film_viscosity / (r.film_density * r.film_diffusivity);
+            let pr = r.film_cp * r.film_viscosity / r.film_conductivity;
+            let l_k = r.film_viscosity * (2.0 * std::f64::consts::PI * t_s * GAS_CONSTANT / w_f).sqrt() / (sc * self.setup.pressure);
+            let tau_d = self.liquid_density * d * d / (18.0 * r.film_viscosity);
+            let m_d = std::f64::consts::PI / 6.0 * self.liquid_density * d * d * d;
+            let beta = 1.5 * pr * tau_d * r.evaporation_rate.max(0.0) / m_d;
+            let x_neq = (sum_x - 2.0 * l_k / d * beta).max(0.0);
+            let factor = x_neq / sum_x;
+            self.non_equilibrium_factor = factor;
+            let mut sum_xw = 0.0;
+            for i in 0..x.len() {
+                self.surface_mole[i] = self.surface_mole_eq[i] * factor;
+                sum_xw += self.surface_mole[i] * self.molar_mass[i];
+            }
+            let denom = sum_xw + (1.0 - x_neq).max(0.0) * self.setup.gas.molar_mass;
+            for i in 0..x.len() {
+                self.surface_mass[i] = self.surface_mole[i] * self.molar_mass[i] / denom;
+            }
+            r = self.evaluate_surface(x, t_s, d, speed, latent, None, x_neq);
+        }
+        r
+    }
+
+    /// Film evaluation with the surface vapour already in `surface_mole` / `surface_mass`.
+    #[allow(clippy::too_many_arguments)]
+    fn evaluate_surface(&mut self, x: &[f64], t_s: f64, d: f64, speed: f64, latent: &[f64], boiling_latent: Option<f64>, sum_x: f64) -> FilmResult {
         let n = x.len();
         let s = &self.setup;
         let t_inf = s.ambient_temperature;
         let p = s.pressure;
-        let sum_x = self.surface_equilibrium(x, t_s);
-        let s = &self.setup;
         let boiling = boiling_latent.is_some();
         let y_fs: f64 = self.surface_mass.iter().sum();
         let y_finf = self.ambient_vapor_total;

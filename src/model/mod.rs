@@ -4,6 +4,8 @@
 pub mod droplet;
 pub mod film;
 pub mod integrator;
+pub mod radial;
+pub mod resolved;
 
 pub use droplet::{simulate, DropletInputs, HistoryRow, Motion, Observer, Regime, RunOutcome, RunResult, Status};
 pub use film::TransferCorrelation;

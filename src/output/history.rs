@@ -6,6 +6,7 @@ use serde::Serialize;
 
 use crate::model::{DropletInputs, HistoryRow, Motion, RunOutcome};
 
+
 use super::{Cell, CsvTable, OutputError, TOOL_VERSION};
 
 /// Build the history table of a run.
@@ -32,8 +33,16 @@ pub fn history_table(inputs: &DropletInputs, rows: &[HistoryRow]) -> Result<CsvT
     .iter()
     .map(|s| s.to_string())
     .collect();
+    let resolved = inputs.liquid.is_resolved();
+    if resolved {
+        header.push("mean_temperature_K".into());
+        header.push("center_temperature_K".into());
+    }
     header.extend(ids.iter().map(|id| format!("Yliq_{id}")));
     header.extend(ids.iter().map(|id| format!("Yvap_{id}")));
+    if resolved {
+        header.extend(ids.iter().map(|id| format!("Ysurf_{id}")));
+    }
     let mut t = CsvTable::new(header);
     t.metadata = vec![
         format!("{TOOL_VERSION} droplet history (well-mixed liquid, Abramzon-Sirignano film)"),
@@ -42,7 +51,8 @@ pub fn history_table(inputs: &DropletInputs, rows: &[HistoryRow]) -> Result<CsvT
             "ambient: {} K, {} Pa, gas {}; initial diameter {} m, droplet {} K",
             inputs.ambient_temperature, inputs.pressure, inputs.gas.label, inputs.initial_diameter, inputs.initial_temperature
         ),
-        "Yliq_*: liquid mass fractions; Yvap_*: mass fractions of the vapour leaving the surface at that instant".into(),
+        format!("liquid model: species {:?}, heat {:?}, {} radial cells", inputs.liquid.mixing, inputs.liquid.heat, inputs.liquid.nodes).to_lowercase(),
+        "Yliq_*: (mean) liquid mass fractions; Yvap_*: mass fractions of the vapour leaving the surface at that instant; Ysurf_*: liquid mass fractions at the surface (resolved models)".into(),
     ];
     let d0sq = inputs.initial_diameter * inputs.initial_diameter;
     for r in rows {
@@ -65,8 +75,15 @@ pub fn history_table(inputs: &DropletInputs, rows: &[HistoryRow]) -> Result<CsvT
             Cell::Num(r.film.heat_to_liquid),
             Cell::Text(format!("{:?}", r.regime).to_lowercase()),
         ];
+        if resolved {
+            cells.push(Cell::Num(r.mean_temperature));
+            cells.push(Cell::Num(r.center_temperature));
+        }
         cells.extend(r.liquid_mass_fractions.iter().map(|v| Cell::Num(*v)));
         cells.extend(r.vapor_mass_fractions.iter().map(|v| Cell::Num(*v)));
+        if resolved {
+            cells.extend(r.surface_liquid_mass_fractions.iter().map(|v| Cell::Num(*v)));
+        }
         t.push(cells, "history.csv")?;
     }
     Ok(t)
@@ -125,7 +142,7 @@ impl InputEcho {
             reference_weight: inp.reference_weight,
             rtol: inp.rtol,
             max_time_s: inp.max_time,
-            liquid_model: "well-mixed".into(),
+            liquid_model: format!("species {:?}, heat {:?}, {} radial cells, non-equilibrium surface {}", inp.liquid.mixing, inp.liquid.heat, inp.liquid.nodes, inp.liquid.non_equilibrium).to_lowercase(),
             ambient_vapor_mass_fractions: if inp.ambient_vapor.is_empty() { vec![] } else { ids().zip(inp.ambient_vapor.iter().copied()).collect() },
         }
     }
@@ -202,9 +219,32 @@ impl Summary {
     }
 }
 
-/// Write history.csv and summary.json into `dir`.
-pub fn write_run(dir: &Path, inputs: &DropletInputs, rows: &[HistoryRow], outcome: &RunOutcome) -> Result<(), OutputError> {
+/// Radial profiles table (profiles.csv) of a resolved run.
+pub fn profiles_table(inputs: &DropletInputs, profiles: &[crate::model::droplet::Profile]) -> Result<CsvTable, OutputError> {
+    let ids: Vec<&str> = inputs.fuel.components.iter().map(|c| c.id.as_str()).collect();
+    let mut header: Vec<String> = ["time_s", "evaporated_fraction", "radius_m", "radius_fraction", "temperature_K"].iter().map(|s| s.to_string()).collect();
+    header.extend(ids.iter().map(|id| format!("Y_{id}")));
+    let mut t = CsvTable::new(header);
+    t.metadata = vec![
+        format!("{TOOL_VERSION} radial profiles inside the droplet (cell centres, r/r_s)"),
+        format!("fuel: {}; profiles at the first step past each evaporated fraction of {:?}", inputs.fuel.name, crate::model::resolved::PROFILE_LEVELS),
+    ];
+    for p in profiles {
+        for k in 0..p.radius_fraction.len() {
+            let mut cells = vec![Cell::Num(p.time), Cell::Num(p.evaporated_fraction), Cell::Num(p.radius), Cell::Num(p.radius_fraction[k]), Cell::Num(p.temperature[k])];
+            cells.extend(p.mass_fractions.iter().map(|y| Cell::Num(y[k])));
+            t.push(cells, "profiles.csv")?;
+        }
+    }
+    Ok(t)
+}
+
+/// Write history.csv, summary.json and (resolved models) profiles.csv into `dir`.
+pub fn write_run(dir: &Path, inputs: &DropletInputs, result: &crate::model::RunResult) -> Result<(), OutputError> {
     super::ensure_dir(dir)?;
-    history_table(inputs, rows)?.write(&dir.join("history.csv"))?;
-    super::write_json(&dir.join("summary.json"), &Summary::of(inputs, outcome))
+    history_table(inputs, &result.history)?.write(&dir.join("history.csv"))?;
+    if !result.profiles.is_empty() {
+        profiles_table(inputs, &result.profiles)?.write(&dir.join("profiles.csv"))?;
+    }
+    super::write_json(&dir.join("summary.json"), &Summary::of(inputs, &result.outcome))
 }

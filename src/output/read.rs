@@ -98,6 +98,16 @@ impl CsvData {
             .collect()
     }
 
+    /// Only the rows of one layer when the table has a `layer` column (e.g. "mean" and "surface" rows of
+    /// residue.csv); the rows of the first layer when `name` is absent; the table unchanged without the column.
+    pub fn layer(mut self, name: &str) -> Self {
+        if let Some(j) = self.index("layer") {
+            let keep = if self.rows.iter().any(|r| r[j] == name) { name.to_string() } else { self.rows.first().map(|r| r[j].clone()).unwrap_or_default() };
+            self.rows.retain(|r| r[j] == keep);
+        }
+        self
+    }
+
     /// Columns whose names start with `prefix`, as (name without the prefix, full name), in file order.
     pub fn columns_with_prefix(&self, prefix: &str) -> Vec<(String, String)> {
         self.header.iter().filter_map(|h| h.strip_prefix(prefix).map(|rest| (rest.to_string(), h.clone()))).collect()
@@ -141,7 +151,7 @@ impl SavedRun {
             serde_json::Value::Object(Default::default())
         };
         let residue_path = dir.join("residue.csv");
-        let residue = if residue_path.is_file() { Some(CsvData::read(&residue_path)?) } else { None };
+        let residue = if residue_path.is_file() { Some(CsvData::read(&residue_path)?.layer("mean")) } else { None };
         let classes: Vec<(String, String)> = summary
             .get("component_classes")
             .and_then(|v| v.as_array())
@@ -236,6 +246,15 @@ mod tests {
         assert!(t.required_numbers("value_K").is_err());
         assert!(t.numbers("regime").unwrap_err().to_string().contains("not a finite number"));
         assert!(t.numbers("missing").unwrap_err().to_string().contains("no column 'missing'"));
+    }
+
+    #[test]
+    fn keeps_one_layer() {
+        let t = CsvData::parse("layer,x\nmean,1\nsurface,2\nmean,3\n", Path::new("r.csv")).unwrap();
+        assert_eq!(t.clone().layer("mean").numbers("x").unwrap(), vec![Some(1.0), Some(3.0)]);
+        assert_eq!(t.clone().layer("other").numbers("x").unwrap(), vec![Some(1.0), Some(3.0)]);
+        let u = CsvData::parse("x\n1\n", Path::new("r.csv")).unwrap();
+        assert_eq!(u.layer("mean").rows.len(), 1);
     }
 
     #[test]

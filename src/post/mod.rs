@@ -5,6 +5,7 @@
 //! This layer uses data, props and fuel; it never prints and never reads argv. Every indicator is a
 //! screening estimate — see [`limits::CAUTION`].
 
+pub mod droplet;
 pub mod indicators;
 pub mod limits;
 pub mod rayleigh;

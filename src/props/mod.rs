@@ -2,6 +2,7 @@
 //! ambient gas and gas-film mixtures.
 
 pub mod gas;
+pub mod joback;
 pub mod liquid;
 pub mod pure;
 

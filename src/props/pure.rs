@@ -134,12 +134,62 @@ pub fn chung_gas_conductivity(t: f64, tc: f64, omega: f64, molar_mass: f64, visc
     3.75 * psi * viscosity * GAS_CONSTANT / molar_mass
 }
 
+/// Liquid viscosity from Joback groups below Tr = 0.70, Letsou–Stiel above Tr = 0.76, log-linear blend between;
+/// without usable groups, Letsou–Stiel with the Lewis–Squires extrapolation below Tr = 0.76.
+pub fn estimated_viscosity_with_groups(t: f64, c: &Component) -> f64 {
+    let (tc, pc, omega, w) = (c.critical_temperature(), c.critical_pressure(), c.acentric_factor(), c.molar_mass());
+    let groups = &c.joback_groups;
+    let joback = |t: f64| super::joback::liquid_viscosity(groups, w, t);
+    let (t_lo, t_hi) = (0.70 * tc, 0.76 * tc);
+    match joback(t.min(t_lo)) {
+        None => estimated_liquid_viscosity(t, tc, pc, omega, w),
+        Some(_) if t >= t_hi => letsou_stiel_viscosity(t, tc, pc, omega, w),
+        Some(j) if t <= t_lo => j,
+        Some(_) => {
+            let a = joback(t_lo).unwrap_or(1e-3).ln();
+            let b = letsou_stiel_viscosity(t_hi, tc, pc, omega, w).ln();
+            let s = (t - t_lo) / (t_hi - t_lo);
+            (a + s * (b - a)).exp()
+        }
+    }
+}
+
+/// Which published range applies: evaluate inside [t_min, t_max]; outside, scale the corresponding-states
+/// estimate so that it meets the published value at the nearest end of the range (a smooth, shape-preserving
+/// extrapolation instead of holding or extrapolating the fitted form).
+#[inline]
+fn anchored(c: &Correlation, t: f64, estimate: impl Fn(f64) -> f64) -> f64 {
+    let edge = if t > c.t_max {
+        c.t_max
+    } else if t < c.t_min {
+        c.t_min
+    } else {
+        return c.eval(t);
+    };
+    let at_edge = estimate(edge);
+    if at_edge > 0.0 && at_edge.is_finite() {
+        c.eval(edge) * estimate(t) / at_edge
+    } else {
+        c.eval(edge)
+    }
+}
+
 impl Component {
     #[inline]
     fn published(c: &Correlation, t: f64) -> Option<f64> {
         match c.form {
             Form::CorrespondingStates => None,
             _ => Some(c.eval(t)),
+        }
+    }
+
+    /// Published liquid correlation inside its range, anchored estimate outside; the estimate alone when the
+    /// file has no coefficients.
+    #[inline]
+    fn liquid_property(c: &Correlation, t: f64, estimate: impl Fn(f64) -> f64) -> f64 {
+        match c.form {
+            Form::CorrespondingStates => estimate(t),
+            _ => anchored(c, t, estimate),
         }
     }
 
@@ -152,15 +202,9 @@ impl Component {
 
     /// Saturated liquid density at `t` [kg/m³].
     pub fn liquid_density(&self, t: f64) -> f64 {
-        Self::published(&self.liquid_density, t).unwrap_or_else(|| {
-            rackett_density(
-                t,
-                self.critical_temperature(),
-                self.critical_pressure(),
-                self.acentric_factor(),
-                self.molar_mass(),
-                self.constants.rackett_z.as_ref().map(|z| z.value),
-            )
+        let z = self.constants.rackett_z.as_ref().map(|z| z.value);
+        Self::liquid_property(&self.liquid_density, t, |t| {
+            rackett_density(t, self.critical_temperature(), self.critical_pressure(), self.acentric_factor(), self.molar_mass(), z)
         })
     }
 
@@ -171,8 +215,8 @@ impl Component {
 
     /// Latent heat of vaporisation at `t` [J/kg].
     pub fn latent_heat(&self, t: f64) -> f64 {
-        Self::published(&self.latent_heat, t).unwrap_or_else(|| {
-            let (tb, tc) = (self.normal_boiling_point(), self.critical_temperature());
+        let (tb, tc) = (self.normal_boiling_point(), self.critical_temperature());
+        Self::liquid_property(&self.latent_heat, t, |t| {
             let lb = riedel_latent_heat_at_boiling(tb, tc, self.critical_pressure());
             watson_latent_heat(t, tb, lb, tc) / self.molar_mass()
         })
@@ -180,7 +224,7 @@ impl Component {
 
     /// Liquid heat capacity at `t` [J/(kg·K)].
     pub fn liquid_heat_capacity(&self, t: f64) -> f64 {
-        Self::published(&self.liquid_heat_capacity, t).unwrap_or_else(|| {
+        Self::liquid_property(&self.liquid_heat_capacity, t, |t| {
             let cp_ig_molar = self.ideal_gas_heat_capacity(t) * self.molar_mass();
             rowlinson_bondi_cp(cp_ig_molar, t, self.critical_temperature(), self.acentric_factor()) / self.molar_mass()
         })
@@ -188,22 +232,17 @@ impl Component {
 
     /// Liquid dynamic viscosity at `t` [Pa·s].
     pub fn liquid_viscosity(&self, t: f64) -> f64 {
-        Self::published(&self.liquid_viscosity, t).unwrap_or_else(|| {
-            estimated_liquid_viscosity(t, self.critical_temperature(), self.critical_pressure(), self.acentric_factor(), self.molar_mass())
-        })
+        Self::liquid_property(&self.liquid_viscosity, t, |t| estimated_viscosity_with_groups(t, self))
     }
 
     /// Liquid thermal conductivity at `t` [W/(m·K)].
     pub fn liquid_conductivity(&self, t: f64) -> f64 {
-        Self::published(&self.liquid_conductivity, t)
-            .unwrap_or_else(|| sato_riedel_conductivity(t, self.normal_boiling_point(), self.critical_temperature(), self.molar_mass()))
+        Self::liquid_property(&self.liquid_conductivity, t, |t| sato_riedel_conductivity(t, self.normal_boiling_point(), self.critical_temperature(), self.molar_mass()))
     }
 
     /// Surface tension at `t` [N/m].
     pub fn surface_tension(&self, t: f64) -> f64 {
-        Self::published(&self.surface_tension, t).unwrap_or_else(|| {
-            brock_bird_surface_tension(t, self.normal_boiling_point(), self.critical_temperature(), self.critical_pressure())
-        })
+        Self::liquid_property(&self.surface_tension, t, |t| brock_bird_surface_tension(t, self.normal_boiling_point(), self.critical_temperature(), self.critical_pressure()))
     }
 
     /// Ideal-gas heat capacity at `t` [J/(kg·K)] (the component file must give coefficients).

@@ -1,0 +1,565 @@
+//! Radially resolved liquid: transient species diffusion and/or heat conduction inside the droplet, with the
+//! effective diffusivity and conductivity of Abramzon & Sirignano (1989) for internal circulation, coupled at
+//! the surface to the same gas film. Time stepping: linearly implicit (backward) Euler on the radial
+//! finite-volume grid (radial.rs), surface fluxes iterated twice per step, and Richardson extrapolation of a
+//! step against two half steps, which gives second-order accuracy and the error estimate for step control.
+
+use std::sync::Arc;
+
+use crate::data::Component;
+use crate::props::liquid;
+
+use super::droplet::{
+    adiabatic_flash, validity_notes, DropletInputs, HistoryRow, LiquidHeat, LiquidMixing, Motion, Observer, Profile, Regime, RunOutcome, RunResult, Status,
+    BOILING_THRESHOLD,
+};
+use super::film::{circulation_factor, Film, FilmResult, FilmSetup};
+use super::integrator::Stats;
+use super::radial::{RadialGrid, SurfaceInput};
+use super::ModelError;
+
+/// Wilke–Chang liquid diffusion coefficient [m²/s] of a solute of molar volume `v_a` (at its normal boiling
+/// point, m³/mol) in a solvent of molar mass `w_b` [kg/mol] and viscosity `mu_b` [Pa·s], association factor 1
+/// (Wilke & Chang 1955; Poling et al. 2001 eq. 11-9.1).
+pub fn wilke_chang(t: f64, w_b: f64, mu_b: f64, v_a: f64) -> f64 {
+    7.4e-8 * (w_b * 1e3).sqrt() * t / (mu_b * 1e3 * (v_a * 1e6).powf(0.6)) * 1e-4
+}
+
+/// Evaluated-evaporated-fraction levels at which radial profiles are kept.
+pub const PROFILE_LEVELS: [f64; 7] = [0.0, 0.1, 0.25, 0.5, 0.75, 0.9, 0.95];
+
+#[derive(Debug, Clone)]
+struct State {
+    time: f64,
+    mass: f64,
+    /// Mass fractions, component-major: y[i * ny + j].
+    y: Vec<f64>,
+    temp: Vec<f64>,
+    evaporated: Vec<f64>,
+    /// Liquid mass of each component [kg]; with `evaporated` it sums to the initial mass exactly.
+    inventory: Vec<f64>,
+    velocity: f64,
+    surface_y: Vec<f64>,
+    surface_t: f64,
+}
+
+struct Model<'a> {
+    inp: &'a DropletInputs,
+    comps: Vec<Arc<Component>>,
+    film: Film,
+    ygrid: RadialGrid,
+    tgrid: RadialGrid,
+    n: usize,
+    // scratch
+    w_mean: Vec<f64>,
+    x_mean: Vec<f64>,
+    x_surf: Vec<f64>,
+    latent: Vec<f64>,
+    rates: Vec<f64>,
+    kappa: Vec<f64>,
+    inputs: Vec<SurfaceInput>,
+    molar_volume_b: Vec<f64>,
+    film_calls: u64,
+}
+
+/// Liquid properties of the mean liquid for one step.
+struct Liquid {
+    density: f64,
+    cp: f64,
+    conductivity: f64,
+    viscosity: f64,
+    diffusivity: f64,
+}
+
+impl<'a> Model<'a> {
+    fn ny(&self) -> usize {
+        self.ygrid.len()
+    }
+
+    fn mean_composition(&mut self, s: &State) {
+        for i in 0..self.n {
+            self.w_mean[i] = s.inventory[i].max(0.0);
+        }
+        let sum: f64 = self.w_mean.iter().sum();
+        self.w_mean.iter_mut().for_each(|v| *v /= sum);
+        liquid::mass_to_mole_into(&self.comps, &self.w_mean, &mut self.x_mean);
+    }
+
+    fn liquid(&mut self, s: &State) -> Liquid {
+        self.mean_composition(s);
+        let t_mean = self.tgrid.mean(&s.temp);
+        let comps = &self.comps;
+        let rho = liquid::density(comps, &self.w_mean, t_mean);
+        let mu = liquid::viscosity(comps, &self.x_mean, t_mean);
+        let w_b = liquid::molar_mass(comps, &self.x_mean);
+        let v_a: f64 = self.x_mean.iter().zip(&self.molar_volume_b).map(|(x, v)| x * v).sum();
+        Liquid {
+            density: rho,
+            cp: liquid::heat_capacity(comps, &self.w_mean, t_mean),
+            conductivity: liquid::conductivity(comps, &self.w_mean, t_mean) * self.inp.liquid.conductivity_factor,
+            viscosity: mu,
+            diffusivity: wilke_chang(t_mean, w_b, mu, v_a) * self.inp.liquid.diffusivity_factor,
+        }
+    }
+
+    /// Film at the state's surface values; species rates left in `self.rates`.
+    fn film_at(&mut self, surface_y: &[f64], t_s: f64, mass: f64, rho: f64, speed: f64) -> FilmResult {
+        liquid::mass_to_mole_into(&self.comps, surface_y, &mut self.x_surf);
+        for i in 0..self.n {
+            self.latent[i] = self.comps[i].latent_heat(t_s);
+        }
+        let d = (6.0 * mass.max(1e-300) / (std::f64::consts::PI * rho)).cbrt();
+        self.film.liquid_density = rho;
+        let x = std::mem::take(&mut self.x_surf);
+        let latent = std::mem::take(&mut self.latent);
+        let f = self.film.evaluate(&x, t_s, d, speed, &latent, None);
+        self.x_surf = x;
+        self.latent = latent;
+        self.rates.copy_from_slice(&self.film.species_rate);
+        self.film_calls += 1;
+        f
+    }
+
+    /// Circulation factors (χ_heat, χ_species) of Abramzon & Sirignano (1989) from the gas-side shear.
+    fn circulation(&self, f: &FilmResult, liq: &Liquid, speed: f64, radius: f64) -> (f64, f64) {
+        let re = f.reynolds;
+        if re <= 0.0 || speed == 0.0 {
+            return (1.0, 1.0);
+        }
+        let c_f = 12.69 * re.powf(-2.0 / 3.0) / (1.0 + f.spalding_mass.max(0.0));
+        let u_s = speed.abs() / 32.0 * (f.film_viscosity / liq.viscosity) * re * c_f;
+        let re_l = 2.0 * liq.density * u_s * radius / liq.viscosity;
+        let pr_l = liq.cp * liq.viscosity / liq.conductivity;
+        let sc_l = liq.viscosity / (liq.density * liq.diffusivity);
+        (circulation_factor(re_l * pr_l), circulation_factor(re_l * sc_l))
+    }
+
+    /// One linearly implicit Euler step of length dt.
+    fn step(&mut self, s: &State, dt: f64) -> Result<State, String> {
+        let n = self.n;
+        let ny = self.ny();
+        let liq = self.liquid(s);
+        let radius = 0.5 * (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
+        let area = 4.0 * std::f64::consts::PI * radius * radius;
+        let f0 = self.film_at(&s.surface_y.clone(), s.surface_t, s.mass, liq.density, s.velocity);
+        if f0.surface_vapor_mole_fraction >= BOILING_THRESHOLD {
+            return Err("boiling".into());
+        }
+        let rates0 = self.rates.clone();
+        // dQ_L/dT_s by a one-sided difference
+        let dt_s = 0.01;
+        let f1 = self.film_at(&s.surface_y.clone(), s.surface_t + dt_s, s.mass, liq.density, s.velocity);
+        let dq = (f1.heat_to_liquid - f0.heat_to_liquid) / dt_s;
+        self.rates.copy_from_slice(&rates0);
+        let (chi_t, chi_y) = self.circulation(&f0, &liq, s.velocity, radius);
+        let rho2a2_over_m = liq.density * liq.density * area * area / s.mass;
+        let g_t = rho2a2_over_m * chi_t * liq.conductivity / (liq.density * liq.cp);
+        let g_y = rho2a2_over_m * chi_y * liq.diffusivity;
+        let mut next = s.clone();
+        // Surface coupling, iterated: each species leaves at κ_i u_s,i with κ_i = ṁ_i/Y_s,i from the film at the
+        // latest surface state (implicit in the surface value; prescribed rate when condensing), the advective
+        // terms use the total rate of the previous iterate; converged when the two totals agree.
+        let mut film_rates = rates0.clone();
+        let mut film_surface = s.surface_y.clone();
+        let mut mdot_a: f64 = rates0.iter().sum();
+        let mut m_used = s.mass;
+        for iteration in 0..2 {
+            let m_new = s.mass - dt * mdot_a;
+            m_used = m_new;
+            if !(m_new > 0.0) {
+                return Err("mass would become negative".into());
+            }
+            next.temp.copy_from_slice(&s.temp);
+            let input_t = SurfaceInput { q0: f0.heat_to_liquid / liq.cp, q1: dq / liq.cp, u_ref: s.surface_t };
+            next.surface_t = if self.inp.fixed_temperature {
+                s.surface_t
+            } else {
+                self.tgrid.implicit_step(&mut next.temp, s.mass, m_new, dt, g_t, mdot_a, input_t)
+            };
+            for i in 0..n {
+                let implicit = film_rates[i] > 0.0 && film_surface[i] > 1e-300;
+                self.kappa[i] = if implicit { film_rates[i] / film_surface[i] } else { 0.0 };
+                self.inputs[i] = if implicit { SurfaceInput { q0: 0.0, q1: mdot_a - self.kappa[i], u_ref: 0.0 } } else { SurfaceInput { q0: -film_rates[i], q1: mdot_a, u_ref: 0.0 } };
+            }
+            next.y.copy_from_slice(&s.y);
+            self.ygrid.implicit_step_many(&mut next.y, s.mass, m_new, dt, g_y, mdot_a, &self.inputs, &mut next.surface_y);
+            let mut total = 0.0;
+            for i in 0..n {
+                let ys = next.surface_y[i].max(0.0);
+                next.surface_y[i] = ys;
+                self.rates[i] = if film_rates[i] > 0.0 && film_surface[i] > 1e-300 { self.kappa[i] * ys } else { film_rates[i] };
+                total += self.rates[i];
+            }
+            let sum_s: f64 = next.surface_y.iter().sum();
+            if !(sum_s > 0.0) {
+                return Err("surface composition vanished".into());
+            }
+            next.surface_y.iter_mut().for_each(|v| *v /= sum_s);
+            mdot_a = total;
+            if iteration == 0 {
+                // refresh the film at the new surface state (one Picard pass)
+                let sy = next.surface_y.clone();
+                self.film_at(&sy, next.surface_t, m_new, liq.density, s.velocity);
+                film_rates.copy_from_slice(&self.rates);
+                film_surface.copy_from_slice(&next.surface_y);
+                mdot_a = film_rates.iter().sum();
+            }
+        }
+        // Liquid inventory per component straight from the conservative solve; the evaporated masses are what
+        // left it (so liquid + evaporated = initial holds exactly), and cell sums are renormalised to 1.
+        let mut total_mass = 0.0;
+        for i in 0..n {
+            let inventory: f64 = m_used * (0..ny).map(|j| self.ygrid.widths[j] * next.y[i * ny + j]).sum::<f64>();
+            let before: f64 = s.mass * (0..ny).map(|j| self.ygrid.widths[j] * s.y[i * ny + j]).sum::<f64>();
+            next.evaporated[i] = s.evaporated[i] + (before - inventory);
+            next.inventory[i] = s.inventory[i] - (before - inventory);
+            total_mass += next.inventory[i];
+        }
+        let _ = mdot_a;
+        next.mass = total_mass;
+        for j in 0..ny {
+            let sum: f64 = (0..n).map(|i| next.y[i * ny + j]).sum();
+            if sum > 0.0 {
+                for i in 0..n {
+                    next.y[i * ny + j] /= sum;
+                }
+            }
+        }
+        if next.y.iter().any(|v| !v.is_finite() || *v < -1e-6) || next.temp.iter().any(|v| !v.is_finite()) || !next.surface_t.is_finite() {
+            return Err("non-physical values".into());
+        }
+        // drag (semi-implicit), gas at rest
+        if let Motion::Injected { .. } = self.inp.motion {
+            let c = 0.375 * f0.drag_coefficient * f0.ambient_density / (liq.density * radius);
+            next.velocity = s.velocity / (1.0 + dt * c * s.velocity.abs());
+        }
+        next.time = s.time + dt;
+        Ok(next)
+    }
+
+    fn row(&mut self, s: &State, m0: f64, d0: f64) -> HistoryRow {
+        let liq = self.liquid(s);
+        let sy = s.surface_y.clone();
+        let f = self.film_at(&sy, s.surface_t, s.mass, liq.density, s.velocity);
+        let mdot = f.evaporation_rate;
+        let vapor: Vec<f64> = if mdot.abs() > 1e-300 {
+            self.rates.iter().map(|r| r / mdot).collect()
+        } else {
+            let t: f64 = self.film.surface_mass.iter().sum();
+            self.film.surface_mass.iter().map(|v| if t > 0.0 { v / t } else { 0.0 }).collect()
+        };
+        let d = (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
+        HistoryRow {
+            time: s.time,
+            diameter: d,
+            d2_ratio: (d / d0).powi(2),
+            surface_temperature: s.surface_t,
+            mass: s.mass,
+            evaporated_fraction: 1.0 - s.mass / m0,
+            velocity: s.velocity,
+            film: f,
+            liquid_mass_fractions: self.w_mean.clone(),
+            vapor_mass_fractions: vapor,
+            regime: Regime::Evaporating,
+            mean_temperature: self.tgrid.mean(&s.temp),
+            center_temperature: s.temp[0],
+            surface_liquid_mass_fractions: s.surface_y.clone(),
+        }
+    }
+
+    fn profile(&mut self, s: &State, m0: f64) -> Profile {
+        let liq = self.liquid(s);
+        let radius = 0.5 * (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
+        let ny = self.ny();
+        // report on the finer of the two grids
+        let grid = if self.tgrid.len() >= ny { &self.tgrid } else { &self.ygrid };
+        let cells = grid.len();
+        let value_at = |g: &RadialGrid, u: &[f64], eta: f64| -> f64 {
+            let k = g.centres.iter().position(|c| *c >= eta).unwrap_or(g.len() - 1);
+            u[k.min(u.len() - 1)]
+        };
+        let centres = grid.centres.clone();
+        Profile {
+            time: s.time,
+            evaporated_fraction: 1.0 - s.mass / m0,
+            radius,
+            radius_fraction: centres.iter().map(|e| e.cbrt()).collect(),
+            temperature: centres.iter().map(|e| value_at(&self.tgrid, &s.temp, *e)).collect(),
+            mass_fractions: (0..self.n).map(|i| (0..cells).map(|k| value_at(&self.ygrid, &s.y[i * ny..(i + 1) * ny], centres[k])).collect()).collect(),
+        }
+    }
+}
+
+fn combine(a: &State, b: &State) -> State {
+    // Richardson: 2·(two half steps) − (one full step)
+    let mix = |x: &[f64], y: &[f64]| -> Vec<f64> { x.iter().zip(y).map(|(h, f)| 2.0 * h - f).collect() };
+    let mut surface_y: Vec<f64> = mix(&a.surface_y, &b.surface_y).into_iter().map(|v| v.max(0.0)).collect();
+    let s: f64 = surface_y.iter().sum();
+    surface_y.iter_mut().for_each(|v| *v /= s);
+    State {
+        time: a.time,
+        mass: mix(&a.inventory, &b.inventory).iter().sum(),
+        y: mix(&a.y, &b.y),
+        temp: mix(&a.temp, &b.temp),
+        evaporated: mix(&a.evaporated, &b.evaporated),
+        inventory: mix(&a.inventory, &b.inventory),
+        velocity: 2.0 * a.velocity - b.velocity,
+        surface_y,
+        surface_t: 2.0 * a.surface_t - b.surface_t,
+    }
+}
+
+/// Scaled RMS difference between two solutions: mass relative to m0, temperatures over 1 K, mass fractions
+/// over 0.01 (absolute scales times the step tolerance give the accepted local error).
+fn error_norm(a: &State, b: &State, m0: f64) -> f64 {
+    let mut acc = ((a.mass - b.mass) / (1e-2 * m0)).powi(2);
+    let mut count = 1.0;
+    acc += (a.surface_t - b.surface_t).powi(2);
+    count += 1.0;
+    for (x, y) in a.temp.iter().zip(&b.temp) {
+        acc += (x - y).powi(2) / a.temp.len() as f64;
+    }
+    count += 1.0;
+    let mut ys = 0.0;
+    for (x, y) in a.y.iter().zip(&b.y) {
+        ys += ((x - y) / 1e-2).powi(2);
+    }
+    acc += ys / a.y.len() as f64;
+    count += 1.0;
+    let mut ss = 0.0;
+    for (x, y) in a.surface_y.iter().zip(&b.surface_y) {
+        ss += ((x - y) / 1e-2).powi(2);
+    }
+    acc += ss / a.surface_y.len() as f64;
+    count += 1.0;
+    (acc / count).sqrt()
+}
+
+/// Run one droplet with a radially resolved liquid (diffusion and/or conduction).
+pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {
+    let n = inp.fuel.len();
+    let comps = inp.fuel.components.clone();
+    let ambient_vapor = if inp.ambient_vapor.is_empty() { vec![0.0; n] } else { inp.ambient_vapor.clone() };
+    let film = Film::new(FilmSetup {
+        components: comps.clone(),
+        gas: inp.gas.clone(),
+        pressure: inp.pressure,
+        ambient_temperature: inp.ambient_temperature,
+        ambient_vapor,
+        reference_weight: inp.reference_weight,
+        correlation: inp.correlation,
+        non_equilibrium: inp.liquid.non_equilibrium,
+    });
+    let nodes = inp.liquid.nodes;
+    if !(4..=400).contains(&nodes) {
+        return Err(ModelError::Input { field: "nodes", value: nodes.to_string(), reason: "must lie between 4 and 400".into() });
+    }
+    let ny = if inp.liquid.mixing == LiquidMixing::Diffusion { nodes } else { 1 };
+    let nt = if inp.liquid.heat == LiquidHeat::Conduction { nodes } else { 1 };
+    let mut notes = validity_notes(inp);
+    let w0 = &inp.fuel.mass_fractions;
+    let t0 = inp.initial_temperature;
+    let rho0 = liquid::density(&comps, w0, t0);
+    let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
+    let x0 = inp.fuel.mole_fractions();
+    let t_bubble0 = liquid::bubble_point(&comps, &x0, inp.pressure).unwrap_or(f64::INFINITY);
+    let mut masses: Vec<f64> = w0.iter().map(|w| w * m0).collect();
+    let mut t_start = t0;
+    if !inp.fixed_temperature && t0 >= t_bubble0 - 1e-9 {
+        let (m_left, tb) = adiabatic_flash(&comps, w0, t0, m0, inp.pressure, inp.end_mass_fraction);
+        let total: f64 = m_left.iter().sum();
+        notes.push(format!(
+            "initial temperature {t0:.2} K is above the bubble point {t_bubble0:.2} K: {:.3} % of the mass flashed at injection; the resolved liquid starts at {:.2} K just below the bubble point",
+            100.0 * (1.0 - total / m0),
+            tb - 0.5
+        ));
+        masses = m_left;
+        t_start = tb - 0.5;
+    }
+    let mass: f64 = masses.iter().sum();
+    let velocity0 = match inp.motion {
+        Motion::Fixed { velocity } | Motion::Injected { velocity } => velocity,
+    };
+    let w_start: Vec<f64> = masses.iter().map(|m| m / mass).collect();
+    let mut y = vec![0.0; n * ny];
+    for i in 0..n {
+        for j in 0..ny {
+            y[i * ny + j] = w_start[i];
+        }
+    }
+    let mut model = Model {
+        inp,
+        molar_volume_b: comps.iter().map(|c| c.molar_volume_at_boiling()).collect(),
+        comps,
+        film,
+        ygrid: RadialGrid::new(ny),
+        tgrid: RadialGrid::new(nt),
+        n,
+        w_mean: vec![0.0; n],
+        x_mean: vec![0.0; n],
+        x_surf: vec![0.0; n],
+        latent: vec![0.0; n],
+        rates: vec![0.0; n],
+        kappa: vec![0.0; n],
+        inputs: vec![SurfaceInput { q0: 0.0, q1: 0.0, u_ref: 0.0 }; n],
+        film_calls: 0,
+    };
+    let mut state = State {
+        time: 0.0,
+        mass,
+        y,
+        temp: vec![t_start; nt],
+        evaporated: (0..n).map(|i| m0 * w0[i] - masses[i]).collect(),
+        inventory: masses.clone(),
+        velocity: velocity0,
+        surface_y: w_start,
+        surface_t: t_start,
+    };
+    // tolerance of the step-doubling estimate, scaled with the square root of the user's relative tolerance
+    let tol = 3e-2 * (inp.rtol / 1e-6).sqrt();
+    let mut dt = 1e-3 * inp.initial_diameter * inp.initial_diameter / 1e-7;
+    let mut stats = Stats::default();
+    let mut history = vec![];
+    let mut profiles = vec![];
+    let mut next_profile = 0;
+    let wants_rows = observer.wants_rows();
+    let first = model.row(&state, m0, inp.initial_diameter);
+    let mut max_t = first.surface_temperature;
+    let mut heatup_end = if first.film.heat_to_liquid.abs() <= 0.1 * first.film.heat_from_gas.abs() { Some(0.0) } else { None };
+    observer.on_step(&first);
+    if wants_rows {
+        history.push(first);
+    }
+    while next_profile < PROFILE_LEVELS.len() && PROFILE_LEVELS[next_profile] <= 1.0 - state.mass / m0 {
+        profiles.push(model.profile(&state, m0));
+        next_profile += 1;
+    }
+    let levels = [0.9, 0.5, 0.1];
+    let mut crossing: [Option<f64>; 3] = [None, None, None];
+    let mut status = Status::TimeLimit;
+    let mut lifetime = None;
+    let mut boiling_stop = false;
+    loop {
+        if stats.steps > 1_000_000 {
+            return Err(ModelError::Integration { time: state.time, reason: "more than 1 000 000 steps".into() });
+        }
+        dt = dt.min(inp.max_time - state.time).max(1e-15);
+        let full = model.step(&state, dt);
+        let half = model.step(&state, 0.5 * dt).and_then(|h| model.step(&h, 0.5 * dt));
+        stats.rhs_calls = model.film_calls;
+        let (full, half) = match (full, half) {
+            (Ok(f), Ok(h)) => (f, h),
+            (Err(e), _) | (_, Err(e)) => {
+                stats.rejected += 1;
+                if e == "boiling" && dt < 1e-12 {
+                    boiling_stop = true;
+                    break;
+                }
+                dt *= 0.25;
+                if dt < 1e-14 {
+                    if e == "boiling" {
+                        boiling_stop = true;
+                        break;
+                    }
+                    return Err(ModelError::Integration { time: state.time, reason: format!("step size underflow ({e})") });
+                }
+                continue;
+            }
+        };
+        let err = error_norm(&half, &full, m0);
+        if err > tol {
+            stats.rejected += 1;
+            dt *= (0.9 * (tol / err).sqrt()).clamp(0.1, 0.9);
+            continue;
+        }
+        let mut new = combine(&half, &full);
+        new.time = state.time + dt;
+        if !(new.mass > 0.0) || new.temp.iter().any(|v| !v.is_finite()) {
+            stats.rejected += 1;
+            dt *= 0.25;
+            continue;
+        }
+        stats.steps += 1;
+        let rem_prev = state.mass / m0;
+        let rem_now = new.mass / m0;
+        for (k, lvl) in levels.iter().enumerate() {
+            if crossing[k].is_none() && rem_prev > *lvl && rem_now <= *lvl {
+                crossing[k] = Some(state.time + dt * (rem_prev - lvl) / (rem_prev - rem_now));
+            }
+        }
+        let finished = rem_now <= inp.end_mass_fraction;
+        if finished {
+            let te = state.time + dt * (rem_prev - inp.end_mass_fraction) / (rem_prev - rem_now);
+            lifetime = Some(te);
+            status = Status::Evaporated;
+        }
+        state = new;
+        let row = model.row(&state, m0, inp.initial_diameter);
+        max_t = max_t.max(row.surface_temperature);
+        if heatup_end.is_none() && row.film.heat_to_liquid.abs() <= 0.1 * row.film.heat_from_gas.abs() {
+            heatup_end = Some(state.time);
+        }
+        while next_profile < PROFILE_LEVELS.len() && PROFILE_LEVELS[next_profile] <= 1.0 - state.mass / m0 {
+            profiles.push(model.profile(&state, m0));
+            next_profile += 1;
+        }
+        let stop = observer.on_step(&row);
+        if wants_rows {
+            history.push(row);
+        }
+        if finished {
+            break;
+        }
+        if stop {
+            status = Status::Stopped;
+            break;
+        }
+        if state.time >= inp.max_time * (1.0 - 1e-12) {
+            break;
+        }
+        dt *= (0.9 * (tol / err.max(1e-300)).sqrt()).clamp(0.2, 4.0);
+    }
+    if boiling_stop {
+        notes.push(format!(
+            "the droplet surface reached the bubble point at t = {:.4e} s; the resolved-liquid model has no boiling regime and stops there (use --liquid-mixing well-mixed --liquid-heat uniform for the heat-limited boiling regime)",
+            state.time
+        ));
+    }
+    let t_min = model.comps.iter().zip(&x0).filter(|(_, x)| **x > 1e-3).map(|(c, _)| c.critical_temperature()).fold(f64::INFINITY, f64::min);
+    if max_t > 0.95 * t_min {
+        notes.push(format!("surface temperature {max_t:.1} K came within 5 % of a component's critical temperature ({t_min:.1} K)"));
+    }
+    if status == Status::TimeLimit && !boiling_stop {
+        notes.push(format!("time limit {:.4e} s reached with {:.2} % of the mass evaporated", inp.max_time, 100.0 * (1.0 - state.mass / m0)));
+    }
+    if boiling_stop {
+        status = Status::Stopped;
+    }
+    let mut mass_err: f64 = 0.0;
+    model.mean_composition(&state);
+    for i in 0..n {
+        let initial = m0 * w0[i];
+        if initial > 0.0 {
+            mass_err = mass_err.max((state.inventory[i] + state.evaporated[i] - initial).abs() / initial);
+        }
+    }
+    stats.rhs_calls = model.film_calls;
+    let outcome = RunOutcome {
+        status,
+        lifetime,
+        t10: crossing[0],
+        t50: crossing[1],
+        t90: crossing[2],
+        heatup_end,
+        max_surface_temperature: max_t,
+        boiling_onset: None,
+        end_time: state.time,
+        final_evaporated_fraction: 1.0 - state.mass / m0,
+        regime_notes: notes,
+        stats,
+        mass_balance_error: mass_err,
+        evaporated_mass: state.evaporated.clone(),
+        final_liquid_mass_fractions: model.w_mean.clone(),
+    };
+    Ok(RunResult { outcome, history, profiles })
+}

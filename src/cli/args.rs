@@ -217,8 +217,8 @@ pub struct CompareArgs {
     #[command(flatten)]
     pub condition: ConditionArgs,
     /// Run at several values of one condition option, e.g. ambient-temperature=500K,800K
-    /// (ambient-temperature, pressure, diameter, droplet-temperature, velocity, correlation, max-time;
-    /// gas=air;n2 with ';' between gases).
+    /// (ambient-temperature, pressure, diameter, droplet-temperature, velocity, correlation, max-time,
+    /// liquid-mixing, liquid-heat, nodes; gas=air;n2 with ';' between gases).
     #[arg(long, value_name = "OPTION=V1,V2,...")]
     pub vary: Option<String>,
     /// Output folder.

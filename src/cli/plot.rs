@@ -6,7 +6,7 @@ use std::path::Path;
 
 use clap::ValueEnum;
 
-use super::args::{CompareArgs, ConditionArgs, CorrelationArg};
+use super::args::{CompareArgs, ConditionArgs, CorrelationArg, HeatArg, MixingArg};
 use super::commands::{droplet_inputs, notice, progress, stdout_write, write_droplet_residue};
 use super::CliError;
 use crate::data::Library;
@@ -18,7 +18,19 @@ use crate::output::read::SavedRun;
 use crate::output::{self, html};
 
 /// Condition options `--vary` accepts, with how their values are separated.
-const VARIABLE_OPTIONS: [&str; 8] = ["ambient-temperature", "pressure", "diameter", "droplet-temperature", "velocity", "gas", "correlation", "max-time"];
+const VARIABLE_OPTIONS: [&str; 11] = [
+    "ambient-temperature",
+    "pressure",
+    "diameter",
+    "droplet-temperature",
+    "velocity",
+    "gas",
+    "correlation",
+    "max-time",
+    "liquid-mixing",
+    "liquid-heat",
+    "nodes",
+];
 
 fn fill_classes(lib: &Library, run: &mut SavedRun) {
     for (id, class) in run.components.iter_mut() {
@@ -149,6 +161,13 @@ fn apply_vary(c: &ConditionArgs, option: &str, value: &str) -> Result<ConditionA
         "velocity" => c.velocity = value.into(),
         "gas" => c.gas = value.into(),
         "max-time" => c.max_time = value.into(),
+        "nodes" => c.nodes = value.into(),
+        "liquid-mixing" => {
+            c.liquid_mixing = MixingArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary liquid-mixing: '{value}' is not one of well-mixed, diffusion")))?;
+        }
+        "liquid-heat" => {
+            c.liquid_heat = HeatArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary liquid-heat: '{value}' is not one of {}", HeatArg::value_variants().iter().filter_map(|v| v.to_possible_value()).map(|p| p.get_name().to_string()).collect::<Vec<_>>().join(", "))))?;
+        }
         "correlation" => {
             c.correlation = CorrelationArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary correlation: '{value}' is not one of clift, ranz-marshall")))?;
         }
@@ -312,6 +331,19 @@ mod tests {
         assert!(parse_vary("pressure").is_err());
         assert!(parse_vary("pressure=").is_err());
         assert!(parse_vary("pressure=1bar,1bar").is_err());
+    }
+
+    #[test]
+    fn vary_applies_to_the_condition() {
+        use clap::Parser;
+        let cli = super::super::Cli::try_parse_from(["dropcut", "simulate", "test-decane"]).unwrap();
+        let super::super::args::Command::Simulate(args) = cli.command else { panic!("simulate") };
+        let c = apply_vary(&args.condition, "liquid-mixing", "diffusion").unwrap();
+        assert!(matches!(c.liquid_mixing, MixingArg::Diffusion));
+        assert_eq!(apply_vary(&args.condition, "ambient-temperature", "500K").unwrap().ambient_temperature, "500K");
+        assert_eq!(apply_vary(&args.condition, "gas", "n2").unwrap().gas, "n2");
+        assert!(apply_vary(&args.condition, "liquid-heat", "warm").is_err());
+        assert!(apply_vary(&args.condition, "correlation", "ranz-marshall").is_ok());
     }
 
     #[test]

@@ -529,17 +529,23 @@ fn draw_chart<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Chart) -> R
     root.fill(&WHITE).map_err(de)?;
     let top = draw_title(root, &c.title, &c.subtitle)?;
     let (_, body) = root.split_vertically(top);
-    let lw = legend_width(root, c);
+    let cols = c.columns.max(1);
+    let rows = c.panels.len().div_ceil(cols).max(1);
+    // a grid with a free cell holds the legend there; otherwise the legend gets a column on the right
+    let free_cell = c.panels.len() > 1 && c.panels.len() < rows * cols && !c.legend.is_empty();
+    let lw = if free_cell { 0 } else { legend_width(root, c) };
     let (w, _) = body.dim_in_pixel();
     let (plots, legend) = body.split_horizontally(w - lw);
     if lw > 0 {
         draw_legend(&legend, c)?;
     }
-    let cols = c.columns.max(1);
-    let rows = c.panels.len().div_ceil(cols).max(1);
     let cells = plots.split_evenly((rows, cols));
     for (p, cell) in c.panels.iter().zip(cells.iter()) {
         draw_panel(root, cell, p, c.panels.len() > 1)?;
+    }
+    if free_cell {
+        let cell = &cells[c.panels.len()];
+        draw_legend(&cell.margin(30, 0, 40, 0), c)?;
     }
     Ok(())
 }

@@ -38,6 +38,16 @@ pub enum Command {
         /// Output folder.
         #[arg(long, default_value = "dropcut-out/demo")]
         out: PathBuf,
+        /// Do not draw charts.
+        #[arg(long)]
+        no_plots: bool,
+    },
+    /// Run several fuels at one condition (or one fuel at several conditions) and compare them.
+    Compare(CompareArgs),
+    /// Redraw the charts and index.html of a result folder from its saved data, without recomputing.
+    Plot {
+        /// A run folder (history.csv, summary.json) or a demo/compare folder with one sub-folder per run.
+        dir: PathBuf,
     },
     /// Run a sweep of fuels × conditions from a TOML spec on all cores, or print its Slurm batch script.
     Sweep(SweepArgs),
@@ -310,4 +320,26 @@ pub struct TableArgs {
     /// Leave the date out of the metadata (byte-identical reruns); SOURCE_DATE_EPOCH, if set, fixes the date instead.
     #[arg(long)]
     pub no_date: bool,
+}
+
+/// `compare` arguments.
+#[derive(Debug, Clone, Args)]
+pub struct CompareArgs {
+    /// Fuels (fuel files, library fuel ids or component ids); one fuel is enough with --vary.
+    #[arg(required = true, num_args = 1..)]
+    pub fuels: Vec<String>,
+    /// Conditions shared by every run.
+    #[command(flatten)]
+    pub condition: ConditionArgs,
+    /// Run at several values of one condition option, e.g. ambient-temperature=500K,800K
+    /// (ambient-temperature, pressure, diameter, droplet-temperature, velocity, correlation, max-time,
+    /// liquid-mixing, liquid-heat, nodes; gas=air;n2 with ';' between gases).
+    #[arg(long, value_name = "OPTION=V1,V2,...")]
+    pub vary: Option<String>,
+    /// Output folder.
+    #[arg(long, default_value = "dropcut-out/compare")]
+    pub out: PathBuf,
+    /// Do not draw charts.
+    #[arg(long)]
+    pub no_plots: bool,
 }

@@ -5,6 +5,7 @@ mod args;
 mod commands;
 mod sweep;
 mod table;
+mod plot;
 
 use std::ffi::OsString;
 use std::io::Write;
@@ -56,7 +57,11 @@ impl From<crate::props::PropertyError> for CliError {
 
 impl From<crate::output::OutputError> for CliError {
     fn from(e: crate::output::OutputError) -> Self {
-        CliError::runtime(e.to_string())
+        match e {
+            // saved files given by the user (plot, compare inputs) that cannot be read: bad input
+            crate::output::OutputError::Read { .. } => CliError::input(e.to_string()),
+            _ => CliError::runtime(e.to_string()),
+        }
     }
 }
 

@@ -34,6 +34,7 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
         Command::Validate { out } => validate(&out),
         Command::Residue(args) => residue(&lib, &args),
         Command::Table(args) => super::table::table(&lib, &args),
+        Command::Uncertainty(args) => super::uncertainty::uncertainty(&lib, &args),
     }
 }
 
@@ -56,7 +57,7 @@ pub(super) fn notice(msg: &str) {
     let _ = writeln!(std::io::stderr(), "note: {msg}");
 }
 
-fn parse_q(option: &str, text: &str, q: Quantity) -> Result<f64, CliError> {
+pub(super) fn parse_q(option: &str, text: &str, q: Quantity) -> Result<f64, CliError> {
     units::parse(text, q).map_err(|e| CliError::input(format!("--{option}: {e}")))
 }
 

@@ -9,6 +9,7 @@ pub mod html;
 pub mod read;
 pub mod residue;
 pub mod tables;
+pub mod uncertainty;
 
 use std::fs;
 use std::io::Write;

@@ -90,11 +90,13 @@ fn report(label: &str, run: &UncertaintyRun) -> String {
         let top: Vec<String> = run
             .sensitivity
             .iter()
-            .filter(|r| r.output == o)
+            .filter(|r| r.output == o && r.above_noise == Some(true))
             .take(3)
             .filter_map(|r| r.r2.map(|v| format!("{} ({:.0} %{})", r.input, 100.0 * v, r.spearman.map(|s| format!(", ρ {s:+.2}")).unwrap_or_default())))
             .collect();
-        if !top.is_empty() {
+        if top.is_empty() {
+            s.push_str(&format!("  drives the spread of the {desc}: no input stands out from the sampling noise\n"));
+        } else {
             s.push_str(&format!("  drives the spread of the {desc} (share of rank variance): {}\n", top.join(", ")));
         }
     }

@@ -116,11 +116,6 @@ pub fn residue_table(run: &UncertaintyRun) -> Result<CsvTable, OutputError> {
     Ok(t)
 }
 
-/// Rough 5 % noise level of a Spearman coefficient from `n` independent samples: 1.96/√(n − 1).
-pub fn noise_level(n: usize) -> Option<f64> {
-    (n > 2).then(|| 1.96 / ((n - 1) as f64).sqrt())
-}
-
 /// sensitivity.csv: per ranked output, every input by decreasing |Spearman| coefficient.
 pub fn sensitivity_table(run: &UncertaintyRun) -> Result<CsvTable, OutputError> {
     let mut t = CsvTable::new(["output", "rank", "input", "input_kind", "factors", "r2_rank", "spearman", "samples", "above_noise"].iter().map(|s| s.to_string()).collect());
@@ -128,15 +123,15 @@ pub fn sensitivity_table(run: &UncertaintyRun) -> Result<CsvTable, OutputError> 
     t.metadata.push("inputs: each uncertain condition (its sampled value), each composition group (its factor), and per property type the mean of the standard draws z over the components weighted by their initial mass fractions (spearman column)".into());
     t.metadata.push("r2_rank (the ranking key): adjusted R2 of a least-squares fit of the output's ranks on the ranks of the input's factors (for a property type: every component's factor of that property), i.e. the share of the output's rank variance they explain; spearman: rank correlation of the input's value (mean z for a property type) with the output, for the sign".into());
     t.metadata.push(format!(
-        "outputs: {}; residue outputs at {} % evaporated; above_noise (single-factor inputs) = |spearman| > 1.96/sqrt(samples - 1), a rough 5 % test for independent samples",
+        "outputs: {}; residue outputs at {} % evaporated; above_noise: one factor |spearman| > 1.96/sqrt(samples - 1); m factors r2_rank > 2 sqrt(2 m)/(samples - m - 1) (rough 5 % tests for independent samples)",
         RANKED_OUTPUTS.map(|(k, d)| format!("{k} ({d})")).join(", "),
         100.0 * RANKED_RESIDUE_FRACTION
     ));
     for r in &run.sensitivity {
-        let factors = run.sensitivity_inputs.iter().find(|i| i.name == r.input).map(|i| i.members.len()).unwrap_or(1);
-        let above = match (r.spearman, noise_level(r.samples)) {
-            (Some(s), Some(n)) if factors == 1 => if s.abs() > n { "yes" } else { "no" },
-            _ => "",
+        let above = match r.above_noise {
+            Some(true) => "yes",
+            Some(false) => "no",
+            None => "",
         };
         t.push(
             vec![
@@ -144,7 +139,7 @@ pub fn sensitivity_table(run: &UncertaintyRun) -> Result<CsvTable, OutputError> 
                 Cell::Num(r.rank as f64),
                 Cell::Text(r.input.clone()),
                 Cell::Text(r.kind.into()),
-                Cell::Num(factors as f64),
+                Cell::Num(r.factors as f64),
                 Cell::Opt(r.r2),
                 Cell::Opt(r.spearman),
                 Cell::Num(r.samples as f64),

@@ -17,7 +17,7 @@ use crate::post::{residue_table, IndicatorOptions};
 use super::factors::{perturbed, resolve, Factor, FactorKind};
 use super::random::{counter_uniform, mix64, truncated_normal, Xoshiro256};
 use super::spec::{property_keys, Distribution, UncertaintySpec};
-use super::stats::{percentile_sorted, rank_r2, sorted_finite, spearman, Statistics, PERCENTILES};
+use super::stats::{above_noise, percentile_sorted, rank_r2, sorted_finite, spearman, Statistics, PERCENTILES};
 use super::UncertaintyError;
 
 /// How the standard draws are spread over the samples.
@@ -218,6 +218,10 @@ pub struct SensitivityRow {
     pub r2: Option<f64>,
     /// Samples used.
     pub samples: usize,
+    /// Factors behind the input (1, or the components of a property type).
+    pub factors: usize,
+    /// Whether the input stands out from sampling noise ([`super::stats::above_noise`]).
+    pub above_noise: Option<bool>,
 }
 
 /// Everything a sampling run of one fuel produced.
@@ -572,7 +576,9 @@ fn rank(inputs: &[SensitivityInput], samples: &[SampleRecord], at50: Option<usiz
             .map(|inp| {
                 let x: Vec<Option<f64>> = inp.values.iter().map(|v| Some(*v)).collect();
                 let columns: Vec<Vec<f64>> = inp.members.iter().map(|&m| samples.iter().map(|s| s.z[m]).collect()).collect();
-                SensitivityRow { output, rank: 0, input: inp.name.clone(), kind: inp.kind, spearman: spearman(&x, &y), r2: rank_r2(&columns, &y), samples: used }
+                let (rho, r2) = (spearman(&x, &y), rank_r2(&columns, &y));
+                let factors = inp.members.len();
+                SensitivityRow { output, rank: 0, input: inp.name.clone(), kind: inp.kind, spearman: rho, r2, samples: used, factors, above_noise: above_noise(factors, used, rho, r2) }
             })
             .collect();
         // strongest first (by explained rank variance, then |Spearman|); undefined last; ties by name

@@ -187,6 +187,18 @@ pub fn rank_r2(x: &[Vec<f64>], y: &[Option<f64>]) -> Option<f64> {
     adjusted.is_finite().then_some(adjusted.clamp(0.0, 1.0))
 }
 
+/// Whether an input stands out from sampling noise: for one factor, |Spearman| > 1.96/√(n − 1) (a rough two-sided
+/// 5 % test for independent samples); for a group of m factors, adjusted rank R² > 2√(2m)/(n − m − 1) (about two
+/// standard deviations of the adjusted R² of m unrelated inputs). `None` when n is too small.
+pub fn above_noise(factors: usize, samples: usize, spearman: Option<f64>, r2: Option<f64>) -> Option<bool> {
+    let (m, n) = (factors as f64, samples as f64);
+    if factors == 1 {
+        (samples > 2).then_some(spearman?.abs() > 1.96 / (n - 1.0).sqrt())
+    } else {
+        (samples > factors + 2).then_some(r2? > 2.0 * (2.0 * m).sqrt() / (n - m - 1.0))
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -96,6 +96,10 @@ pub(super) fn plot(lib: &Library, dir: &Path) -> Result<(), CliError> {
     if !dir.is_dir() {
         return Err(CliError::input(format!("{}: no such folder", dir.display())));
     }
+    if dir.join("summary.csv").is_file() && !SavedRun::is_run_folder(dir) {
+        let maps = crate::output::sweep_maps::sweep_maps(dir)?;
+        return stdout_write(&format!("drew {} sweep map(s) in {}\n", maps.len(), dir.display()));
+    }
     if SavedRun::is_run_folder(dir) {
         let (_, n) = finish_run(lib, dir, true)?;
         return stdout_write(&format!("drew {n} charts and index.html in {}\n", dir.display()));

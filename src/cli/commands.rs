@@ -383,6 +383,17 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
     }
     study.write(out)?;
     plot::finish_study(lib, out, &study, !no_plots)?;
+    // Property tables of the two base fuels at the combustor pressure (no surrogate fit: kept quick).
+    report.push_str("\nProperty tables for spray CFD at 10 bar: `tables/<fuel>/` (docs/tables.md).\n");
+    for fuel_id in ["demo-narrow", "demo-wide"] {
+        progress(&format!("demo: property tables of {fuel_id} ..."));
+        let fuel = Fuel::resolve(fuel_id, lib)?;
+        let mut opts = crate::table::TableOptions::new(AmbientGas::air(lib)?);
+        opts.pressure = 1e6;
+        opts.surrogate = None;
+        let set = crate::table::build(&fuel, &opts).map_err(|e| CliError::runtime(e.to_string()))?;
+        output::tables::write_tables(&out.join("tables").join(fuel_id), &set, &lib.sources, &output::tables::WriteOptions { format: output::tables::TableFormat::Csv, date: None })?;
+    }
     report.push_str("\n```\n");
     report.push_str(&table);
     report.push_str("```\n");

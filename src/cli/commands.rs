@@ -405,8 +405,13 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
 fn validate(out: &Path) -> Result<(), CliError> {
     let results = crate::checks::all();
     let passed = results.iter().filter(|r| r.passed).count();
+    let known = results.iter().filter(|r| !r.passed && (r.check.contains("KNOWN FAILURE") || r.source.contains("from memory") || r.check.contains("from memory"))).count();
     let mut doc = String::from("# Validation report\n\nWritten by `dropcut validate`; the same check definitions (src/checks/) drive `cargo test` (tests/validation_*.rs).\n\n");
-    doc.push_str(&format!("{passed} of {} checks pass.\n\n", results.len()));
+    doc.push_str(&format!(
+        "{passed} of {} checks pass. {} fail; {known} of those are known failures explained in the check text (published correlations that miss the reference beyond the tolerance, or single-droplet experiments whose reference values are recalled from memory and whose set-ups include fibre conduction and radiation that the model omits — docs/validity.md).\n\n",
+        results.len(),
+        results.len() - passed
+    ));
     doc.push_str(&crate::checks::markdown_table(&results));
     output::write_atomic(out, doc.as_bytes())?;
     stdout_write(&format!("{passed} passed, {} failed\nwrote {}\n", results.len() - passed, out.display()))?;

@@ -24,6 +24,7 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
     match cli.command {
         Command::Components { json } => components(&lib, json),
         Command::Fuel { action: FuelAction::Show { fuel, temperature, pressure, json } } => fuel_show(&lib, &fuel, &temperature, &pressure, json),
+        Command::Fuel { action: FuelAction::Build(args) } => super::fuelbuild::build(&lib, &args),
         Command::Simulate(args) => simulate(&lib, &args),
         Command::Demo { out } => demo(&lib, &out),
         Command::Validate { out } => validate(&out),
@@ -31,7 +32,7 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
     }
 }
 
-fn stdout_write(text: &str) -> Result<(), CliError> {
+pub(super) fn stdout_write(text: &str) -> Result<(), CliError> {
     let mut out = std::io::stdout().lock();
     match out.write_all(text.as_bytes()).and_then(|_| out.flush()) {
         Ok(()) => Ok(()),
@@ -46,11 +47,11 @@ fn progress(msg: &str) {
     }
 }
 
-fn notice(msg: &str) {
+pub(super) fn notice(msg: &str) {
     let _ = writeln!(std::io::stderr(), "note: {msg}");
 }
 
-fn parse_q(option: &str, text: &str, q: Quantity) -> Result<f64, CliError> {
+pub(super) fn parse_q(option: &str, text: &str, q: Quantity) -> Result<f64, CliError> {
     units::parse(text, q).map_err(|e| CliError::input(format!("--{option}: {e}")))
 }
 
@@ -217,7 +218,10 @@ pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<Dr
             let (id, y) = item
                 .split_once('=')
                 .ok_or_else(|| CliError::input(format!("--ambient-vapor: cannot read '{item}': use component=mass-fraction pairs")))?;
-            let comp = lib.require_component(id.trim(), "--ambient-vapor")?;
+            let comp = match fuel.components.iter().find(|c| c.answers_to(id.trim())) {
+                Some(c) => c.clone(),
+                None => lib.require_component(id.trim(), "--ambient-vapor")?.clone(),
+            };
             let i = fuel
                 .components
                 .iter()

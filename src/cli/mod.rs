@@ -3,6 +3,7 @@
 
 mod args;
 mod commands;
+mod fuelbuild;
 
 use std::ffi::OsString;
 use std::io::Write;

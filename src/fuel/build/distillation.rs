@@ -449,6 +449,10 @@ struct CutInput<'a> {
     sg: f64,
     k_w: f64,
     tb_note: &'a str,
+    /// Added to the cut's D976 index so that the volume-linear blend equals the fuel's D976 index.
+    cn_offset: f64,
+    /// D976 index of the whole fuel (for the note).
+    fuel_cci: f64,
 }
 
 fn cut_component(c: &CutInput, opts: &DistillationOptions, notes: &mut Vec<String>) -> Result<ComponentSpec, BuildError> {
@@ -498,15 +502,17 @@ fn cut_component(c: &CutInput, opts: &DistillationOptions, notes: &mut Vec<Strin
     let hhv = pet::channiwala_parikh_hhv(100.0 * (1.0 - h_frac), 100.0 * h_frac, 0.0);
     let lhv = pet::lhv_from_hhv(hhv, h_frac);
     let cci = pet::astm_d976_cetane_index(rho15, tb);
-    let cn = cci.clamp(0.0, 100.0);
-    let mut cn_note = format!("ASTM D976 two-variable cetane index applied to the cut (density {rho15:.1} kg/m3, mid-boiling point {:.1} degC)", tb - 273.15);
-    if !(150.0..=400.0).contains(&(tb - 273.15)) {
-        cn_note.push_str("; the cut lies outside the distillate range the index was made for");
+    let cn = (cci + c.cn_offset).clamp(0.0, 100.0);
+    let mut cn_note = format!(
+        "ASTM D976 two-variable cetane index of the cut (density {rho15:.1} kg/m3, boiling point {:.1} degC) = {cci:.1}, shifted by {:+.1} so that the volume-linear blend of the cuts equals the D976 index of the whole fuel ({:.1}, from its density and D86 T50)",
+        tb - 273.15,
+        c.cn_offset,
+        c.fuel_cci
+    );
+    if (cn - (cci + c.cn_offset)).abs() > 1e-9 {
+        cn_note.push_str(&format!("; clamped to {cn:.0}"));
     }
-    if (cn - cci).abs() > 1e-9 {
-        cn_note.push_str(&format!("; index {cci:.1} clamped to {cn:.0}"));
-    }
-    let mut cn_value = Value::new(cn, "estimated:astm-d976-per-cut", cn_note);
+    let mut cn_value = Value::new(cn, "estimated:astm-d976", cn_note);
     cn_value.kind = Some("CN".into());
     cn_value.uncertainty = Some(0.3);
     let mut density_value = Value::new(rho15, "estimated:watson-k", format!("SG {sg:.5} x 999.0 kg/m3 from the Watson factor K_W = {:.4} shared by all cuts", c.k_w));
@@ -567,14 +573,18 @@ pub fn build_from_distillation(curve: &DistillationCurve, lib: &Library, opts: &
     let tbp: Vec<(f64, f64)> = match curve.kind {
         CurveKind::Tbp => curve.points.clone(),
         CurveKind::D86 => {
-            let untabulated: Vec<String> = curve.points.iter().filter(|(p, _)| !pet::d86_tbp_coefficients(*p).2).map(|(p, _)| format!("{p}")).collect();
-            if !untabulated.is_empty() {
+            let between: Vec<String> = curve.points.iter().filter(|(p, _)| !pet::d86_tbp_coefficients(*p).2 && *p < 95.0).map(|(p, _)| format!("{p}")).collect();
+            let above: Vec<String> = curve.points.iter().filter(|(p, _)| *p > 95.0).map(|(p, _)| format!("{p}")).collect();
+            if !between.is_empty() {
                 notes.push(format!(
-                    "D86 -> TBP: Riazi-Daubert (1986) coefficients are tabulated at 0, 10, 30, 50, 70, 90, 95 %; at {} % they were interpolated linearly in percent (above 95 %: the 95 % pair)",
-                    untabulated.join(", ")
+                    "D86 -> TBP: the Riazi-Daubert (1986) law is tabulated at 0, 10, 30, 50, 70, 90, 95 %; at {} % the difference TBP - D86 was interpolated linearly between tabulated percentages",
+                    between.join(", ")
                 ));
             }
-            curve.points.iter().map(|(p, t)| (*p, pet::d86_to_tbp(*p, *t))).collect()
+            if !above.is_empty() {
+                notes.push(format!("D86 -> TBP: the table ends at 95 %; at {} % the 95 % difference TBP - D86 was kept", above.join(", ")));
+            }
+            pet::d86_curve_to_tbp(&curve.points)
         }
     };
     if let Some(w) = tbp.windows(2).find(|w| w[1].1 <= w[0].1) {
@@ -592,25 +602,38 @@ pub fn build_from_distillation(curve: &DistillationCurve, lib: &Library, opts: &
     if tbs0[0] < 250.0 {
         return Err(input_error(&curve.origin, format!("the lightest cut boils at {:.1} K: below 250 K the correlations do not apply (check the units of the curve)", tbs0[0])));
     }
-    // calibration targets on the D86 scale
-    let to_d86 = |p: f64, t: f64| match curve.kind {
-        CurveKind::D86 => t,
-        CurveKind::Tbp => pet::tbp_to_d86(p, t),
+    // the input on the D86 scale: calibration targets and comparison
+    let d86: Vec<(f64, f64)> = match curve.kind {
+        CurveKind::D86 => curve.points.clone(),
+        CurveKind::Tbp => pet::tbp_curve_to_d86(&curve.points),
     };
-    let targets: Vec<(f64, f64)> = curve.points.iter().filter(|(p, _)| *p >= CALIBRATION_RANGE.0 && *p <= CALIBRATION_RANGE.1).map(|(p, t)| (*p, to_d86(*p, *t))).collect();
+    let targets: Vec<(f64, f64)> = d86.iter().copied().filter(|(p, _)| *p >= CALIBRATION_RANGE.0 && *p <= CALIBRATION_RANGE.1).collect();
     if opts.fit == CutFit::SimulatedDistillation && targets.is_empty() {
         notes.push(format!("no input point between {} and {} %: nothing to calibrate against, cuts kept on the TBP curve", CALIBRATION_RANGE.0, CALIBRATION_RANGE.1));
     }
     let fractions: Vec<f64> = targets.iter().map(|(p, _)| p / 100.0).collect();
+    // D976 index of the whole fuel from its density and D86 T50 (a TBP input converted back)
+    let d86_t50 = interp_extrap(&d86, 50.0);
+    let fuel_cci = pet::astm_d976_cetane_index(rho, d86_t50);
     let ids: Vec<String> = (1..=n).map(|i| format!("{name}-pc{i:02}")).collect();
     let mut tbs = tbs0.clone();
     let mut iterations = 0;
+    type Candidate = (f64, String, crate::fuel::Fuel, Vec<CutRow>, f64, Vec<String>);
+    let mut best: Option<Candidate> = None;
+    fn finish(best: Option<Candidate>, notes: &mut Vec<String>) -> (String, crate::fuel::Fuel, Vec<CutRow>, f64) {
+        let (_, text, fuel, rows, k_w, cut_notes) = best.expect("at least one candidate");
+        notes.extend(cut_notes);
+        (text, fuel, rows, k_w)
+    }
     let (text, fuel, cuts, k_w) = loop {
         // Watson factor so that Σ v_i SG_i × 999 = ρ15 (equal volumes)
         let k_w = tbs.iter().map(|tb| (1.8 * tb).cbrt()).sum::<f64>() / n as f64 * pet::WATER_DENSITY_60F / rho;
         let mut specs = vec![];
         let mut rows = vec![];
         let mut cut_notes = vec![];
+        let sgs: Vec<f64> = tbs.iter().map(|tb| pet::sg_from_watson(*tb, k_w)).collect();
+        let mean_cci = tbs.iter().zip(&sgs).map(|(tb, sg)| pet::astm_d976_cetane_index(sg * pet::WATER_DENSITY_60F, *tb)).sum::<f64>() / n as f64;
+        let cn_offset = fuel_cci - mean_cci;
         for i in 0..n {
             let shift = tbs[i] - tbs0[i];
             let src = match curve.kind {
@@ -621,8 +644,8 @@ pub fn build_from_distillation(curve: &DistillationCurve, lib: &Library, opts: &
             if shift.abs() > 1e-9 {
                 tb_note.push_str(&format!("; shifted by {shift:+.2} K so that the simulated distillation reproduces the input curve (fit = simulated-distillation)"));
             }
-            let sg = pet::sg_from_watson(tbs[i], k_w);
-            let input = CutInput { id: ids[i].clone(), index: i, range: (edges[i], edges[i + 1]), tb: tbs[i], tbp: tbs0[i], sg, k_w, tb_note: &tb_note };
+            let sg = sgs[i];
+            let input = CutInput { id: ids[i].clone(), index: i, range: (edges[i], edges[i + 1]), tb: tbs[i], tbp: tbs0[i], sg, k_w, tb_note: &tb_note, cn_offset, fuel_cci };
             let spec = cut_component(&input, opts, &mut cut_notes)?;
             rows.push(CutRow {
                 id: spec.id.clone(),
@@ -659,28 +682,37 @@ pub fn build_from_distillation(curve: &DistillationCurve, lib: &Library, opts: &
         let description = if curve.description.is_empty() { format!("pseudo-components from the {} curve {}", curve.kind.as_str().to_uppercase(), curve.origin) } else { curve.description.clone() };
         let text = fuel_file_text(&name, &description, &header, "volume", &composition, &specs);
         let fuel = read_back(&text, &name, lib)?;
-        let done = opts.fit == CutFit::Tbp || targets.is_empty() || iterations >= CALIBRATION_ITERATIONS;
-        if done {
+        if opts.fit == CutFit::Tbp || targets.is_empty() {
             notes.extend(cut_notes);
             break (text, fuel, rows, k_w);
         }
         let sim = simulate.expect("checked above")(&fuel, &fractions).map_err(|e| input_error("simulated distillation", e))?;
         let residual: Vec<(f64, f64)> = targets.iter().zip(&sim).map(|((p, t), s)| (*p, s - t)).collect();
-        if residual.iter().all(|(_, r)| r.abs() < CALIBRATION_TOLERANCE) {
-            notes.extend(cut_notes);
-            break (text, fuel, rows, k_w);
+        let worst = residual.iter().map(|(_, r)| r.abs()).fold(0.0, f64::max);
+        if best.as_ref().is_none_or(|b| worst < b.0) {
+            best = Some((worst, text, fuel, rows, k_w, cut_notes));
+        }
+        if worst < CALIBRATION_TOLERANCE {
+            break finish(best.take(), &mut notes);
+        }
+        if iterations >= CALIBRATION_ITERATIONS {
+            notes.push(format!("calibration stopped after {CALIBRATION_ITERATIONS} iterations; the best residual was {:.2} K", best.as_ref().map_or(f64::NAN, |b| b.0)));
+            break finish(best.take(), &mut notes);
         }
         iterations += 1;
-        for (tb, m) in tbs.iter_mut().zip(&mids) {
+        let mut next = tbs.clone();
+        for (tb, m) in next.iter_mut().zip(&mids) {
             *tb -= interp_flat(&residual, *m);
         }
-        if tbs.windows(2).any(|w| w[1] <= w[0]) || tbs[0] < 250.0 {
-            return Err(input_error(&curve.origin, "calibration failed: the shifted cut boiling points no longer increase (is the curve very steep or noisy?); try --fit tbp"));
+        if next.windows(2).any(|w| w[1] <= w[0]) || next[0] < 250.0 {
+            notes.push(format!(
+                "calibration stopped after {iterations} iterations: a further shift would make the cut boiling points decrease; the best residual was {:.2} K (a steep or uneven curve, or too few cuts: try more --pseudo)",
+                best.as_ref().map_or(f64::NAN, |b| b.0)
+            ));
+            break finish(best.take(), &mut notes);
         }
+        tbs = next;
     };
-    if opts.fit == CutFit::SimulatedDistillation && iterations >= CALIBRATION_ITERATIONS {
-        notes.push(format!("calibration stopped after {CALIBRATION_ITERATIONS} iterations without reaching {CALIBRATION_TOLERANCE} K"));
-    }
     if !(10.0..=13.5).contains(&k_w) {
         notes.push(format!("Watson factor K_W = {k_w:.3} is unusual for a liquid fuel (paraffinic about 12.5-13, aromatic about 10): check the density against the boiling range"));
     }
@@ -691,11 +723,9 @@ pub fn build_from_distillation(curve: &DistillationCurve, lib: &Library, opts: &
             curve
                 .points
                 .iter()
+                .zip(&d86)
                 .zip(sim)
-                .map(|((p, t), s)| {
-                    let d = to_d86(*p, *t);
-                    CurvePoint { percent: *p, input_K: *t, input_d86_K: d, simulated_K: s, error_K: s - d }
-                })
+                .map(|(((p, t), (_, d)), s)| CurvePoint { percent: *p, input_K: *t, input_d86_K: *d, simulated_K: s, error_K: s - d })
                 .collect()
         }
         None => vec![],

@@ -8,7 +8,7 @@
 //! - Riazi–Daubert 1980: H (form and constants in a retrieved implementation; worked example in checks).
 //! - Riazi–Daubert 1987: M (constants recalled; they reproduce n-heptane within 1 %, see checks).
 //! - Riazi–Daubert 1986 D86 → TBP: M (coefficients recalled, internally consistent with a °R form seen in a
-//!   retrieved tool); the interpolation of the coefficients between tabulated percentages is ours.
+//!   retrieved tool); for curves, the interpolation of TBP − D86 between tabulated percentages is ours.
 //! - Riazi (1986) C/H weight ratio: M (recalled; the same constants appear in a retrieved document).
 //! - Kesler & Lee (1976) ideal-gas cp, SI form of Riazi (2005): M (one retrieved implementation; checked
 //!   here against published cp of library hydrocarbons).
@@ -113,6 +113,62 @@ pub fn tbp_to_d86(percent: f64, tbp: f64) -> f64 {
     (tbp / a).powf(1.0 / b)
 }
 
+fn interp_held(points: &[(f64, f64)], x: f64) -> f64 {
+    if x <= points[0].0 {
+        return points[0].1;
+    }
+    let last = points[points.len() - 1];
+    if x >= last.0 {
+        return last.1;
+    }
+    let i = points.iter().position(|p| p.0 >= x).unwrap_or(points.len() - 1).max(1);
+    let ((x0, y0), (x1, y1)) = (points[i - 1], points[i]);
+    y0 + (y1 - y0) * (x - x0) / (x1 - x0)
+}
+
+/// Differences (percent, TBP − D86 [K]) at the tabulated percentages inside the curve's range: the curve
+/// (sorted (percent, T [K]) points) is interpolated linearly to each tabulated percentage and converted there
+/// with the Riazi–Daubert (1986) law (`forward` = the curve is D86, else it is TBP and the law is inverted).
+fn tabulated_differences(points: &[(f64, f64)], forward: bool) -> Vec<(f64, f64)> {
+    let (lo, hi) = (points[0].0, points[points.len() - 1].0);
+    let mut d: Vec<(f64, f64)> = D86_TBP_PERCENT
+        .iter()
+        .filter(|p| **p >= lo - 1e-9 && **p <= hi + 1e-9)
+        .map(|p| {
+            let t = interp_held(points, *p);
+            if forward {
+                (*p, d86_to_tbp(*p, t) - t)
+            } else {
+                (*p, t - tbp_to_d86(*p, t))
+            }
+        })
+        .collect();
+    if d.is_empty() {
+        // no tabulated percentage inside the range: use the nearest one at the curve's middle
+        let mid = 0.5 * (lo + hi);
+        let p = D86_TBP_PERCENT.iter().copied().min_by(|a, b| (a - mid).abs().total_cmp(&(b - mid).abs())).unwrap_or(50.0);
+        let t = interp_held(points, mid);
+        let (a, b, _) = d86_tbp_coefficients(p);
+        d.push((mid, if forward { a * t.powf(b) - t } else { t - (t / a).powf(1.0 / b) }));
+    }
+    d
+}
+
+/// Convert a D86 curve (sorted (percent, T [K]) points) to a TBP curve at the same percentages: the
+/// Riazi–Daubert (1986) law at the tabulated percentages (0, 10, 30, 50, 70, 90, 95 %) within the curve's range,
+/// and in between the difference TBP − D86 interpolated linearly in percent (held beyond the outermost
+/// tabulated point, e.g. at 100 %). Exact at tabulated percentages.
+pub fn d86_curve_to_tbp(points: &[(f64, f64)]) -> Vec<(f64, f64)> {
+    let d = tabulated_differences(points, true);
+    points.iter().map(|(p, t)| (*p, t + interp_held(&d, *p))).collect()
+}
+
+/// Convert a TBP curve to a D86 curve at the same percentages (inverse of [`d86_curve_to_tbp`]).
+pub fn tbp_curve_to_d86(points: &[(f64, f64)]) -> Vec<(f64, f64)> {
+    let d = tabulated_differences(points, false);
+    points.iter().map(|(p, t)| (*p, t - interp_held(&d, *p))).collect()
+}
+
 /// Riazi (1986) carbon-to-hydrogen weight ratio of a petroleum fraction [-] (Tb in K):
 /// CH = 8.7743e-10 exp(7.176e-3 Tb + 30.06242 SG − 7.35e-3 Tb SG) Tb^−0.98445 SG^−18.2753.
 pub fn riazi_carbon_hydrogen_ratio(tb: f64, sg: f64) -> f64 {
@@ -203,6 +259,16 @@ mod tests {
         }
         let (_, _, tab) = d86_tbp_coefficients(20.0);
         assert!(!tab);
+        // curve conversion: exact at tabulated percentages, smooth (difference interpolated) between, invertible
+        let d86 = [(0.0, 428.15), (5.0, 436.15), (10.0, 444.15), (20.0, 452.15), (50.0, 468.15), (90.0, 506.15), (100.0, 527.15)];
+        let tbp = d86_curve_to_tbp(&d86);
+        assert!((tbp[2].1 - d86_to_tbp(10.0, 444.15)).abs() < 1e-9);
+        let mid = 0.5 * ((tbp[0].1 - d86[0].1) + (tbp[2].1 - d86[2].1));
+        assert!((tbp[1].1 - d86[1].1 - mid).abs() < 1e-9);
+        let back = tbp_curve_to_d86(&tbp);
+        for (a, b) in back.iter().zip(&d86) {
+            assert!((a.1 - b.1).abs() < 0.5, "{a:?} {b:?}");
+        }
         let (a, b, tab) = d86_tbp_coefficients(30.0);
         assert!(tab && (a - 0.7617).abs() < 1e-12 && (b - 1.0425).abs() < 1e-12);
     }

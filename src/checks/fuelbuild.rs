@@ -37,6 +37,11 @@ pub fn simulated_distillation(fuel: &Fuel, fractions: &[f64]) -> Result<Vec<f64>
     distillation_temperatures(&fuel.components, &fuel.mole_fractions(), STANDARD_PRESSURE, RecoveryBasis::Volume, fractions, DEFAULT_MAX_STEP).map_err(|e| e.to_string())
 }
 
+/// True when `e` is a larger error than `worst` (NaN counts as larger, so it is never hidden).
+fn worse(e: f64, worst: f64) -> bool {
+    e.is_nan() || e.abs() > worst.abs()
+}
+
 fn failed(check: String, source: &str, tolerance: &str, why: String) -> CheckResult {
     CheckResult { group: GROUP.into(), check, source: source.into(), tolerance: tolerance.into(), achieved: why, passed: false }
 }
@@ -105,7 +110,7 @@ pub fn group_contribution_vs_library(lib: &Library) -> Vec<CheckResult> {
                 GroupMethod::ConstantinouGani => constantinou_gani(&g).map_or(f64::NAN, |r| r.0),
             };
             let e = tb - c.normal_boiling_point();
-            if !(e.abs() <= worst.0.abs()) {
+            if worse(e, worst.0) {
                 worst = (e, c.id.clone());
             }
         }
@@ -132,7 +137,7 @@ pub fn group_contribution_vs_library(lib: &Library) -> Vec<CheckResult> {
         let lhv = spec.constant("lower-heating-value").unwrap_or(f64::NAN);
         let e = lhv / c.constants.lower_heating_value.value - 1.0;
         count += 1;
-        if !(e.abs() <= worst.0.abs()) {
+        if worse(e, worst.0) {
             worst = (e, c.id.clone());
         }
     }
@@ -206,7 +211,7 @@ pub fn petroleum_vs_library(lib: &Library) -> Vec<CheckResult> {
                 let t_eval = t.min(vertex);
                 let est = (p[0] + p[1] * t_eval + p[2] * t_eval * t_eval) / c.molar_mass();
                 let e = est / c.ideal_gas_heat_capacity(t) - 1.0;
-                if !(e.abs() <= worst.0.abs()) {
+                if worse(e, worst.0) {
                     worst = (e, format!("{} at {t} K", c.id));
                 }
             }
@@ -228,7 +233,7 @@ pub fn petroleum_vs_library(lib: &Library) -> Vec<CheckResult> {
         let h = c.hydrogen_mass_fraction();
         let lhv = pet::lhv_from_hhv(pet::channiwala_parikh_hhv(100.0 * (1.0 - h), 100.0 * h, 0.0), h);
         let e = lhv / c.constants.lower_heating_value.value - 1.0;
-        if !(e.abs() <= worst.0.abs()) {
+        if worse(e, worst.0) {
             worst = (e, c.id.clone());
         }
     }
@@ -254,7 +259,7 @@ pub fn petroleum_vs_library(lib: &Library) -> Vec<CheckResult> {
             let truth = 12.011 * f64::from(c.formula.carbon) / (1.008 * f64::from(c.formula.hydrogen));
             let e = ch / truth - 1.0;
             count += 1;
-            if !(e.abs() <= worst.0.abs()) {
+            if worse(e, worst.0) {
                 worst = (e, c.id.clone());
             }
         }
@@ -270,7 +275,7 @@ pub fn petroleum_vs_library(lib: &Library) -> Vec<CheckResult> {
     let mut worst: (f64, String) = (0.0, String::new());
     for c in comps.iter().filter(|c| c.class == HydrocarbonClass::NAlkane && c.formula.carbon >= 10 && !c.constants.melting_point.source.starts_with("estimated")) {
         let e = pet::won_n_paraffin_melting_point(c.molar_mass()) - c.constants.melting_point.value;
-        if !(e.abs() <= worst.0.abs()) {
+        if worse(e, worst.0) {
             worst = (e, c.id.clone());
         }
     }

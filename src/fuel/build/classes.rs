@@ -310,7 +310,7 @@ impl ClassTable {
             for c in &classes {
                 s.push(',');
                 if let Some(v) = self.cells.get(&(*c, n)) {
-                    s.push_str(&format!("{}", super::toml_f64(*v)));
+                    s.push_str(&super::toml_f64(*v));
                 }
             }
             s.push('\n');

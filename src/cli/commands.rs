@@ -487,7 +487,7 @@ fn residue(lib: &Library, args: &ResidueArgs) -> Result<(), CliError> {
             }
         };
         s.push_str(&format!(
-            "{:>6.1} {:>8} {:>8}{} {:>8} {:>8} {:>7}{} {:>8.1}{} {:>9.3}{} {:>6.1} {:>7.2}{} {:>6.1}{}\n",
+            "{:>6.1} {:>8} {:>8}{} {:>8} {:>8} {:>7}{} {:>8.1}{} {:>9.3}{} {:>6.1} {:>7.2}{} {:>6}{}\n",
             100.0 * r.evaporated_fraction,
             k(i.bubble_point_K),
             k(i.t10_K),
@@ -503,7 +503,7 @@ fn residue(lib: &Library, args: &ResidueArgs) -> Result<(), CliError> {
             i.dcn.unwrap_or(0.0),
             i.lhv_J_kg.map(|v| v / 1e6).unwrap_or(0.0),
             out_mark("lhv_J_kg"),
-            100.0 * i.aromatics_volume_fraction.unwrap_or(0.0),
+            i.aromatics_volume_fraction.map(|a| format!("{:.1}", 100.0 * a)).unwrap_or_else(|| "-".into()),
             out_mark("aromatics_volume_fraction"),
         ));
     }

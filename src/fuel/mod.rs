@@ -377,3 +377,59 @@ impl Fuel {
         }
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::fuel::build::estimate::{estimate_component, parse_groups, EstimateOptions};
+
+    fn lib() -> Library {
+        Library::embedded().unwrap()
+    }
+
+    fn embedded_text(lib: &Library, id: &str) -> String {
+        let g = parse_groups("CH3=3,CH2=10,CH=1", "t").unwrap();
+        estimate_component(lib, id, id, &g, &EstimateOptions::default(), "t").unwrap().to_toml(Some("component"))
+    }
+
+    /// A fuel file may define components in [[component]] tables and mix them with library components.
+    #[test]
+    fn embedded_components_are_read() {
+        let lib = lib();
+        let text = format!("name = \"f\"\nbasis = \"mass\"\n[composition]\nn-decane = 0.5\nmy-iso = 0.5\n\n{}", embedded_text(&lib, "my-iso"));
+        let f = Fuel::parse(&text, "f.toml", &lib).unwrap();
+        assert_eq!(f.len(), 2);
+        let c = f.components.iter().find(|c| c.id == "my-iso").unwrap();
+        assert!(c.origin.contains("[[component]] #1"), "{}", c.origin);
+        // typo in the composition: suggestion among the embedded ids
+        let bad = text.replace("my-iso = 0.5", "my-isa = 0.5");
+        let e = Fuel::parse(&bad, "f.toml", &lib).unwrap_err().to_string();
+        assert!(e.contains("did you mean 'my-iso'"), "{e}");
+    }
+
+    #[test]
+    fn embedded_components_are_checked() {
+        let lib = lib();
+        let c = embedded_text(&lib, "my-iso");
+        let twice = format!("basis = \"mass\"\n[composition]\nmy-iso = 1.0\n\n{c}\n{c}");
+        assert!(Fuel::parse(&twice, "f.toml", &lib).unwrap_err().to_string().contains("already used"));
+        let clash = format!("basis = \"mass\"\n[composition]\nn-decane = 1.0\n\n{}", embedded_text(&lib, "n-decane"));
+        assert!(Fuel::parse(&clash, "f.toml", &lib).unwrap_err().to_string().contains("already a library component"));
+        let blend = format!("basis = \"mass\"\n[blend]\ndemo-wide = 1.0\n\n{c}");
+        assert!(Fuel::parse(&blend, "f.toml", &lib).unwrap_err().to_string().contains("only allowed with [composition]"));
+        let unknown_source = format!("basis = \"mass\"\n[composition]\nmy-iso = 1.0\n\n{}", c.replace("estimated:joback\"", "jobak\""));
+        assert!(Fuel::parse(&unknown_source, "f.toml", &lib).unwrap_err().to_string().contains("unknown source 'jobak'"));
+    }
+
+    /// A component file given where a fuel is expected is a pure fuel.
+    #[test]
+    fn component_file_is_a_pure_fuel() {
+        let lib = lib();
+        let g = parse_groups("CH3=3,CH2=10,CH=1", "t").unwrap();
+        let text = estimate_component(&lib, "my-iso", "my iso", &g, &EstimateOptions::default(), "t").unwrap().to_toml(None);
+        let f = Fuel::parse(&text, "my-iso.toml", &lib).unwrap();
+        assert_eq!(f.len(), 1);
+        assert!((f.mass_fractions[0] - 1.0).abs() < 1e-15);
+        assert_eq!(f.origin, "my-iso.toml");
+    }
+}

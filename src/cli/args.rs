@@ -123,16 +123,16 @@ pub struct BuildArgs {
     /// Number of pseudo-components (distillation; default 12).
     #[arg(long)]
     pub pseudo: Option<String>,
-    /// Critical constants and molar mass of the cuts (distillation).
+    /// Critical constants and molar mass of the cuts (distillation; default riazi-daubert-1980).
     #[arg(long, value_enum)]
     pub critical: Option<CriticalArg>,
-    /// Acentric factor of the cuts (distillation).
+    /// Acentric factor of the cuts (distillation; default lee-kesler).
     #[arg(long, value_enum)]
     pub acentric: Option<AcentricArg>,
-    /// How the cut boiling points are fixed (distillation).
+    /// How the cut boiling points are fixed (distillation; default simulated-distillation).
     #[arg(long, value_enum)]
     pub fit: Option<FitArg>,
-    /// Group-contribution method for estimated components (classes, groups).
+    /// Group-contribution method for estimated components (classes, groups; default joback).
     #[arg(long, value_enum)]
     pub method: Option<MethodArg>,
     /// Measured normal boiling point to use instead of the estimate (groups), e.g. 447.3K.

@@ -10,6 +10,7 @@ pub mod fuelbuild;
 pub mod model;
 pub mod properties;
 pub mod residue;
+pub mod tables;
 
 /// Outcome of one validation check.
 #[derive(Debug, Clone, Serialize)]
@@ -103,6 +104,7 @@ pub fn all() -> Vec<CheckResult> {
         v.extend(model::analytic_checks(&lib));
         v.extend(droplet::experiment_checks());
         v.extend(fuelbuild::all(&lib));
+        v.extend(tables::all(&lib));
     }
     v
 }

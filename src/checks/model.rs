@@ -93,7 +93,7 @@ pub fn ideal_gas() -> AmbientGas {
     );
     let species = parse_gases(&text, "<inert>").expect("inert gas parses");
     let g = species.into_values().next().expect("one species");
-    AmbientGas { species: vec![g], mole_fractions: vec![1.0], mass_fractions: vec![1.0], molar_mass: w, label: "inert".into() }
+    AmbientGas::assemble(vec![g], vec![1.0], vec![1.0], w, "inert")
 }
 
 /// Fuller–Schettler–Giddings D [m²/s], written out independently (Poling et al. 2001 eq. 11-4.4).

@@ -38,10 +38,27 @@ pub enum Command {
         /// Output folder.
         #[arg(long, default_value = "dropcut-out/demo")]
         out: PathBuf,
+        /// Do not draw charts.
+        #[arg(long)]
+        no_plots: bool,
     },
+    /// Run several fuels at one condition (or one fuel at several conditions) and compare them.
+    Compare(CompareArgs),
+    /// Redraw the charts and index.html of a result folder from its saved data, without recomputing.
+    Plot {
+        /// A run folder (history.csv, summary.json) or a demo/compare folder with one sub-folder per run.
+        dir: PathBuf,
+    },
+    /// Run a sweep of fuels × conditions from a TOML spec on all cores, or print its Slurm batch script.
+    Sweep(SweepArgs),
+    /// Merge finished sweep shards into one summary.csv, identical to a single-machine run.
+    Merge(MergeArgs),
     /// Residual liquid of a fuel weathered in an open vessel at a fixed temperature (Rayleigh path): indicators
     /// at each evaporated fraction.
     Residue(ResidueArgs),
+    /// Property tables for spray CFD: mixture, components, weathered residues, a single-component surrogate
+    /// and polynomial fits (CSV or JSON).
+    Table(TableArgs),
     /// Rerun every validation check and write the report (Markdown).
     Validate {
         /// Report file.
@@ -287,4 +304,134 @@ pub struct SimulateArgs {
     /// Limits file for the residue table (`aviation` = built-in aviation-turbine-fuel windows).
     #[arg(long)]
     pub limits: Option<String>,
+}
+
+/// `sweep` arguments.
+#[derive(Debug, Clone, Args)]
+pub struct SweepArgs {
+    /// Sweep spec (TOML): fuels and condition values, lists or ranges (see docs/sweeps.md).
+    pub spec: PathBuf,
+    /// Output folder: summary.csv (one row per case, in case-id order) and, with --histories, cases/<case_id>/.
+    #[arg(long, default_value = "dropcut-out/sweep")]
+    pub out: PathBuf,
+    /// Worker threads (0 = every core).
+    #[arg(long, default_value_t = 0, value_name = "N")]
+    pub threads: usize,
+    /// Also write each case's history.csv and summary.json into OUT/cases/<case_id>/.
+    #[arg(long)]
+    pub histories: bool,
+    /// Continue the sweep already in OUT, skipping the cases it holds (starts afresh when OUT holds none).
+    #[arg(long)]
+    pub resume: bool,
+    /// Run only part K of N, K from 0: the cases with case_id % N == K. Inside a Slurm job array the default
+    /// comes from SLURM_ARRAY_TASK_ID, SLURM_ARRAY_TASK_MIN and SLURM_ARRAY_TASK_COUNT.
+    #[arg(long, value_name = "K/N", conflicts_with = "slurm_script")]
+    pub shard: Option<String>,
+    /// Print a Slurm job-array batch script for this sweep (one task per shard, then a merge job) and exit.
+    #[arg(long)]
+    pub slurm_script: bool,
+    /// With --slurm-script: number of shards (array tasks).
+    #[arg(long, default_value_t = 4, value_name = "N", requires = "slurm_script")]
+    pub shards: u64,
+    /// With --slurm-script: CPUs per array task (the threads of each shard).
+    #[arg(long, default_value_t = 4, value_name = "N", requires = "slurm_script")]
+    pub cpus_per_task: u32,
+    /// With --slurm-script: Slurm job name.
+    #[arg(long, default_value = "dropcut-sweep", requires = "slurm_script")]
+    pub job_name: String,
+    /// With --slurm-script: an extra sbatch option for every job, e.g. --sbatch=--partition=short (repeatable).
+    #[arg(long = "sbatch", value_name = "OPTION", allow_hyphen_values = true, requires = "slurm_script")]
+    pub sbatch: Vec<String>,
+}
+
+/// `merge` arguments.
+#[derive(Debug, Clone, Args)]
+pub struct MergeArgs {
+    /// Output folders of the shards (each holds a finished summary.csv), in any order.
+    #[arg(required = true, value_name = "DIR")]
+    pub dirs: Vec<PathBuf>,
+    /// Folder for the merged summary.csv (and the shards' cases/ histories, if any).
+    #[arg(long)]
+    pub out: PathBuf,
+}
+
+/// Table file format.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum TableFormatArg {
+    /// CSV with `#` metadata lines.
+    Csv,
+    /// JSON.
+    Json,
+}
+
+/// `table` arguments.
+#[derive(Debug, Clone, Args)]
+pub struct TableArgs {
+    /// Fuel file, library fuel id, or component id.
+    pub fuel: String,
+    /// First liquid temperature (default: the ideal-solubility freezing point, else 230 K).
+    #[arg(long)]
+    pub from: Option<String>,
+    /// Last liquid temperature (default: the bubble point at --pressure or 0.95 of the lowest major Tc).
+    #[arg(long)]
+    pub to: Option<String>,
+    /// Temperature step.
+    #[arg(long, default_value = "5K")]
+    pub step: String,
+    /// Table pressure (bubble point, vapour diffusivities).
+    #[arg(long, default_value = "1atm")]
+    pub pressure: String,
+    /// Ambient gas of the vapour diffusivities and the surrogate runs: air, n2, or o2=0.21,n2=0.79 style.
+    #[arg(long, default_value = "air")]
+    pub gas: String,
+    /// First temperature of the vapour columns of the component tables.
+    #[arg(long, default_value = "250K")]
+    pub vapor_from: String,
+    /// Last temperature of the vapour columns of the component tables.
+    #[arg(long, default_value = "1500K")]
+    pub vapor_to: String,
+    /// Evaporated mass fractions of weathered residues to tabulate, e.g. 0,0.3,0.6.
+    #[arg(long, default_value = "")]
+    pub residue: String,
+    /// Temperature of the open-vessel weathering that makes the residues.
+    #[arg(long, default_value = "350K")]
+    pub residue_temperature: String,
+    /// Surrogate fit condition as key=value pairs (ambient-temperature, pressure, diameter, velocity,
+    /// droplet-temperature); keys not given keep their defaults.
+    #[arg(long, default_value = "ambient-temperature=800K,pressure=1atm,diameter=50um,velocity=0,droplet-temperature=300K")]
+    pub reference: String,
+    /// Skip the single-component surrogate (no droplet runs).
+    #[arg(long)]
+    pub no_surrogate: bool,
+    /// File format.
+    #[arg(long, value_enum, default_value = "csv")]
+    pub format: TableFormatArg,
+    /// Output folder.
+    #[arg(long, default_value = "dropcut-out/table")]
+    pub out: PathBuf,
+    /// Leave the date out of the metadata (byte-identical reruns); SOURCE_DATE_EPOCH, if set, fixes the date instead.
+    #[arg(long)]
+    pub no_date: bool,
+}
+
+/// `compare` arguments.
+#[derive(Debug, Clone, Args)]
+pub struct CompareArgs {
+    /// Fuels (fuel files, library fuel ids or component ids); one fuel is enough with --vary.
+    #[arg(required = true, num_args = 1..)]
+    pub fuels: Vec<String>,
+    /// Conditions shared by every run.
+    #[command(flatten)]
+    pub condition: ConditionArgs,
+    /// Run at several values of one condition option, e.g. ambient-temperature=500K,800K
+    /// (ambient-temperature, pressure, diameter, droplet-temperature, velocity, correlation, max-time,
+    /// liquid-mixing, liquid-heat, nodes; gas=air;n2 with ';' between gases).
+    #[arg(long, value_name = "OPTION=V1,V2,...")]
+    pub vary: Option<String>,
+    /// Output folder.
+    #[arg(long, default_value = "dropcut-out/compare")]
+    pub out: PathBuf,
+    /// Do not draw charts.
+    #[arg(long)]
+    pub no_plots: bool,
 }

@@ -6,6 +6,7 @@ use std::path::Path;
 use serde::Serialize;
 
 use super::args::{Cli, Command, ConditionArgs, CorrelationArg, FuelAction, HeatArg, MixingArg, ResidueArgs, SimulateArgs};
+use super::plot;
 use super::CliError;
 use crate::data::Library;
 use crate::fuel::Fuel;
@@ -26,9 +27,14 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
         Command::Fuel { action: FuelAction::Show { fuel, temperature, pressure, json } } => fuel_show(&lib, &fuel, &temperature, &pressure, json),
         Command::Fuel { action: FuelAction::Build(args) } => super::fuelbuild::build(&lib, &args),
         Command::Simulate(args) => simulate(&lib, &args),
-        Command::Demo { out } => demo(&lib, &out),
+        Command::Demo { out, no_plots } => demo(&lib, &out, no_plots),
+        Command::Compare(args) => plot::compare(&lib, &args),
+        Command::Plot { dir } => plot::plot(&lib, &dir),
+        Command::Sweep(args) => super::sweep::sweep(&lib, &args, cli.components.as_deref()),
+        Command::Merge(args) => super::sweep::merge(&args),
         Command::Validate { out } => validate(&out),
         Command::Residue(args) => residue(&lib, &args),
+        Command::Table(args) => super::table::table(&lib, &args),
     }
 }
 
@@ -41,7 +47,7 @@ pub(super) fn stdout_write(text: &str) -> Result<(), CliError> {
     }
 }
 
-fn progress(msg: &str) {
+pub(super) fn progress(msg: &str) {
     if std::io::stderr().is_terminal() {
         let _ = writeln!(std::io::stderr(), "{msg}");
     }
@@ -286,13 +292,14 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
     for n in &run.outcome.regime_notes {
         notice(n);
     }
-    let _ = args.no_plots;
+    plot::finish_run(lib, &args.out, !args.no_plots)?;
     if args.json {
         let summary = output::history::Summary::of(&inp, &run.outcome);
         stdout_write(&output::to_json_string(&summary).map_err(CliError::runtime)?)?;
     } else {
         stdout_write(&format_outcome_line(&inp.fuel.name, "", &run.outcome))?;
-        stdout_write(&format!("wrote {}/history.csv and summary.json\n", args.out.display()))?;
+        let what = if args.no_plots { "history.csv, summary.json and index.html" } else { "history.csv, summary.json, charts and index.html" };
+        stdout_write(&format!("wrote {what} in {}\n", args.out.display()))?;
     }
     Ok(())
 }
@@ -332,12 +339,18 @@ pub const DEMO_CONDITIONS: [(&str, &str, &str, &str, &str, &str, &str, &str); 2]
 /// Demo fuels.
 pub const DEMO_FUELS: [&str; 3] = ["demo-narrow", "demo-wide", "demo-blend"];
 
-fn demo(lib: &Library, out: &Path) -> Result<(), CliError> {
+fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
     output::ensure_dir(out)?;
     let mut table = table_header();
-    let mut report = String::from("# dropcut demo\n\nInvented demo fuels at two invented conditions.\n\n");
+    let mut report = String::from("# dropcut demo\n\nInvented demo fuels at two invented conditions. Open `index.html` for the charts and comparison tables.\n\n");
+    let mut study = output::compare::Study {
+        title: "dropcut demo".into(),
+        description: "Invented demo fuels at two invented conditions; each condition compares the fuels with each other.".into(),
+        groups: vec![],
+    };
     for (name, desc, t, p, d, t0, v, tmax) in DEMO_CONDITIONS {
         report.push_str(&format!("- **{name}**: {desc}\n"));
+        let mut group = output::compare::StudyGroup { name: name.into(), title: format!("{name} condition"), description: desc.into(), runs: vec![] };
         for fuel_id in DEMO_FUELS {
             progress(&format!("demo: {fuel_id} at the {name} condition ..."));
             let fuel = Fuel::resolve(fuel_id, lib)?;
@@ -363,19 +376,23 @@ fn demo(lib: &Library, out: &Path) -> Result<(), CliError> {
             let inp = droplet_inputs(lib, fuel, &cond)?;
             let mut rec = model::droplet::Recorder::default();
             let run = model::simulate(&inp, &mut rec)?;
-            let dir = out.join(format!("{fuel_id}_{name}"));
+            let dir_name = format!("{fuel_id}_{name}");
+            let dir = out.join(&dir_name);
             output::history::write_run(&dir, &inp, &run)?;
             write_droplet_residue(&dir, &inp, &run, Some(&crate::post::Limits::aviation_turbine_fuel()))?;
             table.push_str(&format_outcome_line(fuel_id, name, &run.outcome));
+            group.runs.push(output::compare::StudyRun { label: fuel_id.into(), dir: dir_name });
         }
+        study.groups.push(group);
     }
-    output::write_atomic(&out.join("comparison.txt"), table.as_bytes())?;
+    study.write(out)?;
+    plot::finish_study(lib, out, &study, !no_plots)?;
     report.push_str("\n```\n");
     report.push_str(&table);
     report.push_str("```\n");
     output::write_atomic(&out.join("README.md"), report.as_bytes())?;
     stdout_write(&table)?;
-    stdout_write(&format!("wrote {}\n", out.display()))
+    stdout_write(&format!("wrote {} (open index.html)\n", out.display()))
 }
 
 fn validate(out: &Path) -> Result<(), CliError> {
@@ -402,7 +419,7 @@ fn load_limits(spec: Option<&str>) -> Result<Option<crate::post::Limits>, CliErr
 
 /// Residual-liquid indicators along a droplet history (mean liquid, and the surface layer of a resolved
 /// droplet) written to residue.csv.
-fn write_droplet_residue(dir: &Path, inp: &DropletInputs, run: &model::RunResult, limits: Option<&crate::post::Limits>) -> Result<(), CliError> {
+pub(super) fn write_droplet_residue(dir: &Path, inp: &DropletInputs, run: &model::RunResult, limits: Option<&crate::post::Limits>) -> Result<(), CliError> {
     use crate::post::droplet::{residues_along_history, Layer};
     let fractions = crate::post::weathering::default_fractions();
     let opts = crate::post::IndicatorOptions::default();

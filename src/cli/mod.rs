@@ -4,6 +4,9 @@
 mod args;
 mod commands;
 mod fuelbuild;
+mod sweep;
+mod table;
+mod plot;
 
 use std::ffi::OsString;
 use std::io::Write;
@@ -55,7 +58,11 @@ impl From<crate::props::PropertyError> for CliError {
 
 impl From<crate::output::OutputError> for CliError {
     fn from(e: crate::output::OutputError) -> Self {
-        CliError::runtime(e.to_string())
+        match e {
+            // saved files given by the user (plot, compare inputs) that cannot be read: bad input
+            crate::output::OutputError::Read { .. } => CliError::input(e.to_string()),
+            _ => CliError::runtime(e.to_string()),
+        }
     }
 }
 
@@ -64,6 +71,16 @@ impl From<crate::model::ModelError> for CliError {
         match e {
             crate::model::ModelError::Input { .. } => CliError::input(e.to_string()),
             _ => CliError::runtime(e.to_string()),
+        }
+    }
+}
+
+impl From<crate::sweep::SweepError> for CliError {
+    fn from(e: crate::sweep::SweepError) -> Self {
+        if e.is_input() {
+            CliError::input(e.to_string())
+        } else {
+            CliError::runtime(e.to_string())
         }
     }
 }

@@ -275,7 +275,13 @@ impl Form {
             }
             Form::Dippr101(c) => {
                 let t = t.max(1.0);
-                let d = if c[3] != 0.0 { c[3] * t.powf(c[4]) } else { 0.0 };
+                let d = if c[3] == 0.0 {
+                    0.0
+                } else if c[4] == c[4].trunc() && c[4].abs() <= 16.0 {
+                    c[3] * t.powi(c[4] as i32) // Perry's exponents are small integers: much cheaper than powf
+                } else {
+                    c[3] * t.powf(c[4])
+                };
                 (c[0] + c[1] / t + c[2] * t.ln() + d).exp()
             }
             Form::Dippr102(c) => {

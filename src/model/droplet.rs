@@ -401,6 +401,54 @@ impl WellMixed {
     }
 }
 
+impl WellMixed {
+    /// The well-mixed system of a run and its initial state (no flash, no checks): for benchmarks and for
+    /// library users who drive their own integrator.
+    pub fn new(inp: &DropletInputs) -> (Self, Vec<f64>) {
+        let n = inp.fuel.len();
+        let comps = inp.fuel.components.clone();
+        let ambient_vapor = if inp.ambient_vapor.is_empty() { vec![0.0; n] } else { inp.ambient_vapor.clone() };
+        let film = Film::new(FilmSetup {
+            components: comps.clone(),
+            gas: inp.gas.clone(),
+            pressure: inp.pressure,
+            ambient_temperature: inp.ambient_temperature,
+            ambient_vapor,
+            reference_weight: inp.reference_weight,
+            correlation: inp.correlation,
+            non_equilibrium: inp.liquid.non_equilibrium,
+        });
+        let t0 = inp.initial_temperature;
+        let rho0 = liquid::density(&comps, &inp.fuel.mass_fractions, t0);
+        let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
+        let velocity0 = match inp.motion {
+            Motion::Fixed { velocity } | Motion::Injected { velocity } => velocity,
+        };
+        let sys = WellMixed {
+            film,
+            n,
+            regime: Regime::Evaporating,
+            fixed_temperature: inp.fixed_temperature,
+            injected: matches!(inp.motion, Motion::Injected { .. }),
+            w: vec![0.0; n],
+            x: vec![0.0; n],
+            latent: vec![0.0; n],
+            w_probe: vec![0.0; n],
+            x_probe: vec![0.0; n],
+            last: FilmResult::default(),
+            last_surface_temperature: t0,
+            initial_mass: m0,
+        };
+        let mut y0 = vec![0.0; 2 * n + 2];
+        for i in 0..n {
+            y0[i] = m0 * inp.fuel.mass_fractions[i];
+        }
+        y0[n] = t0;
+        y0[n + 1] = velocity0;
+        (sys, y0)
+    }
+}
+
 impl OdeSystem for WellMixed {
     fn dim(&self) -> usize {
         2 * self.n + 2
@@ -516,46 +564,12 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
     }
     let n = inp.fuel.len();
     let comps = inp.fuel.components.clone();
-    let ambient_vapor = if inp.ambient_vapor.is_empty() { vec![0.0; n] } else { inp.ambient_vapor.clone() };
-    let film = Film::new(FilmSetup {
-        components: comps.clone(),
-        gas: inp.gas.clone(),
-        pressure: inp.pressure,
-        ambient_temperature: inp.ambient_temperature,
-        ambient_vapor,
-        reference_weight: inp.reference_weight,
-        correlation: inp.correlation,
-        non_equilibrium: inp.liquid.non_equilibrium,
-    });
+    let (mut sys, mut y0) = WellMixed::new(inp);
+    let m0 = sys.initial_mass;
     let mut notes = validity_notes(inp);
     let w0 = &inp.fuel.mass_fractions;
     let t0 = inp.initial_temperature;
-    let rho0 = liquid::density(&comps, w0, t0);
-    let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
-    let velocity0 = match inp.motion {
-        Motion::Fixed { velocity } | Motion::Injected { velocity } => velocity,
-    };
-    let mut sys = WellMixed {
-        film,
-        n,
-        regime: Regime::Evaporating,
-        fixed_temperature: inp.fixed_temperature,
-        injected: matches!(inp.motion, Motion::Injected { .. }),
-        w: vec![0.0; n],
-        x: vec![0.0; n],
-        latent: vec![0.0; n],
-        w_probe: vec![0.0; n],
-        x_probe: vec![0.0; n],
-        last: FilmResult::default(),
-        last_surface_temperature: t0,
-        initial_mass: m0,
-    };
-    let mut y0 = vec![0.0; 2 * n + 2];
-    for i in 0..n {
-        y0[i] = m0 * w0[i];
-    }
-    y0[n] = t0;
-    y0[n + 1] = velocity0;
+    let velocity0 = y0[n + 1];
     // Starting above the bubble point: flash to the boiling regime at once.
     let x0 = inp.fuel.mole_fractions();
     // No bubble point (vapour pressure below the ambient pressure at every temperature) means no boiling.
@@ -584,8 +598,12 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
     let wants_rows = observer.wants_rows();
     let mut buf = vec![0.0; 2 * n + 2];
 
-    let make_row = |sys: &mut WellMixed, t: f64, y: &[f64], dydt: &mut [f64]| -> HistoryRow {
-        sys.evaluate(y, dydt);
+    // `fresh`: evaluate the film at y; otherwise the system still holds the evaluation at y (the last
+    // right-hand-side call of an accepted Dormand–Prince step is at its end point).
+    let make_row = |sys: &mut WellMixed, t: f64, y: &[f64], dydt: &mut [f64], fresh: bool| -> HistoryRow {
+        if fresh {
+            sys.evaluate(y, dydt);
+        }
         let m: f64 = y[..n].iter().map(|v| v.max(0.0)).sum();
         let rho = liquid::density(&sys.film.setup.components, &sys.w, sys.last_surface_temperature);
         let d = (6.0 * m / (std::f64::consts::PI * rho)).cbrt();
@@ -615,8 +633,9 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
     };
     let remaining = |y: &[f64]| -> f64 { y[..n].iter().sum::<f64>() / m0 };
 
-    let first = make_row(&mut sys, 0.0, &y0, &mut dydt);
+    let first = make_row(&mut sys, 0.0, &y0, &mut dydt, true);
     let mut max_t = first.surface_temperature;
+    let mut max_re = first.film.reynolds;
     let mut heatup_end = if first.film.heat_to_liquid.abs() <= 0.1 * first.film.heat_from_gas.abs() { Some(0.0) } else { None };
     let mut boiling_onset = if sys.regime == Regime::Boiling { Some(0.0) } else { None };
     if wants_rows {
@@ -651,8 +670,9 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
             status = Status::Evaporated;
             finished = true;
         }
-        let row = make_row(&mut sys, t_now, &y_end, &mut dydt);
+        let mut row = make_row(&mut sys, t_now, &y_end, &mut dydt, finished);
         max_t = max_t.max(row.surface_temperature);
+        max_re = max_re.max(row.film.reynolds);
         if heatup_end.is_none() && row.film.heat_to_liquid.abs() <= 0.1 * row.film.heat_from_gas.abs() {
             heatup_end = Some(t_now);
         }
@@ -685,15 +705,12 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
                 y_end[n], onset
             ));
             t_now = onset;
+            row = make_row(&mut sys, t_now, &y_end, &mut dydt, true);
         }
-        let stop = if wants_rows {
-            let r = make_row(&mut sys, t_now, &y_end, &mut dydt);
-            let s = observer.on_step(&r);
-            history.push(r);
-            s
-        } else {
-            observer.on_step(&row)
-        };
+        let stop = observer.on_step(&row);
+        if wants_rows {
+            history.push(row);
+        }
         if finished {
             stepper.y.copy_from_slice(&y_end);
             stepper.t = t_now;
@@ -723,6 +740,9 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         notes.push(format!(
             "surface temperature {max_t:.1} K came within 5 % of a component's critical temperature ({t_min:.1} K): subcritical correlations are near their limit"
         ));
+    }
+    if max_re > 400.0 {
+        notes.push(format!("Reynolds number reached {max_re:.0}, above the 400 to which the Clift correlation was fitted (and above 1000 the standard drag law is held at C_D = 0.424): transfer rates are extrapolated"));
     }
     if status == Status::TimeLimit {
         notes.push(format!(

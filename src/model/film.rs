@@ -51,7 +51,11 @@ pub fn log1p_over(b: f64) -> f64 {
 /// Abramzon–Sirignano film-thickening correction F(B) = (1+B)^0.7 ln(1+B)/B.
 #[inline]
 pub fn film_correction(b: f64) -> f64 {
-    (1.0 + b).powf(0.7) * log1p_over(b)
+    if b.abs() < 1e-6 {
+        return (1.0 + b).powf(0.7) * log1p_over(b);
+    }
+    let l = b.ln_1p();
+    (0.7 * l).exp() * l / b
 }
 
 /// Abramzon–Sirignano circulation enhancement χ(Pe_L) = 1.86 + 0.86 tanh(2.225 log10(Pe_L/30)).
@@ -376,19 +380,32 @@ impl Film {
         }
         // Heat transfer: B_T = (1+B_M)^φ − 1, φ = (cp_F/cp_g)(Sh*/Nu*)/Le, Nu* via F(B_T): fixed point.
         let lewis = k_g / (rho_g * cp_g * d_eff);
-        let mut b_t = b_m;
-        let mut nu_star;
-        for _ in 0..100 {
-            nu_star = 2.0 + (nu0 - 2.0) / film_correction(b_t);
-            let phi = (cp_f / cp_g) * (sh_star / nu_star) / lewis;
-            let next = (1.0 + b_m).powf(phi) - 1.0;
-            let done = (next - b_t).abs() <= 1e-12 * (1.0 + b_t.abs());
-            b_t = next;
-            if done {
-                break;
+        let ln_1p_bm = b_m.ln_1p();
+        let phi_base = (cp_f / cp_g) * sh_star / lewis;
+        // h(B) = (1+B_M)^φ(B) − 1; at Re = 0 (Nu0 = 2) φ does not depend on B and one evaluation is exact.
+        let h = |b: f64| -> f64 { (phi_base / (2.0 + (nu0 - 2.0) / film_correction(b)) * ln_1p_bm).exp_m1() };
+        let mut b_t = h(b_m);
+        if nu0 != 2.0 {
+            // secant iteration on r(B) = h(B) − B from (B_M, h(B_M)); fixed-point fallback keeps it safe
+            let (mut b0, mut r0) = (b_m, b_t - b_m);
+            let mut b1 = b_t;
+            for _ in 0..50 {
+                let r1 = h(b1) - b1;
+                if r1.abs() <= 1e-13 * (1.0 + b1.abs()) {
+                    break;
+                }
+                let denom = r1 - r0;
+                let mut next = if denom != 0.0 { b1 - r1 * (b1 - b0) / denom } else { b1 + r1 };
+                if !next.is_finite() || next <= -0.999 {
+                    next = b1 + r1;
+                }
+                b0 = b1;
+                r0 = r1;
+                b1 = next;
             }
+            b_t = b1;
         }
-        nu_star = 2.0 + (nu0 - 2.0) / film_correction(b_t);
+        let nu_star = 2.0 + (nu0 - 2.0) / film_correction(b_t);
         let q_gas = 2.0 * std::f64::consts::PI * k_g * r * nu_star * dt * log1p_over(b_t);
         FilmResult {
             evaporation_rate: mdot,

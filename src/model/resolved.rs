@@ -425,6 +425,7 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
     let wants_rows = observer.wants_rows();
     let first = model.row(&state, m0, inp.initial_diameter);
     let mut max_t = first.surface_temperature;
+    let mut max_re = first.film.reynolds;
     let mut heatup_end = if first.film.heat_to_liquid.abs() <= 0.1 * first.film.heat_from_gas.abs() { Some(0.0) } else { None };
     observer.on_step(&first);
     if wants_rows {
@@ -496,6 +497,7 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         state = new;
         let row = model.row(&state, m0, inp.initial_diameter);
         max_t = max_t.max(row.surface_temperature);
+        max_re = max_re.max(row.film.reynolds);
         if heatup_end.is_none() && row.film.heat_to_liquid.abs() <= 0.1 * row.film.heat_from_gas.abs() {
             heatup_end = Some(state.time);
         }
@@ -528,6 +530,9 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
     let t_min = model.comps.iter().zip(&x0).filter(|(_, x)| **x > 1e-3).map(|(c, _)| c.critical_temperature()).fold(f64::INFINITY, f64::min);
     if max_t > 0.95 * t_min {
         notes.push(format!("surface temperature {max_t:.1} K came within 5 % of a component's critical temperature ({t_min:.1} K)"));
+    }
+    if max_re > 400.0 {
+        notes.push(format!("Reynolds number reached {max_re:.0}, above the 400 to which the Clift correlation was fitted (and above 1000 the standard drag law is held at C_D = 0.424): transfer rates are extrapolated"));
     }
     if status == Status::TimeLimit && !boiling_stop {
         notes.push(format!("time limit {:.4e} s reached with {:.2} % of the mass evaporated", inp.max_time, 100.0 * (1.0 - state.mass / m0)));

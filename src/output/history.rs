@@ -182,6 +182,8 @@ pub struct Summary {
     pub mass_balance_error: f64,
     /// Estimated (not published) properties used, per component.
     pub estimated_properties: Vec<(String, Vec<String>)>,
+    /// Hydrocarbon class of each component (id, class), so charts can group components when redrawn.
+    pub component_classes: Vec<(String, String)>,
     /// Inputs echoed back.
     pub input: InputEcho,
 }
@@ -211,6 +213,7 @@ impl Summary {
                 .filter(|c| !c.estimated_properties().is_empty())
                 .map(|c| (c.id.clone(), c.estimated_properties().iter().map(|s| s.to_string()).collect()))
                 .collect(),
+            component_classes: inp.fuel.components.iter().map(|c| (c.id.clone(), c.class.as_str().to_string())).collect(),
             input: InputEcho::of(inp),
         }
     }

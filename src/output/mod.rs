@@ -1,8 +1,14 @@
-//! Outputs: CSV and JSON writers. Consumers of results, never producers of physics. Files are written to a
-//! temporary name and renamed, so an interrupted run never leaves a truncated file behind.
+//! Outputs: CSV and JSON writers, readers of saved results, charts and HTML pages. Consumers of results,
+//! never producers of physics. Files are written to a temporary name and renamed, so an interrupted run never
+//! leaves a truncated file behind.
 
+pub mod charts;
+pub mod compare;
 pub mod history;
+pub mod html;
+pub mod read;
 pub mod residue;
+pub mod tables;
 
 use std::fs;
 use std::io::Write;
@@ -29,6 +35,22 @@ pub enum OutputError {
         /// Column.
         column: String,
     },
+    /// A saved result file that cannot be read (missing, malformed, or lacking a column).
+    #[error("{path}: {message}")]
+    Read {
+        /// File or folder.
+        path: String,
+        /// What is wrong.
+        message: String,
+    },
+    /// A chart that could not be drawn.
+    #[error("{path}: cannot draw the chart: {message}")]
+    Chart {
+        /// Chart file.
+        path: String,
+        /// Drawing-library message.
+        message: String,
+    },
 }
 
 fn io_err(path: &Path, e: std::io::Error) -> OutputError {
@@ -42,6 +64,16 @@ pub fn ensure_dir(dir: &Path) -> Result<(), OutputError> {
 
 /// Write `contents` to `path` atomically (temporary file in the same folder, then rename).
 pub fn write_atomic(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
+    write_via_temp(path, contents, true)
+}
+
+/// Like [`write_atomic`] but without forcing the data to disk: for files that can be redrawn from saved data
+/// (charts, pages), where dozens of syncs per run would dominate the run time.
+pub fn write_replace(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
+    write_via_temp(path, contents, false)
+}
+
+fn write_via_temp(path: &Path, contents: &[u8], sync: bool) -> Result<(), OutputError> {
     if let Some(parent) = path.parent() {
         if !parent.as_os_str().is_empty() {
             ensure_dir(parent)?;
@@ -55,7 +87,9 @@ pub fn write_atomic(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
     {
         let mut f = fs::File::create(&tmp).map_err(|e| io_err(&tmp, e))?;
         f.write_all(contents).map_err(|e| io_err(&tmp, e))?;
-        f.sync_all().map_err(|e| io_err(&tmp, e))?;
+        if sync {
+            f.sync_all().map_err(|e| io_err(&tmp, e))?;
+        }
     }
     fs::rename(&tmp, path).map_err(|e| io_err(path, e))
 }

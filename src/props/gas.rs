@@ -23,6 +23,8 @@ pub struct AmbientGas {
     pub molar_mass: f64,
     /// Short description, e.g. "air".
     pub label: String,
+    /// Per species pair (i, j): ((W_j/W_i)^¼, 1/sqrt(8(1 + W_i/W_j))) of Wilke's φ_ij.
+    pub wilke_factors: Vec<(f64, f64)>,
 }
 
 /// Wilke's interaction factor φ_ij (Wilke 1950).
@@ -98,7 +100,20 @@ impl AmbientGas {
         x.iter_mut().for_each(|v| *v /= s);
         let w_mean: f64 = species.iter().zip(&x).map(|(g, x)| x * g.molar_mass()).sum();
         let y = species.iter().zip(&x).map(|(g, x)| x * g.molar_mass() / w_mean).collect();
-        Ok(AmbientGas { species, mole_fractions: x, mass_fractions: y, molar_mass: w_mean, label: label.to_string() })
+        Ok(Self::assemble(species, x, y, w_mean, label))
+    }
+
+    /// Assemble a gas from its parts (fractions already normalised), precomputing Wilke's molar-mass factors.
+    pub fn assemble(species: Vec<GasSpecies>, mole_fractions: Vec<f64>, mass_fractions: Vec<f64>, molar_mass: f64, label: &str) -> Self {
+        let n = species.len();
+        let mut wilke_factors = Vec::with_capacity(n * n);
+        for i in 0..n {
+            for j in 0..n {
+                let (wi, wj) = (species[i].molar_mass(), species[j].molar_mass());
+                wilke_factors.push(((wj / wi).powf(0.25), 1.0 / (8.0 * (1.0 + wi / wj)).sqrt()));
+            }
+        }
+        AmbientGas { species, mole_fractions, mass_fractions, molar_mass, label: label.to_string(), wilke_factors }
     }
 
     /// Dry air.
@@ -151,17 +166,34 @@ impl AmbientGas {
         let n = self.species.len().min(8);
         let mut mu = [0.0; 8];
         let mut k = [0.0; 8];
-        let mut w = [0.0; 8];
+        let mut sqrt_mu = [0.0; 8];
         let mut cp = 0.0;
         for i in 0..n {
             let g = &self.species[i];
             mu[i] = g.viscosity.eval(t);
             k[i] = g.conductivity.eval(t);
-            w[i] = g.molar_mass();
+            sqrt_mu[i] = mu[i].sqrt();
             cp += self.mass_fractions[i] * g.ideal_gas_heat_capacity.eval(t);
         }
-        let x = &self.mole_fractions[..n];
-        (cp, wilke_mix(&mu[..n], &mu[..n], &w[..n], x), wilke_mix(&k[..n], &mu[..n], &w[..n], x))
+        // Wilke / Wassiljewa–Mason–Saxena with the molar-mass factors of φ_ij taken out of the loop
+        let x = &self.mole_fractions;
+        let (mut mu_mix, mut k_mix) = (0.0, 0.0);
+        for i in 0..n {
+            if x[i] <= 0.0 {
+                continue;
+            }
+            let mut den = 0.0;
+            for j in 0..n {
+                if x[j] > 0.0 {
+                    let (w4, inv) = self.wilke_factors[i * n + j];
+                    let a = 1.0 + sqrt_mu[i] / sqrt_mu[j] * w4;
+                    den += x[j] * a * a * inv;
+                }
+            }
+            mu_mix += x[i] * mu[i] / den;
+            k_mix += x[i] * k[i] / den;
+        }
+        (cp, mu_mix, k_mix)
     }
 
     /// Fuller coefficient c (D = c T^1.75 / p) of a vapour in this gas, combined over species by Blanc's law.

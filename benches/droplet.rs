@@ -1,0 +1,59 @@
+//! Hot paths: mixture properties, one right-hand-side evaluation, droplet lifetimes (well-mixed 1/10/42
+//! components, diffusion 20 components × 40 cells), residue indicators.
+use std::hint::black_box;
+
+use criterion::{criterion_group, criterion_main, Criterion};
+use dropcut::data::Library;
+use dropcut::fuel::{Basis, Fuel};
+use dropcut::model::droplet::{LiquidHeat, LiquidMixing, NoHistory, WellMixed};
+use dropcut::model::integrator::OdeSystem;
+use dropcut::model::{simulate, DropletInputs, Motion};
+use dropcut::props::gas::AmbientGas;
+use dropcut::props::liquid;
+
+/// A fuel of the first `n` library components in equal mass fractions (n = all gives every component).
+fn fuel(lib: &Library, n: usize) -> Fuel {
+    let comps: Vec<_> = lib.components().iter().filter(|c| c.class != dropcut::data::HydrocarbonClass::Oxygenate).take(n).cloned().collect();
+    let k = comps.len();
+    Fuel::from_fractions("bench", comps, &vec![1.0 / k as f64; k], Basis::Mass).unwrap()
+}
+
+fn inputs(lib: &Library, n: usize) -> DropletInputs {
+    let mut inp = DropletInputs::new(fuel(lib, n), AmbientGas::air(lib).unwrap(), 800.0, 101_325.0, 50e-6, 300.0);
+    inp.motion = Motion::Fixed { velocity: 5.0 };
+    inp
+}
+
+fn benches(c: &mut Criterion) {
+    let lib = Library::embedded().unwrap();
+    let all = fuel(&lib, 50);
+    let x = all.mole_fractions();
+    c.bench_function(&format!("mixture liquid properties, {} components", all.len()), |b| {
+        b.iter(|| black_box(liquid::state(&all.components, &all.mass_fractions, black_box(350.0))))
+    });
+    c.bench_function(&format!("bubble point, {} components", all.len()), |b| b.iter(|| black_box(liquid::bubble_point(&all.components, &x, 101_325.0))));
+    let inp10 = inputs(&lib, 10);
+    let (mut sys, y0) = WellMixed::new(&inp10);
+    let mut dy = vec![0.0; y0.len()];
+    c.bench_function("right-hand side, 10 components (well-mixed)", |b| b.iter(|| sys.rhs(0.0, black_box(&y0), &mut dy)));
+    for n in [1, 10, 42] {
+        let inp = inputs(&lib, n);
+        c.bench_function(&format!("lifetime, {n} components, well-mixed"), |b| b.iter(|| black_box(simulate(&inp, &mut NoHistory).unwrap())));
+    }
+    let mut inp = inputs(&lib, 20);
+    inp.liquid.mixing = LiquidMixing::Diffusion;
+    inp.liquid.heat = LiquidHeat::Conduction;
+    inp.liquid.nodes = 40;
+    let mut group = c.benchmark_group("resolved");
+    group.sample_size(20);
+    group.bench_function("lifetime, 20 components x 40 cells, diffusion + conduction", |b| b.iter(|| black_box(simulate(&inp, &mut NoHistory).unwrap())));
+    group.finish();
+    let wide = Fuel::resolve("demo-wide", &lib).unwrap();
+    let opts = dropcut::post::IndicatorOptions::default();
+    c.bench_function("residue indicators, demo-wide (25 components)", |b| {
+        b.iter(|| black_box(dropcut::post::indicators(&wide.components, &wide.mass_fractions, &opts).unwrap()))
+    });
+}
+
+criterion_group!(droplet, benches);
+criterion_main!(droplet);

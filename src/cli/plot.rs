@@ -1,0 +1,356 @@
+//! CLI glue for charts and pages: `plot` (redraw from saved data), `compare` (several fuels or conditions,
+//! overlaid), and the chart/page step that `simulate` and `demo` run after writing their data.
+
+use std::collections::BTreeMap;
+use std::path::Path;
+
+use clap::ValueEnum;
+
+use super::args::{CompareArgs, ConditionArgs, CorrelationArg, HeatArg, MixingArg};
+use super::commands::{droplet_inputs, notice, progress, stdout_write, write_droplet_residue};
+use super::CliError;
+use crate::data::Library;
+use crate::fuel::Fuel;
+use crate::model::{self, Observer};
+use crate::output::charts::{self, LabelledRun};
+use crate::output::compare::{comparison_csv, safe_name, ComparisonTable, Study, StudyGroup, StudyRun, STUDY_FILE};
+use crate::output::read::SavedRun;
+use crate::output::{self, html};
+
+/// Condition options `--vary` accepts, with how their values are separated.
+const VARIABLE_OPTIONS: [&str; 11] = [
+    "ambient-temperature",
+    "pressure",
+    "diameter",
+    "droplet-temperature",
+    "velocity",
+    "gas",
+    "correlation",
+    "max-time",
+    "liquid-mixing",
+    "liquid-heat",
+    "nodes",
+];
+
+fn fill_classes(lib: &Library, run: &mut SavedRun) {
+    for (id, class) in run.components.iter_mut() {
+        if class.is_empty() {
+            if let Some(c) = lib.component(id) {
+                *class = c.class.as_str().to_string();
+            }
+        }
+    }
+}
+
+/// Load a run folder, draw its charts (unless `plots` is false) and write its index.html.
+pub(super) fn finish_run(lib: &Library, dir: &Path, plots: bool) -> Result<(SavedRun, usize), CliError> {
+    let mut run = SavedRun::load(dir)?;
+    fill_classes(lib, &mut run);
+    let charts = if plots { charts::write_run_charts(&run)? } else { vec![] };
+    html::write_run_page(&run, &charts)?;
+    Ok((run, charts.len()))
+}
+
+/// Finish a study folder: run pages and charts, one comparison table and overlay charts per group,
+/// comparison.csv, comparison.txt and index.html. Returns the text of the comparison tables and the chart count.
+pub(super) fn finish_study(lib: &Library, dir: &Path, study: &Study, plots: bool) -> Result<(String, usize), CliError> {
+    let mut loaded: BTreeMap<String, SavedRun> = BTreeMap::new();
+    let mut count = 0;
+    for g in &study.groups {
+        for r in &g.runs {
+            if !loaded.contains_key(&r.dir) {
+                let run_dir = dir.join(&r.dir);
+                if !SavedRun::is_run_folder(&run_dir) {
+                    return Err(CliError::input(format!("{}: listed in {STUDY_FILE} but holds no history.csv", run_dir.display())));
+                }
+                let (run, n) = finish_run(lib, &run_dir, plots)?;
+                count += n;
+                loaded.insert(r.dir.clone(), run);
+            }
+        }
+    }
+    let mut text = String::new();
+    let mut tables = vec![];
+    let mut pages = vec![];
+    for g in &study.groups {
+        let pairs: Vec<(&StudyRun, &SavedRun)> = g.runs.iter().map(|r| (r, &loaded[&r.dir])).collect();
+        let table = ComparisonTable::from_runs(g, &pairs)?;
+        let labelled: Vec<LabelledRun> = pairs.iter().map(|(r, s)| LabelledRun { label: &r.label, run: s }).collect();
+        let charts = if plots { charts::write_comparison_charts(dir, &format!("chart_{}", safe_name(&g.name)), &g.description, &labelled)? } else { vec![] };
+        count += charts.len();
+        if !text.is_empty() {
+            text.push('\n');
+        }
+        text.push_str(&table.render_text());
+        tables.push(table.clone());
+        pages.push((table, charts));
+    }
+    comparison_csv(&tables)?.write(&dir.join("comparison.csv"))?;
+    output::write_atomic(&dir.join("comparison.txt"), text.as_bytes())?;
+    html::write_study_page(dir, study, &pages)?;
+    Ok((text, count))
+}
+
+/// `dropcut plot DIR`: redraw charts and pages from saved data, without recomputing.
+pub(super) fn plot(lib: &Library, dir: &Path) -> Result<(), CliError> {
+    if !dir.is_dir() {
+        return Err(CliError::input(format!("{}: no such folder", dir.display())));
+    }
+    if SavedRun::is_run_folder(dir) {
+        let (_, n) = finish_run(lib, dir, true)?;
+        return stdout_write(&format!("drew {n} charts and index.html in {}\n", dir.display()));
+    }
+    let study = if dir.join(STUDY_FILE).is_file() {
+        Study::read(dir)?
+    } else {
+        let mut subdirs: Vec<_> = std::fs::read_dir(dir)
+            .map_err(|e| CliError::input(format!("{}: {e}", dir.display())))?
+            .filter_map(|e| e.ok())
+            .map(|e| e.path())
+            .filter(|p| SavedRun::is_run_folder(p))
+            .collect();
+        subdirs.sort();
+        if subdirs.is_empty() {
+            return Err(CliError::input(format!("{}: holds no history.csv, {STUDY_FILE} or run sub-folders", dir.display())));
+        }
+        let runs = subdirs.iter().map(|p| StudyRun { label: p.file_name().unwrap_or_default().to_string_lossy().into_owned(), dir: p.file_name().unwrap_or_default().to_string_lossy().into_owned() }).collect();
+        Study {
+            title: format!("dropcut runs in {}", dir.file_name().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default()),
+            description: "Every run folder found here, compared.".into(),
+            groups: vec![StudyGroup { name: "runs".into(), title: "All runs".into(), description: String::new(), runs }],
+        }
+    };
+    let (_, n) = finish_study(lib, dir, &study, true)?;
+    stdout_write(&format!("drew {n} charts and the index.html pages in {}\n", dir.display()))
+}
+
+/// Parsed `--vary OPTION=V1,V2,...`.
+#[derive(Debug, Clone, PartialEq)]
+struct Vary {
+    option: String,
+    values: Vec<String>,
+}
+
+fn parse_vary(text: &str) -> Result<Vary, CliError> {
+    let usage = "use OPTION=V1,V2,... (e.g. ambient-temperature=500K,800K; for gas separate values with ';')";
+    let (option, values) = text.split_once('=').ok_or_else(|| CliError::input(format!("--vary '{text}': {usage}")))?;
+    let option = option.trim().trim_start_matches("--").to_string();
+    if !VARIABLE_OPTIONS.contains(&option.as_str()) {
+        return Err(CliError::input(format!("--vary: cannot vary '{option}'; one of {}", VARIABLE_OPTIONS.join(", "))));
+    }
+    let sep: &[char] = if option == "gas" { &[';'] } else { &[',', ';'] };
+    let values: Vec<String> = values.split(sep).map(|v| v.trim().to_string()).filter(|v| !v.is_empty()).collect();
+    if values.is_empty() {
+        return Err(CliError::input(format!("--vary '{text}': no values; {usage}")));
+    }
+    for (i, v) in values.iter().enumerate() {
+        if values[..i].contains(v) {
+            return Err(CliError::input(format!("--vary: value '{v}' is given twice")));
+        }
+    }
+    Ok(Vary { option, values })
+}
+
+fn apply_vary(c: &ConditionArgs, option: &str, value: &str) -> Result<ConditionArgs, CliError> {
+    let mut c = c.clone();
+    match option {
+        "ambient-temperature" => c.ambient_temperature = value.into(),
+        "pressure" => c.pressure = value.into(),
+        "diameter" => c.diameter = value.into(),
+        "droplet-temperature" => c.droplet_temperature = value.into(),
+        "velocity" => c.velocity = value.into(),
+        "gas" => c.gas = value.into(),
+        "max-time" => c.max_time = value.into(),
+        "nodes" => c.nodes = value.into(),
+        "liquid-mixing" => {
+            c.liquid_mixing = MixingArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary liquid-mixing: '{value}' is not one of well-mixed, diffusion")))?;
+        }
+        "liquid-heat" => {
+            c.liquid_heat = HeatArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary liquid-heat: '{value}' is not one of {}", HeatArg::value_variants().iter().filter_map(|v| v.to_possible_value()).map(|p| p.get_name().to_string()).collect::<Vec<_>>().join(", "))))?;
+        }
+        "correlation" => {
+            c.correlation = CorrelationArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary correlation: '{value}' is not one of clift, ranz-marshall")))?;
+        }
+        other => return Err(CliError::input(format!("--vary: cannot vary '{other}'"))),
+    }
+    Ok(c)
+}
+
+fn describe_condition(c: &ConditionArgs, varied: Option<&str>) -> String {
+    let is = |name: &str| varied == Some(name);
+    let mut parts = vec![match (is("gas"), is("ambient-temperature")) {
+        (true, true) => "gas".to_string(),
+        (true, false) => format!("gas at {}", c.ambient_temperature),
+        (false, true) => c.gas.clone(),
+        (false, false) => format!("{} at {}", c.gas, c.ambient_temperature),
+    }];
+    if !is("pressure") {
+        parts.push(c.pressure.clone());
+    }
+    if !is("diameter") {
+        parts.push(format!("d0 = {}", c.diameter));
+    }
+    if !is("droplet-temperature") {
+        parts.push(format!("T0 = {}", c.droplet_temperature));
+    }
+    if !is("velocity") {
+        parts.push(format!("{} {} m/s", if c.injected { "injected at" } else { "slip" }, c.velocity.trim_end_matches("m/s")));
+    }
+    let mut s = parts.join(", ");
+    if let Some(v) = varied {
+        s.push_str(&format!("; varied: {v}"));
+    }
+    s
+}
+
+/// Stops at the first step: used to check inputs before any run starts.
+struct FirstStep;
+impl Observer for FirstStep {
+    fn on_step(&mut self, _row: &model::HistoryRow) -> bool {
+        true
+    }
+    fn wants_rows(&self) -> bool {
+        false
+    }
+}
+
+fn unique(label: String, taken: &mut Vec<String>) -> String {
+    let mut l = label.clone();
+    let mut k = 2;
+    while taken.contains(&l) {
+        l = format!("{label}-{k}");
+        k += 1;
+    }
+    taken.push(l.clone());
+    l
+}
+
+/// `dropcut compare FUEL... [--vary OPTION=V1,V2,...]`.
+pub(super) fn compare(lib: &Library, args: &CompareArgs) -> Result<(), CliError> {
+    let vary = args.vary.as_deref().map(parse_vary).transpose()?;
+    let runs_per_fuel = vary.as_ref().map(|v| v.values.len()).unwrap_or(1);
+    if args.fuels.len() * runs_per_fuel < 2 {
+        return Err(CliError::input("compare needs two or more fuels, or one fuel with --vary OPTION=V1,V2,..."));
+    }
+    let mut fuels = vec![];
+    for spec in &args.fuels {
+        let f = Fuel::resolve(spec, lib)?;
+        for n in &f.notices {
+            notice(n);
+        }
+        fuels.push(f);
+    }
+    // (group index, label, dir, inputs)
+    let mut groups: Vec<StudyGroup> = vec![];
+    let mut plan = vec![];
+    let mut dirs_taken = vec![];
+    let conditions: Vec<(Option<String>, ConditionArgs)> = match &vary {
+        None => vec![(None, args.condition.clone())],
+        Some(v) => v.values.iter().map(|val| Ok((Some(val.clone()), apply_vary(&args.condition, &v.option, val)?))).collect::<Result<_, CliError>>()?,
+    };
+    let one_group = vary.is_none() || fuels.len() == 1;
+    if one_group {
+        let (title, desc) = match &vary {
+            None => (format!("{} fuels at the same condition", fuels.len()), describe_condition(&args.condition, None)),
+            Some(v) => (format!("{} at {} values of {}", fuels[0].name, v.values.len(), v.option), format!("{}: {}", fuels[0].name, describe_condition(&args.condition, Some(&v.option)))),
+        };
+        groups.push(StudyGroup { name: "all".into(), title, description: desc, runs: vec![] });
+    }
+    for (ci, (value, cond)) in conditions.iter().enumerate() {
+        if !one_group {
+            let v = vary.as_ref().unwrap();
+            let val = value.clone().unwrap_or_default();
+            groups.push(StudyGroup {
+                name: safe_name(&val),
+                title: format!("{} = {}", v.option, val),
+                description: format!("{}; {} = {}", describe_condition(cond, Some(&v.option)).split("; varied").next().unwrap_or(""), v.option, val),
+                runs: vec![],
+            });
+        }
+        let gi = if one_group { 0 } else { ci };
+        let mut labels_taken: Vec<String> = groups[gi].runs.iter().map(|r| r.label.clone()).collect();
+        for fuel in &fuels {
+            let label = match (&vary, fuels.len()) {
+                (Some(v), 1) => format!("{}={}", v.option, value.as_deref().unwrap_or("")),
+                _ => fuel.name.clone(),
+            };
+            let label = unique(label, &mut labels_taken);
+            let dir_base = match &vary {
+                Some(v) => safe_name(&format!("{}_{}_{}", fuel.name, v.option, value.as_deref().unwrap_or(""))),
+                None => safe_name(&fuel.name),
+            };
+            let dir = unique(dir_base, &mut dirs_taken);
+            let inp = droplet_inputs(lib, fuel.clone(), cond)?;
+            if let Err(e @ model::ModelError::Input { .. }) = model::simulate(&inp, &mut FirstStep) {
+                return Err(CliError::input(format!("{label}: {e}")));
+            }
+            groups[gi].runs.push(StudyRun { label: label.clone(), dir: dir.clone() });
+            plan.push((label, dir, inp));
+        }
+    }
+    output::ensure_dir(&args.out)?;
+    for (label, dir, inp) in &plan {
+        progress(&format!("compare: {label} ..."));
+        let mut rec = model::droplet::Recorder::default();
+        let run = model::simulate(inp, &mut rec).map_err(|e| {
+            let c: CliError = e.into();
+            CliError { code: c.code, message: format!("{label}: {}", c.message) }
+        })?;
+        output::history::write_run(&args.out.join(dir), inp, &run)?;
+        write_droplet_residue(&args.out.join(dir), inp, &run, None)?;
+    }
+    let names = fuels.iter().map(|f| f.name.as_str()).collect::<Vec<_>>().join(", ");
+    let title = match &vary {
+        None => format!("dropcut comparison: {names}"),
+        Some(v) => format!("dropcut comparison: {names} over {}", v.option),
+    };
+    let description = if vary.is_some() && fuels.len() > 1 {
+        format!("Each fuel at {} values of {}; one comparison per value, the first fuel being the reference.", runs_per_fuel, vary.as_ref().map(|v| v.option.as_str()).unwrap_or(""))
+    } else {
+        "The same options for every run except what varies; the first run is the reference for differences.".into()
+    };
+    let study = Study { title, description, groups };
+    study.write(&args.out)?;
+    let (text, _) = finish_study(lib, &args.out, &study, !args.no_plots)?;
+    stdout_write(&text)?;
+    stdout_write(&format!("wrote {} (comparison.csv, comparison.txt, index.html and one folder per run)\n", args.out.display()))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn vary_parsing() {
+        let v = parse_vary("ambient-temperature=500K, 800K").unwrap();
+        assert_eq!(v.option, "ambient-temperature");
+        assert_eq!(v.values, vec!["500K", "800K"]);
+        let g = parse_vary("gas=air;o2=0.15,n2=0.85").unwrap();
+        assert_eq!(g.values, vec!["air", "o2=0.15,n2=0.85"]);
+        assert!(parse_vary("colour=red").is_err());
+        assert!(parse_vary("pressure").is_err());
+        assert!(parse_vary("pressure=").is_err());
+        assert!(parse_vary("pressure=1bar,1bar").is_err());
+    }
+
+    #[test]
+    fn vary_applies_to_the_condition() {
+        use clap::Parser;
+        let cli = super::super::Cli::try_parse_from(["dropcut", "simulate", "test-decane"]).unwrap();
+        let super::super::args::Command::Simulate(args) = cli.command else { panic!("simulate") };
+        let c = apply_vary(&args.condition, "liquid-mixing", "diffusion").unwrap();
+        assert!(matches!(c.liquid_mixing, MixingArg::Diffusion));
+        assert_eq!(apply_vary(&args.condition, "ambient-temperature", "500K").unwrap().ambient_temperature, "500K");
+        assert_eq!(apply_vary(&args.condition, "gas", "n2").unwrap().gas, "n2");
+        assert!(apply_vary(&args.condition, "liquid-heat", "warm").is_err());
+        assert!(apply_vary(&args.condition, "correlation", "ranz-marshall").is_ok());
+    }
+
+    #[test]
+    fn unique_labels() {
+        let mut taken = vec![];
+        assert_eq!(unique("a".into(), &mut taken), "a");
+        assert_eq!(unique("a".into(), &mut taken), "a-2");
+        assert_eq!(unique("a".into(), &mut taken), "a-3");
+    }
+}

@@ -25,6 +25,7 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
     match cli.command {
         Command::Components { json } => components(&lib, json),
         Command::Fuel { action: FuelAction::Show { fuel, temperature, pressure, json } } => fuel_show(&lib, &fuel, &temperature, &pressure, json),
+        Command::Fuel { action: FuelAction::Build(args) } => super::fuelbuild::build(&lib, &args),
         Command::Simulate(args) => simulate(&lib, &args),
         Command::Demo { out, no_plots } => demo(&lib, &out, no_plots),
         Command::Compare(args) => plot::compare(&lib, &args),
@@ -56,7 +57,7 @@ pub(super) fn notice(msg: &str) {
     let _ = writeln!(std::io::stderr(), "note: {msg}");
 }
 
-fn parse_q(option: &str, text: &str, q: Quantity) -> Result<f64, CliError> {
+pub(super) fn parse_q(option: &str, text: &str, q: Quantity) -> Result<f64, CliError> {
     units::parse(text, q).map_err(|e| CliError::input(format!("--{option}: {e}")))
 }
 
@@ -223,7 +224,10 @@ pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<Dr
             let (id, y) = item
                 .split_once('=')
                 .ok_or_else(|| CliError::input(format!("--ambient-vapor: cannot read '{item}': use component=mass-fraction pairs")))?;
-            let comp = lib.require_component(id.trim(), "--ambient-vapor")?;
+            let comp = match fuel.components.iter().find(|c| c.answers_to(id.trim())) {
+                Some(c) => c.clone(),
+                None => lib.require_component(id.trim(), "--ambient-vapor")?.clone(),
+            };
             let i = fuel
                 .components
                 .iter()
@@ -516,7 +520,7 @@ fn residue(lib: &Library, args: &ResidueArgs) -> Result<(), CliError> {
             }
         };
         s.push_str(&format!(
-            "{:>6.1} {:>8} {:>8}{} {:>8} {:>8} {:>7}{} {:>8.1}{} {:>9.3}{} {:>6.1} {:>7.2}{} {:>6.1}{}\n",
+            "{:>6.1} {:>8} {:>8}{} {:>8} {:>8} {:>7}{} {:>8.1}{} {:>9.3}{} {:>6.1} {:>7.2}{} {:>6}{}\n",
             100.0 * r.evaporated_fraction,
             k(i.bubble_point_K),
             k(i.t10_K),
@@ -532,7 +536,7 @@ fn residue(lib: &Library, args: &ResidueArgs) -> Result<(), CliError> {
             i.dcn.unwrap_or(0.0),
             i.lhv_J_kg.map(|v| v / 1e6).unwrap_or(0.0),
             out_mark("lhv_J_kg"),
-            100.0 * i.aromatics_volume_fraction.unwrap_or(0.0),
+            i.aromatics_volume_fraction.map(|a| format!("{:.1}", 100.0 * a)).unwrap_or_else(|| "-".into()),
             out_mark("aromatics_volume_fraction"),
         ));
     }

@@ -61,7 +61,7 @@ pub const RANKED_OUTPUTS: [(&str, &str); 3] = [
 ];
 
 /// Largest number of samples of one run.
-pub const MAX_SAMPLES: usize = 200_000;
+pub const MAX_SAMPLES: usize = 100_000;
 
 /// Settings of a sampling run.
 #[derive(Debug, Clone)]

@@ -156,20 +156,14 @@ pub fn rank_r2(x: &[Vec<f64>], y: &[Option<f64>]) -> Option<f64> {
     }
     let mut l = vec![vec![0.0; m]; m];
     for j in 0..m {
-        let mut d = a[j][j];
-        for k in 0..j {
-            d -= l[j][k] * l[j][k];
-        }
+        let d = a[j][j] - l[j][..j].iter().map(|v| v * v).sum::<f64>();
         if d <= 1e-12 * a[j][j].max(1e-300) {
             return None; // a column with no variance, or collinear columns
         }
         let d = d.sqrt();
         l[j][j] = d;
         for i in j + 1..m {
-            let mut v = a[i][j];
-            for k in 0..j {
-                v -= l[i][k] * l[j][k];
-            }
+            let v = a[i][j] - l[i][..j].iter().zip(&l[j][..j]).map(|(p, q)| p * q).sum::<f64>();
             l[i][j] = v / d;
         }
     }
@@ -234,6 +228,18 @@ mod tests {
     }
 
     #[test]
+    fn noise_thresholds() {
+        // one factor: 1.96/sqrt(99) = 0.197
+        assert_eq!(above_noise(1, 100, Some(0.25), None), Some(true));
+        assert_eq!(above_noise(1, 100, Some(-0.15), None), Some(false));
+        // ten factors: 2 sqrt(20)/89 = 0.1005
+        assert_eq!(above_noise(10, 100, None, Some(0.12)), Some(true));
+        assert_eq!(above_noise(10, 100, None, Some(0.08)), Some(false));
+        assert_eq!(above_noise(10, 11, None, Some(0.9)), None);
+        assert_eq!(above_noise(1, 100, None, None), None);
+    }
+
+    #[test]
     fn rank_regression_explains_sums_and_matches_spearman() {
         // y = a + b: each alone explains about half, both together everything
         let n = 400;
@@ -242,7 +248,7 @@ mod tests {
         let y: Vec<Option<f64>> = (0..n).map(|i| Some(a[i] + b[i])).collect();
         let both = rank_r2(&[a.clone(), b.clone()], &y).unwrap();
         assert!(both > 0.97, "{both}");
-        let one = rank_r2(&[a.clone()], &y).unwrap();
+        let one = rank_r2(std::slice::from_ref(&a), &y).unwrap();
         assert!((0.35..0.65).contains(&one), "{one}");
         // one column: adjusted square of Spearman
         let rho = spearman(&a.iter().map(|v| Some(*v)).collect::<Vec<_>>(), &y).unwrap();

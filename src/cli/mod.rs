@@ -90,14 +90,36 @@ impl From<crate::units::UnitError> for CliError {
     }
 }
 
+/// Fold clap's multi-line usage error (message, tip, usage, pointer to --help) into one `error:` line.
+fn one_line_usage_error(rendered: &str) -> String {
+    let mut parts: Vec<String> = vec![];
+    for line in rendered.lines().map(str::trim).filter(|l| !l.is_empty()) {
+        let line = line.strip_prefix("error:").map(str::trim).unwrap_or(line);
+        if line.starts_with("For more information") {
+            continue;
+        }
+        let line = line.strip_prefix("Usage:").map(|u| format!("usage: {}", u.trim())).unwrap_or_else(|| line.to_string());
+        parts.push(line);
+    }
+    let mut s = format!("error: {}", parts.join("; "));
+    s.push_str(" (see --help)");
+    s
+}
+
 /// Run the CLI with the given arguments (first = program name); returns the exit code.
 pub fn run(args: impl IntoIterator<Item = OsString>) -> i32 {
     let cli = match Cli::try_parse_from(args) {
         Ok(c) => c,
         Err(e) => {
-            let code = if e.use_stderr() { 2 } else { 0 };
-            let _ = e.print();
-            return code;
+            use clap::error::ErrorKind;
+            // --help, --version and a bare `dropcut` print their text as clap lays it out; a usage error is
+            // one `error:` line like every other error, so scripts and logs can rely on the last line.
+            if !e.use_stderr() || e.kind() == ErrorKind::DisplayHelpOnMissingArgumentOrSubcommand {
+                let _ = e.print();
+                return if e.use_stderr() { 2 } else { 0 };
+            }
+            let _ = writeln!(std::io::stderr(), "{}", one_line_usage_error(&e.render().to_string()));
+            return 2;
         }
     };
     let result = std::panic::catch_unwind(|| commands::dispatch(cli));

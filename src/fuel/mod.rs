@@ -7,7 +7,7 @@ use std::sync::Arc;
 use serde::Deserialize;
 use thiserror::Error;
 
-use crate::data::{suggest, toml_error_line, Component, DataError, Library};
+use crate::data::{suggest, toml_error_at, Component, DataError, Library};
 
 /// Errors raised while building a fuel.
 #[derive(Debug, Error, Clone, PartialEq)]
@@ -156,7 +156,7 @@ impl Fuel {
     }
 
     fn parse_depth(text: &str, file: &str, lib: &Library, depth: usize) -> Result<Self, FuelError> {
-        let raw: RawFuel = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_line(&e) })?;
+        let raw: RawFuel = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_at(&e, text) })?;
         let name = raw.name.clone().unwrap_or_else(|| Path::new(file).file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default());
         let (entries, is_blend) = match (&raw.composition, &raw.blend) {
             (Some(c), None) => (c, false),

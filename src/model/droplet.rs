@@ -526,13 +526,71 @@ pub(crate) fn validity_notes(inp: &DropletInputs) -> Vec<String> {
             inp.initial_temperature, t_m_max
         ));
     }
+    if let Some((t_f, id)) = ideal_solubility_freezing_point(comps, &x) {
+        if inp.ambient_temperature < t_f {
+            notes.push(format!(
+                "ambient temperature {:.1} K is below the fuel's ideal-solubility freezing point {t_f:.1} K (first crystals: {id}): the droplet cools toward the gas and may freeze; solidification is not modelled, liquid properties are extrapolated below the freezing point",
+                inp.ambient_temperature
+            ));
+        }
+    }
     if inp.initial_temperature > inp.ambient_temperature {
         notes.push("droplet starts hotter than the gas: it cools while evaporating (documented behaviour)".into());
     }
     if !inp.ambient_vapor.is_empty() && inp.ambient_vapor.iter().any(|y| *y > 0.0) {
         notes.push("ambient contains fuel vapour: components may condense on the droplet (negative species rates)".into());
+        // Far-field partial pressure of each vapour against its saturation pressure at the gas temperature.
+        let y_total: f64 = inp.ambient_vapor.iter().sum();
+        let moles: f64 = inp.ambient_vapor.iter().zip(comps).map(|(y, c)| y / c.molar_mass()).sum::<f64>() + (1.0 - y_total) / inp.gas.molar_mass;
+        for (c, y) in comps.iter().zip(&inp.ambient_vapor) {
+            if *y <= 0.0 || inp.ambient_temperature >= c.critical_temperature() {
+                continue;
+            }
+            let p_i = inp.pressure * (y / c.molar_mass()) / moles;
+            let p_sat = c.vapor_pressure(inp.ambient_temperature);
+            if p_sat.is_finite() && p_i > p_sat {
+                notes.push(format!(
+                    "ambient {} vapour is supersaturated: partial pressure {p_i:.4e} Pa above its saturation pressure {p_sat:.4e} Pa at the ambient {:.1} K; the far field is kept as given and the vapour condenses onto the droplet (it can grow); fog formation in the gas is not modelled",
+                    c.id, inp.ambient_temperature
+                ));
+            }
+        }
     }
     notes
+}
+
+/// Ideal solid–liquid solubility (Schröder–van Laar, ΔCp neglected) freezing point of a liquid of mole
+/// fractions `x` [K] and the component that crystallises first; None when no component has an enthalpy of
+/// fusion. The same estimate as the residue indicators' freezing point.
+fn ideal_solubility_freezing_point(comps: &[std::sync::Arc<crate::data::Component>], x: &[f64]) -> Option<(f64, String)> {
+    let mut best: Option<(f64, String)> = None;
+    for (c, &xi) in comps.iter().zip(x) {
+        let Some(h) = c.constants.enthalpy_of_fusion.as_ref() else { continue };
+        if xi <= 0.0 {
+            continue;
+        }
+        let t = 1.0 / (1.0 / c.constants.melting_point.value - crate::data::GAS_CONSTANT * xi.ln() / h.value);
+        if t.is_finite() && best.as_ref().is_none_or(|(b, _)| t > *b) {
+            best = Some((t, c.id.clone()));
+        }
+    }
+    best
+}
+
+/// The note on the highest surface temperature against the lowest critical temperature `t_c` of a major
+/// component: above it the subcritical model runs on with indicative results; within 5 % it is near its limit.
+pub(crate) fn critical_note(max_surface_temperature: f64, t_c: f64) -> Option<String> {
+    if max_surface_temperature >= t_c {
+        Some(format!(
+            "surface temperature {max_surface_temperature:.1} K rose above a component's critical temperature ({t_c:.1} K): there is no liquid-vapour interface in reality (supercritical mixing); the subcritical model runs on with its correlations clamped at or extrapolated past the critical point, so results are indicative only"
+        ))
+    } else if max_surface_temperature > 0.95 * t_c {
+        Some(format!(
+            "surface temperature {max_surface_temperature:.1} K came within 5 % of a component's critical temperature ({t_c:.1} K): subcritical correlations are near their limit"
+        ))
+    } else {
+        None
+    }
 }
 
 /// Run one droplet with the well-mixed liquid model.
@@ -736,10 +794,8 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         }
     }
     let t_min = comps.iter().zip(&x0).filter(|(_, x)| **x > 1e-3).map(|(c, _)| c.critical_temperature()).fold(f64::INFINITY, f64::min);
-    if max_t > 0.95 * t_min {
-        notes.push(format!(
-            "surface temperature {max_t:.1} K came within 5 % of a component's critical temperature ({t_min:.1} K): subcritical correlations are near their limit"
-        ));
+    if let Some(note) = critical_note(max_t, t_min) {
+        notes.push(note);
     }
     if max_re > 400.0 {
         notes.push(format!("Reynolds number reached {max_re:.0}, above the 400 to which the Clift correlation was fitted (and above 1000 the standard drag law is held at C_D = 0.424): transfer rates are extrapolated"));

@@ -528,8 +528,8 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         ));
     }
     let t_min = model.comps.iter().zip(&x0).filter(|(_, x)| **x > 1e-3).map(|(c, _)| c.critical_temperature()).fold(f64::INFINITY, f64::min);
-    if max_t > 0.95 * t_min {
-        notes.push(format!("surface temperature {max_t:.1} K came within 5 % of a component's critical temperature ({t_min:.1} K)"));
+    if let Some(note) = super::droplet::critical_note(max_t, t_min) {
+        notes.push(note);
     }
     if max_re > 400.0 {
         notes.push(format!("Reynolds number reached {max_re:.0}, above the 400 to which the Clift correlation was fitted (and above 1000 the standard drag law is held at C_D = 0.424): transfer rates are extrapolated"));

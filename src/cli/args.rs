@@ -223,7 +223,7 @@ pub struct SweepArgs {
     #[arg(long, default_value = "dropcut-out/sweep")]
     pub out: PathBuf,
     /// Worker threads (0 = every core).
-    #[arg(long, default_value_t = 0, value_name = "N")]
+    #[arg(long, default_value_t = 0, value_name = "N", allow_hyphen_values = true)]
     pub threads: usize,
     /// Also write each case's history.csv and summary.json into OUT/cases/<case_id>/.
     #[arg(long)]
@@ -233,7 +233,7 @@ pub struct SweepArgs {
     pub resume: bool,
     /// Run only part K of N, K from 0: the cases with case_id % N == K. Inside a Slurm job array the default
     /// comes from SLURM_ARRAY_TASK_ID, SLURM_ARRAY_TASK_MIN and SLURM_ARRAY_TASK_COUNT.
-    #[arg(long, value_name = "K/N", conflicts_with = "slurm_script")]
+    #[arg(long, value_name = "K/N", conflicts_with = "slurm_script", allow_hyphen_values = true)]
     pub shard: Option<String>,
     /// Print a Slurm job-array batch script for this sweep (one task per shard, then a merge job) and exit.
     #[arg(long)]

@@ -90,6 +90,29 @@ impl From<crate::units::UnitError> for CliError {
     }
 }
 
+/// Longest error message printed, in characters; longer ones (a 200 kB id echoed back) keep both ends.
+const MAX_MESSAGE_CHARS: usize = 1000;
+
+/// An error message as one printable line: newlines become spaces, other control characters are escaped
+/// (`\u{1b}`), and an overlong message keeps its start and end around `…`.
+fn printable_line(message: &str) -> String {
+    let mut s = String::with_capacity(message.len().min(4 * MAX_MESSAGE_CHARS));
+    for c in message.chars() {
+        match c {
+            '\n' | '\r' | '\t' => s.push(' '),
+            c if c.is_control() => s.extend(c.escape_default()),
+            c => s.push(c),
+        }
+    }
+    let n = s.chars().count();
+    if n <= MAX_MESSAGE_CHARS {
+        return s;
+    }
+    let head: String = s.chars().take(MAX_MESSAGE_CHARS * 2 / 3).collect();
+    let tail: String = s.chars().skip(n - MAX_MESSAGE_CHARS / 3).collect();
+    format!("{head} … ({} characters left out) … {tail}", n - head.chars().count() - tail.chars().count())
+}
+
 /// Fold clap's multi-line usage error (message, tip, usage, pointer to --help) into one `error:` line.
 fn one_line_usage_error(rendered: &str) -> String {
     let mut parts: Vec<String> = vec![];
@@ -118,7 +141,7 @@ pub fn run(args: impl IntoIterator<Item = OsString>) -> i32 {
                 let _ = e.print();
                 return if e.use_stderr() { 2 } else { 0 };
             }
-            let _ = writeln!(std::io::stderr(), "{}", one_line_usage_error(&e.render().to_string()));
+            let _ = writeln!(std::io::stderr(), "{}", printable_line(&one_line_usage_error(&e.render().to_string())));
             return 2;
         }
     };
@@ -127,7 +150,7 @@ pub fn run(args: impl IntoIterator<Item = OsString>) -> i32 {
         Ok(Ok(())) => 0,
         Ok(Err(e)) => {
             let mut err = std::io::stderr().lock();
-            let _ = writeln!(err, "error: {}", e.message.replace('\n', " "));
+            let _ = writeln!(err, "error: {}", printable_line(&e.message));
             e.code
         }
         Err(_) => {

@@ -342,7 +342,8 @@ impl Component {
         }
         match c.cetane_number.kind.as_deref() {
             Some("DCN") | Some("CN") => {}
-            other => return Err(DataError::Invalid { context: format!("{ctx}: constants.cetane-number.kind"), message: format!("{other:?} must be \"DCN\" or \"CN\"") }),
+            Some(other) => return Err(DataError::Invalid { context: format!("{ctx}: constants.cetane-number.kind"), message: format!("\"{other}\" must be \"DCN\" or \"CN\"") }),
+            None => return Err(DataError::Invalid { context: format!("{ctx}: constants.cetane-number"), message: "needs kind = \"DCN\" (derived) or kind = \"CN\" (engine cetane number)".into() }),
         }
         let wf = raw.formula;
         let formula_mass = 12.011e-3 * f64::from(wf.carbon) + 1.008e-3 * f64::from(wf.hydrogen) + 15.999e-3 * f64::from(wf.oxygen);

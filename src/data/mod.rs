@@ -70,6 +70,9 @@ pub fn toml_error_line(e: &toml::de::Error) -> String {
 pub fn toml_error_at(e: &toml::de::Error, text: &str) -> String {
     let msg = e.message().split_whitespace().collect::<Vec<_>>().join(" ");
     let Some(span) = e.span() else { return msg };
+    if span.start == 0 && span.end >= text.trim_end().len() {
+        return msg; // the whole document (e.g. a missing top-level field): no line to point at
+    }
     let start = span.start.min(text.len());
     let start = (0..=start).rev().find(|&i| text.is_char_boundary(i)).unwrap_or(0);
     let before = &text[..start];
@@ -86,6 +89,9 @@ pub fn toml_error_at(e: &toml::de::Error, text: &str) -> String {
 
 /// Closest id in `candidates` to `id` (for "did you mean" hints), by edit distance.
 pub fn suggest<'a>(id: &str, candidates: impl Iterator<Item = &'a str>) -> String {
+    if id.len() > 100 {
+        return String::new(); // no id is that long, and the distance would cost O(len) per candidate
+    }
     let mut best: Option<(usize, &str)> = None;
     for c in candidates {
         let d = edit_distance(id, c);

@@ -84,6 +84,9 @@ fn fraction_value(v: &toml::Value, context: &str) -> Result<f64, FuelError> {
     if x < 0.0 {
         return Err(FuelError::Composition { context: context.into(), message: format!("fraction {x} is negative") });
     }
+    if x > 1.0 + SUM_TOLERANCE {
+        return Err(FuelError::Composition { context: context.into(), message: format!("fraction {} is above 1 (fractions lie between 0 and 1: 60 % is 0.6)", if x < 1e6 { format!("{x}") } else { format!("{x:e}") }) });
+    }
     Ok(x)
 }
 
@@ -209,6 +212,8 @@ impl Fuel {
                     FuelError::Data(DataError::Unknown { kind, id, hint, .. }) => {
                         FuelError::Data(DataError::Unknown { context: format!("{file}: blend.{key}"), kind, id, hint })
                     }
+                    // the outermost file names the entry that failed; deeper levels pass the error up as it is
+                    other if depth == 0 => FuelError::Composition { context: format!("{file}: blend.{key}"), message: other.to_string() },
                     other => other,
                 })?;
                 let scale = match raw.basis {

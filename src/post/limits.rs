@@ -191,7 +191,8 @@ impl Limits {
     /// Read a limits file from disk.
     pub fn load(path: &Path) -> Result<Self, LimitsError> {
         let file = path.display().to_string();
-        let text = std::fs::read_to_string(path).map_err(|e| LimitsError::Io { file: file.clone(), message: e.to_string() })?;
+        let bytes = std::fs::read(path).map_err(|e| LimitsError::Io { file: file.clone(), message: e.to_string() })?;
+        let text = String::from_utf8(bytes).map_err(|_| LimitsError::Parse { file: file.clone(), message: "file is not UTF-8 text".into() })?;
         Self::parse(&text, &file)
     }
 

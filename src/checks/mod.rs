@@ -6,6 +6,7 @@ use serde::Serialize;
 
 pub mod droplet;
 pub mod estimation;
+pub mod fuelbuild;
 pub mod model;
 pub mod properties;
 pub mod residue;
@@ -102,6 +103,7 @@ pub fn all() -> Vec<CheckResult> {
         v.extend(estimation::joback_viscosity_checks(&lib));
         v.extend(model::analytic_checks(&lib));
         v.extend(droplet::experiment_checks());
+        v.extend(fuelbuild::all(&lib));
         v.extend(tables::all(&lib));
     }
     v

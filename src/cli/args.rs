@@ -107,6 +107,98 @@ pub enum FuelAction {
         #[arg(long)]
         json: bool,
     },
+    /// Build a fuel file from lab data (class x carbon-number table, or distillation curve + density), or a
+    /// component file from structural groups (docs/fuel-from-lab-data.md).
+    Build(Box<BuildArgs>),
+}
+
+/// `fuel build` arguments.
+#[derive(Debug, Clone, Args)]
+#[command(group(clap::ArgGroup::new("source").required(true).args(["from_classes", "from_distillation", "from_groups"])))]
+pub struct BuildArgs {
+    /// Class x carbon-number table of mass percent (CSV or TOML).
+    #[arg(long, value_name = "FILE")]
+    pub from_classes: Option<PathBuf>,
+    /// Distillation curve, ASTM D86 or TBP (TOML or CSV); needs a density.
+    #[arg(long, value_name = "FILE")]
+    pub from_distillation: Option<PathBuf>,
+    /// One molecule by its Joback groups, e.g. "CH3=2,CH2=10"; writes a component file.
+    #[arg(long, value_name = "GROUPS")]
+    pub from_groups: Option<String>,
+    /// File to write (a fuel file; a component file with --from-groups).
+    #[arg(long)]
+    pub out: PathBuf,
+    /// Fuel name (component id with --from-groups); default: from the input.
+    #[arg(long)]
+    pub name: Option<String>,
+    /// Density of the fuel at 15 °C, with its unit (e.g. 799kg/m3).
+    #[arg(long, conflicts_with = "specific_gravity")]
+    pub density: Option<String>,
+    /// Specific gravity 60/60 °F, instead of --density.
+    #[arg(long)]
+    pub specific_gravity: Option<String>,
+    /// Number of pseudo-components (distillation; default 12).
+    #[arg(long)]
+    pub pseudo: Option<String>,
+    /// Critical constants and molar mass of the cuts (distillation; default riazi-daubert-1980).
+    #[arg(long, value_enum)]
+    pub critical: Option<CriticalArg>,
+    /// Acentric factor of the cuts (distillation; default lee-kesler).
+    #[arg(long, value_enum)]
+    pub acentric: Option<AcentricArg>,
+    /// How the cut boiling points are fixed (distillation; default simulated-distillation).
+    #[arg(long, value_enum)]
+    pub fit: Option<FitArg>,
+    /// Group-contribution method for estimated components (classes, groups; default joback).
+    #[arg(long, value_enum)]
+    pub method: Option<MethodArg>,
+    /// Measured normal boiling point to use instead of the estimate (groups), e.g. 447.3K.
+    #[arg(long)]
+    pub boiling_point: Option<String>,
+    /// Class to write (groups; inferred from the groups otherwise).
+    #[arg(long)]
+    pub class: Option<String>,
+    /// Print the build report as JSON.
+    #[arg(long)]
+    pub json: bool,
+}
+
+/// Critical-constant correlation for distillation cuts.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum CriticalArg {
+    /// Riazi & Daubert (1980).
+    #[value(name = "riazi-daubert-1980")]
+    RiaziDaubert1980,
+    /// Riazi & Daubert (1987).
+    #[value(name = "riazi-daubert-1987")]
+    RiaziDaubert1987,
+}
+
+/// Acentric-factor method for distillation cuts.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum AcentricArg {
+    /// Lee–Kesler vapour pressure solved at Tb.
+    LeeKesler,
+    /// Edmister (1958).
+    Edmister,
+}
+
+/// How cut boiling points are fixed.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum FitArg {
+    /// Shift the cuts until the simulated distillation reproduces the input curve.
+    SimulatedDistillation,
+    /// Keep the cuts on the TBP curve (D86 converted by Riazi & Daubert 1986).
+    Tbp,
+}
+
+/// Group-contribution method.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum MethodArg {
+    /// Joback & Reid (1987).
+    Joback,
+    /// Constantinou & Gani (1994) first order (acyclic alkanes; rings use Joback).
+    ConstantinouGani,
 }
 
 /// Nusselt/Sherwood correlation choice.

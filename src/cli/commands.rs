@@ -25,6 +25,7 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
     match cli.command {
         Command::Components { json } => components(&lib, json),
         Command::Fuel { action: FuelAction::Show { fuel, temperature, pressure, json } } => fuel_show(&lib, &fuel, &temperature, &pressure, json),
+        Command::Fuel { action: FuelAction::Build(args) } => super::fuelbuild::build(&lib, &args),
         Command::Simulate(args) => simulate(&lib, &args),
         Command::Demo { out, no_plots } => demo(&lib, &out, no_plots),
         Command::Compare(args) => plot::compare(&lib, &args),
@@ -56,7 +57,7 @@ pub(super) fn notice(msg: &str) {
     let _ = writeln!(std::io::stderr(), "note: {msg}");
 }
 
-fn parse_q(option: &str, text: &str, q: Quantity) -> Result<f64, CliError> {
+pub(super) fn parse_q(option: &str, text: &str, q: Quantity) -> Result<f64, CliError> {
     units::parse(text, q).map_err(|e| CliError::input(format!("--{option}: {e}")))
 }
 
@@ -365,6 +366,17 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
     }
     study.write(out)?;
     plot::finish_study(lib, out, &study, !no_plots)?;
+    // Property tables of the two base fuels at the combustor pressure (no surrogate fit: kept quick).
+    report.push_str("\nProperty tables for spray CFD at 10 bar: `tables/<fuel>/` (docs/tables.md).\n");
+    for fuel_id in ["demo-narrow", "demo-wide"] {
+        progress(&format!("demo: property tables of {fuel_id} ..."));
+        let fuel = Fuel::resolve(fuel_id, lib)?;
+        let mut opts = crate::table::TableOptions::new(AmbientGas::air(lib)?);
+        opts.pressure = 1e6;
+        opts.surrogate = None;
+        let set = crate::table::build(&fuel, &opts).map_err(|e| CliError::runtime(e.to_string()))?;
+        output::tables::write_tables(&out.join("tables").join(fuel_id), &set, &lib.sources, &output::tables::WriteOptions { format: output::tables::TableFormat::Csv, date: None })?;
+    }
     report.push_str("\n```\n");
     report.push_str(&table);
     report.push_str("```\n");
@@ -376,8 +388,13 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
 fn validate(out: &Path) -> Result<(), CliError> {
     let results = crate::checks::all();
     let passed = results.iter().filter(|r| r.passed).count();
+    let known = results.iter().filter(|r| !r.passed && (r.check.contains("KNOWN FAILURE") || r.source.contains("from memory") || r.check.contains("from memory"))).count();
     let mut doc = String::from("# Validation report\n\nWritten by `dropcut validate`; the same check definitions (src/checks/) drive `cargo test` (tests/validation_*.rs).\n\n");
-    doc.push_str(&format!("{passed} of {} checks pass.\n\n", results.len()));
+    doc.push_str(&format!(
+        "{passed} of {} checks pass. {} fail; {known} of those are known failures explained in the check text (published correlations that miss the reference beyond the tolerance, or single-droplet experiments whose reference values are recalled from memory and whose set-ups include fibre conduction and radiation that the model omits — docs/validity.md).\n\n",
+        results.len(),
+        results.len() - passed
+    ));
     doc.push_str(&crate::checks::markdown_table(&results));
     output::write_atomic(out, doc.as_bytes())?;
     stdout_write(&format!("{passed} passed, {} failed\nwrote {}\n", results.len() - passed, out.display()))?;
@@ -482,7 +499,7 @@ fn residue(lib: &Library, args: &ResidueArgs) -> Result<(), CliError> {
             }
         };
         s.push_str(&format!(
-            "{:>6.1} {:>8} {:>8}{} {:>8} {:>8} {:>7}{} {:>8.1}{} {:>9.3}{} {:>6.1} {:>7.2}{} {:>6.1}{}\n",
+            "{:>6.1} {:>8} {:>8}{} {:>8} {:>8} {:>7}{} {:>8.1}{} {:>9.3}{} {:>6.1} {:>7.2}{} {:>6}{}\n",
             100.0 * r.evaporated_fraction,
             k(i.bubble_point_K),
             k(i.t10_K),
@@ -498,7 +515,7 @@ fn residue(lib: &Library, args: &ResidueArgs) -> Result<(), CliError> {
             i.dcn.unwrap_or(0.0),
             i.lhv_J_kg.map(|v| v / 1e6).unwrap_or(0.0),
             out_mark("lhv_J_kg"),
-            100.0 * i.aromatics_volume_fraction.unwrap_or(0.0),
+            i.aromatics_volume_fraction.map(|a| format!("{:.1}", 100.0 * a)).unwrap_or_else(|| "-".into()),
             out_mark("aromatics_volume_fraction"),
         ));
     }

@@ -3,6 +3,7 @@
 
 mod args;
 mod commands;
+mod fuelbuild;
 mod sweep;
 mod table;
 mod plot;

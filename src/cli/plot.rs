@@ -96,6 +96,14 @@ pub(super) fn plot(lib: &Library, dir: &Path) -> Result<(), CliError> {
     if !dir.is_dir() {
         return Err(CliError::input(format!("{}: no such folder", dir.display())));
     }
+    if dir.join("mixture.csv").is_file() {
+        let n = draw_table_charts(dir)?;
+        return stdout_write(&format!("drew {n} property-table chart(s) in {}\n", dir.display()));
+    }
+    if dir.join("summary.csv").is_file() && !SavedRun::is_run_folder(dir) {
+        let maps = crate::output::sweep_maps::sweep_maps(dir)?;
+        return stdout_write(&format!("drew {} sweep map(s) in {}\n", maps.len(), dir.display()));
+    }
     if SavedRun::is_run_folder(dir) {
         let (_, n) = finish_run(lib, dir, true)?;
         return stdout_write(&format!("drew {n} charts and index.html in {}\n", dir.display()));
@@ -353,4 +361,21 @@ mod tests {
         assert_eq!(unique("a".into(), &mut taken), "a-2");
         assert_eq!(unique("a".into(), &mut taken), "a-3");
     }
+}
+
+/// Charts of a property-table folder: the mixture table and each residue table against temperature.
+pub(super) fn draw_table_charts(dir: &Path) -> Result<usize, CliError> {
+    let mut files: Vec<std::path::PathBuf> = std::fs::read_dir(dir)
+        .map_err(|e| CliError::input(format!("{}: {e}", dir.display())))?
+        .filter_map(|e| e.ok())
+        .map(|e| e.path())
+        .filter(|p| p.extension().is_some_and(|x| x == "csv") && p.file_name().is_some_and(|n| n.to_string_lossy().starts_with("mixture")))
+        .collect();
+    files.sort();
+    for f in &files {
+        let stem = format!("chart_{}", f.file_stem().unwrap_or_default().to_string_lossy());
+        let title = if stem.contains("residue") { "Residue liquid properties against temperature" } else { "Liquid and vapour properties against temperature" };
+        crate::output::charts::table_vs_temperature(f, dir, &stem, title)?;
+    }
+    Ok(files.len())
 }

@@ -123,7 +123,7 @@ pub fn sweep(lib: &Library, args: &SweepArgs, components: Option<&Path>) -> Resu
         format!("{} already holds all {} cases{what}; nothing to run\n", report.summary.display(), report.cases)
     } else {
         format!(
-            "wrote {}{what}: {} cases ({} run now, {} resumed), {} failed, {:.1} s\n",
+            "wrote {}{what}: {} cases ({} run now, {} resumed), {} failed, {:.1} s (lifetime maps: dropcut plot <folder>)\n",
             report.summary.display(),
             report.cases,
             report.ran,

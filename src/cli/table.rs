@@ -135,6 +135,9 @@ pub fn table(lib: &Library, args: &TableArgs) -> Result<(), CliError> {
         TableFormatArg::Json => TableFormat::Json,
     };
     let written = output::tables::write_tables(&args.out, &set, &lib.sources, &WriteOptions { format, date })?;
+    if matches!(args.format, TableFormatArg::Csv) {
+        super::plot::draw_table_charts(&args.out)?;
+    }
     let m = &set.mixture;
     let mut s = format!(
         "{}: {} rows, {}–{} K every {} K at {}; {} component tables; {} residue tables\n",

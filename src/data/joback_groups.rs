@@ -41,3 +41,31 @@ pub fn group(key: &str) -> Option<&'static Group> {
     GROUPS.iter().find(|g| g.key == key)
 }
 
+
+/// Joback & Reid (1987) increments for the melting point ΔTm [K] and the ideal-gas enthalpy of formation at
+/// 298.15 K ΔHf [kJ/mol], by group key, as reprinted in Poling, Prausnitz & O'Connell, 5th ed. (2001),
+/// Table C-1 (the same values the component generator mixtures/tools/make_components.py uses).
+/// Tm = 122.5 + ΣΔTm; Hf(g) = 68.29 + ΣΔHf.
+pub const MELTING_AND_FORMATION: [(&str, f64, f64); 9] = [
+    ("CH3", -5.10, -76.45),
+    ("CH2", 11.27, -20.64),
+    ("CH", 12.64, 29.89),
+    ("C", 46.43, 82.23),
+    ("rCH2", 7.75, -26.80),
+    ("rCH", 19.88, 8.67),
+    ("rCHa", 8.13, 2.09),
+    ("rCa", 37.02, 46.43),
+    ("OH", 44.45, -208.04),
+];
+
+/// Atoms of one group: (carbon, hydrogen, oxygen).
+pub fn group_atoms(key: &str) -> Option<(u32, u32, u32)> {
+    Some(match key {
+        "CH3" => (1, 3, 0),
+        "CH2" | "rCH2" => (1, 2, 0),
+        "CH" | "rCH" | "rCHa" => (1, 1, 0),
+        "C" | "rCa" => (1, 0, 0),
+        "OH" => (0, 1, 1),
+        _ => return None,
+    })
+}

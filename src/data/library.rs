@@ -114,6 +114,36 @@ impl Library {
         Ok(())
     }
 
+    /// Check a component defined outside the library (e.g. inside a fuel file) before use: group-contribution
+    /// or published ideal-gas cp, every source resolvable, and no id or alias that the library already uses.
+    pub fn check_extra_component(&self, c: &Component) -> Result<(), DataError> {
+        if let Form::CorrespondingStates = c.ideal_gas_heat_capacity.form {
+            return Err(DataError::Invalid {
+                context: format!("{}: [ideal-gas-heat-capacity]", c.origin),
+                message: "needs coefficients (published, or an estimated polynomial with an estimated:<method> source)".into(),
+            });
+        }
+        for name in std::iter::once(&c.id).chain(c.aliases.iter()) {
+            if let Some(&i) = self.index.get(name) {
+                return Err(DataError::Invalid {
+                    context: format!("{}: id", c.origin),
+                    message: format!("'{name}' is already a library component ({}); rename the embedded component", self.components[i].origin),
+                });
+            }
+        }
+        for (field, id) in c.source_ids() {
+            if !self.sources.resolves(&id) {
+                return Err(DataError::Unknown {
+                    context: format!("{}: {field}.source", c.origin),
+                    kind: "source",
+                    id: id.clone(),
+                    hint: suggest(&id, self.sources.sources.keys().map(|s| s.as_str())),
+                });
+            }
+        }
+        Ok(())
+    }
+
     /// Look a component up by id or alias.
     pub fn component(&self, name: &str) -> Option<&Arc<Component>> {
         self.index.get(name).map(|&i| &self.components[i])

@@ -1,4 +1,10 @@
 //! Fuels: components with a composition, read from fuel files (mass, mole or volume basis, or blends).
+//!
+//! A fuel file may define its own components in `[[component]]` tables (same keys as a component file); the
+//! composition then refers to them by id like to library components. `dropcut fuel build` writes such files
+//! (see [`build`] and docs/fuel-from-lab-data.md).
+
+pub mod build;
 
 use std::collections::BTreeMap;
 use std::path::Path;
@@ -48,6 +54,36 @@ struct RawFuel {
     composition: Option<BTreeMap<String, toml::Value>>,
     #[serde(default)]
     blend: Option<BTreeMap<String, toml::Value>>,
+    /// Components defined inside the fuel file (`[[component]]` tables).
+    #[serde(default)]
+    component: Vec<toml::Table>,
+}
+
+/// True when two components are the same apart from the file they were read from.
+fn same_component(a: &Component, b: &Component) -> bool {
+    if a.origin == b.origin {
+        return a == b;
+    }
+    let mut b2 = b.clone();
+    b2.origin = a.origin.clone();
+    *a == b2
+}
+
+/// Parse the `[[component]]` tables of a fuel file and check them against the library.
+fn embedded_components(tables: &[toml::Table], file: &str, lib: &Library) -> Result<Vec<Arc<Component>>, FuelError> {
+    let mut out: Vec<Arc<Component>> = vec![];
+    for (i, table) in tables.iter().enumerate() {
+        let id = table.get("id").and_then(|v| v.as_str()).unwrap_or("?");
+        let origin = format!("{file}: [[component]] #{} ('{id}')", i + 1);
+        let text = toml::to_string(table).map_err(|e| DataError::Parse { file: origin.clone(), message: e.to_string() })?;
+        let c = Component::parse(&text, &origin)?;
+        lib.check_extra_component(&c)?;
+        if let Some(other) = out.iter().find(|o| o.answers_to(&c.id) || c.aliases.iter().any(|a| o.answers_to(a))) {
+            return Err(FuelError::Composition { context: origin, message: format!("id or alias already used by {}", other.origin) });
+        }
+        out.push(Arc::new(c));
+    }
+    Ok(out)
 }
 
 /// A liquid fuel: components and their mass fractions (summing to 1).
@@ -159,6 +195,21 @@ impl Fuel {
     }
 
     fn parse_depth(text: &str, file: &str, lib: &Library, depth: usize) -> Result<Self, FuelError> {
+        // A component file (e.g. from `dropcut fuel build --from-groups`) is read as a pure fuel.
+        if let Ok(table) = toml::from_str::<toml::Table>(text) {
+            if table.contains_key("constants") && table.contains_key("id") && !table.contains_key("composition") {
+                let c = Component::parse(text, file)?;
+                if let Some(known) = lib.component(&c.id) {
+                    if same_component(known, &c) {
+                        return Ok(Fuel::pure(known.clone()));
+                    }
+                }
+                lib.check_extra_component(&c)?;
+                let mut fuel = Fuel::pure(Arc::new(c));
+                fuel.origin = file.to_string();
+                return Ok(fuel);
+            }
+        }
         let raw: RawFuel = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_at(&e, text) })?;
         let name = raw.name.clone().unwrap_or_else(|| Path::new(file).file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default());
         let (entries, is_blend) = match (&raw.composition, &raw.blend) {
@@ -168,6 +219,10 @@ impl Fuel {
             (None, None) => return Err(FuelError::Composition { context: file.into(), message: "missing [composition] (component id = fraction) or [blend] (fuel = fraction)".into() }),
         };
         let section = if is_blend { "blend" } else { "composition" };
+        let embedded = embedded_components(&raw.component, file, lib)?;
+        if is_blend && !embedded.is_empty() {
+            return Err(FuelError::Composition { context: file.into(), message: "[[component]] tables are only allowed with [composition], not with [blend]".into() });
+        }
         if entries.is_empty() {
             return Err(FuelError::Composition { context: format!("{file}: [{section}]"), message: "is empty".into() });
         }
@@ -193,6 +248,12 @@ impl Fuel {
         let mut masses: Vec<f64> = vec![];
         let mut add = |c: &Arc<Component>, m: f64, key: &str| -> Result<(), FuelError> {
             if let Some(i) = components.iter().position(|x| x.id == c.id) {
+                if !same_component(&components[i], c) {
+                    return Err(FuelError::Composition {
+                        context: format!("{file}: {section}.{key}"),
+                        message: format!("component '{}' is defined differently in {} and {}", c.id, components[i].origin, c.origin),
+                    });
+                }
                 if !is_blend {
                     return Err(FuelError::Composition {
                         context: format!("{file}: composition.{key}"),
@@ -228,7 +289,18 @@ impl Fuel {
             }
         } else {
             for (key, x) in &fractions {
-                let c = lib.require_component(key, &format!("{file}: composition"))?;
+                let c = match embedded.iter().find(|c| c.answers_to(key)) {
+                    Some(c) => c,
+                    None => lib.require_component(key, &format!("{file}: composition")).map_err(|e| match e {
+                        DataError::Unknown { context, kind, id, hint } if hint.is_empty() && !embedded.is_empty() => DataError::Unknown {
+                            context,
+                            kind,
+                            hint: suggest(&id, embedded.iter().map(|c| c.id.as_str())),
+                            id,
+                        },
+                        other => other,
+                    })?,
+                };
                 let m = match raw.basis {
                     Basis::Mass => *x,
                     Basis::Mole => x * c.molar_mass(),
@@ -308,5 +380,61 @@ impl Fuel {
             notices: vec![],
             origin: self.origin.clone(),
         }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::fuel::build::estimate::{estimate_component, parse_groups, EstimateOptions};
+
+    fn lib() -> Library {
+        Library::embedded().unwrap()
+    }
+
+    fn embedded_text(lib: &Library, id: &str) -> String {
+        let g = parse_groups("CH3=3,CH2=10,CH=1", "t").unwrap();
+        estimate_component(lib, id, id, &g, &EstimateOptions::default(), "t").unwrap().to_toml(Some("component"))
+    }
+
+    /// A fuel file may define components in [[component]] tables and mix them with library components.
+    #[test]
+    fn embedded_components_are_read() {
+        let lib = lib();
+        let text = format!("name = \"f\"\nbasis = \"mass\"\n[composition]\nn-decane = 0.5\nmy-iso = 0.5\n\n{}", embedded_text(&lib, "my-iso"));
+        let f = Fuel::parse(&text, "f.toml", &lib).unwrap();
+        assert_eq!(f.len(), 2);
+        let c = f.components.iter().find(|c| c.id == "my-iso").unwrap();
+        assert!(c.origin.contains("[[component]] #1"), "{}", c.origin);
+        // typo in the composition: suggestion among the embedded ids
+        let bad = text.replace("my-iso = 0.5", "my-isa = 0.5");
+        let e = Fuel::parse(&bad, "f.toml", &lib).unwrap_err().to_string();
+        assert!(e.contains("did you mean 'my-iso'"), "{e}");
+    }
+
+    #[test]
+    fn embedded_components_are_checked() {
+        let lib = lib();
+        let c = embedded_text(&lib, "my-iso");
+        let twice = format!("basis = \"mass\"\n[composition]\nmy-iso = 1.0\n\n{c}\n{c}");
+        assert!(Fuel::parse(&twice, "f.toml", &lib).unwrap_err().to_string().contains("already used"));
+        let clash = format!("basis = \"mass\"\n[composition]\nn-decane = 1.0\n\n{}", embedded_text(&lib, "n-decane"));
+        assert!(Fuel::parse(&clash, "f.toml", &lib).unwrap_err().to_string().contains("already a library component"));
+        let blend = format!("basis = \"mass\"\n[blend]\ndemo-wide = 1.0\n\n{c}");
+        assert!(Fuel::parse(&blend, "f.toml", &lib).unwrap_err().to_string().contains("only allowed with [composition]"));
+        let unknown_source = format!("basis = \"mass\"\n[composition]\nmy-iso = 1.0\n\n{}", c.replace("estimated:joback\"", "jobak\""));
+        assert!(Fuel::parse(&unknown_source, "f.toml", &lib).unwrap_err().to_string().contains("unknown source 'jobak'"));
+    }
+
+    /// A component file given where a fuel is expected is a pure fuel.
+    #[test]
+    fn component_file_is_a_pure_fuel() {
+        let lib = lib();
+        let g = parse_groups("CH3=3,CH2=10,CH=1", "t").unwrap();
+        let text = estimate_component(&lib, "my-iso", "my iso", &g, &EstimateOptions::default(), "t").unwrap().to_toml(None);
+        let f = Fuel::parse(&text, "my-iso.toml", &lib).unwrap();
+        assert_eq!(f.len(), 1);
+        assert!((f.mass_fractions[0] - 1.0).abs() < 1e-15);
+        assert_eq!(f.origin, "my-iso.toml");
     }
 }

@@ -135,26 +135,35 @@ impl<'a> Model<'a> {
     }
 
     /// One linearly implicit Euler step of length dt.
-    fn step(&mut self, s: &State, dt: f64) -> Result<State, String> {
-        let n = self.n;
-        let ny = self.ny();
+    /// Everything a step needs from its start state (shared by the full step and the first half step).
+    fn start(&mut self, s: &State) -> Result<StepStart, String> {
         let liq = self.liquid(s);
         let radius = 0.5 * (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
         let area = 4.0 * std::f64::consts::PI * radius * radius;
-        let f0 = self.film_at(&s.surface_y.clone(), s.surface_t, s.mass, liq.density, s.velocity);
+        let surface = s.surface_y.clone();
+        let f0 = self.film_at(&surface, s.surface_t, s.mass, liq.density, s.velocity);
         if f0.surface_vapor_mole_fraction >= BOILING_THRESHOLD {
             return Err("boiling".into());
         }
         let rates0 = self.rates.clone();
         // dQ_L/dT_s by a one-sided difference
         let dt_s = 0.01;
-        let f1 = self.film_at(&s.surface_y.clone(), s.surface_t + dt_s, s.mass, liq.density, s.velocity);
+        let f1 = self.film_at(&surface, s.surface_t + dt_s, s.mass, liq.density, s.velocity);
         let dq = (f1.heat_to_liquid - f0.heat_to_liquid) / dt_s;
         self.rates.copy_from_slice(&rates0);
         let (chi_t, chi_y) = self.circulation(&f0, &liq, s.velocity, radius);
         let rho2a2_over_m = liq.density * liq.density * area * area / s.mass;
         let g_t = rho2a2_over_m * chi_t * liq.conductivity / (liq.density * liq.cp);
         let g_y = rho2a2_over_m * chi_y * liq.diffusivity;
+        Ok(StepStart { liq, radius, f0, rates0, dq, g_t, g_y })
+    }
+
+    /// One linearly implicit Euler step of length dt from `s`, whose start data are `st`.
+    fn step(&mut self, s: &State, st: &StepStart, dt: f64) -> Result<State, String> {
+        let n = self.n;
+        let ny = self.ny();
+        let StepStart { liq, radius, f0, rates0, dq, g_t, g_y } = st;
+        let (liq, radius, f0, dq, g_t, g_y) = (liq, *radius, *f0, *dq, *g_t, *g_y);
         let mut next = s.clone();
         // Surface coupling, iterated: each species leaves at κ_i u_s,i with κ_i = ṁ_i/Y_s,i from the film at the
         // latest surface state (implicit in the surface value; prescribed rate when condensing), the advective
@@ -288,6 +297,17 @@ impl<'a> Model<'a> {
             mass_fractions: (0..self.n).map(|i| (0..cells).map(|k| value_at(&self.ygrid, &s.y[i * ny..(i + 1) * ny], centres[k])).collect()).collect(),
         }
     }
+}
+
+/// Start-of-step data: liquid properties, film evaluation and its temperature derivative, conductances.
+struct StepStart {
+    liq: Liquid,
+    radius: f64,
+    f0: FilmResult,
+    rates0: Vec<f64>,
+    dq: f64,
+    g_t: f64,
+    g_y: f64,
 }
 
 fn combine(a: &State, b: &State) -> State {
@@ -445,8 +465,14 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
             return Err(ModelError::Integration { time: state.time, reason: "more than 1 000 000 steps".into() });
         }
         dt = dt.min(inp.max_time - state.time).max(1e-15);
-        let full = model.step(&state, dt);
-        let half = model.step(&state, 0.5 * dt).and_then(|h| model.step(&h, 0.5 * dt));
+        let start = model.start(&state);
+        let (full, half) = match start {
+            Ok(st) => (
+                model.step(&state, &st, dt),
+                model.step(&state, &st, 0.5 * dt).and_then(|h| model.start(&h).and_then(|sh| model.step(&h, &sh, 0.5 * dt))),
+            ),
+            Err(e) => (Err(e.clone()), Err(e)),
+        };
         stats.rhs_calls = model.film_calls;
         let (full, half) = match (full, half) {
             (Ok(f), Ok(h)) => (f, h),

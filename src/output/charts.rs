@@ -1235,7 +1235,9 @@ pub fn table_vs_temperature_chart(table: &CsvData, stem: &str, title: &str, subt
 /// Draw a property table CSV (see [`table_vs_temperature_chart`]) into `dir`.
 pub fn table_vs_temperature(csv: &Path, dir: &Path, stem: &str, title: &str) -> Result<ChartFiles, OutputError> {
     let table = CsvData::read(csv)?;
-    let sub = table.metadata.first().cloned().unwrap_or_default();
+    let pick = |key: &str| table.metadata.iter().find(|m| m.trim_start().starts_with(key)).map(|m| m.trim().to_string());
+    let sub = [pick("fuel"), pick("pressure")].into_iter().flatten().collect::<Vec<_>>().join(" · ");
+    let sub = if sub.is_empty() { table.metadata.first().cloned().unwrap_or_default() } else { sub };
     write_chart(dir, &table_vs_temperature_chart(&table, stem, title, &sub)?)
 }
 

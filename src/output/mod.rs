@@ -8,6 +8,7 @@ pub mod history;
 pub mod html;
 pub mod read;
 pub mod residue;
+pub mod sweep_maps;
 pub mod tables;
 
 use std::fs;

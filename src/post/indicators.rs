@@ -688,7 +688,14 @@ pub fn indicators(components: &[Arc<Component>], mass_fractions: &[f64], opts: &
         ind.note("hc_ratio", "not computed: no carbon");
     }
     let arom: f64 = components.iter().zip(&vol).filter(|(c, _)| c.class.is_aromatic()).fold(0.0, |a, (_, v)| a + v);
-    ind.set("aromatics_volume_fraction", Some(arom), "liquid volume fraction at 15 °C of the alkylbenzene, cycloaromatic and diaromatic components (composition-based, not a D1319 measurement)");
+    let fractions_vol: f64 = components.iter().zip(&vol).filter(|(c, _)| c.class == crate::data::HydrocarbonClass::PetroleumFraction).fold(0.0, |a, (_, v)| a + v);
+    let arom_method = "liquid volume fraction at 15 °C of the alkylbenzene, cycloaromatic and diaromatic components (composition-based, not a D1319 measurement)";
+    if fractions_vol > 0.0 {
+        ind.set("aromatics_volume_fraction", None, arom_method);
+        ind.note("aromatics_volume_fraction", format!("not computed: {:.1} % of the volume is petroleum-fraction pseudo-components, whose aromatic content is unknown", 100.0 * fractions_vol));
+    } else {
+        ind.set("aromatics_volume_fraction", Some(arom), arom_method);
+    }
     ind.set("molar_mass_kg_mol", Some(liquid::molar_mass(components, &x)), "mole-fraction average Σ x_i M_i");
 
     // --- freezing point ------------------------------------------------------------------------------

@@ -280,9 +280,12 @@ impl Component {
         self.molar_mass() / self.liquid_density(self.normal_boiling_point())
     }
 
-    /// Hydrogen mass fraction of the molecule [-].
+    /// Hydrogen mass fraction of the molecule [-], from the formula (for a petroleum fraction the formula's mass
+    /// may differ slightly from the fraction's molar mass; the formula carries the composition).
     pub fn hydrogen_mass_fraction(&self) -> f64 {
-        1.008e-3 * f64::from(self.formula.hydrogen) / self.molar_mass()
+        let f = self.formula;
+        let formula_mass = 12.011e-3 * f64::from(f.carbon) + 1.008e-3 * f64::from(f.hydrogen) + 15.999e-3 * f64::from(f.oxygen);
+        1.008e-3 * f64::from(f.hydrogen) / formula_mass
     }
 
     /// Names of the properties that are estimated rather than taken from published coefficients.

@@ -326,10 +326,17 @@ pub fn vapor_fractions(lib: &Library, fuel: &Fuel, text: &str) -> Result<Vec<f64
     let mut seen = vec![false; fuel.len()];
     for item in text.split(',') {
         let (id, y) = item.split_once('=').ok_or_else(|| format!("cannot read '{}': use component=mass-fraction pairs", item.trim()))?;
-        let comp = lib.require_component(id.trim(), "ambient-vapor").map_err(|e| match e {
-            crate::data::DataError::Unknown { kind, id, hint, .. } => format!("unknown {kind} '{id}'{hint}"),
-            other => other.to_string(),
-        })?;
+        // the fuel's own components first: a built fuel may hold components the library does not know
+        let comp = match fuel.components.iter().find(|c| c.answers_to(id.trim())) {
+            Some(c) => c.clone(),
+            None => lib
+                .require_component(id.trim(), "ambient-vapor")
+                .map_err(|e| match e {
+                    crate::data::DataError::Unknown { kind, id, hint, .. } => format!("unknown {kind} '{id}'{hint}"),
+                    other => other.to_string(),
+                })?
+                .clone(),
+        };
         let i = fuel
             .components
             .iter()

@@ -2,7 +2,8 @@
 //!
 //! Plain numbers are taken as SI. Accepted suffixes per quantity:
 //! temperature `K`, `degC`, `C`, `degF`, `F`; pressure `Pa`, `kPa`, `MPa`, `bar`, `mbar`, `atm`, `psi`;
-//! length `m`, `mm`, `um`, `µm`, `micron`, `nm`; velocity `m/s`, `km/h`; time `s`, `ms`, `us`.
+//! length `m`, `mm`, `um`, `µm`, `micron`, `nm`; velocity `m/s`, `km/h`; time `s`, `ms`, `us`;
+//! density `kg/m3`, `g/cm3`, `g/mL`, `kg/L` (a density needs its unit: a plain number is refused).
 
 use thiserror::Error;
 
@@ -38,6 +39,8 @@ pub enum Quantity {
     Time,
     /// Dimensionless number.
     Dimensionless,
+    /// Mass density [kg/m³].
+    Density,
 }
 
 impl Quantity {
@@ -51,6 +54,7 @@ impl Quantity {
             Quantity::Velocity => "velocity",
             Quantity::Time => "time",
             Quantity::Dimensionless => "number",
+            Quantity::Density => "density",
         }
     }
 }
@@ -137,6 +141,12 @@ pub fn parse(text: &str, what: Quantity) -> Result<f64, UnitError> {
             "us" | "µs" => number / 1e6,
             _ => return Err(err(format!("unknown time unit '{unit}' (use s, ms or us)"))),
         },
+        Quantity::Density => match unit_norm.as_str() {
+            "kg/m3" | "kg/m^3" | "kg/m³" | "g/L" | "g/l" => number,
+            "g/cm3" | "g/cm^3" | "g/cm³" | "g/mL" | "g/ml" | "kg/L" | "kg/l" | "kg/dm3" => number * 1e3,
+            "" => return Err(err("needs a unit (e.g. 799kg/m3 or 0.799g/cm3)".into())),
+            _ => return Err(err(format!("unknown density unit '{unit}' (use kg/m3 or g/cm3)"))),
+        },
         Quantity::Dimensionless => match unit_norm.as_str() {
             "" => number,
             "%" => number / 100.0,
@@ -206,5 +216,13 @@ mod tests {
         let e = parse("-300degC", Quantity::Temperature).unwrap_err().to_string();
         assert!(e.contains("below absolute zero") && e.contains("-300degC"), "{e}");
         assert!((parse("-20degC", Quantity::Temperature).unwrap() - 253.15).abs() < 1e-9);
+    }
+
+    #[test]
+    fn densities_need_a_unit() {
+        assert!((parse("799kg/m3", Quantity::Density).unwrap() - 799.0).abs() < 1e-12);
+        assert!((parse("0.799 g/cm3", Quantity::Density).unwrap() - 799.0).abs() < 1e-9);
+        assert!(parse("799", Quantity::Density).is_err());
+        assert!(parse("799 kg", Quantity::Density).is_err());
     }
 }

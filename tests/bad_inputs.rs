@@ -230,6 +230,47 @@ const CASES: &[Case] = &[
     case!(["residue", "n-decane", "--steps", "0", "--limits", "@no-such-limits.toml"], ["No such file"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--limits", "@lim-unknown-key.toml"], ["limits.flash_pont_K"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--limits", "@lim-percent-fraction.toml"], ["limits.aromatics_volume_fraction.max"]),
+    // ------------------------------------------------------------------ fuel build inputs (class tables, distillation curves, groups)
+    case!(["fuel", "build", "--from-classes", "@classes-empty.csv", "--out", "{out}"], ["line 1", "header"]),
+    case!(["fuel", "build", "--from-classes", "@classes-garbage.csv", "--out", "{out}"], ["UTF-8"]),
+    case!(["fuel", "build", "--from-classes", "@classes-not-number.csv", "--out", "{out}"], ["line 2", "n-alkane C10", "'abc'"]),
+    case!(["fuel", "build", "--from-classes", "@classes-negative.csv", "--out", "{out}"], ["n-alkane C10", "-5", "negative"]),
+    case!(["fuel", "build", "--from-classes", "@classes-nan.csv", "--out", "{out}"], ["n-alkane C10", "not a finite number"]),
+    case!(["fuel", "build", "--from-classes", "@classes-unknown-class.csv", "--out", "{out}"], ["unknown class 'alkanes'"]),
+    case!(["fuel", "build", "--from-classes", "@classes-carbon-range.csv", "--out", "{out}"], ["carbon number 99"]),
+    case!(["fuel", "build", "--from-classes", "@classes-carbon-text.csv", "--out", "{out}"], ["carbon number 'ten'"]),
+    case!(["fuel", "build", "--from-classes", "@classes-duplicate-row.csv", "--out", "{out}"], ["line 3", "appears twice"]),
+    case!(["fuel", "build", "--from-classes", "@classes-ragged.csv", "--out", "{out}"], ["line 2", "2 fields"]),
+    case!(["fuel", "build", "--from-classes", "@classes-sum.csv", "--out", "{out}"], ["sum to 30.000 %"]),
+    case!(["fuel", "build", "--from-classes", "@classes-toml-inf.toml", "--out", "{out}"], ["mass-percent.n-alkane.C10", "not a finite number"]),
+    case!(["fuel", "build", "--from-classes", "@classes-toml-volume.toml", "--out", "{out}"], ["basis", "volume"]),
+    case!(["fuel", "build", "--from-classes", "@classes-toml-unknown-class.toml", "--out", "{out}"], ["n-alkane2"]),
+    case!(["fuel", "build", "--from-classes", "@classes-toml-syntax.toml", "--out", "{out}"], ["line 1"]),
+    case!(["fuel", "build", "--from-distillation", "@dist-not-increasing.toml", "--out", "{out}"], ["must increase", "50 %"]),
+    case!(["fuel", "build", "--from-distillation", "@dist-too-few.toml", "--out", "{out}"], ["at least 3"]),
+    case!(["fuel", "build", "--from-distillation", "@dist-nan.toml", "--out", "{out}"], ["points.IBP", "not a finite number"]),
+    case!(["fuel", "build", "--from-distillation", "@dist-percent-range.toml", "--out", "{out}"], ["points.150", "0–100"]),
+    case!(["fuel", "build", "--from-distillation", "@dist-below-absolute-zero.toml", "--out", "{out}"], ["points.10", "absolute zero"]),
+    case!(["fuel", "build", "--from-distillation", "@dist-absurd-temperature.toml", "--out", "{out}"], ["10 %", "150–1000 K"]),
+    case!(["fuel", "build", "--from-distillation", "@dist-no-density.toml", "--out", "{out}"], ["no density"]),
+    case!(["fuel", "build", "--from-distillation", "@dist-density-gcm3.toml", "--out", "{out}"], ["density-15C", "'0.799'"]),
+    case!(["fuel", "build", "--from-distillation", "@dist-unknown-curve.toml", "--out", "{out}"], ["curve", "d2887x"]),
+    case!(["fuel", "build", "--from-distillation", "@fuel-garbage.toml", "--out", "{out}"], ["UTF-8"]),
+    case!(["fuel", "build", "--from-distillation", "dist-ok.toml", "--out", "{out}", "--density", "5kg/m3"], ["--density", "5 kg/m³"]),
+    case!(["fuel", "build", "--from-distillation", "dist-ok.toml", "--out", "{out}", "--specific-gravity", "80"], ["--density", "outside"]),
+    case!(["fuel", "build", "--from-distillation", "dist-ok.toml", "--out", "{out}", "--pseudo", "0"], ["--pseudo", "0 pseudo-components"]),
+    case!(["fuel", "build", "--from-distillation", "dist-ok.toml", "--out", "{out}", "--pseudo", "100000"], ["--pseudo", "100000"]),
+    case!(["fuel", "build", "--from-groups", "CH3=2,CH2=nan", "--name", "my-x", "--out", "{out}"], ["--from-groups", "'nan'"]),
+    case!(["fuel", "build", "--from-groups", "CH3=2,CH9=8", "--name", "my-x", "--out", "{out}"], ["--from-groups", "unknown group 'CH9'"]),
+    case!(["fuel", "build", "--from-groups", "", "--name", "my-x", "--out", "{out}"], ["--from-groups", "no groups"]),
+    case!(["fuel", "build", "--from-groups", "CH3=-2", "--name", "my-x", "--out", "{out}"], ["--from-groups", "'-2'"]),
+    case!(["fuel", "build", "--from-groups", "CH3=2,CH2=100000", "--name", "my-x", "--out", "{out}"], ["--from-groups", "outside the method's range"]),
+    case!(["fuel", "build", "--from-groups", "OH=1", "--name", "my-x", "--out", "{out}"], ["--from-groups", "two carbon atoms"]),
+    case!(["fuel", "build", "--from-groups", "CH3", "--name", "my-x", "--out", "{out}"], ["--from-groups", "cannot read 'CH3'"]),
+    case!(["fuel", "build", "--from-groups", "CH3=2,CH2=8", "--out", "{out}"], ["--from-groups needs --name"]),
+    case!(["fuel", "build", "--from-groups", "CH3=2,CH2=8", "--name", "my-x", "--boiling-point", "5K", "--out", "{out}"], ["boiling point 5 K"]),
+    case!(["fuel", "build", "--from-groups", "CH3=2,CH2=8", "--name", "my-x", "--class", "alkane", "--out", "{out}"], ["--class", "'alkane'"]),
+    case!(["fuel", "build", "--from-classes", "@no-such-table.csv", "--out", "{out}"], ["no-such-table.csv"]),
     // ------------------------------------------------------------------ command-line values: simulate
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--diameter", "10m"], ["diameter = 10 m", "0.1 µm and 10 mm"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--diameter", "0"], ["diameter = 0 m"]),
@@ -435,7 +476,7 @@ fn corpus_is_large_and_every_file_is_used() {
     let used: Vec<&str> = CASES.iter().flat_map(|c| c.args.iter()).filter_map(|a| a.strip_prefix('@').or_else(|| a.strip_prefix('%'))).collect();
     for e in std::fs::read_dir(corpus_dir()).unwrap() {
         let name = e.unwrap().file_name().to_string_lossy().into_owned();
-        if name.ends_with(".txt") || name == "spec-ok.toml" {
+        if name.ends_with(".txt") || name == "spec-ok.toml" || name == "dist-ok.toml" {
             continue; // the valid base files the corpus was made from
         }
         assert!(used.contains(&name.as_str()), "tests/bad_inputs/{name} is in no case");

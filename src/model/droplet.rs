@@ -577,19 +577,46 @@ fn ideal_solubility_freezing_point(comps: &[std::sync::Arc<crate::data::Componen
     best
 }
 
-/// The note on the highest surface temperature against the lowest critical temperature `t_c` of a major
-/// component: above it the subcritical model runs on with indicative results; within 5 % it is near its limit.
-pub(crate) fn critical_note(max_surface_temperature: f64, t_c: f64) -> Option<String> {
-    if max_surface_temperature >= t_c {
-        Some(format!(
-            "surface temperature {max_surface_temperature:.1} K rose above a component's critical temperature ({t_c:.1} K): there is no liquid-vapour interface in reality (supercritical mixing); the subcritical model runs on with its correlations clamped at or extrapolated past the critical point, so results are indicative only"
-        ))
-    } else if max_surface_temperature > 0.95 * t_c {
-        Some(format!(
-            "surface temperature {max_surface_temperature:.1} K came within 5 % of a component's critical temperature ({t_c:.1} K): subcritical correlations are near their limit"
-        ))
-    } else {
-        None
+/// Watches the surface temperature against the critical temperatures of the components present at the
+/// surface (liquid mole fraction above 1 %), so a light component that has already evaporated raises no alarm.
+#[derive(Debug, Default)]
+pub(crate) struct CriticalWatch {
+    /// Worst case so far: (T_s / T_c, T_s [K], T_c [K], component index, mole fraction, time [s]).
+    worst: Option<(f64, f64, f64, usize, f64, f64)>,
+}
+
+impl CriticalWatch {
+    /// Look at one state: surface liquid mass fractions `w`, surface temperature and time.
+    #[inline]
+    pub(crate) fn observe(&mut self, comps: &[std::sync::Arc<crate::data::Component>], w: &[f64], surface_temperature: f64, time: f64) {
+        let moles: f64 = comps.iter().zip(w).map(|(c, w)| w.max(0.0) / c.molar_mass()).sum();
+        if !(moles > 0.0) {
+            return;
+        }
+        for (i, (c, w)) in comps.iter().zip(w).enumerate() {
+            let x = w.max(0.0) / c.molar_mass() / moles;
+            let ratio = surface_temperature / c.critical_temperature();
+            if x > 0.01 && ratio > 0.95 && self.worst.is_none_or(|b| ratio > b.0) {
+                self.worst = Some((ratio, surface_temperature, c.critical_temperature(), i, x, time));
+            }
+        }
+    }
+
+    /// The note, if the surface came within 5 % of (or rose above) a present component's critical temperature.
+    pub(crate) fn note(&self, comps: &[std::sync::Arc<crate::data::Component>]) -> Option<String> {
+        let (ratio, t_s, t_c, i, x, time) = self.worst?;
+        let id = &comps[i].id;
+        Some(if ratio >= 1.0 {
+            format!(
+                "surface temperature {t_s:.1} K rose above the critical temperature of {id} ({t_c:.1} K, {:.1} mol% of the surface liquid) at t = {time:.4e} s: there is no sharp liquid-vapour interface in reality (supercritical mixing); the subcritical model runs on with its correlations clamped at or extrapolated past the critical point, so results are indicative only",
+                100.0 * x
+            )
+        } else {
+            format!(
+                "surface temperature {t_s:.1} K came within 5 % of the critical temperature of {id} ({t_c:.1} K, {:.1} mol% of the surface liquid) at t = {time:.4e} s: subcritical correlations are near their limit",
+                100.0 * x
+            )
+        })
     }
 }
 
@@ -692,6 +719,8 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
     let remaining = |y: &[f64]| -> f64 { y[..n].iter().sum::<f64>() / m0 };
 
     let first = make_row(&mut sys, 0.0, &y0, &mut dydt, true);
+    let mut critical = CriticalWatch::default();
+    critical.observe(&comps, &first.liquid_mass_fractions, first.surface_temperature, 0.0);
     let mut max_t = first.surface_temperature;
     let mut max_re = first.film.reynolds;
     let mut heatup_end = if first.film.heat_to_liquid.abs() <= 0.1 * first.film.heat_from_gas.abs() { Some(0.0) } else { None };
@@ -730,6 +759,7 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         }
         let mut row = make_row(&mut sys, t_now, &y_end, &mut dydt, finished);
         max_t = max_t.max(row.surface_temperature);
+        critical.observe(&comps, &row.liquid_mass_fractions, row.surface_temperature, t_now);
         max_re = max_re.max(row.film.reynolds);
         if heatup_end.is_none() && row.film.heat_to_liquid.abs() <= 0.1 * row.film.heat_from_gas.abs() {
             heatup_end = Some(t_now);
@@ -793,8 +823,7 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
             mass_err = mass_err.max(((y[i] + y[n + 2 + i]) - initial).abs() / initial);
         }
     }
-    let t_min = comps.iter().zip(&x0).filter(|(_, x)| **x > 1e-3).map(|(c, _)| c.critical_temperature()).fold(f64::INFINITY, f64::min);
-    if let Some(note) = critical_note(max_t, t_min) {
+    if let Some(note) = critical.note(&comps) {
         notes.push(note);
     }
     if max_re > 400.0 {

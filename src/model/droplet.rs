@@ -559,6 +559,25 @@ pub(crate) fn validity_notes(inp: &DropletInputs) -> Vec<String> {
     notes
 }
 
+/// An integration failure with the state it happened in, and the likely reason when the condition is past the
+/// model's validity (docs/validity.md): a one-line stop instead of an integrator's internal code.
+pub(crate) fn integration_failure(inp: &DropletInputs, time: f64, surface_temperature: f64, what: &str) -> ModelError {
+    let comps = &inp.fuel.components;
+    let p_pc = liquid::pseudo_critical_pressure(comps, &inp.fuel.mole_fractions());
+    let t_c = comps.iter().map(|c| c.critical_temperature()).fold(f64::INFINITY, f64::min);
+    let mut reason = format!("{what} (surface temperature {surface_temperature:.1} K)");
+    if inp.pressure >= p_pc {
+        reason.push_str(&format!(
+            "; the ambient pressure {:.3} MPa is at or above the liquid's pseudo-critical pressure {:.3} MPa, where the subcritical droplet model breaks down: lower the pressure or treat the result as out of range",
+            inp.pressure / 1e6,
+            p_pc / 1e6
+        ));
+    } else if surface_temperature >= t_c {
+        reason.push_str(&format!("; the surface is above a component's critical temperature ({t_c:.1} K), outside the subcritical model"));
+    }
+    ModelError::Integration { time, reason }
+}
+
 /// Ideal solid–liquid solubility (Schröder–van Laar, ΔCp neglected) freezing point of a liquid of mole
 /// fractions `x` [K] and the component that crystallises first; None when no component has an enthalpy of
 /// fusion. The same estimate as the residue indicators' freezing point.
@@ -738,7 +757,11 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         let rem_prev = remaining(&stepper.y);
         let step = stepper.step(&mut sys);
         if let Err(e) = step {
-            return Err(ModelError::Integration { time: t_prev, reason: format!("{e:?}") });
+            let what = match e {
+                super::integrator::StepError::StepTooSmall { .. } => "the step size fell to the round-off limit",
+                super::integrator::StepError::NonFinite { .. } => "the equations gave a non-finite value",
+            };
+            return Err(integration_failure(inp, t_prev, stepper.y[n], what));
         }
         let mut t_now = stepper.t;
         let rem_now = remaining(&stepper.y);

@@ -490,7 +490,7 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
                         boiling_stop = true;
                         break;
                     }
-                    return Err(ModelError::Integration { time: state.time, reason: format!("step size underflow ({e})") });
+                    return Err(super::droplet::integration_failure(inp, state.time, state.surface_t, &format!("the step size fell to the round-off limit ({e})")));
                 }
                 continue;
             }

@@ -77,10 +77,10 @@ pub struct ResidueArgs {
     /// Fuel file, library fuel id, or component id.
     pub fuel: String,
     /// Temperature of the open-vessel evaporation.
-    #[arg(long, default_value = "350K")]
+    #[arg(long, allow_hyphen_values = true, default_value = "350K")]
     pub temperature: String,
     /// Evaporated mass fractions, comma-separated (default 0, 0.05, ..., 0.95).
-    #[arg(long, default_value = "")]
+    #[arg(long, allow_hyphen_values = true, default_value = "")]
     pub steps: String,
     /// Limits file (TOML windows) to flag indicators in or out; `aviation` for the built-in
     /// aviation-turbine-fuel windows.
@@ -102,10 +102,10 @@ pub enum FuelAction {
         /// Fuel file, library fuel id, or component id.
         fuel: String,
         /// Temperature for the liquid properties (e.g. 300K, 26.85degC).
-        #[arg(long, default_value = "288.15K")]
+        #[arg(long, default_value = "288.15K", allow_hyphen_values = true)]
         temperature: String,
         /// Pressure for bubble and dew points (e.g. 1atm, 10bar).
-        #[arg(long, default_value = "1atm")]
+        #[arg(long, default_value = "1atm", allow_hyphen_values = true)]
         pressure: String,
         /// Print JSON.
         #[arg(long)]
@@ -218,22 +218,22 @@ pub enum CorrelationArg {
 #[derive(Debug, Clone, Args)]
 pub struct ConditionArgs {
     /// Ambient gas temperature.
-    #[arg(long, default_value = "800K")]
+    #[arg(long, allow_hyphen_values = true, default_value = "800K")]
     pub ambient_temperature: String,
     /// Ambient pressure.
-    #[arg(long, default_value = "1atm")]
+    #[arg(long, allow_hyphen_values = true, default_value = "1atm")]
     pub pressure: String,
     /// Ambient gas: air, n2, or mole fractions like o2=0.15,n2=0.75,co2=0.05,h2o=0.05.
     #[arg(long, default_value = "air")]
     pub gas: String,
     /// Initial droplet diameter.
-    #[arg(long, default_value = "50um")]
+    #[arg(long, allow_hyphen_values = true, default_value = "50um")]
     pub diameter: String,
     /// Initial droplet temperature.
-    #[arg(long, default_value = "300K")]
+    #[arg(long, allow_hyphen_values = true, default_value = "300K")]
     pub droplet_temperature: String,
     /// Relative velocity between droplet and gas (kept constant unless --injected).
-    #[arg(long, default_value = "0")]
+    #[arg(long, allow_hyphen_values = true, default_value = "0")]
     pub velocity: String,
     /// The droplet is injected at --velocity into gas at rest and slows down by drag.
     #[arg(long)]
@@ -245,10 +245,10 @@ pub struct ConditionArgs {
     #[arg(long, value_enum, default_value = "clift")]
     pub correlation: CorrelationArg,
     /// Relative tolerance of the time integration.
-    #[arg(long, default_value = "1e-6")]
+    #[arg(long, allow_hyphen_values = true, default_value = "1e-6")]
     pub rtol: String,
     /// Give up after this simulated time.
-    #[arg(long, default_value = "30s")]
+    #[arg(long, allow_hyphen_values = true, default_value = "30s")]
     pub max_time: String,
     /// Species inside the droplet: well-mixed (rapid mixing) or diffusion (effective diffusivity).
     #[arg(long, value_enum, default_value = "well-mixed")]
@@ -257,16 +257,16 @@ pub struct ConditionArgs {
     #[arg(long, value_enum, default_value = "uniform")]
     pub liquid_heat: HeatArg,
     /// Radial cells of the resolved liquid models.
-    #[arg(long, default_value = "40")]
+    #[arg(long, allow_hyphen_values = true, default_value = "40")]
     pub nodes: String,
     /// Langmuir–Knudsen non-equilibrium surface vapour (Miller, Harstad & Bellan 1998).
     #[arg(long)]
     pub non_equilibrium: bool,
     /// Multiply the liquid diffusivity (limit studies).
-    #[arg(long, default_value = "1", hide_short_help = true)]
+    #[arg(long, allow_hyphen_values = true, default_value = "1", hide_short_help = true)]
     pub liquid_diffusivity_factor: String,
     /// Multiply the liquid conductivity (limit studies).
-    #[arg(long, default_value = "1", hide_short_help = true)]
+    #[arg(long, allow_hyphen_values = true, default_value = "1", hide_short_help = true)]
     pub liquid_conductivity_factor: String,
 }
 
@@ -319,7 +319,7 @@ pub struct SweepArgs {
     #[arg(long, default_value = "dropcut-out/sweep")]
     pub out: PathBuf,
     /// Worker threads (0 = every core).
-    #[arg(long, default_value_t = 0, value_name = "N")]
+    #[arg(long, default_value_t = 0, value_name = "N", allow_hyphen_values = true)]
     pub threads: usize,
     /// Also write each case's history.csv and summary.json into OUT/cases/<case_id>/.
     #[arg(long)]
@@ -329,7 +329,7 @@ pub struct SweepArgs {
     pub resume: bool,
     /// Run only part K of N, K from 0: the cases with case_id % N == K. Inside a Slurm job array the default
     /// comes from SLURM_ARRAY_TASK_ID, SLURM_ARRAY_TASK_MIN and SLURM_ARRAY_TASK_COUNT.
-    #[arg(long, value_name = "K/N", conflicts_with = "slurm_script")]
+    #[arg(long, value_name = "K/N", conflicts_with = "slurm_script", allow_hyphen_values = true)]
     pub shard: Option<String>,
     /// Print a Slurm job-array batch script for this sweep (one task per shard, then a merge job) and exit.
     #[arg(long)]
@@ -374,31 +374,31 @@ pub struct TableArgs {
     /// Fuel file, library fuel id, or component id.
     pub fuel: String,
     /// First liquid temperature (default: the ideal-solubility freezing point, else 230 K).
-    #[arg(long)]
+    #[arg(long, allow_hyphen_values = true)]
     pub from: Option<String>,
     /// Last liquid temperature (default: the bubble point at --pressure or 0.95 of the lowest major Tc).
-    #[arg(long)]
+    #[arg(long, allow_hyphen_values = true)]
     pub to: Option<String>,
     /// Temperature step.
-    #[arg(long, default_value = "5K")]
+    #[arg(long, allow_hyphen_values = true, default_value = "5K")]
     pub step: String,
     /// Table pressure (bubble point, vapour diffusivities).
-    #[arg(long, default_value = "1atm")]
+    #[arg(long, allow_hyphen_values = true, default_value = "1atm")]
     pub pressure: String,
     /// Ambient gas of the vapour diffusivities and the surrogate runs: air, n2, or o2=0.21,n2=0.79 style.
     #[arg(long, default_value = "air")]
     pub gas: String,
     /// First temperature of the vapour columns of the component tables.
-    #[arg(long, default_value = "250K")]
+    #[arg(long, allow_hyphen_values = true, default_value = "250K")]
     pub vapor_from: String,
     /// Last temperature of the vapour columns of the component tables.
-    #[arg(long, default_value = "1500K")]
+    #[arg(long, allow_hyphen_values = true, default_value = "1500K")]
     pub vapor_to: String,
     /// Evaporated mass fractions of weathered residues to tabulate, e.g. 0,0.3,0.6.
-    #[arg(long, default_value = "")]
+    #[arg(long, allow_hyphen_values = true, default_value = "")]
     pub residue: String,
     /// Temperature of the open-vessel weathering that makes the residues.
-    #[arg(long, default_value = "350K")]
+    #[arg(long, allow_hyphen_values = true, default_value = "350K")]
     pub residue_temperature: String,
     /// Surrogate fit condition as key=value pairs (ambient-temperature, pressure, diameter, velocity,
     /// droplet-temperature); keys not given keep their defaults.

@@ -158,8 +158,8 @@ fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, json:
     }
     let x = fuel.mole_fractions();
     let v = fuel.volume_fractions();
-    let bubble = liquid::bubble_point(&fuel.components, &x, p)?;
-    let dew = liquid::dew_point(&fuel.components, &x, p)?;
+    let bubble = liquid::bubble_point(&fuel.components, &x, p).map_err(|e| CliError::input(format!("--pressure {pressure}: {e}")))?;
+    let dew = liquid::dew_point(&fuel.components, &x, p).map_err(|e| CliError::input(format!("--pressure {pressure}: {e}")))?;
     let state = liquid::state(&fuel.components, &fuel.mass_fractions, t);
     let show = FuelShow {
         name: fuel.name.clone(),
@@ -218,29 +218,7 @@ pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<Dr
     let rtol = parse_q("rtol", &c.rtol, Quantity::Dimensionless)?;
     let max_time = parse_q("max-time", &c.max_time, Quantity::Time)?;
     let gas = AmbientGas::parse(lib, &c.gas).map_err(|e| CliError::input(format!("--gas: {e}")))?;
-    let mut ambient_vapor = vec![];
-    if !c.ambient_vapor.trim().is_empty() {
-        ambient_vapor = vec![0.0; fuel.len()];
-        for item in c.ambient_vapor.split(',') {
-            let (id, y) = item
-                .split_once('=')
-                .ok_or_else(|| CliError::input(format!("--ambient-vapor: cannot read '{item}': use component=mass-fraction pairs")))?;
-            let comp = match fuel.components.iter().find(|c| c.answers_to(id.trim())) {
-                Some(c) => c.clone(),
-                None => lib.require_component(id.trim(), "--ambient-vapor")?.clone(),
-            };
-            let i = fuel
-                .components
-                .iter()
-                .position(|x| x.id == comp.id)
-                .ok_or_else(|| CliError::input(format!("--ambient-vapor: '{}' is not a component of fuel '{}'", id.trim(), fuel.name)))?;
-            let y: f64 = y.trim().parse().map_err(|_| CliError::input(format!("--ambient-vapor: '{}' is not a number", y.trim())))?;
-            if !(y.is_finite() && (0.0..0.5).contains(&y)) {
-                return Err(CliError::input(format!("--ambient-vapor: mass fraction {y} of '{}' must be in [0, 0.5)", id.trim())));
-            }
-            ambient_vapor[i] = y;
-        }
-    }
+    let ambient_vapor = crate::sweep::spec::vapor_fractions(lib, &fuel, &c.ambient_vapor).map_err(|e| CliError::input(format!("--ambient-vapor: {e}")))?;
     let mut inp = DropletInputs::new(fuel, gas, t_inf, p, d0, t0);
     inp.motion = if c.injected { Motion::Injected { velocity: v } } else { Motion::Fixed { velocity: v } };
     inp.correlation = match c.correlation {
@@ -284,11 +262,12 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
         notice(n);
     }
     let inp = droplet_inputs(lib, fuel, &args.condition)?;
+    // a bad limits file stops the command before the run, not after it has written half of its files
+    let limits = load_limits(args.limits.as_deref())?;
     progress(&format!("simulating {} ...", inp.fuel.name));
     let mut rec = model::droplet::Recorder::default();
     let run = model::simulate(&inp, &mut rec)?;
     output::history::write_run(&args.out, &inp, &run)?;
-    let limits = load_limits(args.limits.as_deref())?;
     write_droplet_residue(&args.out, &inp, &run, limits.as_ref())?;
     for n in &run.outcome.regime_notes {
         notice(n);

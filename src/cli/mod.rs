@@ -102,14 +102,59 @@ impl From<crate::units::UnitError> for CliError {
     }
 }
 
+/// Longest error message printed, in characters; longer ones (a 200 kB id echoed back) keep both ends.
+const MAX_MESSAGE_CHARS: usize = 1000;
+
+/// An error message as one printable line: newlines become spaces, other control characters are escaped
+/// (`\u{1b}`), and an overlong message keeps its start and end around `…`.
+fn printable_line(message: &str) -> String {
+    let mut s = String::with_capacity(message.len().min(4 * MAX_MESSAGE_CHARS));
+    for c in message.chars() {
+        match c {
+            '\n' | '\r' | '\t' => s.push(' '),
+            c if c.is_control() => s.extend(c.escape_default()),
+            c => s.push(c),
+        }
+    }
+    let n = s.chars().count();
+    if n <= MAX_MESSAGE_CHARS {
+        return s;
+    }
+    let head: String = s.chars().take(MAX_MESSAGE_CHARS * 2 / 3).collect();
+    let tail: String = s.chars().skip(n - MAX_MESSAGE_CHARS / 3).collect();
+    format!("{head} … ({} characters left out) … {tail}", n - head.chars().count() - tail.chars().count())
+}
+
+/// Fold clap's multi-line usage error (message, tip, usage, pointer to --help) into one `error:` line.
+fn one_line_usage_error(rendered: &str) -> String {
+    let mut parts: Vec<String> = vec![];
+    for line in rendered.lines().map(str::trim).filter(|l| !l.is_empty()) {
+        let line = line.strip_prefix("error:").map(str::trim).unwrap_or(line);
+        if line.starts_with("For more information") {
+            continue;
+        }
+        let line = line.strip_prefix("Usage:").map(|u| format!("usage: {}", u.trim())).unwrap_or_else(|| line.to_string());
+        parts.push(line);
+    }
+    let mut s = format!("error: {}", parts.join("; "));
+    s.push_str(" (see --help)");
+    s
+}
+
 /// Run the CLI with the given arguments (first = program name); returns the exit code.
 pub fn run(args: impl IntoIterator<Item = OsString>) -> i32 {
     let cli = match Cli::try_parse_from(args) {
         Ok(c) => c,
         Err(e) => {
-            let code = if e.use_stderr() { 2 } else { 0 };
-            let _ = e.print();
-            return code;
+            use clap::error::ErrorKind;
+            // --help, --version and a bare `dropcut` print their text as clap lays it out; a usage error is
+            // one `error:` line like every other error, so scripts and logs can rely on the last line.
+            if !e.use_stderr() || e.kind() == ErrorKind::DisplayHelpOnMissingArgumentOrSubcommand {
+                let _ = e.print();
+                return if e.use_stderr() { 2 } else { 0 };
+            }
+            let _ = writeln!(std::io::stderr(), "{}", printable_line(&one_line_usage_error(&e.render().to_string())));
+            return 2;
         }
     };
     let result = std::panic::catch_unwind(|| commands::dispatch(cli));
@@ -117,7 +162,7 @@ pub fn run(args: impl IntoIterator<Item = OsString>) -> i32 {
         Ok(Ok(())) => 0,
         Ok(Err(e)) => {
             let mut err = std::io::stderr().lock();
-            let _ = writeln!(err, "error: {}", e.message.replace('\n', " "));
+            let _ = writeln!(err, "error: {}", printable_line(&e.message));
             e.code
         }
         Err(_) => {

@@ -3,7 +3,7 @@
 use serde::Deserialize;
 
 use super::correlation::{Correlation, Dimension, RawCorrelation};
-use super::{toml_error_line, DataError};
+use super::{toml_error_at, DataError};
 
 /// Hydrocarbon (or oxygenate) class of a component.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord, Deserialize, serde::Serialize)]
@@ -259,6 +259,30 @@ pub const DEFAULT_UNCERTAINTY: [(&str, f64, f64); 10] = [
     ("vapor-conductivity", 0.05, 0.15),
 ];
 
+/// Broad plausible ranges of each property at the normal boiling point (SI), for load-time checks of
+/// user files: (section, low, high, unit). The vapour pressure there is 1 atm within a factor of two.
+pub const PLAUSIBLE_AT_BOILING: [(&str, f64, f64, &str); 10] = [
+    ("vapor-pressure", 101_325.0 / 2.0, 101_325.0 * 2.0, "Pa"),
+    ("liquid-density", 200.0, 3000.0, "kg/m3"),
+    ("latent-heat", 1e4, 1e7, "J/kg"),
+    ("liquid-heat-capacity", 300.0, 1e4, "J/(kg K)"),
+    ("liquid-viscosity", 1e-6, 10.0, "Pa s"),
+    ("liquid-conductivity", 0.01, 2.0, "W/(m K)"),
+    ("surface-tension", 1e-4, 0.2, "N/m"),
+    ("ideal-gas-heat-capacity", 300.0, 1e4, "J/(kg K)"),
+    ("vapor-viscosity", 1e-7, 1e-3, "Pa s"),
+    ("vapor-conductivity", 1e-4, 1.0, "W/(m K)"),
+];
+
+/// A number in four significant digits, in exponent form outside 0.001–100000.
+fn short(v: f64) -> String {
+    if v == 0.0 || !v.is_finite() || (1e-3..1e5).contains(&v.abs()) {
+        format!("{}", (v * 1e4).round() / 1e4).replace("NaN", "not-a-number").replace("inf", "infinite")
+    } else {
+        format!("{v:.3e}")
+    }
+}
+
 fn check_positive(s: &Sourced, context: &str, field: &str) -> Result<(), DataError> {
     if !(s.value.is_finite() && s.value > 0.0) {
         return Err(DataError::Invalid { context: format!("{context}: constants.{field}"), message: format!("value {} must be a positive finite number", s.value) });
@@ -274,7 +298,7 @@ fn check_positive(s: &Sourced, context: &str, field: &str) -> Result<(), DataErr
 impl Component {
     /// Parse and check a component file; `file` names it in messages.
     pub fn parse(text: &str, file: &str) -> Result<Self, DataError> {
-        let raw: RawComponent = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_line(&e) })?;
+        let raw: RawComponent = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_at(&e, text) })?;
         let ctx = format!("{file} (component '{}')", raw.id);
         if raw.id.is_empty() || !raw.id.chars().all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '-') {
             return Err(DataError::Invalid { context: format!("{file}: id"), message: format!("'{}' must be kebab-case (a-z, 0-9, -)", raw.id) });
@@ -325,7 +349,8 @@ impl Component {
         }
         match c.cetane_number.kind.as_deref() {
             Some("DCN") | Some("CN") => {}
-            other => return Err(DataError::Invalid { context: format!("{ctx}: constants.cetane-number.kind"), message: format!("{other:?} must be \"DCN\" or \"CN\"") }),
+            Some(other) => return Err(DataError::Invalid { context: format!("{ctx}: constants.cetane-number.kind"), message: format!("\"{other}\" must be \"DCN\" or \"CN\"") }),
+            None => return Err(DataError::Invalid { context: format!("{ctx}: constants.cetane-number"), message: "needs kind = \"DCN\" (derived) or kind = \"CN\" (engine cetane number)".into() }),
         }
         let wf = raw.formula;
         let formula_mass = 12.011e-3 * f64::from(wf.carbon) + 1.008e-3 * f64::from(wf.hydrogen) + 15.999e-3 * f64::from(wf.oxygen);
@@ -355,7 +380,7 @@ impl Component {
                 }
             }
         }
-        Ok(Component {
+        let component = Component {
             joback_groups,
             vapor_pressure: build(&raw.vapor_pressure, "vapor-pressure", Dimension::Pressure)?,
             liquid_density: build(&raw.liquid_density, "liquid-density", Dimension::Density)?,
@@ -393,7 +418,50 @@ impl Component {
             },
             origin: file.to_string(),
             property_scales: [1.0; 10],
-        })
+        };
+        component.check_plausible(&ctx)?;
+        Ok(component)
+    }
+
+    /// Evaluate every published correlation at the normal boiling point (and the liquid ones also halfway
+    /// between the melting and boiling points): the values must be finite, positive and inside broad
+    /// plausible ranges, so a wrong `unit`, a sign slip or a misplaced coefficient fails at load time
+    /// naming the section, instead of surfacing as a failed integration mid-run. Corresponding-states
+    /// estimates are computed from the checked constants and are not evaluated here.
+    fn check_plausible(&self, ctx: &str) -> Result<(), DataError> {
+        let tb = self.normal_boiling_point();
+        let t_mid = 0.5 * (self.constants.melting_point.value + tb);
+        for (key, corr) in self.correlations() {
+            if matches!(corr.form, super::correlation::Form::CorrespondingStates) {
+                continue;
+            }
+            let (lo, hi, unit) = PLAUSIBLE_AT_BOILING.iter().find(|(k, ..)| *k == key).map(|(_, lo, hi, u)| (*lo, *hi, *u)).unwrap_or((0.0, f64::INFINITY, ""));
+            let liquid_side = !key.starts_with("vapor-") && key != "ideal-gas-heat-capacity";
+            let temps: &[f64] = if liquid_side { &[tb, t_mid] } else { &[tb] };
+            for &t in temps {
+                let v = corr.eval(t);
+                if !(v.is_finite() && v > 0.0) {
+                    return Err(DataError::Invalid {
+                        context: format!("{ctx}: [{key}]"),
+                        message: format!("gives {} {unit} at {t:.2} K; it must be a positive finite number there (check the coefficients, their signs and 'unit')", short(v)),
+                    });
+                }
+            }
+            // a `constant` form is an idealised property (analytic test liquids): positive is all it must be
+            let v = corr.eval(tb);
+            if !matches!(corr.form, super::correlation::Form::Constant(_)) && !(lo..=hi).contains(&v) {
+                return Err(DataError::Invalid {
+                    context: format!("{ctx}: [{key}]"),
+                    message: format!(
+                        "gives {} {unit} at the normal boiling point {tb:.2} K, outside the plausible {}–{} {unit} (check 'unit' and the coefficients)",
+                        short(v),
+                        short(lo),
+                        short(hi)
+                    ),
+                });
+            }
+        }
+        Ok(())
     }
 
     /// A copy whose ten properties are multiplied by `scales` (in [`Component::correlations`] order).

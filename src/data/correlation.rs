@@ -229,6 +229,9 @@ impl RawCorrelation {
                 let low = self.coefficients_low.clone().unwrap_or_default();
                 let high = self.coefficients_high.clone().unwrap_or_default();
                 let t_mid = self.t_mid.ok_or_else(|| bad("model 'nasa7' needs key 't-mid'".into()))?;
+                if !(t_mid.is_finite() && t_mid > 0.0) {
+                    return Err(bad(format!("t-mid = {t_mid} must be a positive temperature [K]")));
+                }
                 if low.len() != 7 || high.len() != 7 || low.iter().chain(high.iter()).any(|x| !x.is_finite()) {
                     return Err(bad("model 'nasa7' needs 7 finite numbers in each of 'coefficients-low' and 'coefficients-high'".into()));
                 }
@@ -238,7 +241,12 @@ impl RawCorrelation {
                 h.copy_from_slice(&high);
                 Form::Nasa7 { low: l, high: h, t_mid }
             }
-            "corresponding-states" => Form::CorrespondingStates,
+            "corresponding-states" => {
+                if !self.source.strip_prefix("estimated:").is_some_and(|m| !m.is_empty()) {
+                    return Err(bad(format!("model 'corresponding-states' needs source = \"estimated:<method>\", found source = {:?}", self.source)));
+                }
+                Form::CorrespondingStates
+            }
             other => {
                 return Err(bad(format!(
                     "unknown model '{other}' (known: constant, dippr100, dippr101, dippr102, dippr105, dippr106, dippr107, dippr114, antoine, wagner, vogel, mulero-cachadina, nasa7, corresponding-states)"

@@ -5,7 +5,7 @@ use std::collections::BTreeMap;
 use serde::Deserialize;
 
 use super::correlation::{Correlation, Dimension, RawCorrelation};
-use super::{toml_error_line, DataError, Sourced};
+use super::{toml_error_at, DataError, Sourced};
 
 #[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields, rename_all = "kebab-case")]
@@ -51,7 +51,7 @@ pub struct GasSpecies {
 
 /// Parse the gases file into species by id.
 pub fn parse_gases(text: &str, file: &str) -> Result<BTreeMap<String, GasSpecies>, DataError> {
-    let raw: BTreeMap<String, RawGas> = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_line(&e) })?;
+    let raw: BTreeMap<String, RawGas> = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_at(&e, text) })?;
     let mut out = BTreeMap::new();
     for (id, g) in raw {
         let ctx = format!("{file} (gas '{id}')");

@@ -65,8 +65,33 @@ pub fn toml_error_line(e: &toml::de::Error) -> String {
     }
 }
 
+/// Reduce a TOML parser error on `text` to one line naming what and where: line, column and the start of
+/// that line (control characters shown as `?`, cut at 60 characters).
+pub fn toml_error_at(e: &toml::de::Error, text: &str) -> String {
+    let msg = e.message().split_whitespace().collect::<Vec<_>>().join(" ");
+    let Some(span) = e.span() else { return msg };
+    if span.start == 0 && span.end >= text.trim_end().len() {
+        return msg; // the whole document (e.g. a missing top-level field): no line to point at
+    }
+    let start = span.start.min(text.len());
+    let start = (0..=start).rev().find(|&i| text.is_char_boundary(i)).unwrap_or(0);
+    let before = &text[..start];
+    let line = before.matches('\n').count() + 1;
+    let line_start = before.rfind('\n').map(|i| i + 1).unwrap_or(0);
+    let column = text[line_start..start].chars().count() + 1;
+    let line_text: String = text[line_start..].lines().next().unwrap_or("").chars().take(60).map(|c| if c.is_control() { '?' } else { c }).collect();
+    if line_text.trim().is_empty() {
+        format!("line {line}, column {column}: {msg}")
+    } else {
+        format!("line {line}, column {column} (`{}`): {msg}", line_text.trim())
+    }
+}
+
 /// Closest id in `candidates` to `id` (for "did you mean" hints), by edit distance.
 pub fn suggest<'a>(id: &str, candidates: impl Iterator<Item = &'a str>) -> String {
+    if id.len() > 100 {
+        return String::new(); // no id is that long, and the distance would cost O(len) per candidate
+    }
     let mut best: Option<(usize, &str)> = None;
     for c in candidates {
         let d = edit_distance(id, c);

@@ -4,7 +4,7 @@ use std::collections::BTreeMap;
 
 use serde::Deserialize;
 
-use super::{toml_error_line, DataError};
+use super::{toml_error_at, DataError};
 
 /// One bibliographic source.
 #[derive(Debug, Clone, Deserialize, PartialEq)]
@@ -31,7 +31,7 @@ impl SourceRegistry {
     /// Parse a sources TOML file.
     pub fn parse(text: &str, file: &str) -> Result<Self, DataError> {
         let sources: BTreeMap<String, Source> =
-            toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_line(&e) })?;
+            toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_at(&e, text) })?;
         Ok(SourceRegistry { sources })
     }
 

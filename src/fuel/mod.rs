@@ -13,7 +13,7 @@ use std::sync::Arc;
 use serde::Deserialize;
 use thiserror::Error;
 
-use crate::data::{suggest, toml_error_line, Component, DataError, Library};
+use crate::data::{suggest, toml_error_at, Component, DataError, Library};
 
 /// Errors raised while building a fuel.
 #[derive(Debug, Error, Clone, PartialEq)]
@@ -120,6 +120,9 @@ fn fraction_value(v: &toml::Value, context: &str) -> Result<f64, FuelError> {
     if x < 0.0 {
         return Err(FuelError::Composition { context: context.into(), message: format!("fraction {x} is negative") });
     }
+    if x > 1.0 + SUM_TOLERANCE {
+        return Err(FuelError::Composition { context: context.into(), message: format!("fraction {} is above 1 (fractions lie between 0 and 1: 60 % is 0.6)", if x < 1e6 { format!("{x}") } else { format!("{x:e}") }) });
+    }
     Ok(x)
 }
 
@@ -207,7 +210,7 @@ impl Fuel {
                 return Ok(fuel);
             }
         }
-        let raw: RawFuel = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_line(&e) })?;
+        let raw: RawFuel = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_at(&e, text) })?;
         let name = raw.name.clone().unwrap_or_else(|| Path::new(file).file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default());
         let (entries, is_blend) = match (&raw.composition, &raw.blend) {
             (Some(c), None) => (c, false),
@@ -270,6 +273,8 @@ impl Fuel {
                     FuelError::Data(DataError::Unknown { kind, id, hint, .. }) => {
                         FuelError::Data(DataError::Unknown { context: format!("{file}: blend.{key}"), kind, id, hint })
                     }
+                    // the outermost file names the entry that failed; deeper levels pass the error up as it is
+                    other if depth == 0 => FuelError::Composition { context: format!("{file}: blend.{key}"), message: other.to_string() },
                     other => other,
                 })?;
                 let scale = match raw.basis {

@@ -526,13 +526,117 @@ pub(crate) fn validity_notes(inp: &DropletInputs) -> Vec<String> {
             inp.initial_temperature, t_m_max
         ));
     }
+    if let Some((t_f, id)) = ideal_solubility_freezing_point(comps, &x) {
+        if inp.ambient_temperature < t_f {
+            notes.push(format!(
+                "ambient temperature {:.1} K is below the fuel's ideal-solubility freezing point {t_f:.1} K (first crystals: {id}): the droplet cools toward the gas and may freeze; solidification is not modelled, liquid properties are extrapolated below the freezing point",
+                inp.ambient_temperature
+            ));
+        }
+    }
     if inp.initial_temperature > inp.ambient_temperature {
         notes.push("droplet starts hotter than the gas: it cools while evaporating (documented behaviour)".into());
     }
     if !inp.ambient_vapor.is_empty() && inp.ambient_vapor.iter().any(|y| *y > 0.0) {
         notes.push("ambient contains fuel vapour: components may condense on the droplet (negative species rates)".into());
+        // Far-field partial pressure of each vapour against its saturation pressure at the gas temperature.
+        let y_total: f64 = inp.ambient_vapor.iter().sum();
+        let moles: f64 = inp.ambient_vapor.iter().zip(comps).map(|(y, c)| y / c.molar_mass()).sum::<f64>() + (1.0 - y_total) / inp.gas.molar_mass;
+        for (c, y) in comps.iter().zip(&inp.ambient_vapor) {
+            if *y <= 0.0 || inp.ambient_temperature >= c.critical_temperature() {
+                continue;
+            }
+            let p_i = inp.pressure * (y / c.molar_mass()) / moles;
+            let p_sat = c.vapor_pressure(inp.ambient_temperature);
+            if p_sat.is_finite() && p_i > p_sat {
+                notes.push(format!(
+                    "ambient {} vapour is supersaturated: partial pressure {p_i:.4e} Pa above its saturation pressure {p_sat:.4e} Pa at the ambient {:.1} K; the far field is kept as given and the vapour condenses onto the droplet (it can grow); fog formation in the gas is not modelled",
+                    c.id, inp.ambient_temperature
+                ));
+            }
+        }
     }
     notes
+}
+
+/// An integration failure with the state it happened in, and the likely reason when the condition is past the
+/// model's validity (docs/validity.md): a one-line stop instead of an integrator's internal code.
+pub(crate) fn integration_failure(inp: &DropletInputs, time: f64, surface_temperature: f64, what: &str) -> ModelError {
+    let comps = &inp.fuel.components;
+    let p_pc = liquid::pseudo_critical_pressure(comps, &inp.fuel.mole_fractions());
+    let t_c = comps.iter().map(|c| c.critical_temperature()).fold(f64::INFINITY, f64::min);
+    let mut reason = format!("{what} (surface temperature {surface_temperature:.1} K)");
+    if inp.pressure >= p_pc {
+        reason.push_str(&format!(
+            "; the ambient pressure {:.3} MPa is at or above the liquid's pseudo-critical pressure {:.3} MPa, where the subcritical droplet model breaks down: lower the pressure or treat the result as out of range",
+            inp.pressure / 1e6,
+            p_pc / 1e6
+        ));
+    } else if surface_temperature >= t_c {
+        reason.push_str(&format!("; the surface is above a component's critical temperature ({t_c:.1} K), outside the subcritical model"));
+    }
+    ModelError::Integration { time, reason }
+}
+
+/// Ideal solid–liquid solubility (Schröder–van Laar, ΔCp neglected) freezing point of a liquid of mole
+/// fractions `x` [K] and the component that crystallises first; None when no component has an enthalpy of
+/// fusion. The same estimate as the residue indicators' freezing point.
+fn ideal_solubility_freezing_point(comps: &[std::sync::Arc<crate::data::Component>], x: &[f64]) -> Option<(f64, String)> {
+    let mut best: Option<(f64, String)> = None;
+    for (c, &xi) in comps.iter().zip(x) {
+        let Some(h) = c.constants.enthalpy_of_fusion.as_ref() else { continue };
+        if xi <= 0.0 {
+            continue;
+        }
+        let t = 1.0 / (1.0 / c.constants.melting_point.value - crate::data::GAS_CONSTANT * xi.ln() / h.value);
+        if t.is_finite() && best.as_ref().is_none_or(|(b, _)| t > *b) {
+            best = Some((t, c.id.clone()));
+        }
+    }
+    best
+}
+
+/// Watches the surface temperature against the critical temperatures of the components present at the
+/// surface (liquid mole fraction above 1 %), so a light component that has already evaporated raises no alarm.
+#[derive(Debug, Default)]
+pub(crate) struct CriticalWatch {
+    /// Worst case so far: (T_s / T_c, T_s [K], T_c [K], component index, mole fraction, time [s]).
+    worst: Option<(f64, f64, f64, usize, f64, f64)>,
+}
+
+impl CriticalWatch {
+    /// Look at one state: surface liquid mass fractions `w`, surface temperature and time.
+    #[inline]
+    pub(crate) fn observe(&mut self, comps: &[std::sync::Arc<crate::data::Component>], w: &[f64], surface_temperature: f64, time: f64) {
+        let moles: f64 = comps.iter().zip(w).map(|(c, w)| w.max(0.0) / c.molar_mass()).sum();
+        if !(moles > 0.0) {
+            return;
+        }
+        for (i, (c, w)) in comps.iter().zip(w).enumerate() {
+            let x = w.max(0.0) / c.molar_mass() / moles;
+            let ratio = surface_temperature / c.critical_temperature();
+            if x > 0.01 && ratio > 0.95 && self.worst.is_none_or(|b| ratio > b.0) {
+                self.worst = Some((ratio, surface_temperature, c.critical_temperature(), i, x, time));
+            }
+        }
+    }
+
+    /// The note, if the surface came within 5 % of (or rose above) a present component's critical temperature.
+    pub(crate) fn note(&self, comps: &[std::sync::Arc<crate::data::Component>]) -> Option<String> {
+        let (ratio, t_s, t_c, i, x, time) = self.worst?;
+        let id = &comps[i].id;
+        Some(if ratio >= 1.0 {
+            format!(
+                "surface temperature {t_s:.1} K rose above the critical temperature of {id} ({t_c:.1} K, {:.1} mol% of the surface liquid) at t = {time:.4e} s: there is no sharp liquid-vapour interface in reality (supercritical mixing); the subcritical model runs on with its correlations clamped at or extrapolated past the critical point, so results are indicative only",
+                100.0 * x
+            )
+        } else {
+            format!(
+                "surface temperature {t_s:.1} K came within 5 % of the critical temperature of {id} ({t_c:.1} K, {:.1} mol% of the surface liquid) at t = {time:.4e} s: subcritical correlations are near their limit",
+                100.0 * x
+            )
+        })
+    }
 }
 
 /// Run one droplet with the well-mixed liquid model.
@@ -634,6 +738,8 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
     let remaining = |y: &[f64]| -> f64 { y[..n].iter().sum::<f64>() / m0 };
 
     let first = make_row(&mut sys, 0.0, &y0, &mut dydt, true);
+    let mut critical = CriticalWatch::default();
+    critical.observe(&comps, &first.liquid_mass_fractions, first.surface_temperature, 0.0);
     let mut max_t = first.surface_temperature;
     let mut max_re = first.film.reynolds;
     let mut heatup_end = if first.film.heat_to_liquid.abs() <= 0.1 * first.film.heat_from_gas.abs() { Some(0.0) } else { None };
@@ -651,7 +757,11 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         let rem_prev = remaining(&stepper.y);
         let step = stepper.step(&mut sys);
         if let Err(e) = step {
-            return Err(ModelError::Integration { time: t_prev, reason: format!("{e:?}") });
+            let what = match e {
+                super::integrator::StepError::StepTooSmall { .. } => "the step size fell to the round-off limit",
+                super::integrator::StepError::NonFinite { .. } => "the equations gave a non-finite value",
+            };
+            return Err(integration_failure(inp, t_prev, stepper.y[n], what));
         }
         let mut t_now = stepper.t;
         let rem_now = remaining(&stepper.y);
@@ -672,6 +782,7 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         }
         let mut row = make_row(&mut sys, t_now, &y_end, &mut dydt, finished);
         max_t = max_t.max(row.surface_temperature);
+        critical.observe(&comps, &row.liquid_mass_fractions, row.surface_temperature, t_now);
         max_re = max_re.max(row.film.reynolds);
         if heatup_end.is_none() && row.film.heat_to_liquid.abs() <= 0.1 * row.film.heat_from_gas.abs() {
             heatup_end = Some(t_now);
@@ -735,11 +846,8 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
             mass_err = mass_err.max(((y[i] + y[n + 2 + i]) - initial).abs() / initial);
         }
     }
-    let t_min = comps.iter().zip(&x0).filter(|(_, x)| **x > 1e-3).map(|(c, _)| c.critical_temperature()).fold(f64::INFINITY, f64::min);
-    if max_t > 0.95 * t_min {
-        notes.push(format!(
-            "surface temperature {max_t:.1} K came within 5 % of a component's critical temperature ({t_min:.1} K): subcritical correlations are near their limit"
-        ));
+    if let Some(note) = critical.note(&comps) {
+        notes.push(note);
     }
     if max_re > 400.0 {
         notes.push(format!("Reynolds number reached {max_re:.0}, above the 400 to which the Clift correlation was fitted (and above 1000 the standard drag law is held at C_D = 0.424): transfer rates are extrapolated"));

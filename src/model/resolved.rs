@@ -444,6 +444,8 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
     let mut next_profile = 0;
     let wants_rows = observer.wants_rows();
     let first = model.row(&state, m0, inp.initial_diameter);
+    let mut critical = super::droplet::CriticalWatch::default();
+    critical.observe(&model.comps, &first.surface_liquid_mass_fractions, first.surface_temperature, 0.0);
     let mut max_t = first.surface_temperature;
     let mut max_re = first.film.reynolds;
     let mut heatup_end = if first.film.heat_to_liquid.abs() <= 0.1 * first.film.heat_from_gas.abs() { Some(0.0) } else { None };
@@ -488,7 +490,7 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
                         boiling_stop = true;
                         break;
                     }
-                    return Err(ModelError::Integration { time: state.time, reason: format!("step size underflow ({e})") });
+                    return Err(super::droplet::integration_failure(inp, state.time, state.surface_t, &format!("the step size fell to the round-off limit ({e})")));
                 }
                 continue;
             }
@@ -523,6 +525,7 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         state = new;
         let row = model.row(&state, m0, inp.initial_diameter);
         max_t = max_t.max(row.surface_temperature);
+        critical.observe(&model.comps, &row.surface_liquid_mass_fractions, row.surface_temperature, state.time);
         max_re = max_re.max(row.film.reynolds);
         if heatup_end.is_none() && row.film.heat_to_liquid.abs() <= 0.1 * row.film.heat_from_gas.abs() {
             heatup_end = Some(state.time);
@@ -553,9 +556,8 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
             state.time
         ));
     }
-    let t_min = model.comps.iter().zip(&x0).filter(|(_, x)| **x > 1e-3).map(|(c, _)| c.critical_temperature()).fold(f64::INFINITY, f64::min);
-    if max_t > 0.95 * t_min {
-        notes.push(format!("surface temperature {max_t:.1} K came within 5 % of a component's critical temperature ({t_min:.1} K)"));
+    if let Some(note) = critical.note(&model.comps) {
+        notes.push(note);
     }
     if max_re > 400.0 {
         notes.push(format!("Reynolds number reached {max_re:.0}, above the 400 to which the Clift correlation was fitted (and above 1000 the standard drag law is held at C_D = 0.424): transfer rates are extrapolated"));

@@ -230,6 +230,7 @@ fn save(dir: &Path, stem: &str, title: &str, size: (u32, u32), fig: Figure) -> R
         root.present().map_err(|e| chart_err(&png_path, de(e)))?;
     }
     std::fs::rename(&tmp, &png_path).map_err(|e| chart_err(&png_path, e.to_string()))?;
+    super::remove_stale_temps(dir, &format!(".{stem}.tmp-"), ".png");
     Ok(ChartFiles { stem: stem.into(), title: title.into(), png: png_path, svg: svg_path })
 }
 

@@ -93,7 +93,27 @@ fn write_via_temp(path: &Path, contents: &[u8], sync: bool) -> Result<(), Output
             f.sync_all().map_err(|e| io_err(&tmp, e))?;
         }
     }
-    fs::rename(&tmp, path).map_err(|e| io_err(path, e))
+    fs::rename(&tmp, path).map_err(|e| io_err(path, e))?;
+    if let (Some(dir), Some(name)) = (path.parent(), path.file_name()) {
+        let mut prefix = name.to_os_string();
+        prefix.push(".tmp-");
+        remove_stale_temps(dir, &prefix.to_string_lossy(), "");
+    }
+    Ok(())
+}
+
+/// Remove temporary files `<prefix><anything><suffix>` that an interrupted earlier run left in `dir` (the
+/// file the current run just wrote has already been renamed into place). Best effort: failures are ignored.
+pub(crate) fn remove_stale_temps(dir: &Path, prefix: &str, suffix: &str) {
+    let dir = if dir.as_os_str().is_empty() { Path::new(".") } else { dir };
+    let Ok(entries) = fs::read_dir(dir) else { return };
+    for e in entries.flatten() {
+        let name = e.file_name();
+        let name = name.to_string_lossy();
+        if name.len() > prefix.len() + suffix.len() && name.starts_with(prefix) && name.ends_with(suffix) {
+            let _ = fs::remove_file(e.path());
+        }
+    }
 }
 
 /// Format a float for CSV: shortest round-trip representation; refuses NaN/infinity.

@@ -191,14 +191,15 @@ impl Limits {
     /// Read a limits file from disk.
     pub fn load(path: &Path) -> Result<Self, LimitsError> {
         let file = path.display().to_string();
-        let text = std::fs::read_to_string(path).map_err(|e| LimitsError::Io { file: file.clone(), message: e.to_string() })?;
+        let bytes = std::fs::read(path).map_err(|e| LimitsError::Io { file: file.clone(), message: e.to_string() })?;
+        let text = String::from_utf8(bytes).map_err(|_| LimitsError::Parse { file: file.clone(), message: "file is not UTF-8 text".into() })?;
         Self::parse(&text, &file)
     }
 
     /// Parse a limits file's text; `file` names it in messages.
     pub fn parse(text: &str, file: &str) -> Result<Self, LimitsError> {
         let f = || file.to_string();
-        let table: toml::Table = toml::from_str(text).map_err(|e| LimitsError::Parse { file: f(), message: crate::data::toml_error_line(&e) })?;
+        let table: toml::Table = toml::from_str(text).map_err(|e| LimitsError::Parse { file: f(), message: crate::data::toml_error_at(&e, text) })?;
         for k in table.keys() {
             if !["title", "description", "limits"].contains(&k.as_str()) {
                 return Err(LimitsError::UnknownField { file: f(), field: k.clone(), known: TOP_FIELDS, hint: suggest(k, ["title", "description", "limits"].into_iter()) });
@@ -218,6 +219,12 @@ impl Limits {
             Some(v) => return Err(LimitsError::InvalidValue { file: f(), field: "limits".into(), value: value_text(v), message: "must be a table of [limits.<indicator key>] sections".into() }),
             None => return Err(LimitsError::Missing { file: f(), field: "limits".into(), message: "no [limits.<indicator key>] sections".into() }),
         };
+        if title.trim().is_empty() {
+            return Err(LimitsError::InvalidValue { file: f(), field: "title".into(), value: "\"\"".into(), message: "must not be empty".into() });
+        }
+        if limits.is_empty() {
+            return Err(LimitsError::Missing { file: f(), field: "limits".into(), message: "is empty: add [limits.<indicator key>] sections".into() });
+        }
         let mut windows = vec![];
         for (key, v) in limits {
             let Some(unit) = Indicators::unit(key) else {
@@ -270,6 +277,11 @@ impl Limits {
                 if !x.is_finite() {
                     return Err(bad(&w[name], "must be a finite number".into()));
                 }
+                let (lo, hi, hint) = plausible_bounds(key, unit);
+                if !(lo..=hi).contains(&x) {
+                    let u = if unit == "-" { String::new() } else { format!(" {unit}") };
+                    return Err(bad(&w[name], format!("{x}{u} is outside the plausible {lo}–{hi}{u} for this key{hint}")));
+                }
                 Ok(Some(x))
             };
             let min = number("min")?;
@@ -283,6 +295,9 @@ impl Limits {
                 }
             }
             let source = string("source")?.ok_or_else(|| LimitsError::Missing { file: f(), field: format!("{path}.source"), message: "every window needs a source (standard and clause)".into() })?;
+            if source.trim().is_empty() {
+                return Err(LimitsError::InvalidValue { file: f(), field: format!("{path}.source"), value: "\"\"".into(), message: "must name the standard and clause".into() });
+            }
             windows.push(LimitWindow { key: key.clone(), label: string("label")?.unwrap_or_else(|| key.clone()), min, max, unit, source, note: string("note")? });
         }
         // toml tables do not keep file order: use the indicator table order
@@ -314,6 +329,24 @@ impl Limits {
                 LimitFlag { key: w.key.clone(), label: w.label.clone(), value, min: w.min, max: w.max, unit: w.unit, status, source: w.source.clone(), message }
             })
             .collect()
+    }
+}
+
+/// Broad plausible bounds of a window value of `key` (in its SI `unit`), with a hint at the usual unit slip:
+/// they catch percentages written for fractions, mm²/s or g/cm³ numbers, temperatures below absolute zero.
+fn plausible_bounds(key: &str, unit: &str) -> (f64, f64, &'static str) {
+    match (key, unit) {
+        (_, "K") => (1.0, 2000.0, " (temperatures are in K; \"38degC\" style strings are accepted)"),
+        (_, "Pa") => (0.0, 1e8, " (pressures are in Pa)"),
+        (_, "kg/m3") => (100.0, 3000.0, " (densities are in kg/m3, not g/cm3)"),
+        (_, "m2/s") => (0.0, 0.01, " (kinematic viscosities are in m2/s: 8 mm2/s is 8.0e-6)"),
+        (_, "N/m") => (0.0, 1.0, " (surface tensions are in N/m: 25 mN/m is 0.025)"),
+        (_, "J/kg") => (1e6, 2e8, " (heating values are in J/kg: 42.8 MJ/kg is 42.8e6)"),
+        (_, "J/m3") => (1e8, 1e12, " (heating values per volume are in J/m3)"),
+        (_, "kg/mol") => (0.001, 2.0, " (molar masses are in kg/mol)"),
+        ("dcn", _) => (0.0, 150.0, ""),
+        ("hc_ratio", _) => (0.0, 10.0, " (molar H/C ratio)"),
+        _ => (0.0, 1.0, " (fractions are between 0 and 1: 25 % is 0.25)"),
     }
 }
 
@@ -376,7 +409,7 @@ mod tests {
         let fuel = Fuel::resolve("demo-wide", &lib).unwrap();
         let mut ind = indicators(&fuel.components, &fuel.mass_fractions, &IndicatorOptions::default()).unwrap();
         let l = Limits::parse(
-            "title = \"t\"\n[limits.density_15C_kg_m3]\nmin = 1\nmax = 2\nsource = \"s\"\n[limits.dcn]\nmin = 0\nsource = \"s\"\n[limits.freezing_point_K]\nmax = 1000\nsource = \"s\"\n",
+            "title = \"t\"\n[limits.density_15C_kg_m3]\nmin = 900\nmax = 1000\nsource = \"s\"\n[limits.dcn]\nmin = 0\nsource = \"s\"\n[limits.freezing_point_K]\nmax = 1000\nsource = \"s\"\n",
             "t.toml",
         )
         .unwrap();

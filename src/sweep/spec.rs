@@ -10,7 +10,7 @@ use std::collections::BTreeMap;
 use std::path::Path;
 use std::sync::Arc;
 
-use crate::data::{suggest, toml_error_line, Library};
+use crate::data::{suggest, toml_error_at, Library};
 use crate::fuel::Fuel;
 use crate::model::droplet::{LiquidHeat, LiquidMixing, LiquidOptions};
 use crate::model::{DropletInputs, Motion, TransferCorrelation};
@@ -323,14 +323,28 @@ pub fn vapor_fractions(lib: &Library, fuel: &Fuel, text: &str) -> Result<Vec<f64
         return Ok(vec![]);
     }
     let mut y_all = vec![0.0; fuel.len()];
+    let mut seen = vec![false; fuel.len()];
     for item in text.split(',') {
         let (id, y) = item.split_once('=').ok_or_else(|| format!("cannot read '{}': use component=mass-fraction pairs", item.trim()))?;
-        let comp = lib.require_component(id.trim(), "ambient-vapor").map_err(|e| e.to_string())?;
+        // the fuel's own components first: a built fuel may hold components the library does not know
+        let comp = match fuel.components.iter().find(|c| c.answers_to(id.trim())) {
+            Some(c) => c.clone(),
+            None => lib
+                .require_component(id.trim(), "ambient-vapor")
+                .map_err(|e| match e {
+                    crate::data::DataError::Unknown { kind, id, hint, .. } => format!("unknown {kind} '{id}'{hint}"),
+                    other => other.to_string(),
+                })?
+                .clone(),
+        };
         let i = fuel
             .components
             .iter()
             .position(|c| c.id == comp.id)
             .ok_or_else(|| format!("'{}' is not a component of fuel '{}'", id.trim(), fuel.name))?;
+        if std::mem::replace(&mut seen[i], true) {
+            return Err(format!("component '{}' is given twice (under its id or an alias)", comp.id));
+        }
         let y: f64 = y.trim().parse().map_err(|_| format!("mass fraction '{}' of '{}' is not a number", y.trim(), id.trim()))?;
         if !(y.is_finite() && (0.0..0.5).contains(&y)) {
             return Err(format!("mass fraction {y} of '{}' must be in [0, 0.5)", id.trim()));
@@ -353,7 +367,7 @@ impl SweepSpec {
     /// Parse spec text; `file` names it in messages and `base_dir` is where relative fuel paths are tried first.
     pub fn parse(text: &str, file: &str, base_dir: &Path, lib: &Library) -> Result<SweepSpec, SweepError> {
         let ctx = Ctx { file, lib };
-        let table: toml::Table = toml::from_str(text).map_err(|e| ctx.err("(syntax)", toml_error_line(&e)))?;
+        let table: toml::Table = toml::from_str(text).map_err(|e| ctx.err("(syntax)", toml_error_at(&e, text)))?;
         for key in table.keys() {
             if !TOP_KEYS.contains(&key.as_str()) {
                 return Err(unknown_key(&ctx, key, key, &TOP_KEYS));

@@ -156,6 +156,9 @@ pub fn parse(text: &str, what: Quantity) -> Result<f64, UnitError> {
     if !value.is_finite() {
         return Err(err("not a finite number".into()));
     }
+    if what == Quantity::Temperature && value < 0.0 {
+        return Err(err(format!("{value:.2} K is below absolute zero")));
+    }
     Ok(value)
 }
 
@@ -210,6 +213,9 @@ mod tests {
             assert!(parse(bad, Quantity::Pressure).is_err(), "{bad}");
         }
         assert!(parse("300 bar", Quantity::Temperature).is_err());
+        let e = parse("-300degC", Quantity::Temperature).unwrap_err().to_string();
+        assert!(e.contains("below absolute zero") && e.contains("-300degC"), "{e}");
+        assert!((parse("-20degC", Quantity::Temperature).unwrap() - 253.15).abs() < 1e-9);
     }
 
     #[test]

@@ -209,7 +209,7 @@ impl ClassTable {
     /// Parse the TOML form: `name`, `description`, optional `basis = "mass"`, tables
     /// `[mass-percent.<class>]` with `C10 = 8.1` entries, optional `[map]` with `"class.Cn" = "component-id"`.
     pub fn parse_toml(text: &str, file: &str, default_name: &str) -> Result<Self, BuildError> {
-        let root: toml::Table = toml::from_str(text).map_err(|e| input_error(file, crate::data::toml_error_line(&e)))?;
+        let root: toml::Table = toml::from_str(text).map_err(|e| input_error(file, crate::data::toml_error_at(&e, text)))?;
         let mut table = ClassTable { name: default_name.into(), description: String::new(), cells: BTreeMap::new(), map: BTreeMap::new(), origin: file.into() };
         for (key, value) in &root {
             let ctx = format!("{file}: {key}");

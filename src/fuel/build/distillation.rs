@@ -126,7 +126,7 @@ impl DistillationCurve {
     /// `density-15C = "799 kg/m3"` or `specific-gravity = 0.8`, and `[points]` with `IBP = 155`, `10 = 171`, ...
     /// (values are numbers in `temperature-unit` or strings with a unit such as "171 degC").
     pub fn parse_toml(text: &str, file: &str, default_name: &str) -> Result<Self, BuildError> {
-        let root: toml::Table = toml::from_str(text).map_err(|e| input_error(file, crate::data::toml_error_line(&e)))?;
+        let root: toml::Table = toml::from_str(text).map_err(|e| input_error(file, crate::data::toml_error_at(&e, text)))?;
         let mut curve = DistillationCurve { name: default_name.into(), description: String::new(), kind: CurveKind::D86, points: vec![], density_15c: None, origin: file.into() };
         let mut kind = None;
         let mut unit = None;

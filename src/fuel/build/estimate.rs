@@ -71,6 +71,9 @@ pub fn parse_groups(spec: &str, context: &str) -> Result<Vec<(&'static Group, u3
     if spec.trim().is_empty() {
         return Err(input_error(context, "no groups given (e.g. \"CH3=2,CH2=10\")"));
     }
+    if spec.chars().any(char::is_control) {
+        return Err(input_error(context, format!("{:?} contains a control character (a line break?); give the groups on one line like CH3=2,CH2=10", spec.chars().take(60).collect::<String>())));
+    }
     for item in spec.split(',') {
         let item = item.trim();
         if item.is_empty() {

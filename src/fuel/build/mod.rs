@@ -41,7 +41,9 @@ pub enum BuildError {
 
 /// Build a [`BuildError::Input`].
 pub(crate) fn input_error(context: impl Into<String>, message: impl Into<String>) -> BuildError {
-    BuildError::Input { context: context.into(), message: message.into() }
+    // cells and keys echoed from the input may hold line breaks (a quoted CSV field): keep the message one line
+    let one_line = |s: String| if s.contains(char::is_control) { s.chars().map(|c| if c.is_control() { ' ' } else { c }).collect() } else { s };
+    BuildError::Input { context: one_line(context.into()), message: one_line(message.into()) }
 }
 
 /// Simulated distillation used to calibrate distillation cuts: (fuel, evaporated volume fractions in 0..1)

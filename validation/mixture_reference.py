@@ -7,7 +7,7 @@ Writes, under validation/coolprop/ (next to this script):
                        reference equations of state in CoolProp (pure fluids only; CoolProp's
                        mixture models are NOT used)
   raoult_surface.csv   the surface-equilibrium numbers of the worked check in
-                       /work/shared/physics.md A.7 (equimolar liquid at 300 K, 101325 Pa, dry air),
+                       ../shared/physics.md (the project notes beside the repository) A.7 (equimolar liquid at 300 K, 101325 Pa, dry air),
                        recomputed here with more digits
 
 The calculation is done by hand in this script (bisection on T); only CoolProp's pure-fluid
@@ -122,7 +122,7 @@ def main():
     extra = [
         "state: equimolar liquid n-heptane/n-decane at T_s = 300 K, p = 101325 Pa, dry air far away (no fuel vapour)",
         f"ambient molar mass: dry air N2 0.7812 / O2 0.2096 / Ar 0.0092 by mole = {W_AIR * 1e3:.4f} g/mol",
-        "purpose: recomputes the worked check of /work/shared/physics.md A.7 (X_s 0.0329/0.00102, Y_s 0.1050/0.00463, B_M 0.1232, eps 0.958/0.042)",
+        "purpose: recomputes the worked check of ../shared/physics.md (the project notes beside the repository) A.7 (X_s 0.0329/0.00102, Y_s 0.1050/0.00463, B_M 0.1232, eps 0.958/0.042)",
     ]
     with open(path, "w", newline="") as fh:
         fh.write("\n".join(header("Raoult surface equilibrium of an n-heptane/n-decane droplet surface, for dropcut validation.", cols, extra)) + "\n")

@@ -610,7 +610,7 @@ fn bubble_point_checks(lib: &Library) -> Vec<CheckResult> {
     out
 }
 
-/// (a) The worked Raoult surface check of the physics notes (/work/shared/physics.md A.7): equimolar
+/// (a) The worked Raoult surface check of the physics notes (../shared/physics.md (the project notes beside the repository) A.7): equimolar
 /// n-heptane/n-decane liquid at T_s = 300 K, 101.325 kPa, dry air, no fuel vapour far away. Expected values
 /// (computed there with CoolProp 8.0 reference-EOS vapour pressures 6.675 / 0.207 kPa; recomputed with more
 /// digits by validation/mixture_reference.py into validation/coolprop/raoult_surface.csv: 0.0329381,

@@ -23,7 +23,7 @@ passed=0; failed=0; timed=0
 start=$(date +%s)
 for t in $targets; do
   t0=$(date +%s)
-  timeout "${share}s" "$bin" --exact "$t" --test-threads 1 > "/tmp/fuzz-$t.log" 2>&1
+  timeout "${share}s" "$bin" --exact "$t" --test-threads 1 > "${TMPDIR:-/tmp}/fuzz-$t.log" 2>&1
   rc=$?
   dt=$(( $(date +%s) - t0 ))
   if [ $rc -eq 0 ]; then
@@ -31,7 +31,7 @@ for t in $targets; do
   elif [ $rc -eq 124 ]; then
     echo "ok      $t: time share of ${share}s reached before $PROPTEST_CASES cases, no failure"; timed=$((timed + 1))
   else
-    echo "FAILED  $t (log: /tmp/fuzz-$t.log)"; grep -E "minimal failing input|Test failed" -A6 "/tmp/fuzz-$t.log" | head -20
+    echo "FAILED  $t (log: ${TMPDIR:-/tmp}/fuzz-$t.log)"; grep -E "minimal failing input|Test failed" -A6 "${TMPDIR:-/tmp}/fuzz-$t.log" | head -20
     failed=$((failed + 1))
   fi
 done

@@ -36,7 +36,7 @@ fn benches(c: &mut Criterion) {
     let (mut sys, y0) = WellMixed::new(&inp10);
     let mut dy = vec![0.0; y0.len()];
     c.bench_function("right-hand side, 10 components (well-mixed)", |b| b.iter(|| sys.rhs(0.0, black_box(&y0), &mut dy)));
-    for n in [1, 10, 42] {
+    for n in [1, 10, 41] {
         let inp = inputs(&lib, n);
         c.bench_function(&format!("lifetime, {n} components, well-mixed"), |b| b.iter(|| black_box(simulate(&inp, &mut NoHistory).unwrap())));
     }
@@ -49,6 +49,14 @@ fn benches(c: &mut Criterion) {
     group.bench_function("lifetime, 20 components x 40 cells, diffusion + conduction", |b| b.iter(|| black_box(simulate(&inp, &mut NoHistory).unwrap())));
     group.finish();
     let wide = Fuel::resolve("demo-wide", &lib).unwrap();
+    let mut topts = dropcut::table::TableOptions::new(AmbientGas::air(&lib).unwrap());
+    topts.surrogate = None;
+    let mut tg = c.benchmark_group("tables");
+    tg.sample_size(10);
+    tg.bench_function("property tables of demo-wide (mixture + 25 components, 5 K steps, no surrogate)", |b| {
+        b.iter(|| black_box(dropcut::table::build(&wide, &topts).unwrap()))
+    });
+    tg.finish();
     let opts = dropcut::post::IndicatorOptions::default();
     c.bench_function("residue indicators, demo-wide (25 components)", |b| {
         b.iter(|| black_box(dropcut::post::indicators(&wide.components, &wide.mass_fractions, &opts).unwrap()))

@@ -1,7 +1,8 @@
 //! dropcut: heating and evaporation of multicomponent liquid-fuel droplets, and how the residual liquid drifts.
 //!
 //! Layers, each depending only on those above it in this list:
-//! [`units`] → [`data`] → [`props`] → [`fuel`] → [`model`] → [`post`] → [`table`] → [`output`] → [`sweep`] → [`cli`].
+//! [`units`] → [`data`] → [`props`] → [`fuel`] → [`model`] → [`post`] → [`table`] → [`uncertainty`] → [`output`] →
+//! [`sweep`] → [`cli`].
 #![warn(missing_docs)]
 #![allow(non_snake_case)] // SI-unit suffixes in names: temperature_K, pressure_Pa
 
@@ -15,4 +16,5 @@ pub mod post;
 pub mod props;
 pub mod sweep;
 pub mod table;
+pub mod uncertainty;
 pub mod units;

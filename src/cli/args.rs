@@ -59,6 +59,10 @@ pub enum Command {
     /// Property tables for spray CFD: mixture, components, weathered residues, a single-component surrogate
     /// and polynomial fits (CSV or JSON).
     Table(TableArgs),
+    /// Uncertainty bands: sample the uncertain conditions, composition and property correlations, run one droplet
+    /// per sample on all cores, and write percentile bands, a sensitivity ranking and charts (several fuels:
+    /// bands side by side and whether they overlap).
+    Uncertainty(UncertaintyArgs),
     /// Rerun every validation check and write the report (Markdown).
     Validate {
         /// Report file.
@@ -430,6 +434,71 @@ pub struct CompareArgs {
     pub vary: Option<String>,
     /// Output folder.
     #[arg(long, default_value = "dropcut-out/compare")]
+    pub out: PathBuf,
+    /// Do not draw charts.
+    #[arg(long)]
+    pub no_plots: bool,
+}
+
+/// Sampling design of `uncertainty`.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum SamplingArg {
+    /// Independent draws.
+    MonteCarlo,
+    /// Latin hypercube: one draw per equal-probability stratum of each input.
+    LatinHypercube,
+}
+
+/// Distribution of the property factors.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum PropertyDistributionArg {
+    /// 1 + u z, z standard normal truncated at ±3.
+    Normal,
+    /// exp(u z), z standard normal truncated at ±3.
+    LogNormal,
+}
+
+/// `uncertainty` arguments.
+#[derive(Debug, Clone, Args)]
+pub struct UncertaintyArgs {
+    /// Fuels (fuel files, library fuel ids or component ids); with several, each gets a sub-folder and the bands
+    /// are drawn together.
+    #[arg(required = true, num_args = 1..)]
+    pub fuels: Vec<String>,
+    /// Nominal conditions (as for simulate).
+    #[command(flatten)]
+    pub condition: ConditionArgs,
+    /// Number of samples.
+    #[arg(long, default_value = "200", value_name = "N")]
+    pub samples: String,
+    /// Seed of the random draws (the same seed gives the same files whatever the thread count).
+    #[arg(long, default_value = "1", value_name = "S")]
+    pub seed: String,
+    /// Uncertainty file (TOML: [conditions], [composition], [properties]; see docs/uncertainty.md).
+    #[arg(long, value_name = "FILE")]
+    pub uncertainty: Option<PathBuf>,
+    /// Condition spreads, e.g. ambient-temperature=10K,pressure=2% (normal standard deviations; % = relative);
+    /// they replace the file's entries.
+    #[arg(long, default_value = "", value_name = "KEY=SD,...")]
+    pub condition_uncertainty: String,
+    /// Composition spreads, relative on mass fractions, per component id, class, class group (aromatics,
+    /// cycloalkanes, alkanes) or each-component, e.g. aromatics=10%,n-decane=0.05.
+    #[arg(long, default_value = "", value_name = "NAME=SD,...")]
+    pub composition_uncertainty: String,
+    /// Multiply every stated property uncertainty (0 = properties exact); replaces the file's scale.
+    #[arg(long, value_name = "X")]
+    pub property_scale: Option<String>,
+    /// Distribution of the property factors; replaces the file's choice.
+    #[arg(long, value_enum)]
+    pub property_distribution: Option<PropertyDistributionArg>,
+    /// Sampling design.
+    #[arg(long, value_enum, default_value = "monte-carlo")]
+    pub method: SamplingArg,
+    /// Worker threads (0 = every core).
+    #[arg(long, default_value_t = 0, value_name = "N")]
+    pub threads: usize,
+    /// Output folder.
+    #[arg(long, default_value = "dropcut-out/uncertainty")]
     pub out: PathBuf,
     /// Do not draw charts.
     #[arg(long)]

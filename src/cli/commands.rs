@@ -35,6 +35,7 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
         Command::Validate { out } => validate(&out),
         Command::Residue(args) => residue(&lib, &args),
         Command::Table(args) => super::table::table(&lib, &args),
+        Command::Uncertainty(args) => super::uncertainty::uncertainty(&lib, &args),
     }
 }
 

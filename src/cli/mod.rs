@@ -7,6 +7,7 @@ mod fuelbuild;
 mod sweep;
 mod table;
 mod plot;
+mod uncertainty;
 
 use std::ffi::OsString;
 use std::io::Write;
@@ -77,6 +78,16 @@ impl From<crate::model::ModelError> for CliError {
 
 impl From<crate::sweep::SweepError> for CliError {
     fn from(e: crate::sweep::SweepError) -> Self {
+        if e.is_input() {
+            CliError::input(e.to_string())
+        } else {
+            CliError::runtime(e.to_string())
+        }
+    }
+}
+
+impl From<crate::uncertainty::UncertaintyError> for CliError {
+    fn from(e: crate::uncertainty::UncertaintyError) -> Self {
         if e.is_input() {
             CliError::input(e.to_string())
         } else {

@@ -240,6 +240,9 @@ pub struct Component {
     pub vapor_conductivity: Correlation,
     /// File the component came from.
     pub origin: String,
+    /// Multipliers on the ten properties, in [`Component::correlations`] order [-]: 1 everywhere except in
+    /// uncertainty samples (`crate::uncertainty`), which set them with [`Component::with_property_scales`].
+    pub property_scales: [f64; 10],
 }
 
 /// Default relative uncertainties (published coefficients, estimated) per property; docs/property-methods.md.
@@ -414,6 +417,7 @@ impl Component {
                 lennard_jones_epsilon_over_k: raw.constants.lennard_jones_epsilon_over_k,
             },
             origin: file.to_string(),
+            property_scales: [1.0; 10],
         };
         component.check_plausible(&ctx)?;
         Ok(component)
@@ -458,6 +462,11 @@ impl Component {
             }
         }
         Ok(())
+    }
+
+    /// A copy whose ten properties are multiplied by `scales` (in [`Component::correlations`] order).
+    pub fn with_property_scales(&self, scales: [f64; 10]) -> Self {
+        Component { property_scales: scales, ..self.clone() }
     }
 
     /// Every (field, source id) pair used by this component, for registry checks and reports.

@@ -113,6 +113,17 @@ pub struct Series {
     pub stroke: Stroke,
 }
 
+/// A shaded band between a lower and an upper curve (e.g. the 5–95 % band of sampled runs).
+#[derive(Debug, Clone)]
+pub struct Band {
+    /// Name (for the reader of the code; legends are built separately).
+    pub name: String,
+    /// (x, (lower, upper)) points in display units; `None` breaks the band.
+    pub points: Vec<(f64, Option<(f64, f64)>)>,
+    /// Colour (drawn translucent).
+    pub color: RGBColor,
+}
+
 /// One set of axes.
 #[derive(Debug, Clone, Default)]
 pub struct Panel {
@@ -134,6 +145,8 @@ pub struct Panel {
     pub stacked: bool,
     /// Add a right-hand axis in °C (the y data are in K).
     pub celsius_axis: bool,
+    /// Shaded bands, drawn under the curves.
+    pub bands: Vec<Band>,
 }
 
 /// One legend line.
@@ -439,6 +452,17 @@ fn truncate_label(s: &str, max_chars: usize) -> String {
     }
 }
 
+/// Colour of the i-th run in overlays (the palette the run charts use).
+pub fn run_color(i: usize) -> RGBColor {
+    PALETTE[i % PALETTE.len()]
+}
+
+/// `color` blended with white (share of the colour in [0, 1]): a legend swatch for a translucent band.
+pub fn lighter(color: RGBColor, share: f64) -> RGBColor {
+    let m = |c: u8| (f64::from(c) * share + 255.0 * (1.0 - share)).round().clamp(0.0, 255.0) as u8;
+    RGBColor(m(color.0), m(color.1), m(color.2))
+}
+
 fn palette(i: usize) -> (RGBColor, Stroke) {
     (PALETTE[i % PALETTE.len()], if (i / PALETTE.len()) % 2 == 1 { Stroke::Dashed } else { Stroke::Solid })
 }
@@ -552,14 +576,16 @@ fn draw_chart<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Chart) -> R
 }
 
 fn panel_ranges(p: &Panel) -> ((f64, f64), (f64, f64)) {
-    let xr = p.x_range.unwrap_or_else(|| padded_range(p.series.iter().flat_map(|s| s.points.iter().filter(|q| q.1.is_some()).map(|q| q.0)), 0.0, false));
+    let band_x = p.bands.iter().flat_map(|b| b.points.iter().filter(|q| q.1.is_some()).map(|q| q.0));
+    let band_y = p.bands.iter().flat_map(|b| b.points.iter().filter_map(|q| q.1).flat_map(|(lo, hi)| [lo, hi]));
+    let xr = p.x_range.unwrap_or_else(|| padded_range(p.series.iter().flat_map(|s| s.points.iter().filter(|q| q.1.is_some()).map(|q| q.0)).chain(band_x), 0.0, false));
     let yr = p.y_range.unwrap_or_else(|| {
         if p.stacked {
             let n = p.series.first().map(|s| s.points.len()).unwrap_or(0);
             let tops = (0..n).map(|i| p.series.iter().map(|s| s.points.get(i).and_then(|q| q.1).unwrap_or(0.0)).sum::<f64>());
             padded_range(tops.chain(std::iter::once(0.0)), 0.02, true)
         } else {
-            padded_range(p.series.iter().flat_map(|s| s.points.iter().filter_map(|q| q.1)), 0.05, p.y_from_zero)
+            padded_range(p.series.iter().flat_map(|s| s.points.iter().filter_map(|q| q.1)).chain(band_y), 0.05, p.y_from_zero)
         }
     });
     (xr, yr)
@@ -645,6 +671,24 @@ fn draw_series<DB: DrawingBackend>(cc: &mut Cc<'_, DB>, p: &Panel, yr: (f64, f64
             lower = upper;
         }
         return Ok(());
+    }
+    for b in &p.bands {
+        let mut segments: Vec<Vec<(f64, f64, f64)>> = vec![vec![]];
+        for &(x, v) in &b.points {
+            match v {
+                Some((lo, hi)) if x.is_finite() && lo.is_finite() && hi.is_finite() => segments.last_mut().unwrap().push((x, clamp(lo), clamp(hi))),
+                _ => {
+                    if !segments.last().unwrap().is_empty() {
+                        segments.push(vec![]);
+                    }
+                }
+            }
+        }
+        for seg in segments.into_iter().filter(|s| s.len() > 1) {
+            let mut poly: Vec<(f64, f64)> = seg.iter().map(|q| (q.0, q.2)).collect();
+            poly.extend(seg.iter().rev().map(|q| (q.0, q.1)));
+            cc.draw_series(std::iter::once(Polygon::new(poly, b.color.mix(0.22).filled()))).map_err(de)?;
+        }
     }
     for s in &p.series {
         let mut segments: Vec<Vec<(f64, f64)>> = vec![vec![]];

@@ -10,6 +10,7 @@ pub mod read;
 pub mod residue;
 pub mod sweep_maps;
 pub mod tables;
+pub mod uncertainty;
 
 use std::fs;
 use std::io::Write;

@@ -174,6 +174,21 @@ fn anchored(c: &Correlation, t: f64, estimate: impl Fn(f64) -> f64) -> f64 {
     }
 }
 
+// Positions in `Component::property_scales` (the order of `Component::correlations`). Each public property
+// method multiplies its value by its scale (1 outside uncertainty samples: x·1 = x exactly, so the default
+// path gives the same bits as before); estimates that use another property use its unscaled value, so that
+// the ten perturbations stay independent.
+const VAPOR_PRESSURE: usize = 0;
+const LIQUID_DENSITY: usize = 1;
+const LATENT_HEAT: usize = 2;
+const LIQUID_HEAT_CAPACITY: usize = 3;
+const LIQUID_VISCOSITY: usize = 4;
+const LIQUID_CONDUCTIVITY: usize = 5;
+const SURFACE_TENSION: usize = 6;
+const IDEAL_GAS_HEAT_CAPACITY: usize = 7;
+const VAPOR_VISCOSITY: usize = 8;
+const VAPOR_CONDUCTIVITY: usize = 9;
+
 impl Component {
     #[inline]
     fn published(c: &Correlation, t: f64) -> Option<f64> {
@@ -195,9 +210,10 @@ impl Component {
 
     /// Saturation (vapour) pressure at `t` [Pa].
     pub fn vapor_pressure(&self, t: f64) -> f64 {
-        Self::published(&self.vapor_pressure, t).unwrap_or_else(|| {
+        let p = Self::published(&self.vapor_pressure, t).unwrap_or_else(|| {
             ambrose_walton_vapor_pressure(t, self.critical_temperature(), self.critical_pressure(), self.acentric_factor())
-        })
+        });
+        p * self.property_scales[VAPOR_PRESSURE]
     }
 
     /// Saturated liquid density at `t` [kg/m³].
@@ -205,7 +221,7 @@ impl Component {
         let z = self.constants.rackett_z.as_ref().map(|z| z.value);
         Self::liquid_property(&self.liquid_density, t, |t| {
             rackett_density(t, self.critical_temperature(), self.critical_pressure(), self.acentric_factor(), self.molar_mass(), z)
-        })
+        }) * self.property_scales[LIQUID_DENSITY]
     }
 
     /// Liquid density at 15 °C [kg/m³]: the published value when the file has one, else the correlation.
@@ -219,40 +235,52 @@ impl Component {
         Self::liquid_property(&self.latent_heat, t, |t| {
             let lb = riedel_latent_heat_at_boiling(tb, tc, self.critical_pressure());
             watson_latent_heat(t, tb, lb, tc) / self.molar_mass()
-        })
+        }) * self.property_scales[LATENT_HEAT]
     }
 
     /// Liquid heat capacity at `t` [J/(kg·K)].
     pub fn liquid_heat_capacity(&self, t: f64) -> f64 {
         Self::liquid_property(&self.liquid_heat_capacity, t, |t| {
-            let cp_ig_molar = self.ideal_gas_heat_capacity(t) * self.molar_mass();
+            let cp_ig_molar = self.unscaled_ideal_gas_heat_capacity(t) * self.molar_mass();
             rowlinson_bondi_cp(cp_ig_molar, t, self.critical_temperature(), self.acentric_factor()) / self.molar_mass()
-        })
+        }) * self.property_scales[LIQUID_HEAT_CAPACITY]
     }
 
     /// Liquid dynamic viscosity at `t` [Pa·s].
     pub fn liquid_viscosity(&self, t: f64) -> f64 {
-        Self::liquid_property(&self.liquid_viscosity, t, |t| estimated_viscosity_with_groups(t, self))
+        Self::liquid_property(&self.liquid_viscosity, t, |t| estimated_viscosity_with_groups(t, self)) * self.property_scales[LIQUID_VISCOSITY]
     }
 
     /// Liquid thermal conductivity at `t` [W/(m·K)].
     pub fn liquid_conductivity(&self, t: f64) -> f64 {
         Self::liquid_property(&self.liquid_conductivity, t, |t| sato_riedel_conductivity(t, self.normal_boiling_point(), self.critical_temperature(), self.molar_mass()))
+            * self.property_scales[LIQUID_CONDUCTIVITY]
     }
 
     /// Surface tension at `t` [N/m].
     pub fn surface_tension(&self, t: f64) -> f64 {
         Self::liquid_property(&self.surface_tension, t, |t| brock_bird_surface_tension(t, self.normal_boiling_point(), self.critical_temperature(), self.critical_pressure()))
+            * self.property_scales[SURFACE_TENSION]
     }
 
     /// Ideal-gas heat capacity at `t` [J/(kg·K)] (the component file must give coefficients).
     pub fn ideal_gas_heat_capacity(&self, t: f64) -> f64 {
+        self.unscaled_ideal_gas_heat_capacity(t) * self.property_scales[IDEAL_GAS_HEAT_CAPACITY]
+    }
+
+    #[inline]
+    fn unscaled_ideal_gas_heat_capacity(&self, t: f64) -> f64 {
         // Loader guarantees a published or group-contribution polynomial; a CSP marker is refused there.
         Self::published(&self.ideal_gas_heat_capacity, t).unwrap_or(0.0)
     }
 
     /// Low-pressure vapour viscosity at `t` [Pa·s].
     pub fn vapor_viscosity(&self, t: f64) -> f64 {
+        self.unscaled_vapor_viscosity(t) * self.property_scales[VAPOR_VISCOSITY]
+    }
+
+    #[inline]
+    fn unscaled_vapor_viscosity(&self, t: f64) -> f64 {
         Self::published(&self.vapor_viscosity, t).unwrap_or_else(|| {
             chung_gas_viscosity(t, self.critical_temperature(), self.constants.critical_volume.value, self.acentric_factor(), self.molar_mass())
         })
@@ -261,10 +289,10 @@ impl Component {
     /// Low-pressure vapour thermal conductivity at `t` [W/(m·K)].
     pub fn vapor_conductivity(&self, t: f64) -> f64 {
         Self::published(&self.vapor_conductivity, t).unwrap_or_else(|| {
-            let mu = self.vapor_viscosity(t);
-            let cp = self.ideal_gas_heat_capacity(t) * self.molar_mass();
+            let mu = self.unscaled_vapor_viscosity(t);
+            let cp = self.unscaled_ideal_gas_heat_capacity(t) * self.molar_mass();
             chung_gas_conductivity(t, self.critical_temperature(), self.acentric_factor(), self.molar_mass(), mu, cp)
-        })
+        }) * self.property_scales[VAPOR_CONDUCTIVITY]
     }
 
     /// Fuller diffusion-volume sum [-]: the file's value, else atomic volumes of Fuller et al. (1966).

@@ -350,6 +350,7 @@ impl SurrogateBasis {
             vapor_viscosity: correlation(Form::Dippr100(muv), vr),
             vapor_conductivity: correlation(Form::Dippr100(kv), vr),
             origin: "dropcut table: surrogate fit".into(),
+            property_scales: [1.0; 10],
         };
         Ok(SurrogateBasis { base, liquid_range, vapor_range, fit_errors: errors })
     }

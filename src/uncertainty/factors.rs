@@ -1,0 +1,321 @@
+//! Input factors of one fuel at one condition: each uncertain condition, each composition group and each
+//! (component, property) pair with a non-zero uncertainty, and how a standard draw z of each becomes a
+//! perturbed [`DropletInputs`].
+
+use std::sync::Arc;
+
+use crate::model::{DropletInputs, Motion};
+
+use super::random::name_key;
+use super::spec::{property_keys, CompositionTarget, ConditionKey, Distribution, UncertaintySpec};
+use super::UncertaintyError;
+
+/// Smallest property factor of a normal draw (1 + u z is cut here so that a property never turns negative).
+pub const MIN_PROPERTY_FACTOR: f64 = 0.05;
+
+/// What a factor perturbs.
+#[derive(Debug, Clone, PartialEq)]
+pub enum FactorKind {
+    /// A condition: the value is nominal + spread·z (absolute) or nominal·(1 + spread·z) (relative).
+    Condition {
+        /// Which condition.
+        key: ConditionKey,
+        /// Nominal value (SI).
+        nominal: f64,
+        /// Absolute standard deviation or half-width (SI).
+        spread: f64,
+    },
+    /// A composition group: the members' mass fractions are multiplied by max(0, 1 + spread·z), then the
+    /// composition is renormalised.
+    Composition {
+        /// Component positions in the fuel.
+        members: Vec<usize>,
+        /// Relative standard deviation or half-width.
+        spread: f64,
+    },
+    /// One property of one component: the property is multiplied by 1 + u z (normal) or exp(u z) (log-normal).
+    Property {
+        /// Component position in the fuel.
+        component: usize,
+        /// Property position (`Component::correlations` order).
+        property: usize,
+        /// Relative uncertainty (the stated one × scale, or the override × scale).
+        uncertainty: f64,
+    },
+}
+
+/// One uncertain input.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Factor {
+    /// Name, unique within a run: `ambient-temperature`, `composition:aromatics`, `vapor-pressure:n-decane`.
+    pub name: String,
+    /// Distribution of the standard draw.
+    pub distribution: Distribution,
+    /// What it perturbs.
+    pub kind: FactorKind,
+    /// Key of its random stream (a hash of the name): the same factor draws the same numbers in any run
+    /// with the same seed, whatever other factors exist.
+    pub stream: u64,
+}
+
+impl Factor {
+    /// Sampled value of the factor for a standard draw z: the condition value (SI), the composition factor or
+    /// the property factor [-].
+    pub fn value(&self, z: f64) -> f64 {
+        match &self.kind {
+            FactorKind::Condition { key, nominal, spread } => {
+                let v = nominal + spread * z;
+                // a speed is a magnitude: a draw below zero is held at zero
+                if *key == ConditionKey::Velocity {
+                    v.max(0.0)
+                } else {
+                    v
+                }
+            }
+            FactorKind::Composition { spread, .. } => (1.0 + spread * z).max(0.0),
+            FactorKind::Property { uncertainty, .. } => match self.distribution {
+                Distribution::LogNormal => (uncertainty * z).exp(),
+                _ => (1.0 + uncertainty * z).max(MIN_PROPERTY_FACTOR),
+            },
+        }
+    }
+
+    /// Short kind name for tables: `condition`, `composition` or `property`.
+    pub fn kind_name(&self) -> &'static str {
+        match self.kind {
+            FactorKind::Condition { .. } => "condition",
+            FactorKind::Composition { .. } => "composition",
+            FactorKind::Property { .. } => "property",
+        }
+    }
+
+    /// Stated spread in the factor's own terms (SI for conditions, relative otherwise).
+    pub fn spread(&self) -> f64 {
+        match &self.kind {
+            FactorKind::Condition { spread, .. } => *spread,
+            FactorKind::Composition { spread, .. } => *spread,
+            FactorKind::Property { uncertainty, .. } => *uncertainty,
+        }
+    }
+}
+
+/// Nominal value of a condition in `inputs` (SI).
+pub fn condition_value(inputs: &DropletInputs, key: ConditionKey) -> f64 {
+    match key {
+        ConditionKey::AmbientTemperature => inputs.ambient_temperature,
+        ConditionKey::Pressure => inputs.pressure,
+        ConditionKey::Diameter => inputs.initial_diameter,
+        ConditionKey::DropletTemperature => inputs.initial_temperature,
+        ConditionKey::Velocity => match inputs.motion {
+            Motion::Fixed { velocity } | Motion::Injected { velocity } => velocity,
+        },
+    }
+}
+
+fn set_condition(inputs: &mut DropletInputs, key: ConditionKey, v: f64) {
+    match key {
+        ConditionKey::AmbientTemperature => inputs.ambient_temperature = v,
+        ConditionKey::Pressure => inputs.pressure = v,
+        ConditionKey::Diameter => inputs.initial_diameter = v,
+        ConditionKey::DropletTemperature => inputs.initial_temperature = v,
+        ConditionKey::Velocity => {
+            inputs.motion = match inputs.motion {
+                Motion::Fixed { .. } => Motion::Fixed { velocity: v },
+                Motion::Injected { .. } => Motion::Injected { velocity: v },
+            }
+        }
+    }
+}
+
+/// The factors of `spec` for the fuel and condition of `nominal`, in a fixed order (conditions, composition
+/// groups, then properties component by component); factors with zero spread are left out. Also returns
+/// notices (entries that do nothing for this fuel).
+pub fn resolve(spec: &UncertaintySpec, nominal: &DropletInputs) -> Result<(Vec<Factor>, Vec<String>), UncertaintyError> {
+    let mut factors = vec![];
+    let mut notices = vec![];
+    for (&key, s) in &spec.conditions {
+        let nominal_value = condition_value(nominal, key);
+        let spread = if s.relative { s.value * nominal_value.abs() } else { s.value };
+        if spread == 0.0 {
+            continue;
+        }
+        let reach = match s.distribution {
+            Distribution::Uniform => spread,
+            _ => super::random::TRUNCATION * spread,
+        };
+        if key != ConditionKey::Velocity && nominal_value - reach <= 0.0 {
+            return Err(UncertaintyError::Input {
+                what: format!("uncertainty of {}", key.as_str()),
+                message: format!(
+                    "nominal {} {} minus the largest draw {} leaves no positive value: reduce the spread",
+                    nominal_value,
+                    key.column().rsplit('_').next().unwrap_or(""),
+                    reach
+                ),
+            });
+        }
+        factors.push(Factor {
+            name: key.as_str().to_string(),
+            distribution: s.distribution,
+            kind: FactorKind::Condition { key, nominal: nominal_value, spread },
+            stream: name_key(key.as_str()),
+        });
+    }
+    let comps = &nominal.fuel.components;
+    let n = comps.len();
+    // composition: each component goes to the most specific entry that covers it
+    let mut owner: Vec<Option<&CompositionTarget>> = vec![None; n];
+    for (i, c) in comps.iter().enumerate() {
+        for target in spec.composition.keys() {
+            if target.covers(&c.id, c.class) && owner[i].is_none_or(|o| target.precedence() > o.precedence()) {
+                owner[i] = Some(target);
+            }
+        }
+    }
+    for (target, s) in &spec.composition {
+        let members: Vec<usize> = (0..n).filter(|&i| owner[i] == Some(target) && nominal.fuel.mass_fractions[i] > 0.0).collect();
+        if members.is_empty() {
+            notices.push(format!("composition uncertainty of '{}' covers no component of fuel '{}': ignored", target.name(), nominal.fuel.name));
+            continue;
+        }
+        if s.value == 0.0 {
+            continue;
+        }
+        let groups: Vec<Vec<usize>> = if *target == CompositionTarget::Each { members.iter().map(|&i| vec![i]).collect() } else { vec![members] };
+        for g in groups {
+            let covered_all = (0..n).filter(|&i| nominal.fuel.mass_fractions[i] > 0.0).all(|i| g.contains(&i));
+            let name = if *target == CompositionTarget::Each { format!("composition:{}", comps[g[0]].id) } else { format!("composition:{}", target.name()) };
+            if covered_all {
+                notices.push(format!("{name} covers the whole of fuel '{}': renormalisation cancels it, so it is left out", nominal.fuel.name));
+                continue;
+            }
+            factors.push(Factor { stream: name_key(&name), name, distribution: s.distribution, kind: FactorKind::Composition { members: g, spread: s.value } });
+        }
+    }
+    let p = &spec.properties;
+    if p.enabled && p.scale > 0.0 {
+        let keys = property_keys();
+        for (i, c) in comps.iter().enumerate() {
+            for (k, (_, corr)) in c.correlations().iter().enumerate() {
+                let u = p.overrides[k].unwrap_or(corr.uncertainty) * p.scale;
+                if !(u > 0.0 && u.is_finite()) {
+                    continue;
+                }
+                let name = format!("{}:{}", keys[k], c.id);
+                factors.push(Factor { stream: name_key(&name), name, distribution: p.distribution, kind: FactorKind::Property { component: i, property: k, uncertainty: u } });
+            }
+        }
+    }
+    Ok((factors, notices))
+}
+
+/// The droplet inputs of one sample: `nominal` with each factor set from its standard draw `z[k]`. Inputs
+/// no factor touches keep their exact nominal values (so zero spreads reproduce the deterministic run).
+pub fn perturbed(nominal: &DropletInputs, factors: &[Factor], z: &[f64]) -> DropletInputs {
+    let mut inp = nominal.clone();
+    let n = inp.fuel.components.len();
+    let mut composition: Option<Vec<f64>> = None;
+    let mut scales: Vec<Option<[f64; 10]>> = vec![None; n];
+    for (f, &zk) in factors.iter().zip(z) {
+        let v = f.value(zk);
+        match &f.kind {
+            FactorKind::Condition { key, .. } => set_condition(&mut inp, *key, v),
+            FactorKind::Composition { members, .. } => {
+                let w = composition.get_or_insert_with(|| nominal.fuel.mass_fractions.clone());
+                for &i in members {
+                    w[i] *= v;
+                }
+            }
+            FactorKind::Property { component, property, .. } => {
+                let s = scales[*component].get_or_insert(nominal.fuel.components[*component].property_scales);
+                s[*property] *= v;
+            }
+        }
+    }
+    if let Some(w) = composition {
+        let total: f64 = w.iter().sum();
+        if total > 0.0 && total.is_finite() {
+            inp.fuel.mass_fractions = w.iter().map(|x| x / total).collect();
+        }
+    }
+    for (i, s) in scales.into_iter().enumerate() {
+        if let Some(s) = s {
+            inp.fuel.components[i] = Arc::new(nominal.fuel.components[i].with_property_scales(s));
+        }
+    }
+    inp
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::data::Library;
+    use crate::fuel::Fuel;
+    use crate::props::gas::AmbientGas;
+    use crate::uncertainty::spec::Spread;
+
+    fn nominal(fuel: &str) -> DropletInputs {
+        let lib = Library::embedded().unwrap();
+        DropletInputs::new(Fuel::resolve(fuel, &lib).unwrap(), AmbientGas::air(&lib).unwrap(), 800.0, 101_325.0, 50e-6, 300.0)
+    }
+
+    #[test]
+    fn composition_groups_take_the_most_specific_entry() {
+        let lib = Library::embedded().unwrap();
+        let inp = nominal("demo-wide");
+        let mut spec = UncertaintySpec::default();
+        spec.properties.enabled = false;
+        spec.add_composition("aromatics=10%,each-component=1%", "--composition-uncertainty", &lib).unwrap();
+        let (f, _) = resolve(&spec, &inp).unwrap();
+        let arom = f.iter().find(|f| f.name == "composition:aromatics").unwrap();
+        let FactorKind::Composition { members, .. } = &arom.kind else { panic!() };
+        assert!(!members.is_empty());
+        for &i in members {
+            assert!(inp.fuel.components[i].class.aromatic_rings() > 0);
+            assert!(!f.iter().any(|g| g.name == format!("composition:{}", inp.fuel.components[i].id)));
+        }
+        // every component is in exactly one group
+        let mut count = vec![0; inp.fuel.len()];
+        for g in &f {
+            if let FactorKind::Composition { members, .. } = &g.kind {
+                for &i in members {
+                    count[i] += 1;
+                }
+            }
+        }
+        assert!(count.iter().all(|c| *c == 1), "{count:?}");
+    }
+
+    #[test]
+    fn perturbation_renormalises_and_scales() {
+        let lib = Library::embedded().unwrap();
+        let inp = nominal("demo-wide");
+        let mut spec = UncertaintySpec::default();
+        spec.add_composition("aromatics=10%", "c", &lib).unwrap();
+        spec.conditions.insert(ConditionKey::Pressure, Spread { value: 0.1, relative: true, distribution: Distribution::Normal });
+        let (f, _) = resolve(&spec, &inp).unwrap();
+        let z: Vec<f64> = (0..f.len()).map(|k| if k % 2 == 0 { 1.0 } else { -0.5 }).collect();
+        let p = perturbed(&inp, &f, &z);
+        assert!((p.fuel.mass_fractions.iter().sum::<f64>() - 1.0).abs() < 1e-12);
+        assert!((p.pressure - 101_325.0 * 1.1).abs() < 1e-6);
+        let k = f.iter().position(|f| f.name == format!("vapor-pressure:{}", inp.fuel.components[0].id)).unwrap();
+        let s = f[k].value(z[k]);
+        let c0 = &inp.fuel.components[0];
+        assert!((p.fuel.components[0].vapor_pressure(350.0) / c0.vapor_pressure(350.0) - s).abs() < 1e-12);
+        // zero draws change nothing
+        let same = perturbed(&inp, &f, &vec![0.0; f.len()]);
+        assert_eq!(same.pressure, inp.pressure);
+        for (a, b) in same.fuel.components.iter().zip(&inp.fuel.components) {
+            assert_eq!(a.vapor_pressure(350.0), b.vapor_pressure(350.0));
+        }
+    }
+
+    #[test]
+    fn spreads_reaching_zero_are_refused() {
+        let inp = nominal("n-decane");
+        let mut spec = UncertaintySpec::default();
+        spec.conditions.insert(ConditionKey::Diameter, Spread { value: 20e-6, relative: false, distribution: Distribution::Normal });
+        let e = resolve(&spec, &inp).unwrap_err().to_string();
+        assert!(e.contains("diameter"), "{e}");
+    }
+}

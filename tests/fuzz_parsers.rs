@@ -1,5 +1,5 @@
 //! Property-based fuzzing of every parser of user input: the unit parser, fuel files, component files, sweep
-//! specs, limits files, ambient-gas text, and the fuel-build readers (class tables, distillation curves, group
+//! specs, limits files, uncertainty files, ambient-gas text, and the fuel-build readers (class tables, distillation curves, group
 //! strings). Inputs are arbitrary strings and structured mutations of valid files (lines deleted, duplicated
 //! or swapped, numbers replaced by NaN/inf/huge/negative/typed values, text truncated, random characters
 //! inserted). The properties: a parser never panics, and an error is one line (no newline in its message).
@@ -20,6 +20,7 @@ use dropcut::fuel::Fuel;
 use dropcut::post::Limits;
 use dropcut::props::gas::AmbientGas;
 use dropcut::sweep::spec::SweepSpec;
+use dropcut::uncertainty::UncertaintySpec;
 use dropcut::units::{self, Quantity};
 use proptest::prelude::*;
 
@@ -242,6 +243,15 @@ fn check_limits(text: &str) -> Result<(), TestCaseError> {
     Ok(())
 }
 
+fn valid_uncertainty() -> &'static str {
+    "[conditions]\nambient-temperature = { sd = \"10K\" }\npressure = \"2%\"\ndiameter = { half-width = \"3um\" }\nvelocity = { relative-half-width = 0.2 }\ndroplet-temperature = 5\n[composition]\naromatics = 0.1\nn-decane = \"5%\"\neach-component = { relative-half-width = 0.02 }\n[properties]\nscale = 1.0\ndistribution = \"normal\"\nvapor-pressure = 0.03\n"
+}
+
+fn check_uncertainty(text: &str) -> Result<(), TestCaseError> {
+    one_line(UncertaintySpec::parse(text, "fuzz.toml", lib()))?;
+    Ok(())
+}
+
 fn check_gas(text: &str) -> Result<(), TestCaseError> {
     one_line(AmbientGas::parse(lib(), text))?;
     Ok(())
@@ -278,6 +288,8 @@ fn regressions() {
         ("# comment\nname = \"x\"\nCH3=2", check_build),
         // found by tests/fuzz/run.sh (fuel_build_inputs_mutated): a quoted CSV header cell with a line break
         ("carbon_number,\"n-alkane\nname = x\"\nC10,100\n", check_build),
+        // found by tests/fuzz/run.sh (uncertainty_mutated): a multi-line string value echoed into the error
+        ("[properties]\nscale = \"\"\"\n\"\nscale = \"\"\"\n", check_uncertainty),
         ("fuels = [\"n-decane\"]\n[conditions]\ndiameter = { from = 1e-300, to = 1e300, steps = 10000000, scale = \"log\" }\n", check_spec),
     ];
     for (text, check) in cases {
@@ -333,6 +345,16 @@ proptest! {
     #[test]
     fn limits_mutated(ms in prop::collection::vec(mutation(), 1..5)) {
         check_limits(&apply(valid_limits(), &ms))?;
+    }
+
+    #[test]
+    fn uncertainty_mutated(ms in prop::collection::vec(mutation(), 1..5)) {
+        check_uncertainty(&apply(valid_uncertainty(), &ms))?;
+    }
+
+    #[test]
+    fn uncertainty_arbitrary(text in "\\PC{0,160}") {
+        check_uncertainty(&text)?;
     }
 
     #[test]

@@ -469,10 +469,10 @@ pub struct UncertaintyArgs {
     #[command(flatten)]
     pub condition: ConditionArgs,
     /// Number of samples.
-    #[arg(long, default_value = "200", value_name = "N")]
+    #[arg(long, default_value = "200", value_name = "N", allow_hyphen_values = true)]
     pub samples: String,
     /// Seed of the random draws (the same seed gives the same files whatever the thread count).
-    #[arg(long, default_value = "1", value_name = "S")]
+    #[arg(long, default_value = "1", value_name = "S", allow_hyphen_values = true)]
     pub seed: String,
     /// Uncertainty file (TOML: [conditions], [composition], [properties]; see docs/uncertainty.md).
     #[arg(long, value_name = "FILE")]
@@ -486,7 +486,7 @@ pub struct UncertaintyArgs {
     #[arg(long, default_value = "", value_name = "NAME=SD,...")]
     pub composition_uncertainty: String,
     /// Multiply every stated property uncertainty (0 = properties exact); replaces the file's scale.
-    #[arg(long, value_name = "X")]
+    #[arg(long, value_name = "X", allow_hyphen_values = true)]
     pub property_scale: Option<String>,
     /// Distribution of the property factors; replaces the file's choice.
     #[arg(long, value_enum)]
@@ -495,7 +495,7 @@ pub struct UncertaintyArgs {
     #[arg(long, value_enum, default_value = "monte-carlo")]
     pub method: SamplingArg,
     /// Worker threads (0 = every core).
-    #[arg(long, default_value_t = 0, value_name = "N")]
+    #[arg(long, default_value_t = 0, value_name = "N", allow_hyphen_values = true)]
     pub threads: usize,
     /// Output folder.
     #[arg(long, default_value = "dropcut-out/uncertainty")]

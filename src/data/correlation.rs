@@ -242,7 +242,7 @@ impl RawCorrelation {
                 Form::Nasa7 { low: l, high: h, t_mid }
             }
             "corresponding-states" => {
-                if !self.source.strip_prefix("estimated:").is_some_and(|m| !m.is_empty()) {
+                if self.source.strip_prefix("estimated:").is_none_or(|m| m.is_empty()) {
                     return Err(bad(format!("model 'corresponding-states' needs source = \"estimated:<method>\", found source = {:?}", self.source)));
                 }
                 Form::CorrespondingStates

@@ -609,7 +609,7 @@ impl CriticalWatch {
     #[inline]
     pub(crate) fn observe(&mut self, comps: &[std::sync::Arc<crate::data::Component>], w: &[f64], surface_temperature: f64, time: f64) {
         let moles: f64 = comps.iter().zip(w).map(|(c, w)| w.max(0.0) / c.molar_mass()).sum();
-        if !(moles > 0.0) {
+        if moles.is_nan() || moles <= 0.0 {
             return;
         }
         for (i, (c, w)) in comps.iter().zip(w).enumerate() {

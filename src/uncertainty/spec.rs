@@ -197,7 +197,9 @@ pub const MAX_RELATIVE: f64 = 1.0;
 pub const MAX_SCALE: f64 = 10.0;
 
 fn spec_err(file: &str, field: impl Into<String>, message: impl Into<String>) -> UncertaintyError {
-    UncertaintyError::Spec { file: file.to_string(), field: field.into(), message: message.into() }
+    // values echoed from the file may be multi-line strings: keep the message one line
+    let one_line = |s: String| if s.contains(char::is_control) { s.chars().map(|c| if c.is_control() { ' ' } else { c }).collect() } else { s };
+    UncertaintyError::Spec { file: file.to_string(), field: one_line(field.into()), message: one_line(message.into()) }
 }
 
 /// Parse a shorthand spread: `"10K"` / `3.0` = absolute standard deviation, `"2%"` = relative standard deviation.
@@ -291,7 +293,7 @@ fn composition_target(name: &str, lib: &Library) -> Result<CompositionTarget, St
 impl UncertaintySpec {
     /// Read a TOML uncertainty file; `file` names it in messages.
     pub fn parse(text: &str, file: &str, lib: &Library) -> Result<Self, UncertaintyError> {
-        let value: toml::Table = toml::from_str(text).map_err(|e| spec_err(file, "(file)", crate::data::toml_error_line(&e)))?;
+        let value: toml::Table = toml::from_str(text).map_err(|e| spec_err(file, "(file)", crate::data::toml_error_at(&e, text)))?;
         let mut spec = UncertaintySpec::default();
         for (key, v) in &value {
             match key.as_str() {

@@ -9,7 +9,7 @@
 //! CoolProp is the independent check: the component data come from published handbook tables
 //! (mixtures/tools/make_components.py), never from CoolProp. A check that fails is reported as failed; the
 //! few failures that were investigated and traced to the published correlation itself (not to a
-//! transcription or unit error) are listed in [`KNOWN_FAILURES`] with the reason. They still count as
+//! copying or unit error) are listed in [`KNOWN_FAILURES`] with the reason. They still count as
 //! failed in the report; the tests only tolerate exactly the listed ones.
 
 use std::sync::Arc;
@@ -102,7 +102,7 @@ const GROUP_MIXTURE: &str = "mixture rules";
 // Known failures
 // ---------------------------------------------------------------------------------------------------------
 
-/// A check that fails for a reason traced to the published data (not to our transcription or code).
+/// A check that fails for a reason traced to the published data (not to our copying or code).
 #[derive(Debug, Clone, Copy)]
 pub struct KnownFailure {
     /// Component id.
@@ -466,7 +466,7 @@ fn compare(c: &Component, table: &Table, spec: &PropertySpec, window: (f64, f64)
         ));
     }
     if spec.key == "surface-tension" && corr.source.starts_with("mulero-cachadina") && source.contains("Mulero") {
-        notes.push("the library and the reference use the same published correlation (Mulero et al. 2012): this checks the transcription, not the accuracy".into());
+        notes.push("the library and the reference use the same published correlation (Mulero et al. 2012): this checks the copied coefficients, not the accuracy".into());
     }
     let notes = if notes.is_empty() { String::new() } else { format!("; {}", notes.join("; ")) };
     if judged.points == 0 {

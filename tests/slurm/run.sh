@@ -39,7 +39,7 @@ if ! bash "$SLURM_SH" up; then
   log "FAIL: the Slurm packages are installed but the one-node cluster did not start"
   exit 1
 fi
-WORK=$(mktemp -d /tmp/dropcut-slurm-test.XXXXXX)
+WORK=$(mktemp -d -t dropcut-slurm-test.XXXXXX)
 cleanup() {
   local rc=$?
   bash "$SLURM_SH" down || true

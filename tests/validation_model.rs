@@ -29,3 +29,9 @@ fn joback_viscosity_estimate_against_published_correlations() {
     let lib = Library::embedded().unwrap();
     assert_all_passed(&dropcut::checks::estimation::joback_viscosity_checks(&lib));
 }
+
+#[test]
+fn diffusion_limit_of_a_binary_droplet() {
+    let results = model::diffusion_limit();
+    assert_all_passed(&results);
+}

@@ -20,6 +20,8 @@ pub struct RadialGrid {
     pub widths: Vec<f64>,
     /// Conductance factors per face (index 1..=n), see [`RadialGrid::face_factor`].
     factors: Vec<f64>,
+    /// Linear-interpolation weight of the inner cell at each face (index 1..n−1), for the central scheme.
+    inner_weights: Vec<f64>,
     a: Vec<f64>,
     b: Vec<f64>,
     c: Vec<f64>,
@@ -63,7 +65,8 @@ impl RadialGrid {
                 area2 / delta
             })
             .collect();
-        RadialGrid { faces, centres, widths, factors, a: vec![0.0; n + 1], b: vec![0.0; n + 1], c: vec![0.0; n + 1], d: vec![0.0; n + 1], cp: vec![0.0; n + 1] }
+        let inner_weights = (0..=n).map(|f| if f == 0 || f == n { 1.0 } else { (centres[f] - faces[f]) / (centres[f] - centres[f - 1]) }).collect();
+        RadialGrid { faces, centres, widths, factors, inner_weights, a: vec![0.0; n + 1], b: vec![0.0; n + 1], c: vec![0.0; n + 1], d: vec![0.0; n + 1], cp: vec![0.0; n + 1] }
     }
 
     /// Number of cells.
@@ -81,6 +84,50 @@ impl RadialGrid {
     #[inline]
     pub fn face_factor(&self, f: usize) -> f64 {
         self.factors[f]
+    }
+
+    /// Weight of the inner cell in the advected face value at interior face `f` (Spalding's hybrid scheme,
+    /// Patankar 1980 §5.2: central interpolation while the face Péclet number |flow|/G ≤ 2, upwind above).
+    #[inline]
+    fn advected_inner_weight(&self, f: usize, flow: f64, g: f64) -> f64 {
+        if flow.abs() <= 2.0 * g {
+            self.inner_weights[f]
+        } else if flow >= 0.0 {
+            1.0
+        } else {
+            0.0
+        }
+    }
+
+    /// Tridiagonal coefficients (a, b, c) of all rows for diffusion plus the grid-relative advection of a
+    /// receding surface, without the surface exchange of the last row.
+    fn assemble(&mut self, m_new: f64, dt: f64, g_scale: f64, mdot: f64) {
+        let n = self.len();
+        for j in 0..n {
+            let mut diag = m_new * self.widths[j] / dt;
+            let mut lower = 0.0;
+            let mut upper = 0.0;
+            // inner face a = j (between cell j−1 and j), outer face b = j+1; flow = mass crossing outward
+            if j > 0 {
+                let g = g_scale * self.factors[j];
+                let flow = self.faces[j] * mdot;
+                let w = self.advected_inner_weight(j, flow, g);
+                // inflow through a: J_a + flow·u_a, J_a = g (u_{j−1} − u_j), u_a = w u_{j−1} + (1 − w) u_j
+                lower -= g + flow * w;
+                diag += g - flow * (1.0 - w);
+            }
+            if j + 1 < n {
+                let g = g_scale * self.factors[j + 1];
+                let flow = self.faces[j + 1] * mdot;
+                let w = self.advected_inner_weight(j + 1, flow, g);
+                // outflow through b: J_b + flow·u_b, J_b = g (u_j − u_{j+1}), u_b = w u_j + (1 − w) u_{j+1}
+                diag += g + flow * w;
+                upper += -g + flow * (1.0 - w);
+            }
+            self.a[j] = lower;
+            self.b[j] = diag;
+            self.c[j] = upper;
+        }
     }
 
     /// One implicit step. `u` holds cell values at the old time and receives the new ones; `m_old`, `m_new`
@@ -102,46 +149,13 @@ impl RadialGrid {
         let den = g_s - input.q1;
         let alpha = g_s / den;
         let beta = (input.q0 - input.q1 * input.u_ref) / den;
+        self.assemble(m_new, dt, g_scale, mdot);
         for j in 0..n {
-            let w = self.widths[j];
-            let mut diag = m_new * w / dt;
-            let mut lower = 0.0;
-            let mut upper = 0.0;
-            let mut rhs = m_old * w * u[j] / dt;
-            // inner face a = j (between cell j−1 and j), outer face b = j+1
-            if j > 0 {
-                let g = g_scale * self.face_factor(j);
-                let flow = self.faces[j] * mdot; // mass crossing face a outward
-                // inflow through a: J_a + flow·u_up, J_a = g (u_{j−1} − u_j)
-                lower -= g;
-                diag += g;
-                if flow >= 0.0 {
-                    lower -= flow;
-                } else {
-                    diag -= flow;
-                }
-            }
-            if j + 1 < n {
-                let g = g_scale * self.face_factor(j + 1);
-                let flow = self.faces[j + 1] * mdot;
-                // outflow through b: J_b + flow·u_up, J_b = g (u_j − u_{j+1})
-                diag += g;
-                upper -= g;
-                if flow >= 0.0 {
-                    diag += flow;
-                } else {
-                    upper += flow;
-                }
-            } else {
-                // surface: outflow = G_s (u_N − u_s) + ṁ u_s, with u_s = α u_N + β
-                diag += g_s * (1.0 - alpha) + mdot * alpha;
-                rhs -= (mdot - g_s) * beta;
-            }
-            self.a[j] = lower;
-            self.b[j] = diag;
-            self.c[j] = upper;
-            self.d[j] = rhs;
+            self.d[j] = m_old * self.widths[j] * u[j] / dt;
         }
+        // surface: outflow = G_s (u_N − u_s) + ṁ u_s, with u_s = α u_N + β
+        self.b[n - 1] += g_s * (1.0 - alpha) + mdot * alpha;
+        self.d[n - 1] -= (mdot - g_s) * beta;
         // Thomas algorithm
         self.cp[0] = self.c[0] / self.b[0];
         self.d[0] /= self.b[0];
@@ -170,37 +184,7 @@ impl RadialGrid {
             return;
         }
         // shared rows (all but the surface row): coefficients and forward elimination factors
-        for j in 0..n {
-            let w = self.widths[j];
-            let mut diag = m_new * w / dt;
-            let mut lower = 0.0;
-            let mut upper = 0.0;
-            if j > 0 {
-                let g = g_scale * self.factors[j];
-                let flow = self.faces[j] * mdot;
-                lower -= g;
-                diag += g;
-                if flow >= 0.0 {
-                    lower -= flow;
-                } else {
-                    diag -= flow;
-                }
-            }
-            if j + 1 < n {
-                let g = g_scale * self.factors[j + 1];
-                let flow = self.faces[j + 1] * mdot;
-                diag += g;
-                upper -= g;
-                if flow >= 0.0 {
-                    diag += flow;
-                } else {
-                    upper += flow;
-                }
-            }
-            self.a[j] = lower;
-            self.b[j] = diag;
-            self.c[j] = upper;
-        }
+        self.assemble(m_new, dt, g_scale, mdot);
         // factors: cp[j] = c[j]/m_j and the pivots m_j kept in d (rows 0..n−2)
         self.cp[0] = self.c[0] / self.b[0];
         self.d[0] = self.b[0];

@@ -17,6 +17,12 @@ struct Guard {
 
 const GUARDS: &[Guard] = &[
     Guard {
+        name: "radiation and a suspending fibre are reported",
+        args: &["n-heptane", "--diameter", "500um", "--radiation", "ambient", "--absorption-efficiency", "0.5", "--fibre-diameter", "100um", "--max-time", "20ms"],
+        notes: &["radiation from black surroundings at 800.0 K is absorbed with efficiency 0.5", "suspended droplet: 1 fibre stem(s) of 100 µm"],
+        absent: &["pseudo-critical"],
+    },
+    Guard {
         name: "ambient below the freezing point",
         args: &["n-hexadecane", "--ambient-temperature", "200K", "--diameter", "20um", "--max-time", "5ms"],
         notes: &["below the fuel's ideal-solubility freezing point", "solidification is not modelled"],

@@ -638,6 +638,7 @@ fn raoult_surface_checks(lib: &Library) -> Vec<CheckResult> {
         reference_weight: 1.0 / 3.0,              // 1/3 rule (physics notes A.5); irrelevant here
         correlation: TransferCorrelation::Clift, // irrelevant here
         non_equilibrium: false,
+        extra_heat: Default::default(),
     };
     let mut film = Film::new(setup);
     let x = [0.5, 0.5]; // equimolar liquid

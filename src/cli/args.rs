@@ -268,6 +268,21 @@ pub struct ConditionArgs {
     /// Multiply the liquid conductivity (limit studies).
     #[arg(long, allow_hyphen_values = true, default_value = "1", hide_short_help = true)]
     pub liquid_conductivity_factor: String,
+    /// Radiation from black surroundings: off, ambient (at the gas temperature) or a temperature (e.g. 900K).
+    #[arg(long, allow_hyphen_values = true, default_value = "off")]
+    pub radiation: String,
+    /// Absorption efficiency (= emissivity) of the droplet for --radiation, 0–1.
+    #[arg(long, allow_hyphen_values = true, default_value = "1")]
+    pub absorption_efficiency: String,
+    /// Diameter of a fibre suspending the droplet (heat conducted in along it); none by default.
+    #[arg(long, allow_hyphen_values = true, default_value = "none")]
+    pub fibre_diameter: String,
+    /// Thermal conductivity of the fibre in W/(m·K) (default 1.4: fused silica near room temperature).
+    #[arg(long, allow_hyphen_values = true, default_value = "1.4")]
+    pub fibre_conductivity: String,
+    /// Fibre stems leaving the droplet: 1 (fibre ends inside) or 2 (fibre passes through).
+    #[arg(long, allow_hyphen_values = true, default_value = "1")]
+    pub fibre_stems: String,
 }
 
 /// Liquid species mixing.

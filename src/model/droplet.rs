@@ -5,7 +5,7 @@ use crate::fuel::Fuel;
 use crate::props::gas::AmbientGas;
 use crate::props::liquid;
 
-use super::film::{Film, FilmResult, FilmSetup, TransferCorrelation};
+use super::film::{ExtraHeat, Film, FilmResult, FilmSetup, TransferCorrelation};
 use super::integrator::{locate_event, DormandPrince, OdeSystem, Stats, Tolerances};
 use super::ModelError;
 
@@ -58,6 +58,8 @@ pub struct DropletInputs {
     pub end_mass_fraction: f64,
     /// Liquid-side model: mixing, heat, grid, non-equilibrium surface.
     pub liquid: LiquidOptions,
+    /// Radiation and supporting-fibre heat (none by default: a free droplet in a transparent gas).
+    pub extra_heat: ExtraHeat,
 }
 
 /// How species mix inside the droplet.
@@ -129,6 +131,7 @@ impl DropletInputs {
             fixed_temperature: false,
             end_mass_fraction: 1e-3,
             liquid: LiquidOptions::default(),
+            extra_heat: ExtraHeat::default(),
         }
     }
 }
@@ -417,6 +420,7 @@ impl WellMixed {
             reference_weight: inp.reference_weight,
             correlation: inp.correlation,
             non_equilibrium: inp.liquid.non_equilibrium,
+            extra_heat: inp.extra_heat,
         });
         let t0 = inp.initial_temperature;
         let rho0 = liquid::density(&comps, &inp.fuel.mass_fractions, t0);
@@ -533,6 +537,20 @@ pub(crate) fn validity_notes(inp: &DropletInputs) -> Vec<String> {
                 inp.ambient_temperature
             ));
         }
+    }
+    if let Some(r) = inp.extra_heat.radiation {
+        notes.push(format!(
+            "radiation from black surroundings at {:.1} K is absorbed with efficiency {} (grey sphere, transparent gas, absorbed at the surface); hydrocarbon droplets are semi-transparent, so the efficiency depends on size and wavelength and is the user's estimate",
+            r.temperature, r.absorption_efficiency
+        ));
+    }
+    if let Some(f) = inp.extra_heat.fibre {
+        notes.push(format!(
+            "suspended droplet: {} fibre stem(s) of {:.0} µm, k = {} W/(m·K), conduct heat in (infinite fin, Churchill–Bernstein h); the fibre's share grows as the droplet shrinks, and the late life describes the suspended droplet, not a free one",
+            f.stems,
+            f.diameter * 1e6,
+            f.conductivity
+        ));
     }
     if inp.initial_temperature > inp.ambient_temperature {
         notes.push("droplet starts hotter than the gas: it cools while evaporating (documented behaviour)".into());

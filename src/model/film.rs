@@ -99,6 +99,73 @@ pub struct FilmSetup {
     pub correlation: TransferCorrelation,
     /// Langmuir–Knudsen non-equilibrium surface mole fractions (Miller, Harstad & Bellan 1998).
     pub non_equilibrium: bool,
+    /// Heat reaching the liquid by other paths than the gas film (radiation, a supporting fibre).
+    pub extra_heat: ExtraHeat,
+}
+
+/// Thermal radiation exchanged between the droplet and an enclosure (the gas itself is transparent).
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+pub struct Radiation {
+    /// Black-body temperature of the surroundings [K].
+    pub temperature: f64,
+    /// Absorption efficiency of the droplet, also its emissivity (Kirchhoff, grey body) [-], 0–1.
+    pub absorption_efficiency: f64,
+}
+
+/// A fibre that suspends the droplet, conducting heat in from the hot gas like an infinite fin.
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+pub struct SupportFibre {
+    /// Fibre diameter [m].
+    pub diameter: f64,
+    /// Thermal conductivity of the fibre material [W/(m·K)].
+    pub conductivity: f64,
+    /// Number of fibre stems leaving the droplet (1 for a fibre ending in the droplet, 2 for one through it).
+    pub stems: u32,
+}
+
+/// Optional heat paths into the liquid besides the gas film.
+#[derive(Debug, Clone, Copy, PartialEq, Default, serde::Serialize)]
+pub struct ExtraHeat {
+    /// Radiation from the surroundings, if any.
+    pub radiation: Option<Radiation>,
+    /// Supporting fibre, if any.
+    pub fibre: Option<SupportFibre>,
+}
+
+/// Stefan–Boltzmann constant [W/(m²·K⁴)] (CODATA 2018, exact in the 2019 SI).
+pub const STEFAN_BOLTZMANN: f64 = 5.670_374_419e-8;
+
+impl ExtraHeat {
+    /// True when no extra heat path is set.
+    pub fn is_none(&self) -> bool {
+        self.radiation.is_none() && self.fibre.is_none()
+    }
+
+    /// Net radiative heat absorbed by a grey sphere of diameter `d` at `t_s` in a black enclosure [W]:
+    /// Q = Q_abs π d² σ (T_rad⁴ − T_s⁴) (incident power on a sphere in an isotropic field is π d² σ T⁴).
+    pub fn radiation_heat(&self, t_s: f64, d: f64) -> f64 {
+        match self.radiation {
+            Some(r) => r.absorption_efficiency * std::f64::consts::PI * d * d * STEFAN_BOLTZMANN * (r.temperature.powi(4) - t_s.powi(4)),
+            None => 0.0,
+        }
+    }
+
+    /// Heat conducted in along the fibre stems [W]: infinite fin, Q = n sqrt(h P k A_c) (T∞ − T_s)
+    /// (Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, eq. 3.80), h from the
+    /// Churchill–Bernstein cylinder correlation (ibid. eq. 7.54) with gas properties at the mean of T∞ and T_s.
+    pub fn fibre_heat(&self, gas: &crate::props::gas::AmbientGas, pressure: f64, t_inf: f64, t_s: f64, speed: f64) -> f64 {
+        let Some(f) = self.fibre else { return 0.0 };
+        let t_film = 0.5 * (t_inf + t_s);
+        let (cp, mu, k) = gas.transport(t_film);
+        let rho = pressure * gas.molar_mass / (GAS_CONSTANT * t_film);
+        let re = rho * speed.abs() * f.diameter / mu;
+        let pr = cp * mu / k;
+        let nu = 0.3 + 0.62 * re.sqrt() * pr.cbrt() / (1.0 + (0.4 / pr).powf(2.0 / 3.0)).powf(0.25) * (1.0 + (re / 282_000.0).powf(5.0 / 8.0)).powf(0.8);
+        let h = nu * k / f.diameter;
+        let perimeter = std::f64::consts::PI * f.diameter;
+        let area = 0.25 * std::f64::consts::PI * f.diameter * f.diameter;
+        f64::from(f.stems) * (h * perimeter * f.conductivity * area).sqrt() * (t_inf - t_s)
+    }
 }
 
 /// Results of one film evaluation (all SI).
@@ -136,6 +203,8 @@ pub struct FilmResult {
     pub drag_coefficient: f64,
     /// Free-stream gas density [kg/m³].
     pub ambient_density: f64,
+    /// Heat reaching the liquid by radiation and along a supporting fibre [W] (0 without them).
+    pub heat_extra: f64,
 }
 
 /// Film model with its scratch buffers (allocated once).
@@ -216,6 +285,33 @@ impl Film {
     /// where the whole heat flux (less the sensible part inside L_eff) evaporates liquid of surface-vapour
     /// composition. Species rates are left in `species_rate`.
     pub fn evaluate(&mut self, x: &[f64], t_s: f64, d: f64, speed: f64, latent: &[f64], boiling_latent: Option<f64>) -> FilmResult {
+        let mut r = self.evaluate_gas_side(x, t_s, d, speed, latent, boiling_latent);
+        let extra = self.setup.extra_heat;
+        if extra.is_none() {
+            return r;
+        }
+        let q_extra = extra.radiation_heat(t_s, d) + extra.fibre_heat(&self.setup.gas, self.setup.pressure, self.setup.ambient_temperature, t_s, speed);
+        r.heat_extra = q_extra;
+        if let Some(l_eff) = boiling_latent {
+            // boiling: the extra heat evaporates liquid of the same vapour composition as the film's share
+            if r.evaporation_rate > 0.0 {
+                let scale = 1.0 + q_extra / (l_eff * r.evaporation_rate);
+                let mut q_latent = 0.0;
+                for (rate, l) in self.species_rate.iter_mut().zip(latent) {
+                    *rate *= scale;
+                    q_latent += *rate * l;
+                }
+                r.evaporation_rate *= scale;
+                r.heat_to_liquid = r.heat_from_gas + q_extra - q_latent;
+                return r;
+            }
+        }
+        r.heat_to_liquid += q_extra;
+        r
+    }
+
+    /// Gas-film part of [`Film::evaluate`] (no radiation or fibre heat).
+    fn evaluate_gas_side(&mut self, x: &[f64], t_s: f64, d: f64, speed: f64, latent: &[f64], boiling_latent: Option<f64>) -> FilmResult {
         let sum_x = self.surface_equilibrium(x, t_s);
         self.non_equilibrium_factor = 1.0;
         if !self.setup.non_equilibrium || boiling_latent.is_some() || sum_x <= 0.0 {
@@ -361,6 +457,7 @@ impl Film {
                 surface_vapor_mole_fraction: sum_x,
                 drag_coefficient: cd,
                 ambient_density: self.ambient_density,
+                heat_extra: 0.0,
             };
         }
         let _ = boiling;
@@ -424,6 +521,7 @@ impl Film {
             surface_vapor_mole_fraction: sum_x,
             drag_coefficient: drag_coefficient(re, b_m),
             ambient_density: self.ambient_density,
+            heat_extra: 0.0,
         }
     }
 }
@@ -448,5 +546,32 @@ mod tests {
         for (pe, chi) in [(10.0, 1.18380), (30.0, 1.86), (100.0, 2.56705), (500.0, 2.71255)] {
             assert!((circulation_factor(pe) - chi).abs() < 1e-4, "chi({pe})");
         }
+    }
+
+    /// Grey-body radiation: 0.5 π (1 mm)² σ (1000⁴ − 300⁴) = 0.0883486 W (hand value); none without the option.
+    #[test]
+    fn radiation_heat_hand_value() {
+        let mut extra = ExtraHeat::default();
+        assert_eq!(extra.radiation_heat(300.0, 1e-3), 0.0);
+        extra.radiation = Some(Radiation { temperature: 1000.0, absorption_efficiency: 0.5 });
+        assert!((extra.radiation_heat(300.0, 1e-3) / 0.088_348_566 - 1.0).abs() < 1e-7);
+        assert!(extra.radiation_heat(1000.0, 1e-3).abs() < 1e-15, "no net exchange at equal temperatures");
+        assert!(extra.radiation_heat(1200.0, 1e-3) < 0.0, "a hotter droplet loses heat");
+    }
+
+    /// Fibre fin: still gas gives the Churchill–Bernstein floor Nu = 0.3, so h ∝ 1/d_f and Q ∝ d_f; Q ∝ stems.
+    #[test]
+    fn fibre_heat_scaling() {
+        let lib = crate::data::Library::embedded().unwrap();
+        let gas = crate::props::gas::AmbientGas::air(&lib).unwrap();
+        let fibre = |d: f64, stems: u32| ExtraHeat { radiation: None, fibre: Some(SupportFibre { diameter: d, conductivity: 1.4, stems }) };
+        let q = fibre(100e-6, 1).fibre_heat(&gas, 101_325.0, 800.0, 350.0, 0.0);
+        let (_, _, k) = gas.transport(575.0);
+        let h = 0.3 * k / 100e-6;
+        let expected = (h * std::f64::consts::PI * 100e-6 * 1.4 * 0.25 * std::f64::consts::PI * 1e-8).sqrt() * 450.0;
+        assert!((q / expected - 1.0).abs() < 1e-12, "{q} vs {expected}");
+        assert!((fibre(100e-6, 2).fibre_heat(&gas, 101_325.0, 800.0, 350.0, 0.0) / q - 2.0).abs() < 1e-12);
+        assert!((fibre(400e-6, 1).fibre_heat(&gas, 101_325.0, 800.0, 350.0, 0.0) / q - 4.0).abs() < 1e-12);
+        assert!(fibre(100e-6, 1).fibre_heat(&gas, 101_325.0, 800.0, 350.0, 5.0) > q, "gas flow raises h");
     }
 }

@@ -369,6 +369,7 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         reference_weight: inp.reference_weight,
         correlation: inp.correlation,
         non_equilibrium: inp.liquid.non_equilibrium,
+        extra_heat: inp.extra_heat,
     });
     let nodes = inp.liquid.nodes;
     if !(4..=400).contains(&nodes) {

@@ -122,6 +122,9 @@ pub struct InputEcho {
     pub liquid_model: String,
     /// Far-field fuel-vapour mass fractions.
     pub ambient_vapor_mass_fractions: Vec<(String, f64)>,
+    /// Radiation and supporting-fibre heat (absent for a free droplet in a transparent gas).
+    #[serde(skip_serializing_if = "crate::model::film::ExtraHeat::is_none")]
+    pub extra_heat: crate::model::film::ExtraHeat,
 }
 
 impl InputEcho {
@@ -144,6 +147,7 @@ impl InputEcho {
             max_time_s: inp.max_time,
             liquid_model: format!("species {:?}, heat {:?}, {} radial cells, non-equilibrium surface {}", inp.liquid.mixing, inp.liquid.heat, inp.liquid.nodes, inp.liquid.non_equilibrium).to_lowercase(),
             ambient_vapor_mass_fractions: if inp.ambient_vapor.is_empty() { vec![] } else { ids().zip(inp.ambient_vapor.iter().copied()).collect() },
+            extra_heat: inp.extra_heat,
         }
     }
 }

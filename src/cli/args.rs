@@ -342,6 +342,9 @@ pub struct SweepArgs {
     /// Continue the sweep already in OUT, skipping the cases it holds (starts afresh when OUT holds none).
     #[arg(long)]
     pub resume: bool,
+    /// When stderr is not a terminal, still print a plain progress line every 10 s (for batch-job logs).
+    #[arg(long)]
+    pub progress_log: bool,
     /// Run only part K of N, K from 0: the cases with case_id % N == K. Inside a Slurm job array the default
     /// comes from SLURM_ARRAY_TASK_ID, SLURM_ARRAY_TASK_MIN and SLURM_ARRAY_TASK_COUNT.
     #[arg(long, value_name = "K/N", conflicts_with = "slurm_script", allow_hyphen_values = true)]

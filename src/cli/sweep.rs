@@ -15,9 +15,11 @@ use crate::sweep::{self, slurm, Progress, RunOptions, Shard, SweepSpec};
 /// Interval of the plain progress lines written when stderr is not a terminal.
 const PLAIN_EVERY: Duration = Duration::from_secs(10);
 
-/// Progress on stderr: a bar with rate and ETA on a terminal, else a plain line every 10 s.
+/// Progress on stderr: a bar with rate and ETA on a terminal; otherwise nothing, or a plain line every 10 s
+/// when asked for (`--progress-log`, batch logs).
 struct StderrProgress {
     bar: Option<ProgressBar>,
+    plain: bool,
     started: Instant,
     last_line: Instant,
     total: u64,
@@ -25,8 +27,8 @@ struct StderrProgress {
 }
 
 impl StderrProgress {
-    fn new() -> Self {
-        StderrProgress { bar: None, started: Instant::now(), last_line: Instant::now(), total: 0, already: 0 }
+    fn new(plain: bool) -> Self {
+        StderrProgress { bar: None, plain, started: Instant::now(), last_line: Instant::now(), total: 0, already: 0 }
     }
 }
 
@@ -66,7 +68,7 @@ impl Progress for StderrProgress {
             bar.set_position(done);
             return;
         }
-        if self.last_line.elapsed() >= PLAIN_EVERY {
+        if self.plain && self.last_line.elapsed() >= PLAIN_EVERY {
             self.last_line = Instant::now();
             let elapsed = self.started.elapsed().as_secs_f64();
             let ran = done.saturating_sub(self.already) as f64;
@@ -116,7 +118,7 @@ pub fn sweep(lib: &Library, args: &SweepArgs, components: Option<&Path>) -> Resu
         extra_columns: if spec.residue_indicators { vec![Box::new(sweep::ResidueIndicators::default())] } else { vec![] },
     };
     let started = Instant::now();
-    let mut progress = StderrProgress::new();
+    let mut progress = StderrProgress::new(args.progress_log);
     let report = sweep::run(&spec, &args.out, &opts, &mut progress)?;
     let what = if shard.is_whole() { String::new() } else { format!(" (shard {shard})") };
     let line = if report.already_complete {

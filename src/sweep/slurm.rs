@@ -80,7 +80,7 @@ pub fn batch_script(b: &BatchScript) -> String {
     s.push_str("if [ -n \"${SLURM_ARRAY_TASK_ID:-}\" ]; then\n");
     s.push_str("  # Inside an array task: run this task's shard on the CPUs Slurm gave it.\n");
     s.push_str(&format!(
-        "  exec \"$DROPCUT\"{} sweep \"$SPEC\" --out \"$OUT/shard-$SLURM_ARRAY_TASK_ID\" --resume --threads \"${{SLURM_CPUS_PER_TASK:-1}}\"{}\n",
+        "  exec \"$DROPCUT\"{} sweep \"$SPEC\" --out \"$OUT/shard-$SLURM_ARRAY_TASK_ID\" --resume --progress-log --threads \"${{SLURM_CPUS_PER_TASK:-1}}\"{}\n",
         words(&b.global_args),
         words(&b.sweep_args)
     ));
@@ -143,6 +143,6 @@ mod tests {
         assert!(s.contains("#SBATCH --cpus-per-task=8\n"));
         assert!(s.contains("#SBATCH --partition=short\n"));
         assert!(s.contains("--dependency=afterok:\"$array_job\""));
-        assert!(s.contains("--resume --threads \"${SLURM_CPUS_PER_TASK:-1}\" --histories\n"));
+        assert!(s.contains("--resume --progress-log --threads \"${SLURM_CPUS_PER_TASK:-1}\" --histories\n"));
     }
 }

@@ -113,6 +113,19 @@ fn liquid(id: &'static str, vapor_pressure: String) -> IdealLiquid {
     IdealLiquid { id, vapor_pressure, density: 700.0, latent_heat: 3.0e5, cp_liquid: 2200.0, cp_vapor: 2000.0, mu_vapor: 1.0e-5, k_vapor: 0.02 }
 }
 
+/// Evaporation constant K = 8 ρ_g D_g ln(1+B_M)/ρ_L of a still idealised droplet whose surface vapour pressure
+/// is `p_surface`, at the one-third-rule reference state (written out independently of the film model).
+fn d2_constant(p_surface: f64, p: f64, t_s: f64, t_inf: f64, rho_l: f64) -> f64 {
+    let x_s = p_surface / p;
+    let y_s = x_s * IDEAL_W / (x_s * IDEAL_W + (1.0 - x_s) * GAS.0);
+    let b_m = y_s / (1.0 - y_s);
+    let t_ref = t_s + (t_inf - t_s) / 3.0;
+    let y_ref = y_s * 2.0 / 3.0;
+    let w_ref = 1.0 / (y_ref / IDEAL_W + (1.0 - y_ref) / GAS.0);
+    let rho_g = p * w_ref / (GAS_CONSTANT * t_ref);
+    8.0 * rho_g * fuller(t_ref, p) * (1.0 + b_m).ln() / rho_l
+}
+
 /// d²-law: still droplet, constant properties, temperature held: K = 8 ρ_g D_g ln(1+B_M)/ρ_L (physics notes A.6).
 pub fn d2_law() -> CheckResult {
     let p = 101_325.0;
@@ -125,14 +138,7 @@ pub fn d2_law() -> CheckResult {
     inp.rtol = 1e-8;
     let run = simulate(&inp, &mut NoHistory).expect("run");
     // independent expectation
-    let x_s = psat / p;
-    let y_s = x_s * IDEAL_W / (x_s * IDEAL_W + (1.0 - x_s) * GAS.0);
-    let b_m = y_s / (1.0 - y_s);
-    let t_ref = t_s + (t_inf - t_s) / 3.0;
-    let y_ref = y_s * 2.0 / 3.0;
-    let w_ref = 1.0 / (y_ref / IDEAL_W + (1.0 - y_ref) / GAS.0);
-    let rho_g = p * w_ref / (GAS_CONSTANT * t_ref);
-    let k = 8.0 * rho_g * fuller(t_ref, p) * (1.0 + b_m).ln() / liq.density;
+    let k = d2_constant(psat, p, t_s, t_inf, liq.density);
     let expected = d0 * d0 * (1.0 - 1e-3f64.powf(2.0 / 3.0)) / k;
     let got = run.outcome.lifetime.unwrap_or(f64::INFINITY);
     CheckResult::relative(
@@ -305,27 +311,10 @@ pub fn diffusion_limit() -> Vec<CheckResult> {
         worst_vapour = worst_vapour.max((r.vapor_mass_fractions[0] - r.liquid_mass_fractions[0]).abs());
     }
     // (2) d²-law constant from a least-squares line through d²(t) in the window vs the diffusion-limit K
-    let n = window.len() as f64;
-    let (mut st, mut sd, mut stt, mut std_) = (0.0, 0.0, 0.0, 0.0);
-    for r in &window {
-        let d2 = r.diameter * r.diameter;
-        st += r.time;
-        sd += d2;
-        stt += r.time * r.time;
-        std_ += r.time * d2;
-    }
-    let k_run = -(n * std_ - st * sd) / (n * stt - st * st);
+    let k_run = super::droplet::evaporation_constant(&rec.rows, 0.7f64.powf(2.0 / 3.0), 0.3f64.powf(2.0 / 3.0)).unwrap_or(f64::NAN);
     let mid = window[window.len() / 2];
     let y_mean = mid.liquid_mass_fractions[0];
-    let p_eff = 1.0 / (y_mean / p1 + (1.0 - y_mean) / p2);
-    let x_s = p_eff / p;
-    let y_s = x_s * IDEAL_W / (x_s * IDEAL_W + (1.0 - x_s) * GAS.0);
-    let b_m = y_s / (1.0 - y_s);
-    let t_ref = t_s + (t_inf - t_s) / 3.0;
-    let y_ref = y_s * 2.0 / 3.0;
-    let w_ref = 1.0 / (y_ref / IDEAL_W + (1.0 - y_ref) / GAS.0);
-    let rho_g = p * w_ref / (GAS_CONSTANT * t_ref);
-    let k_expected = 8.0 * rho_g * fuller(t_ref, p) * (1.0 + b_m).ln() / rho_l;
+    let k_expected = d2_constant(1.0 / (y_mean / p1 + (1.0 - y_mean) / p2), p, t_s, t_inf, rho_l);
     // (3) surface composition and the similarity profile at 50 % evaporated
     let surface_expected = (y_mean / p1) / (y_mean / p1 + (1.0 - y_mean) / p2);
     let surface_error = (mid.surface_liquid_mass_fractions[0] - surface_expected).abs();

@@ -136,6 +136,24 @@ impl DropletInputs {
     }
 }
 
+impl DropletInputs {
+    /// The gas-film inputs of these droplet inputs (no far-field vapour = zeros).
+    pub fn film_setup(&self) -> FilmSetup {
+        let n = self.fuel.len();
+        FilmSetup {
+            components: self.fuel.components.clone(),
+            gas: self.gas.clone(),
+            pressure: self.pressure,
+            ambient_temperature: self.ambient_temperature,
+            ambient_vapor: if self.ambient_vapor.is_empty() { vec![0.0; n] } else { self.ambient_vapor.clone() },
+            reference_weight: self.reference_weight,
+            correlation: self.correlation,
+            non_equilibrium: self.liquid.non_equilibrium,
+            extra_heat: self.extra_heat,
+        }
+    }
+}
+
 /// Heat regime of the droplet.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
 #[serde(rename_all = "kebab-case")]
@@ -410,18 +428,7 @@ impl WellMixed {
     pub fn new(inp: &DropletInputs) -> (Self, Vec<f64>) {
         let n = inp.fuel.len();
         let comps = inp.fuel.components.clone();
-        let ambient_vapor = if inp.ambient_vapor.is_empty() { vec![0.0; n] } else { inp.ambient_vapor.clone() };
-        let film = Film::new(FilmSetup {
-            components: comps.clone(),
-            gas: inp.gas.clone(),
-            pressure: inp.pressure,
-            ambient_temperature: inp.ambient_temperature,
-            ambient_vapor,
-            reference_weight: inp.reference_weight,
-            correlation: inp.correlation,
-            non_equilibrium: inp.liquid.non_equilibrium,
-            extra_heat: inp.extra_heat,
-        });
+        let film = Film::new(inp.film_setup());
         let t0 = inp.initial_temperature;
         let rho0 = liquid::density(&comps, &inp.fuel.mass_fractions, t0);
         let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);

@@ -13,7 +13,7 @@ use super::droplet::{
     adiabatic_flash, validity_notes, DropletInputs, HistoryRow, LiquidHeat, LiquidMixing, Motion, Observer, Profile, Regime, RunOutcome, RunResult, Status,
     BOILING_THRESHOLD,
 };
-use super::film::{circulation_factor, Film, FilmResult, FilmSetup};
+use super::film::{circulation_factor, Film, FilmResult};
 use super::integrator::Stats;
 use super::radial::{RadialGrid, SurfaceInput};
 use super::ModelError;
@@ -359,18 +359,7 @@ fn error_norm(a: &State, b: &State, m0: f64) -> f64 {
 pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {
     let n = inp.fuel.len();
     let comps = inp.fuel.components.clone();
-    let ambient_vapor = if inp.ambient_vapor.is_empty() { vec![0.0; n] } else { inp.ambient_vapor.clone() };
-    let film = Film::new(FilmSetup {
-        components: comps.clone(),
-        gas: inp.gas.clone(),
-        pressure: inp.pressure,
-        ambient_temperature: inp.ambient_temperature,
-        ambient_vapor,
-        reference_weight: inp.reference_weight,
-        correlation: inp.correlation,
-        non_equilibrium: inp.liquid.non_equilibrium,
-        extra_heat: inp.extra_heat,
-    });
+    let film = Film::new(inp.film_setup());
     let nodes = inp.liquid.nodes;
     if !(4..=400).contains(&nodes) {
         return Err(ModelError::Input { field: "nodes", value: nodes.to_string(), reason: "must lie between 4 and 400".into() });

@@ -169,6 +169,8 @@ const CASES: &[Case] = &[
     case!(["sweep", "@spec-range-missing-to.toml", "--out", "{out}"], ["conditions.diameter.to", "missing"]),
     case!(["sweep", "@spec-empty-list.toml", "--out", "{out}"], ["conditions.diameter", "the list is empty"]),
     case!(["sweep", "@spec-nodes-fraction.toml", "--out", "{out}"], ["conditions.nodes", "3.5"]),
+    case!(["sweep", "@spec-radiation-word.toml", "--out", "{out}"], ["conditions.radiation[1]", "glowing", "\"off\" / \"ambient\""]),
+    case!(["sweep", "@spec-absorption-too-big.toml", "--out", "{out}"], ["conditions.absorption-efficiency", "must not exceed 1"]),
     case!(["sweep", "@spec-nodes-out-of-range.toml", "--out", "{out}"], ["conditions.nodes", "1000"]),
     case!(["sweep", "@spec-injected-string.toml", "--out", "{out}"], ["conditions.injected", "maybe"]),
     case!(["sweep", "@spec-zipped-unequal.toml", "--out", "{out}"], ["zipped[0]", "'diameter' has 2", "'velocity' has 3"]),

@@ -208,13 +208,10 @@ mod tests {
                 assert_eq!(defaults, [var.default], "default of --{}", var.key);
             }
         }
-        // radiation and fibre options describe a suspended droplet in a furnace (comparison with experiments);
-        // they are single-run options for now, not sweep conditions (docs/sweeps.md)
-        let rig = ["radiation", "absorption-efficiency", "fibre-diameter", "fibre-conductivity", "fibre-stems"];
         let not_conditions = ["out", "json", "no-plots", "limits", "components", "help", "version"];
         for arg in sim.get_arguments() {
             if let Some(long) = arg.get_long() {
-                if !not_conditions.contains(&long) && !rig.contains(&long) {
+                if !not_conditions.contains(&long) {
                     assert!(VARIABLES.iter().any(|v| v.key == long), "simulate option --{long} is not a sweep condition");
                 }
             }

@@ -498,6 +498,25 @@ pub(crate) fn check_inputs(inp: &DropletInputs) -> Result<(), ModelError> {
     if !(inp.reference_weight.is_finite() && (0.0..=1.0).contains(&inp.reference_weight)) {
         return bad("reference-weight", format!("{}", inp.reference_weight), "must lie between 0 and 1");
     }
+    if let Some(r) = inp.extra_heat.radiation {
+        if !(r.temperature.is_finite() && r.temperature > 0.0 && r.temperature <= 5000.0) {
+            return bad("radiation", format!("{} K", r.temperature), "must lie between 0 K and 5000 K (or be 'off' / 'ambient')");
+        }
+        if !(r.absorption_efficiency.is_finite() && r.absorption_efficiency > 0.0 && r.absorption_efficiency <= 1.0) {
+            return bad("absorption-efficiency", format!("{}", r.absorption_efficiency), "must lie in (0, 1]");
+        }
+    }
+    if let Some(f) = inp.extra_heat.fibre {
+        if !(f.diameter.is_finite() && f.diameter > 0.0 && f.diameter < inp.initial_diameter) {
+            return bad("fibre-diameter", format!("{} m", f.diameter), "must be positive and smaller than the droplet");
+        }
+        if !(f.conductivity.is_finite() && f.conductivity > 0.0 && f.conductivity <= 500.0) {
+            return bad("fibre-conductivity", format!("{} W/(m·K)", f.conductivity), "must lie in (0, 500]");
+        }
+        if !(1..=4).contains(&f.stems) {
+            return bad("fibre-stems", f.stems.to_string(), "must be a whole number from 1 to 4");
+        }
+    }
     if !inp.ambient_vapor.is_empty() {
         if inp.ambient_vapor.len() != inp.fuel.len() {
             return bad("ambient-vapor", format!("{} values", inp.ambient_vapor.len()), "needs one mass fraction per fuel component");

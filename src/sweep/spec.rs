@@ -13,6 +13,7 @@ use std::sync::Arc;
 use crate::data::{suggest, toml_error_at, Library};
 use crate::fuel::Fuel;
 use crate::model::droplet::{LiquidHeat, LiquidMixing, LiquidOptions};
+use crate::model::film::{Radiation, SupportFibre};
 use crate::model::{DropletInputs, Motion, TransferCorrelation};
 use crate::props::gas::AmbientGas;
 use crate::units::{self, Quantity};
@@ -34,6 +35,8 @@ pub enum Kind {
     Count(u64, u64),
     /// Far-field fuel vapour as component=mass-fraction pairs (empty for none).
     AmbientVapor,
+    /// A physical quantity, or one of a few keywords (e.g. `off`, `ambient`, `none`).
+    QuantityOr(Quantity, &'static [&'static str]),
 }
 
 /// One condition variable: its key (the long option name of `simulate`), CSV column, kind and default.
@@ -66,8 +69,13 @@ pub const LIQUID_MIXING: [&str; 2] = ["well-mixed", "diffusion"];
 /// Names of the liquid heat-transport models.
 pub const LIQUID_HEAT: [&str; 2] = ["uniform", "conduction"];
 
+/// Keywords of the `radiation` variable.
+pub const RADIATION_WORDS: [&str; 2] = ["off", "ambient"];
+/// Keyword of the `fibre-diameter` variable (no fibre).
+pub const FIBRE_WORDS: [&str; 1] = ["none"];
+
 /// The condition variables in case-id order (the last varies fastest); defaults equal those of `simulate`.
-pub const VARIABLES: [Variable; 17] = [
+pub const VARIABLES: [Variable; 22] = [
     var("ambient-temperature", "ambient_temperature_K", Kind::Quantity(Quantity::Temperature), "800K"),
     var("pressure", "pressure_Pa", Kind::Quantity(Quantity::Pressure), "1atm"),
     var("gas", "gas", Kind::Gas, "air"),
@@ -85,6 +93,11 @@ pub const VARIABLES: [Variable; 17] = [
     var("non-equilibrium", "non_equilibrium", Kind::Flag, "false"),
     factor("liquid-diffusivity-factor", "liquid_diffusivity_factor"),
     factor("liquid-conductivity-factor", "liquid_conductivity_factor"),
+    var("radiation", "radiation_temperature_K", Kind::QuantityOr(Quantity::Temperature, &RADIATION_WORDS), "off"),
+    Variable { key: "absorption-efficiency", column: "absorption_efficiency", kind: Kind::Quantity(Quantity::Dimensionless), default: "1", max: 1.0 },
+    var("fibre-diameter", "fibre_diameter_m", Kind::QuantityOr(Quantity::Length, &FIBRE_WORDS), "none"),
+    Variable { key: "fibre-conductivity", column: "fibre_conductivity_W_mK", kind: Kind::Quantity(Quantity::Dimensionless), default: "1.4", max: 500.0 },
+    var("fibre-stems", "fibre_stems", Kind::Count(1, 4), "1"),
 ];
 
 // Positions in VARIABLES (checked by a unit test).
@@ -105,6 +118,11 @@ const NODES: usize = 13;
 const NON_EQUILIBRIUM: usize = 14;
 const DIFFUSIVITY_FACTOR: usize = 15;
 const CONDUCTIVITY_FACTOR: usize = 16;
+const RADIATION: usize = 17;
+const ABSORPTION: usize = 18;
+const FIBRE_DIAMETER: usize = 19;
+const FIBRE_CONDUCTIVITY: usize = 20;
+const FIBRE_STEMS: usize = 21;
 
 const TOP_KEYS: [&str; 7] = ["name", "description", "fuels", "zipped", "conditions", "model", "output"];
 const RANGE_KEYS: [&str; 4] = ["from", "to", "steps", "scale"];
@@ -531,6 +549,15 @@ impl SweepSpec {
             diffusivity_factor: num(DIFFUSIVITY_FACTOR),
             conductivity_factor: num(CONDUCTIVITY_FACTOR),
         };
+        inp.extra_heat.radiation = match &case.values[RADIATION] {
+            Value::Number(t) => Some(Radiation { temperature: *t, absorption_efficiency: num(ABSORPTION) }),
+            Value::Choice("ambient") => Some(Radiation { temperature: inp.ambient_temperature, absorption_efficiency: num(ABSORPTION) }),
+            _ => None,
+        };
+        inp.extra_heat.fibre = match &case.values[FIBRE_DIAMETER] {
+            Value::Number(d) => Some(SupportFibre { diameter: *d, conductivity: num(FIBRE_CONDUCTIVITY), stems: num(FIBRE_STEMS) as u32 }),
+            _ => None,
+        };
         inp.reference_weight = self.model.reference_weight;
         inp.end_mass_fraction = self.model.end_mass_fraction;
         inp
@@ -575,28 +602,42 @@ fn parse_fuels(ctx: &Ctx, v: Option<&toml::Value>, base_dir: &Path) -> Result<Ve
     Ok(fuels)
 }
 
+/// A quantity value: a number in SI units or a string with a unit, finite, positive (velocity: ≥ 0), ≤ max.
+fn quantity(ctx: &Ctx, var: &Variable, q: Quantity, v: &toml::Value, field: &str) -> Result<Value, SweepError> {
+    let found = || format!("found {} {}", type_name(v), show(v));
+    let x = match v {
+        toml::Value::String(s) => units::parse(s, q).map_err(|e| ctx.err(field, e.to_string()))?,
+        toml::Value::Integer(i) => *i as f64,
+        toml::Value::Float(f) => *f,
+        _ => return Err(ctx.err(field, format!("expected a {} (a number in SI units or a string with a unit), {}", q.name(), found()))),
+    };
+    if !x.is_finite() {
+        return Err(ctx.err(field, format!("{} is not a finite number", show(v))));
+    }
+    let positive = !matches!(q, Quantity::Velocity);
+    if (positive && x <= 0.0) || x < 0.0 {
+        return Err(ctx.err(field, format!("{} must be {}", show(v), if positive { "positive" } else { "zero or positive" })));
+    }
+    if x > var.max {
+        return Err(ctx.err(field, format!("{} must not exceed {}", show(v), var.max)));
+    }
+    Ok(Value::Number(x))
+}
+
 fn scalar(ctx: &Ctx, var: &Variable, v: &toml::Value, field: &str, fuels: &[SweepFuel]) -> Result<Value, SweepError> {
     let found = || format!("found {} {}", type_name(v), show(v));
     match var.kind {
-        Kind::Quantity(q) => {
-            let x = match v {
-                toml::Value::String(s) => units::parse(s, q).map_err(|e| ctx.err(field, e.to_string()))?,
-                toml::Value::Integer(i) => *i as f64,
-                toml::Value::Float(f) => *f,
-                _ => return Err(ctx.err(field, format!("expected a {} (a number in SI units or a string with a unit), {}", q.name(), found()))),
-            };
-            if !x.is_finite() {
-                return Err(ctx.err(field, format!("{} is not a finite number", show(v))));
-            }
-            let positive = !matches!(q, Quantity::Velocity);
-            if (positive && x <= 0.0) || x < 0.0 {
-                return Err(ctx.err(field, format!("{} must be {}", show(v), if positive { "positive" } else { "zero or positive" })));
-            }
-            if x > var.max {
-                return Err(ctx.err(field, format!("{} must not exceed {}", show(v), var.max)));
-            }
-            Ok(Value::Number(x))
-        }
+        Kind::Quantity(q) => quantity(ctx, var, q, v, field),
+        Kind::QuantityOr(q, words) => match v {
+            toml::Value::String(text) => match words.iter().find(|w| w.eq_ignore_ascii_case(text.trim())) {
+                Some(w) => Ok(Value::Choice(w)),
+                None => quantity(ctx, var, q, v, field).map_err(|e| match e {
+                    SweepError::Spec { file, field, message } => SweepError::Spec { file, field, message: format!("{message} (or {})", words.iter().map(|w| format!("\"{w}\"")).collect::<Vec<_>>().join(" / ")) },
+                    other => other,
+                }),
+            },
+            _ => quantity(ctx, var, q, v, field),
+        },
         Kind::Flag => match v {
             toml::Value::Boolean(b) => Ok(Value::Flag(*b)),
             toml::Value::String(s) if s == "true" || s == "false" => Ok(Value::Flag(s == "true")),
@@ -653,7 +694,7 @@ fn parse_values(ctx: &Ctx, var: &Variable, v: &toml::Value, field: &str, fuels: 
             Ok(Values::List(out))
         }
         toml::Value::Table(t) => {
-            let Kind::Quantity(q) = var.kind else {
+            let (Kind::Quantity(q) | Kind::QuantityOr(q, _)) = var.kind else {
                 return Err(ctx.err(field, format!("a range {{ from, to, steps }} needs a numeric variable; give '{}' a value or a list", var.key)));
             };
             for key in t.keys() {
@@ -906,11 +947,38 @@ velocity = [0, 5, 10]
             (NON_EQUILIBRIUM, "non-equilibrium"),
             (DIFFUSIVITY_FACTOR, "liquid-diffusivity-factor"),
             (CONDUCTIVITY_FACTOR, "liquid-conductivity-factor"),
+            (RADIATION, "radiation"),
+            (ABSORPTION, "absorption-efficiency"),
+            (FIBRE_DIAMETER, "fibre-diameter"),
+            (FIBRE_CONDUCTIVITY, "fibre-conductivity"),
+            (FIBRE_STEMS, "fibre-stems"),
         ];
         assert_eq!(keys.len(), VARIABLES.len());
         for (i, k) in keys {
             assert_eq!(VARIABLES[i].key, k);
         }
+    }
+
+    #[test]
+    fn radiation_and_fibre_conditions() {
+        let s = parse("fuels = \"n-decane\"\n[conditions]\nradiation = [\"off\", \"ambient\", \"1200K\"]\nabsorption-efficiency = 0.5\nfibre-diameter = [\"none\", \"20um\"]\nfibre-stems = 2\n").unwrap();
+        assert_eq!(s.case_count(), 6);
+        let inp = |id: u64| s.inputs(&s.case(id).unwrap());
+        assert_eq!(inp(0).extra_heat, crate::model::film::ExtraHeat::default());
+        let r = inp(2).extra_heat.radiation.unwrap();
+        assert_eq!((r.temperature, r.absorption_efficiency), (800.0, 0.5));
+        assert!(inp(2).extra_heat.fibre.is_none());
+        let f = inp(5).extra_heat.fibre.unwrap();
+        assert_eq!((f.diameter, f.conductivity, f.stems), (20e-6, 1.4, 2));
+        assert_eq!(inp(5).extra_heat.radiation.unwrap().temperature, 1200.0);
+        assert_eq!(s.case(4).unwrap().values[RADIATION].csv_text(), "1200");
+        assert_eq!(s.case(2).unwrap().values[RADIATION].csv_text(), "ambient");
+        let range = parse("fuels = \"n-decane\"\n[conditions]\nradiation = { from = \"900K\", to = \"1500K\", steps = 3 }\n").unwrap();
+        assert_eq!(range.inputs(&range.case(2).unwrap()).extra_heat.radiation.unwrap().temperature, 1500.0);
+        let err = parse("fuels = \"n-decane\"\n[conditions]\nradiation = \"hot\"\n").unwrap_err().to_string();
+        assert!(err.contains("conditions.radiation") && err.contains("hot") && err.contains("\"ambient\""), "{err}");
+        assert!(parse("fuels = \"n-decane\"\n[conditions]\nabsorption-efficiency = 1.5\n").is_err());
+        assert!(parse("fuels = \"n-decane\"\n[conditions]\nfibre-stems = 5\n").is_err());
     }
 
     #[test]

@@ -358,6 +358,8 @@ const CASES: &[Case] = &[
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--ambient-vapor", "n-decane=0.1,decane=0.2"], ["--ambient-vapor", "given twice"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--ambient-vapor", "n-decane=-0.1"], ["--ambient-vapor", "-0.1"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--ambient-vapor", "n-decane=0.3x"], ["--ambient-vapor", "'0.3x' of 'n-decane' is not a number"]),
+    case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--diameter", "50", "um"], ["--diameter", "50um"]),
+    case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--pressure", "10", "bar"], ["--pressure", "10bar"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--radiation", "hot"], ["radiation", "hot"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--radiation", "0K"], ["--radiation", "between 0 K and 5000 K"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--radiation", "9000K"], ["--radiation", "5000 K"]),

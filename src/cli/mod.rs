@@ -141,9 +141,24 @@ fn one_line_usage_error(rendered: &str) -> String {
     s
 }
 
+/// For `--option 50 um` (a unit given as its own word, which the parser sees as a stray argument): a hint
+/// naming the option and the value written as one word.
+fn split_unit_hint(args: &[OsString]) -> Option<String> {
+    let words: Vec<String> = args.iter().map(|a| a.to_string_lossy().into_owned()).collect();
+    for i in 2..words.len() {
+        let (option, value, unit) = (&words[i - 2], &words[i - 1], &words[i]);
+        let is_unit = !unit.is_empty() && unit.len() <= 6 && !unit.starts_with('-') && unit.chars().all(|c| c.is_alphabetic() || c == '/' || c == 'µ' || c == '°');
+        if option.starts_with("--") && !option.contains('=') && value.parse::<f64>().is_ok() && is_unit {
+            return Some(format!("{option}: write the value and its unit as one word, e.g. {option} {value}{unit}"));
+        }
+    }
+    None
+}
+
 /// Run the CLI with the given arguments (first = program name); returns the exit code.
 pub fn run(args: impl IntoIterator<Item = OsString>) -> i32 {
-    let cli = match Cli::try_parse_from(args) {
+    let args: Vec<OsString> = args.into_iter().collect();
+    let cli = match Cli::try_parse_from(&args) {
         Ok(c) => c,
         Err(e) => {
             use clap::error::ErrorKind;
@@ -153,7 +168,13 @@ pub fn run(args: impl IntoIterator<Item = OsString>) -> i32 {
                 let _ = e.print();
                 return if e.use_stderr() { 2 } else { 0 };
             }
-            let _ = writeln!(std::io::stderr(), "{}", printable_line(&one_line_usage_error(&e.render().to_string())));
+            let mut line = one_line_usage_error(&e.render().to_string());
+            if e.kind() == ErrorKind::UnknownArgument {
+                if let Some(hint) = split_unit_hint(&args) {
+                    line = format!("{line} — {hint}");
+                }
+            }
+            let _ = writeln!(std::io::stderr(), "{}", printable_line(&line));
             return 2;
         }
     };

@@ -83,6 +83,12 @@ const GUARDS: &[Guard] = &[
         absent: &[],
     },
     Guard {
+        name: "Reynolds number beyond Ranz–Marshall's range names that correlation",
+        args: &["n-decane", "--velocity", "150", "--diameter", "150um", "--correlation", "ranz-marshall", "--max-time", "1ms"],
+        notes: &["to which the Ranz–Marshall correlation was fitted"],
+        absent: &["Clift"],
+    },
+    Guard {
         name: "droplet injected above its bubble point",
         args: &["n-decane", "--droplet-temperature", "480K", "--diameter", "20um", "--max-time", "5ms"],
         notes: &["adiabatic flash"],

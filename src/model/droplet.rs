@@ -469,6 +469,22 @@ impl OdeSystem for WellMixed {
     }
 }
 
+/// End-of-run note when the largest Reynolds number left the range the Nu0/Sh0 correlation was fitted to
+/// (Clift et al. 1978: Re ≤ 400; Ranz & Marshall 1952: Re ≤ 200, from memory) or the drag law's (Re ≤ 1000).
+pub(crate) fn reynolds_note(correlation: TransferCorrelation, max_re: f64) -> Option<String> {
+    let (name, limit) = match correlation {
+        TransferCorrelation::Clift => ("Clift", 400.0),
+        TransferCorrelation::RanzMarshall => ("Ranz–Marshall", 200.0),
+    };
+    if max_re > 1000.0 {
+        Some(format!("Reynolds number reached {max_re:.0}, above the {limit:.0} to which the {name} correlation was fitted and above 1000, where the standard drag law is held at C_D = 0.424: transfer rates and drag are extrapolated"))
+    } else if max_re > limit {
+        Some(format!("Reynolds number reached {max_re:.0}, above the {limit:.0} to which the {name} correlation was fitted: transfer rates are extrapolated"))
+    } else {
+        None
+    }
+}
+
 pub(crate) fn check_inputs(inp: &DropletInputs) -> Result<(), ModelError> {
     let bad = |field: &'static str, value: String, reason: &str| Err(ModelError::Input { field, value, reason: reason.into() });
     if !(inp.ambient_temperature.is_finite() && inp.ambient_temperature >= 150.0 && inp.ambient_temperature <= 4000.0) {
@@ -893,8 +909,8 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
     if let Some(note) = critical.note(&comps) {
         notes.push(note);
     }
-    if max_re > 400.0 {
-        notes.push(format!("Reynolds number reached {max_re:.0}, above the 400 to which the Clift correlation was fitted (and above 1000 the standard drag law is held at C_D = 0.424): transfer rates are extrapolated"));
+    if let Some(note) = reynolds_note(inp.correlation, max_re) {
+        notes.push(note);
     }
     if status == Status::TimeLimit {
         notes.push(format!(

@@ -10,7 +10,7 @@ use crate::data::Component;
 use crate::props::liquid;
 
 use super::droplet::{
-    adiabatic_flash, validity_notes, DropletInputs, HistoryRow, LiquidHeat, LiquidMixing, Motion, Observer, Profile, Regime, RunOutcome, RunResult, Status,
+    adiabatic_flash, reynolds_note, validity_notes, DropletInputs, HistoryRow, LiquidHeat, LiquidMixing, Motion, Observer, Profile, Regime, RunOutcome, RunResult, Status,
     BOILING_THRESHOLD,
 };
 use super::film::{circulation_factor, Film, FilmResult};
@@ -549,8 +549,8 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
     if let Some(note) = critical.note(&model.comps) {
         notes.push(note);
     }
-    if max_re > 400.0 {
-        notes.push(format!("Reynolds number reached {max_re:.0}, above the 400 to which the Clift correlation was fitted (and above 1000 the standard drag law is held at C_D = 0.424): transfer rates are extrapolated"));
+    if let Some(note) = reynolds_note(inp.correlation, max_re) {
+        notes.push(note);
     }
     if status == Status::TimeLimit && !boiling_stop {
         notes.push(format!("time limit {:.4e} s reached with {:.2} % of the mass evaporated", inp.max_time, 100.0 * (1.0 - state.mass / m0)));

@@ -29,6 +29,12 @@ const GUARDS: &[Guard] = &[
         absent: &[],
     },
     Guard {
+        name: "cold droplet below its freezing point in hot gas",
+        args: &["n-hexadecane", "--droplet-temperature", "280K", "--diameter", "20um", "--max-time", "5ms"],
+        notes: &["was below the ideal-solubility freezing point of the surface liquid", "first crystals: n-hexadecane"],
+        absent: &["ambient temperature"],
+    },
+    Guard {
         name: "droplet hotter than the gas",
         args: &["n-decane", "--ambient-temperature", "300K", "--droplet-temperature", "400K", "--diameter", "20um", "--max-time", "5ms"],
         notes: &["droplet starts hotter than the gas"],

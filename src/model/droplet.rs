@@ -662,6 +662,9 @@ fn ideal_solubility_freezing_point(comps: &[std::sync::Arc<crate::data::Componen
 pub(crate) struct CriticalWatch {
     /// Worst case so far: (T_s / T_c, T_s [K], T_c [K], component index, mole fraction, time [s]).
     worst: Option<(f64, f64, f64, usize, f64, f64)>,
+    /// First state with the surface below the ideal-solubility freezing point of the surface liquid:
+    /// (T_s [K], freezing point [K], component index of the first crystals, time [s]).
+    frozen: Option<(f64, f64, usize, f64)>,
 }
 
 impl CriticalWatch {
@@ -678,7 +681,24 @@ impl CriticalWatch {
             if x > 0.01 && ratio > 0.95 && self.worst.is_none_or(|b| ratio > b.0) {
                 self.worst = Some((ratio, surface_temperature, c.critical_temperature(), i, x, time));
             }
+            if self.frozen.is_none() && x > 0.0 {
+                if let Some(h) = c.constants.enthalpy_of_fusion.as_ref() {
+                    let t_f = 1.0 / (1.0 / c.constants.melting_point.value - crate::data::GAS_CONSTANT * x.ln() / h.value);
+                    if surface_temperature < t_f {
+                        self.frozen = Some((surface_temperature, t_f, i, time));
+                    }
+                }
+            }
         }
+    }
+
+    /// The note, if the surface was ever below the freezing point of the surface liquid.
+    pub(crate) fn freezing_note(&self, comps: &[std::sync::Arc<crate::data::Component>]) -> Option<String> {
+        let (t_s, t_f, i, time) = self.frozen?;
+        Some(format!(
+            "surface temperature {t_s:.1} K was below the ideal-solubility freezing point of the surface liquid ({t_f:.1} K, first crystals: {}) at t = {time:.4e} s: the droplet may start to freeze; solidification is not modelled, liquid properties are extrapolated",
+            comps[i].id
+        ))
     }
 
     /// The note, if the surface came within 5 % of (or rose above) a present component's critical temperature.
@@ -907,6 +927,9 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         }
     }
     if let Some(note) = critical.note(&comps) {
+        notes.push(note);
+    }
+    if let Some(note) = critical.freezing_note(&comps) {
         notes.push(note);
     }
     if let Some(note) = reynolds_note(inp.correlation, max_re) {

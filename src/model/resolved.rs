@@ -549,6 +549,9 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
     if let Some(note) = critical.note(&model.comps) {
         notes.push(note);
     }
+    if let Some(note) = critical.freezing_note(&model.comps) {
+        notes.push(note);
+    }
     if let Some(note) = reynolds_note(inp.correlation, max_re) {
         notes.push(note);
     }

@@ -565,10 +565,17 @@ pub(crate) fn validity_notes(inp: &DropletInputs) -> Vec<String> {
             p_c_min / 1e6
         ));
     }
-    let t_m_max = comps.iter().zip(&x).filter(|(_, x)| **x > 0.01).map(|(c, _)| c.constants.melting_point.value).fold(0.0, f64::max);
+    // components with an enthalpy of fusion are watched along the run (freezing point of the surface liquid);
+    // for the others only the pure melting point is known
+    let t_m_max = comps
+        .iter()
+        .zip(&x)
+        .filter(|(c, x)| **x > 0.01 && c.constants.enthalpy_of_fusion.is_none())
+        .map(|(c, _)| c.constants.melting_point.value)
+        .fold(0.0, f64::max);
     if inp.initial_temperature < t_m_max - 30.0 {
         notes.push(format!(
-            "initial droplet temperature {:.1} K is far below the melting point of a major component ({:.1} K): the liquid may not be liquid; properties are extrapolated",
+            "initial droplet temperature {:.1} K is far below the melting point of a major component without fusion data ({:.1} K): the liquid may not be liquid; properties are extrapolated",
             inp.initial_temperature, t_m_max
         ));
     }

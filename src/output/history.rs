@@ -34,6 +34,12 @@ pub fn history_table(inputs: &DropletInputs, rows: &[HistoryRow]) -> Result<CsvT
     .map(|s| s.to_string())
     .collect();
     let resolved = inputs.liquid.is_resolved();
+    let extra = !inputs.extra_heat.is_none();
+    if extra {
+        // radiation and fibre heat (included in heat_to_liquid_W) and the gas-film heat, for their shares
+        header.push("heat_from_gas_W".into());
+        header.push("heat_radiation_fibre_W".into());
+    }
     if resolved {
         header.push("mean_temperature_K".into());
         header.push("center_temperature_K".into());
@@ -75,6 +81,10 @@ pub fn history_table(inputs: &DropletInputs, rows: &[HistoryRow]) -> Result<CsvT
             Cell::Num(r.film.heat_to_liquid),
             Cell::Text(format!("{:?}", r.regime).to_lowercase()),
         ];
+        if extra {
+            cells.push(Cell::Num(r.film.heat_from_gas));
+            cells.push(Cell::Num(r.film.heat_extra));
+        }
         if resolved {
             cells.push(Cell::Num(r.mean_temperature));
             cells.push(Cell::Num(r.center_temperature));

@@ -132,6 +132,12 @@ pub struct ExtraHeat {
     pub fibre: Option<SupportFibre>,
 }
 
+/// Nusselt number of a circular cylinder in cross-flow, Churchill & Bernstein (1977, J. Heat Transfer 99:300):
+/// Nu = 0.3 + 0.62 Re^½ Pr^⅓ / [1 + (0.4/Pr)^⅔]^¼ · [1 + (Re/282 000)^⅝]^⅘ (a lower bound for Re·Pr < 0.2).
+pub fn churchill_bernstein(re: f64, pr: f64) -> f64 {
+    0.3 + 0.62 * re.sqrt() * pr.cbrt() / (1.0 + (0.4 / pr).powf(2.0 / 3.0)).powf(0.25) * (1.0 + (re / 282_000.0).powf(5.0 / 8.0)).powf(0.8)
+}
+
 /// Stefan–Boltzmann constant [W/(m²·K⁴)] (CODATA 2018, exact in the 2019 SI).
 pub const STEFAN_BOLTZMANN: f64 = 5.670_374_419e-8;
 
@@ -151,8 +157,8 @@ impl ExtraHeat {
     }
 
     /// Heat conducted in along the fibre stems [W]: infinite fin, Q = n sqrt(h P k A_c) (T∞ − T_s)
-    /// (Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, eq. 3.80), h from the
-    /// Churchill–Bernstein cylinder correlation (ibid. eq. 7.54) with gas properties at the mean of T∞ and T_s.
+    /// (Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, eq. 3.80 — number from memory), h from the
+    /// Churchill–Bernstein cylinder correlation (ibid. eq. 7.54, from memory) with gas properties at the mean of T∞ and T_s.
     pub fn fibre_heat(&self, gas: &crate::props::gas::AmbientGas, pressure: f64, t_inf: f64, t_s: f64, speed: f64) -> f64 {
         let Some(f) = self.fibre else { return 0.0 };
         let t_film = 0.5 * (t_inf + t_s);
@@ -160,8 +166,7 @@ impl ExtraHeat {
         let rho = pressure * gas.molar_mass / (GAS_CONSTANT * t_film);
         let re = rho * speed.abs() * f.diameter / mu;
         let pr = cp * mu / k;
-        let nu = 0.3 + 0.62 * re.sqrt() * pr.cbrt() / (1.0 + (0.4 / pr).powf(2.0 / 3.0)).powf(0.25) * (1.0 + (re / 282_000.0).powf(5.0 / 8.0)).powf(0.8);
-        let h = nu * k / f.diameter;
+        let h = churchill_bernstein(re, pr) * k / f.diameter;
         let perimeter = std::f64::consts::PI * f.diameter;
         let area = 0.25 * std::f64::consts::PI * f.diameter * f.diameter;
         f64::from(f.stems) * (h * perimeter * f.conductivity * area).sqrt() * (t_inf - t_s)
@@ -557,6 +562,15 @@ mod tests {
         assert!((extra.radiation_heat(300.0, 1e-3) / 0.088_348_566 - 1.0).abs() < 1e-7);
         assert!(extra.radiation_heat(1000.0, 1e-3).abs() < 1e-15, "no net exchange at equal temperatures");
         assert!(extra.radiation_heat(1200.0, 1e-3) < 0.0, "a hotter droplet loses heat");
+    }
+
+    /// Churchill–Bernstein check values from the worked examples of the `ht` package documentation
+    /// (Nu_cylinder_Churchill_Bernstein): Re 120, Pr 0.71 → 5.65356; Re 6071, Pr 0.7 → 40.6371.
+    #[test]
+    fn churchill_bernstein_published_examples() {
+        assert!((churchill_bernstein(120.0, 0.71) / 5.65356 - 1.0).abs() < 1e-5);
+        assert!((churchill_bernstein(6071.0, 0.7) / 40.6371 - 1.0).abs() < 1e-5);
+        assert_eq!(churchill_bernstein(0.0, 0.7), 0.3);
     }
 
     /// Fibre fin: still gas gives the Churchill–Bernstein floor Nu = 0.3, so h ∝ 1/d_f and Q ∝ d_f; Q ∝ stems.

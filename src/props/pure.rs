@@ -124,6 +124,7 @@ pub fn chung_gas_viscosity(t: f64, tc: f64, vc: f64, omega: f64, molar_mass: f64
 }
 
 /// Chung et al. (1984) low-pressure gas conductivity [W/(m·K)] from viscosity and cv.
+#[allow(clippy::approx_constant)] // 0.6366 is the published Chung et al. coefficient, not 2/π
 pub fn chung_gas_conductivity(t: f64, tc: f64, omega: f64, molar_mass: f64, viscosity: f64, cp_ideal_molar: f64) -> f64 {
     let cv_r = cp_ideal_molar / GAS_CONSTANT - 1.0;
     let alpha = cv_r - 1.5;

@@ -126,7 +126,7 @@ pub struct ExperimentCase {
 /// temperature seen by a droplet of absorption efficiency ≈ 0.6 (estimate, see the module docs).
 fn nomura_rig(t_wall: f64) -> ExtraHeat {
     ExtraHeat {
-        radiation: Some(Radiation { temperature: t_wall, absorption_efficiency: 0.6 }),
+        radiation: Some(Radiation { temperature: Some(t_wall), absorption_efficiency: 0.6 }),
         fibre: Some(SupportFibre { diameter: 0.15e-3, conductivity: 1.4, stems: 1 }),
     }
 }

@@ -253,18 +253,20 @@ pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<Dr
         diffusivity_factor: factor("liquid-diffusivity-factor", &c.liquid_diffusivity_factor)?,
         conductivity_factor: factor("liquid-conductivity-factor", &c.liquid_conductivity_factor)?,
     };
-    inp.extra_heat = extra_heat(c, t_inf, d0)?;
+    inp.extra_heat = extra_heat(c, d0)?;
     Ok(inp)
 }
 
 /// Radiation and fibre options into [`model::film::ExtraHeat`], with range checks.
-fn extra_heat(c: &ConditionArgs, t_inf: f64, d0: f64) -> Result<model::film::ExtraHeat, CliError> {
+fn extra_heat(c: &ConditionArgs, d0: f64) -> Result<model::film::ExtraHeat, CliError> {
     let mut extra = model::film::ExtraHeat::default();
     let rad = c.radiation.trim();
     if !rad.eq_ignore_ascii_case("off") {
-        let temperature = if rad.eq_ignore_ascii_case("ambient") { t_inf } else { parse_q("radiation", rad, Quantity::Temperature)? };
-        if !(temperature > 0.0 && temperature <= 5000.0) {
-            return Err(CliError::input(format!("--radiation: {} must lie between 0 K and 5000 K (or be 'off' / 'ambient')", units::format_temperature(temperature))));
+        let temperature = if rad.eq_ignore_ascii_case("ambient") { None } else { Some(parse_q("radiation", rad, Quantity::Temperature)?) };
+        if let Some(t) = temperature {
+            if !(t > 0.0 && t <= 5000.0) {
+                return Err(CliError::input(format!("--radiation: {} must lie between 0 K and 5000 K (or be 'off' / 'ambient')", units::format_temperature(t))));
+            }
         }
         let q = parse_q("absorption-efficiency", &c.absorption_efficiency, Quantity::Dimensionless)?;
         if !(q > 0.0 && q <= 1.0) {

@@ -515,8 +515,10 @@ pub(crate) fn check_inputs(inp: &DropletInputs) -> Result<(), ModelError> {
         return bad("reference-weight", format!("{}", inp.reference_weight), "must lie between 0 and 1");
     }
     if let Some(r) = inp.extra_heat.radiation {
-        if !(r.temperature.is_finite() && r.temperature > 0.0 && r.temperature <= 5000.0) {
-            return bad("radiation", format!("{} K", r.temperature), "must lie between 0 K and 5000 K (or be 'off' / 'ambient')");
+        if let Some(t) = r.temperature {
+            if !(t.is_finite() && t > 0.0 && t <= 5000.0) {
+                return bad("radiation", format!("{t} K"), "must lie between 0 K and 5000 K (or be 'off' / 'ambient')");
+            }
         }
         if !(r.absorption_efficiency.is_finite() && r.absorption_efficiency > 0.0 && r.absorption_efficiency <= 1.0) {
             return bad("absorption-efficiency", format!("{}", r.absorption_efficiency), "must lie in (0, 1]");
@@ -590,7 +592,8 @@ pub(crate) fn validity_notes(inp: &DropletInputs) -> Vec<String> {
     if let Some(r) = inp.extra_heat.radiation {
         notes.push(format!(
             "radiation from black surroundings at {:.1} K is absorbed with efficiency {} (grey sphere, transparent gas, absorbed at the surface); hydrocarbon droplets are semi-transparent, so the efficiency depends on size and wavelength and is the user's estimate",
-            r.temperature, r.absorption_efficiency
+            r.temperature.unwrap_or(inp.ambient_temperature),
+            r.absorption_efficiency
         ));
     }
     if let Some(f) = inp.extra_heat.fibre {

@@ -106,8 +106,9 @@ pub struct FilmSetup {
 /// Thermal radiation exchanged between the droplet and an enclosure (the gas itself is transparent).
 #[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
 pub struct Radiation {
-    /// Black-body temperature of the surroundings [K].
-    pub temperature: f64,
+    /// Black-body temperature of the surroundings [K]; None: at the ambient gas temperature (furnace walls at
+    /// the gas temperature), so it follows the gas temperature in sweeps and uncertainty samples.
+    pub temperature: Option<f64>,
     /// Absorption efficiency of the droplet, also its emissivity (Kirchhoff, grey body) [-], 0–1.
     pub absorption_efficiency: f64,
 }
@@ -149,9 +150,12 @@ impl ExtraHeat {
 
     /// Net radiative heat absorbed by a grey sphere of diameter `d` at `t_s` in a black enclosure [W]:
     /// Q = Q_abs π d² σ (T_rad⁴ − T_s⁴) (incident power on a sphere in an isotropic field is π d² σ T⁴).
-    pub fn radiation_heat(&self, t_s: f64, d: f64) -> f64 {
+    pub fn radiation_heat(&self, t_s: f64, d: f64, t_inf: f64) -> f64 {
         match self.radiation {
-            Some(r) => r.absorption_efficiency * std::f64::consts::PI * d * d * STEFAN_BOLTZMANN * (r.temperature.powi(4) - t_s.powi(4)),
+            Some(r) => {
+                let t_rad = r.temperature.unwrap_or(t_inf);
+                r.absorption_efficiency * std::f64::consts::PI * d * d * STEFAN_BOLTZMANN * (t_rad.powi(4) - t_s.powi(4))
+            }
             None => 0.0,
         }
     }
@@ -295,7 +299,7 @@ impl Film {
         if extra.is_none() {
             return r;
         }
-        let q_extra = extra.radiation_heat(t_s, d) + extra.fibre_heat(&self.setup.gas, self.setup.pressure, self.setup.ambient_temperature, t_s, speed);
+        let q_extra = extra.radiation_heat(t_s, d, self.setup.ambient_temperature) + extra.fibre_heat(&self.setup.gas, self.setup.pressure, self.setup.ambient_temperature, t_s, speed);
         r.heat_extra = q_extra;
         if let Some(l_eff) = boiling_latent {
             // boiling: the extra heat evaporates liquid of the same vapour composition as the film's share
@@ -557,11 +561,13 @@ mod tests {
     #[test]
     fn radiation_heat_hand_value() {
         let mut extra = ExtraHeat::default();
-        assert_eq!(extra.radiation_heat(300.0, 1e-3), 0.0);
-        extra.radiation = Some(Radiation { temperature: 1000.0, absorption_efficiency: 0.5 });
-        assert!((extra.radiation_heat(300.0, 1e-3) / 0.088_348_566 - 1.0).abs() < 1e-7);
-        assert!(extra.radiation_heat(1000.0, 1e-3).abs() < 1e-15, "no net exchange at equal temperatures");
-        assert!(extra.radiation_heat(1200.0, 1e-3) < 0.0, "a hotter droplet loses heat");
+        assert_eq!(extra.radiation_heat(300.0, 1e-3, 800.0), 0.0);
+        extra.radiation = Some(Radiation { temperature: Some(1000.0), absorption_efficiency: 0.5 });
+        assert!((extra.radiation_heat(300.0, 1e-3, 800.0) / 0.088_348_566 - 1.0).abs() < 1e-7);
+        assert!(extra.radiation_heat(1000.0, 1e-3, 800.0).abs() < 1e-15, "no net exchange at equal temperatures");
+        assert!(extra.radiation_heat(1200.0, 1e-3, 800.0) < 0.0, "a hotter droplet loses heat");
+        extra.radiation = Some(Radiation { temperature: None, absorption_efficiency: 0.5 });
+        assert!((extra.radiation_heat(300.0, 1e-3, 1000.0) / 0.088_348_566 - 1.0).abs() < 1e-7, "None = the gas temperature");
     }
 
     /// Churchill–Bernstein check values from the worked examples of the `ht` package documentation

@@ -550,8 +550,8 @@ impl SweepSpec {
             conductivity_factor: num(CONDUCTIVITY_FACTOR),
         };
         inp.extra_heat.radiation = match &case.values[RADIATION] {
-            Value::Number(t) => Some(Radiation { temperature: *t, absorption_efficiency: num(ABSORPTION) }),
-            Value::Choice("ambient") => Some(Radiation { temperature: inp.ambient_temperature, absorption_efficiency: num(ABSORPTION) }),
+            Value::Number(t) => Some(Radiation { temperature: Some(*t), absorption_efficiency: num(ABSORPTION) }),
+            Value::Choice("ambient") => Some(Radiation { temperature: None, absorption_efficiency: num(ABSORPTION) }),
             _ => None,
         };
         inp.extra_heat.fibre = match &case.values[FIBRE_DIAMETER] {
@@ -966,15 +966,15 @@ velocity = [0, 5, 10]
         let inp = |id: u64| s.inputs(&s.case(id).unwrap());
         assert_eq!(inp(0).extra_heat, crate::model::film::ExtraHeat::default());
         let r = inp(2).extra_heat.radiation.unwrap();
-        assert_eq!((r.temperature, r.absorption_efficiency), (800.0, 0.5));
+        assert_eq!((r.temperature, r.absorption_efficiency), (None, 0.5));
         assert!(inp(2).extra_heat.fibre.is_none());
         let f = inp(5).extra_heat.fibre.unwrap();
         assert_eq!((f.diameter, f.conductivity, f.stems), (20e-6, 1.4, 2));
-        assert_eq!(inp(5).extra_heat.radiation.unwrap().temperature, 1200.0);
+        assert_eq!(inp(5).extra_heat.radiation.unwrap().temperature, Some(1200.0));
         assert_eq!(s.case(4).unwrap().values[RADIATION].csv_text(), "1200");
         assert_eq!(s.case(2).unwrap().values[RADIATION].csv_text(), "ambient");
         let range = parse("fuels = \"n-decane\"\n[conditions]\nradiation = { from = \"900K\", to = \"1500K\", steps = 3 }\n").unwrap();
-        assert_eq!(range.inputs(&range.case(2).unwrap()).extra_heat.radiation.unwrap().temperature, 1500.0);
+        assert_eq!(range.inputs(&range.case(2).unwrap()).extra_heat.radiation.unwrap().temperature, Some(1500.0));
         let err = parse("fuels = \"n-decane\"\n[conditions]\nradiation = \"hot\"\n").unwrap_err().to_string();
         assert!(err.contains("conditions.radiation") && err.contains("hot") && err.contains("\"ambient\""), "{err}");
         assert!(parse("fuels = \"n-decane\"\n[conditions]\nabsorption-efficiency = 1.5\n").is_err());

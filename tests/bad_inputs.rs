@@ -22,7 +22,8 @@ use std::process::Command;
 use std::sync::atomic::{AtomicUsize, Ordering};
 use std::sync::Mutex;
 
-const BIN: &str = env!("CARGO_BIN_EXE_dropcut");
+mod common;
+use common::BIN;
 
 /// One bad input: the command line and the substrings the error line must contain.
 struct Case {
@@ -429,10 +430,7 @@ const CASES: &[Case] = &[
 /// A fresh temporary folder for one case, removed afterwards.
 fn temp_dir(tag: &str) -> PathBuf {
     static NEXT: AtomicUsize = AtomicUsize::new(0);
-    let p = std::env::temp_dir().join(format!("dropcut-bad-{}-{tag}-{}", std::process::id(), NEXT.fetch_add(1, Ordering::Relaxed)));
-    let _ = std::fs::remove_dir_all(&p);
-    std::fs::create_dir_all(&p).unwrap();
-    p
+    common::scratch("bad-inputs", &format!("{tag}-{}", NEXT.fetch_add(1, Ordering::Relaxed)))
 }
 
 fn corpus_dir() -> PathBuf {

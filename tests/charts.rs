@@ -1,29 +1,12 @@
 //! Charts, pages, `plot` and `compare`, through the built binary in temporary folders.
 
 use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
 
-const BIN: &str = env!("CARGO_BIN_EXE_dropcut");
+mod common;
+use common::{ok, p, run};
 
 fn scratch(name: &str) -> PathBuf {
-    let dir = Path::new(env!("CARGO_TARGET_TMPDIR")).join("charts").join(name);
-    let _ = std::fs::remove_dir_all(&dir);
-    std::fs::create_dir_all(&dir).unwrap();
-    dir
-}
-
-fn run(args: &[&str]) -> Output {
-    Command::new(BIN).args(args).output().expect("run dropcut")
-}
-
-fn ok(args: &[&str]) -> String {
-    let out = run(args);
-    assert!(out.status.success(), "dropcut {args:?} failed: {}", String::from_utf8_lossy(&out.stderr));
-    String::from_utf8(out.stdout).unwrap()
-}
-
-fn p(path: &Path) -> &str {
-    path.to_str().unwrap()
+    common::scratch("charts", name)
 }
 
 /// A small, fast run: two components, 10 µm.

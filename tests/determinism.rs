@@ -7,13 +7,11 @@ use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
-const BIN: &str = env!("CARGO_BIN_EXE_dropcut");
+mod common;
+use common::BIN;
 
 fn temp_dir(tag: &str) -> PathBuf {
-    let p = std::env::temp_dir().join(format!("dropcut-determinism-{}-{tag}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&p);
-    std::fs::create_dir_all(&p).unwrap();
-    p
+    common::scratch("determinism", tag)
 }
 
 /// Every file under `dir` by relative path, with its bytes.

@@ -5,13 +5,11 @@
 use std::path::{Path, PathBuf};
 use std::process::{Command, Output};
 
-use dropcut::checks::{assert_all_passed, fuelbuild, CheckResult};
+use dropcut::checks::{assert_all_passed, fuelbuild, print_results, CheckResult};
 use dropcut::data::Library;
 
 fn run_checks(results: Vec<CheckResult>) {
-    for r in &results {
-        println!("{} | {} | {} | {} | {}", if r.passed { "pass" } else { "FAIL" }, r.check, r.tolerance, r.achieved, r.source);
-    }
+    print_results(&results);
     assert_all_passed(&results);
 }
 

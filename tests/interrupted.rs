@@ -12,13 +12,11 @@ use std::path::{Path, PathBuf};
 use std::process::{Command, Stdio};
 use std::time::Duration;
 
-const BIN: &str = env!("CARGO_BIN_EXE_dropcut");
+mod common;
+use common::BIN;
 
 fn temp_dir(tag: &str) -> PathBuf {
-    let p = std::env::temp_dir().join(format!("dropcut-interrupted-{}-{tag}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&p);
-    std::fs::create_dir_all(&p).unwrap();
-    p
+    common::scratch("interrupted", tag)
 }
 
 fn files(dir: &Path, out: &mut Vec<PathBuf>) {

@@ -7,7 +7,8 @@
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
-const BIN: &str = env!("CARGO_BIN_EXE_dropcut");
+mod common;
+use common::BIN;
 
 /// The extreme corners: 0.1 µm and 10 mm droplets (zipped with a max-time that keeps the run short),
 /// 150 K and 4000 K gas, 1 kPa and 300 bar, 0 and 1000 m/s, well-mixed and resolved liquid, two fuels.
@@ -27,10 +28,7 @@ histories = true
 "#;
 
 fn temp_dir(tag: &str) -> PathBuf {
-    let p = std::env::temp_dir().join(format!("dropcut-nonan-{}-{tag}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&p);
-    std::fs::create_dir_all(&p).unwrap();
-    p
+    common::scratch("no-nan", tag)
 }
 
 fn files(dir: &Path, out: &mut Vec<PathBuf>) {

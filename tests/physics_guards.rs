@@ -5,7 +5,8 @@
 use std::path::PathBuf;
 use std::process::Command;
 
-const BIN: &str = env!("CARGO_BIN_EXE_dropcut");
+mod common;
+use common::BIN;
 
 /// One guarded condition: the simulate options, notes that must appear and notes that must not.
 struct Guard {
@@ -109,10 +110,7 @@ const GUARDS: &[Guard] = &[
 ];
 
 fn temp_dir(tag: &str) -> PathBuf {
-    let p = std::env::temp_dir().join(format!("dropcut-guards-{}-{tag}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&p);
-    std::fs::create_dir_all(&p).unwrap();
-    p
+    common::scratch("physics-guards", tag)
 }
 
 /// Run one guard; returns the parsed summary.json.

@@ -304,9 +304,7 @@ fn surrogate_matches_reference_and_reports_honestly() {
 fn n_dodecane_table_matches_coolprop() {
     let lib = Library::embedded().unwrap();
     let results = coolprop_checks(&lib);
-    for r in &results {
-        println!("{} | {} | {} | {}", if r.passed { "pass" } else { "FAIL" }, r.check, r.tolerance, r.achieved);
-    }
+    dropcut::checks::print_results(&results);
     assert_eq!(results.len(), 10);
     for r in results.iter().filter(|r| !is_known_failure(r)) {
         assert!(r.passed, "{} | tol {} | got {}", r.check, r.tolerance, r.achieved);

@@ -3,7 +3,6 @@
 //! input exits 2 with one line naming the option, file or field.
 
 use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
 use std::time::Instant;
 
 use dropcut::data::Library;
@@ -13,27 +12,11 @@ use dropcut::model::{simulate, DropletInputs, Motion};
 use dropcut::props::gas::AmbientGas;
 use dropcut::uncertainty::{self, Method, Settings, UncertaintySpec};
 
-const BIN: &str = env!("CARGO_BIN_EXE_dropcut");
+mod common;
+use common::{ok, p, run};
 
 fn scratch(name: &str) -> PathBuf {
-    let dir = Path::new(env!("CARGO_TARGET_TMPDIR")).join("uncertainty").join(name);
-    let _ = std::fs::remove_dir_all(&dir);
-    std::fs::create_dir_all(&dir).unwrap();
-    dir
-}
-
-fn run(args: &[&str]) -> Output {
-    Command::new(BIN).args(args).output().expect("run dropcut")
-}
-
-fn ok(args: &[&str]) -> String {
-    let out = run(args);
-    assert!(out.status.success(), "dropcut {args:?} failed: {}", String::from_utf8_lossy(&out.stderr));
-    String::from_utf8(out.stdout).unwrap()
-}
-
-fn p(path: &Path) -> &str {
-    path.to_str().unwrap()
+    common::scratch("uncertainty", name)
 }
 
 fn inputs(fuel: &str, diameter: f64) -> DropletInputs {

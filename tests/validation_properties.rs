@@ -4,14 +4,12 @@
 //! writes the `dropcut validate` report); validation/README.md describes the reference tables.
 
 use dropcut::checks::properties::{self, is_known_failure, KNOWN_FAILURES};
-use dropcut::checks::{assert_all_passed, CheckResult};
+use dropcut::checks::{assert_all_passed, print_results, CheckResult};
 
 /// Every check passes, except exactly the investigated failures listed in `properties::KNOWN_FAILURES`,
 /// which must still fail (an entry whose check now passes is stale and must be removed).
 fn assert_passed_except_known(results: &[CheckResult]) {
-    for r in results {
-        println!("{} | {} | {} | {} | {}", if r.passed { "pass" } else { "FAIL" }, r.check, r.tolerance, r.achieved, r.source);
-    }
+    print_results(results);
     let (known, rest): (Vec<CheckResult>, Vec<CheckResult>) = results.iter().cloned().partition(is_known_failure);
     assert_all_passed(&rest);
     for k in &known {

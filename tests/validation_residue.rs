@@ -3,13 +3,11 @@
 //! reference values and their sources live in src/checks/residue.rs.
 
 use dropcut::checks::residue;
-use dropcut::checks::{assert_all_passed, CheckResult};
+use dropcut::checks::{assert_all_passed, print_results, CheckResult};
 use dropcut::data::Library;
 
 fn run(results: Vec<CheckResult>) {
-    for r in &results {
-        println!("{} | {} | {} | {} | {}", if r.passed { "pass" } else { "FAIL" }, r.check, r.tolerance, r.achieved, r.source);
-    }
+    print_results(&results);
     assert_all_passed(&results);
 }
 

@@ -67,6 +67,14 @@ pub fn compact(v: f64) -> String {
     }
 }
 
+/// One line per result on stdout, `pass`/`FAIL | check | tolerance | achieved | source` (shown by
+/// `cargo test -- --nocapture`).
+pub fn print_results(results: &[CheckResult]) {
+    for r in results {
+        println!("{} | {} | {} | {} | {}", if r.passed { "pass" } else { "FAIL" }, r.check, r.tolerance, r.achieved, r.source);
+    }
+}
+
 /// Panic with a readable table of the failed checks (for tests).
 pub fn assert_all_passed(results: &[CheckResult]) {
     assert!(!results.is_empty(), "no checks ran");

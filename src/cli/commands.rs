@@ -253,37 +253,23 @@ pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<Dr
         diffusivity_factor: factor("liquid-diffusivity-factor", &c.liquid_diffusivity_factor)?,
         conductivity_factor: factor("liquid-conductivity-factor", &c.liquid_conductivity_factor)?,
     };
-    inp.extra_heat = extra_heat(c, d0)?;
+    inp.extra_heat = extra_heat(c)?;
     Ok(inp)
 }
 
-/// Radiation and fibre options into [`model::film::ExtraHeat`], with range checks.
-fn extra_heat(c: &ConditionArgs, d0: f64) -> Result<model::film::ExtraHeat, CliError> {
+/// Radiation and fibre options into [`model::film::ExtraHeat`] (ranges are checked by the model).
+fn extra_heat(c: &ConditionArgs) -> Result<model::film::ExtraHeat, CliError> {
     let mut extra = model::film::ExtraHeat::default();
     let rad = c.radiation.trim();
     if !rad.eq_ignore_ascii_case("off") {
         let temperature = if rad.eq_ignore_ascii_case("ambient") { None } else { Some(parse_q("radiation", rad, Quantity::Temperature)?) };
-        if let Some(t) = temperature {
-            if !(t > 0.0 && t <= 5000.0) {
-                return Err(CliError::input(format!("--radiation: {} must lie between 0 K and 5000 K (or be 'off' / 'ambient')", units::format_temperature(t))));
-            }
-        }
-        let q = parse_q("absorption-efficiency", &c.absorption_efficiency, Quantity::Dimensionless)?;
-        if !(q > 0.0 && q <= 1.0) {
-            return Err(CliError::input(format!("--absorption-efficiency: {q} must lie in (0, 1]")));
-        }
-        extra.radiation = Some(model::film::Radiation { temperature, absorption_efficiency: q });
+        let absorption_efficiency = parse_q("absorption-efficiency", &c.absorption_efficiency, Quantity::Dimensionless)?;
+        extra.radiation = Some(model::film::Radiation { temperature, absorption_efficiency });
     }
     let fib = c.fibre_diameter.trim();
     if !fib.eq_ignore_ascii_case("none") {
         let diameter = parse_q("fibre-diameter", fib, Quantity::Length)?;
-        if !(diameter > 0.0 && diameter < d0) {
-            return Err(CliError::input(format!("--fibre-diameter: {} must be positive and smaller than the droplet ({})", units::format_length(diameter), units::format_length(d0))));
-        }
         let conductivity = parse_q("fibre-conductivity", &c.fibre_conductivity, Quantity::Dimensionless)?;
-        if !(conductivity > 0.0 && conductivity <= 500.0) {
-            return Err(CliError::input(format!("--fibre-conductivity: {conductivity} W/(m·K) must lie in (0, 500]")));
-        }
         let stems: u32 = c.fibre_stems.trim().parse().ok().filter(|s| (1..=4).contains(s)).ok_or_else(|| CliError::input(format!("--fibre-stems: '{}' must be a whole number from 1 to 4", c.fibre_stems.trim())))?;
         extra.fibre = Some(model::film::SupportFibre { diameter, conductivity, stems });
     }

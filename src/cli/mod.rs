@@ -70,7 +70,8 @@ impl From<crate::output::OutputError> for CliError {
 impl From<crate::model::ModelError> for CliError {
     fn from(e: crate::model::ModelError) -> Self {
         match e {
-            crate::model::ModelError::Input { .. } => CliError::input(e.to_string()),
+            // the model names the input by its option name; on the command line it is `--name`
+            crate::model::ModelError::Input { field, value, reason } => CliError::input(format!("--{field} = {value}: {reason}")),
             _ => CliError::runtime(e.to_string()),
         }
     }

@@ -526,7 +526,7 @@ pub(crate) fn check_inputs(inp: &DropletInputs) -> Result<(), ModelError> {
     }
     if let Some(f) = inp.extra_heat.fibre {
         if !(f.diameter.is_finite() && f.diameter > 0.0 && f.diameter < inp.initial_diameter) {
-            return bad("fibre-diameter", format!("{} m", f.diameter), "must be positive and smaller than the droplet");
+            return bad("fibre-diameter", format!("{} m", f.diameter), &format!("must be positive and smaller than the droplet ({} m)", inp.initial_diameter));
         }
         if !(f.conductivity.is_finite() && f.conductivity > 0.0 && f.conductivity <= 500.0) {
             return bad("fibre-conductivity", format!("{} W/(m·K)", f.conductivity), "must lie in (0, 500]");

@@ -792,28 +792,20 @@ fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &GridMap) -> R
     let (nx, ny) = (m.x.len() as i32, m.y.len() as i32);
     let (xd, yd) = (exact_decimals(&m.x), exact_decimals(&m.y));
     let cell_decimals = tick_decimals((vmin, vmax), 6) + 1;
-    let xlabels = |v: &SegmentValue<i32>| match v {
-        SegmentValue::CenterOf(i) if *i >= 0 && *i < nx => {
-            let step = (nx as usize).div_ceil(12).max(1);
+    // label at most about 12 of the cell centres along an axis
+    let centre_label = |v: &SegmentValue<i32>, values: &[f64], decimals: usize| match v {
+        SegmentValue::CenterOf(i) if *i >= 0 && (*i as usize) < values.len() => {
+            let step = values.len().div_ceil(12).max(1);
             if (*i as usize).is_multiple_of(step) {
-                format_tick(m.x[*i as usize], xd)
+                format_tick(values[*i as usize], decimals)
             } else {
                 String::new()
             }
         }
         _ => String::new(),
     };
-    let ylabels = |v: &SegmentValue<i32>| match v {
-        SegmentValue::CenterOf(j) if *j >= 0 && *j < ny => {
-            let step = (ny as usize).div_ceil(12).max(1);
-            if (*j as usize).is_multiple_of(step) {
-                format_tick(m.y[*j as usize], yd)
-            } else {
-                String::new()
-            }
-        }
-        _ => String::new(),
-    };
+    let xlabels = |v: &SegmentValue<i32>| centre_label(v, &m.x, xd);
+    let ylabels = |v: &SegmentValue<i32>| centre_label(v, &m.y, yd);
     let widest = m.y.iter().map(|v| text_width(root, &format_tick(*v, yd), 18)).max().unwrap_or(20);
     let mut cc = ChartBuilder::on(&plot)
         .margin(10)

@@ -181,6 +181,14 @@ fn sources_used(components: &[std::sync::Arc<Component>], sources: &SourceRegist
     (text, json!(ids))
 }
 
+/// (name, description) of the property columns followed by the two flag columns every table ends with.
+fn columns_with_flags(columns: &[Column]) -> Vec<(String, String)> {
+    let mut out: Vec<(String, String)> = columns.iter().map(|c| (c.name.to_string(), c.description.to_string())).collect();
+    out.push(("validity".into(), "validity flag".into()));
+    out.push(("extrapolated_properties".into(), "properties outside their published range".into()));
+    out
+}
+
 fn column_lines(columns: &[Column]) -> Vec<(String, String)> {
     columns.iter().map(|c| (format!("column {}", c.name), c.description.to_string())).collect()
 }
@@ -248,9 +256,7 @@ fn mixture_doc(t: &MixtureTable, set: &TableSet, sources: &SourceRegistry, date:
     m.push(("estimated_components".into(), estimated_components(&t.fuel.components)));
     let (src_text, src_json) = sources_used(&t.fuel.components, sources);
     m.push(("sources".into(), src_text));
-    let mut columns: Vec<(String, String)> = MIXTURE_COLUMNS.iter().map(|c| (c.name.to_string(), c.description.to_string())).collect();
-    columns.push(("validity".into(), "validity flag".into()));
-    columns.push(("extrapolated_properties".into(), "properties outside their published range".into()));
+    let columns = columns_with_flags(&MIXTURE_COLUMNS);
     let rows = t
         .rows
         .iter()
@@ -395,9 +401,7 @@ fn component_doc(t: &ComponentTable, fuel: &Fuel, set: &TableSet, sources: &Sour
     m.push(("column extrapolated_properties".into(), "property keys evaluated outside their published range, separated by ';'".into()));
     let est = c.estimated_properties();
     m.push(("estimated_properties".into(), if est.is_empty() { "none".into() } else { est.join(", ") }));
-    let mut columns: Vec<(String, String)> = COMPONENT_COLUMNS.iter().map(|c| (c.name.to_string(), c.description.to_string())).collect();
-    columns.push(("validity".into(), "validity flag".into()));
-    columns.push(("extrapolated_properties".into(), "properties outside their published range".into()));
+    let columns = columns_with_flags(&COMPONENT_COLUMNS);
     let rows = t
         .rows
         .iter()

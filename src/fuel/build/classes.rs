@@ -129,14 +129,7 @@ fn cell_key(text: &str, context: &str) -> Result<(HydrocarbonClass, u32), BuildE
 impl ClassTable {
     /// Read a table from a file: `.csv` as CSV, anything else as TOML (see docs/fuel-from-lab-data.md).
     pub fn read(path: &Path) -> Result<Self, BuildError> {
-        let shown = path.display().to_string();
-        let text = std::fs::read_to_string(path).map_err(|e| input_error(&shown, format!("cannot read: {e}")))?;
-        let stem = path.file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_else(|| "fuel".into());
-        if path.extension().is_some_and(|e| e.eq_ignore_ascii_case("csv")) {
-            Self::parse_csv(&text, &shown, &stem)
-        } else {
-            Self::parse_toml(&text, &shown, &stem)
-        }
+        super::read_csv_or_toml(path, Self::parse_csv, Self::parse_toml)
     }
 
     /// Parse the CSV form: `#` metadata lines (`# name: ...`, `# description: ...`, `# map: class.Cn = id`),

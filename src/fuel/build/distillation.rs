@@ -112,14 +112,7 @@ pub fn check_density(rho: f64, context: &str) -> Result<f64, BuildError> {
 impl DistillationCurve {
     /// Read a curve: `.csv` as CSV, anything else as TOML (docs/fuel-from-lab-data.md).
     pub fn read(path: &Path) -> Result<Self, BuildError> {
-        let shown = path.display().to_string();
-        let text = std::fs::read_to_string(path).map_err(|e| input_error(&shown, format!("cannot read: {e}")))?;
-        let stem = path.file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_else(|| "fuel".into());
-        if path.extension().is_some_and(|e| e.eq_ignore_ascii_case("csv")) {
-            Self::parse_csv(&text, &shown, &stem)
-        } else {
-            Self::parse_toml(&text, &shown, &stem)
-        }
+        super::read_csv_or_toml(path, Self::parse_csv, Self::parse_toml)
     }
 
     /// Parse the TOML form: `curve = "d86" | "tbp"`, `temperature-unit`, optional `name`, `description`,

@@ -40,6 +40,23 @@ pub enum BuildError {
 }
 
 /// Build a [`BuildError::Input`].
+/// Read a lab-data file and hand its text to `parse_csv` (for a `.csv` file) or `parse_toml` (anything else),
+/// each called with (text, file as shown, file stem as the default fuel name).
+pub(crate) fn read_csv_or_toml<T>(
+    path: &std::path::Path,
+    parse_csv: impl FnOnce(&str, &str, &str) -> Result<T, BuildError>,
+    parse_toml: impl FnOnce(&str, &str, &str) -> Result<T, BuildError>,
+) -> Result<T, BuildError> {
+    let shown = path.display().to_string();
+    let text = std::fs::read_to_string(path).map_err(|e| input_error(&shown, format!("cannot read: {e}")))?;
+    let stem = path.file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_else(|| "fuel".into());
+    if path.extension().is_some_and(|e| e.eq_ignore_ascii_case("csv")) {
+        parse_csv(&text, &shown, &stem)
+    } else {
+        parse_toml(&text, &shown, &stem)
+    }
+}
+
 pub(crate) fn input_error(context: impl Into<String>, message: impl Into<String>) -> BuildError {
     // cells and keys echoed from the input may hold line breaks (a quoted CSV field): keep the message one line
     let one_line = |s: String| if s.contains(char::is_control) { s.chars().map(|c| if c.is_control() { ' ' } else { c }).collect() } else { s };

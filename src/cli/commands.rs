@@ -129,7 +129,7 @@ struct FuelShow {
     density_15C_kg_m3: f64,
     pressure_Pa: f64,
     bubble_point_K: Option<f64>,
-    dew_point_K: f64,
+    dew_point_K: Option<f64>,
     liquid_at_T: liquid::LiquidState,
     notices: Vec<String>,
 }
@@ -184,7 +184,7 @@ fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, json:
         density_15C_kg_m3: fuel.density_15c(),
         pressure_Pa: p,
         bubble_point_K: bubble,
-        dew_point_K: dew,
+        dew_point_K: if dew < liquid::pseudo_critical_temperature(&fuel.components, &x) { Some(dew) } else { None },
         liquid_at_T: state,
         notices,
     };
@@ -203,7 +203,7 @@ fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, json:
         show.density_15C_kg_m3,
         bubble.map(units::format_temperature).unwrap_or_else(|| "none (critical region, see the note)".into()),
         units::format_pressure(p),
-        units::format_temperature(dew),
+        show.dew_point_K.map(units::format_temperature).unwrap_or_else(|| "none (critical region)".into()),
         units::format_temperature(t),
         l.vapor_pressure_Pa,
         l.density_kg_m3,

@@ -710,3 +710,48 @@ mod tests {
         assert!(fibre(100e-6, 1).fibre_heat(&gas, 101_325.0, 800.0, 350.0, 5.0) > q, "gas flow raises h");
     }
 }
+
+#[cfg(test)]
+mod boiling_tests {
+    use super::*;
+
+    fn film(extra_heat: ExtraHeat, t_inf: f64) -> Film {
+        let lib = crate::data::Library::embedded().unwrap();
+        let c = lib.component("n-decane").unwrap().clone();
+        Film::new(FilmSetup {
+            components: vec![c],
+            gas: crate::props::gas::AmbientGas::air(&lib).unwrap(),
+            pressure: 101_325.0,
+            ambient_temperature: t_inf,
+            ambient_vapor: vec![0.0],
+            reference_weight: 1.0 / 3.0,
+            correlation: TransferCorrelation::Clift,
+            non_equilibrium: false,
+            extra_heat,
+            drag: DragLaw::YuenChen,
+        })
+    }
+
+    /// Heat-limited boiling closes the surface energy balance ṁ L = Q_gas + Q_extra: without extra heat at the
+    /// classical B_T = c_pF ΔT/L (hot gas), with radiation in cold gas (Q_gas < 0, B_T far beyond 1e10), and
+    /// with no rate at all when the net heat is negative.
+    #[test]
+    fn boiling_rate_follows_the_net_heat() {
+        let (t_s, d, l) = (447.0, 50e-6, 2.6e5);
+        let latent = [l];
+        let mut f = film(ExtraHeat::default(), 1500.0);
+        let r = f.evaluate(&[1.0], t_s, d, 3.0, &latent, Some(l));
+        assert!(r.evaporation_rate > 0.0);
+        assert!((r.evaporation_rate * l / r.heat_from_gas - 1.0).abs() < 1e-9, "{r:?}");
+        let rad = ExtraHeat { radiation: Some(Radiation { temperature: Some(4000.0), absorption_efficiency: 1.0 }), fibre: None };
+        let mut f = film(rad, 300.0);
+        let r = f.evaluate(&[1.0], t_s, d, 0.0, &latent, Some(l));
+        assert!(r.heat_from_gas < 0.0 && r.heat_extra > 0.0 && r.spalding_heat > 1e10, "{r:?}");
+        assert!((r.evaporation_rate * l / (r.heat_from_gas + r.heat_extra) - 1.0).abs() < 1e-9, "{r:?}");
+        assert!(r.heat_to_liquid.abs() < 1e-9 * r.heat_extra, "pure liquid: all net heat evaporates it");
+        let mut f = film(ExtraHeat::default(), 300.0);
+        let r = f.evaluate(&[1.0], t_s, d, 0.0, &latent, Some(l));
+        assert_eq!(r.evaporation_rate, 0.0);
+        assert!(r.heat_to_liquid < 0.0, "the liquid loses heat: the droplet model leaves the regime");
+    }
+}

@@ -412,3 +412,24 @@ fn bad_input_exits_2_with_one_line() {
     assert_eq!(o.status.code(), Some(2));
     let _ = std::fs::remove_dir_all(&d);
 }
+
+/// No bubble point in the critical region: n-dodecane at 30 bar (Raoult would give 698 K, above T_c = 658 K)
+/// is reported as none with a note in the table metadata and in `fuel show`; at 1 atm the bubble point is kept.
+#[test]
+fn no_bubble_point_above_the_pseudo_critical_temperature() {
+    let dir = temp("critical-bubble");
+    let out = dir.join("t");
+    run_ok(&["table", "n-dodecane", "--pressure", "30bar", "--out", out.to_str().unwrap()]);
+    let text = std::fs::read_to_string(out.join("mixture.csv")).unwrap();
+    let line = text.lines().find(|l| l.starts_with("# bubble_point_K:")).unwrap();
+    assert!(line.contains("none") && line.contains("pseudo-critical temperature 658.0 K"), "{line}");
+    let o = run(&["fuel", "show", "n-dodecane", "--pressure", "30bar", "--json"], &[]);
+    assert!(o.status.success());
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    assert!(v["bubble_point_K"].is_null() && v["dew_point_K"].is_null(), "{v}");
+    assert!(v["notices"].as_array().unwrap().iter().any(|n| n.as_str().unwrap().contains("critical region")), "{v}");
+    let o = run(&["fuel", "show", "n-dodecane", "--pressure", "1atm", "--json"], &[]);
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    assert!((v["bubble_point_K"].as_f64().unwrap() - 489.4).abs() < 1.0, "{v}");
+    let _ = std::fs::remove_dir_all(&dir);
+}

@@ -639,6 +639,7 @@ fn raoult_surface_checks(lib: &Library) -> Vec<CheckResult> {
         correlation: TransferCorrelation::Clift, // irrelevant here
         non_equilibrium: false,
         extra_heat: Default::default(),
+        drag: Default::default(),
     };
     let mut film = Film::new(setup);
     let x = [0.5, 0.5]; // equimolar liquid

@@ -214,6 +214,15 @@ pub enum CorrelationArg {
     RanzMarshall,
 }
 
+/// Drag law of an injected droplet.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum DragArg {
+    /// Yuen & Chen (1976): standard drag, Reynolds number on free-stream density and film viscosity, no blowing factor.
+    YuenChen,
+    /// Eisenklam, Arunachalam & Weston (1967): standard drag on free-stream properties divided by (1 + B).
+    Blowing,
+}
+
 /// Options shared by every droplet run.
 #[derive(Debug, Clone, Args)]
 pub struct ConditionArgs {
@@ -244,6 +253,9 @@ pub struct ConditionArgs {
     /// Nusselt/Sherwood correlation of the non-evaporating sphere.
     #[arg(long, value_enum, default_value = "clift")]
     pub correlation: CorrelationArg,
+    /// Drag law of an --injected droplet (the vapour film's effect is counted once in either).
+    #[arg(long, value_enum, default_value = "yuen-chen")]
+    pub drag: DragArg,
     /// Relative tolerance of the time integration.
     #[arg(long, allow_hyphen_values = true, default_value = "1e-6")]
     pub rtol: String,

@@ -5,7 +5,7 @@ use std::path::Path;
 
 use serde::Serialize;
 
-use super::args::{Cli, Command, ConditionArgs, CorrelationArg, FuelAction, HeatArg, MixingArg, ResidueArgs, SimulateArgs};
+use super::args::{Cli, Command, ConditionArgs, CorrelationArg, DragArg, FuelAction, HeatArg, MixingArg, ResidueArgs, SimulateArgs};
 use super::plot;
 use super::CliError;
 use crate::data::Library;
@@ -128,8 +128,8 @@ struct FuelShow {
     molar_mass_kg_mol: f64,
     density_15C_kg_m3: f64,
     pressure_Pa: f64,
-    bubble_point_K: f64,
-    dew_point_K: f64,
+    bubble_point_K: Option<f64>,
+    dew_point_K: Option<f64>,
     liquid_at_T: liquid::LiquidState,
     notices: Vec<String>,
 }
@@ -158,7 +158,16 @@ fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, json:
     }
     let x = fuel.mole_fractions();
     let v = fuel.volume_fractions();
-    let bubble = liquid::bubble_point(&fuel.components, &x, p).map_err(|e| CliError::input(format!("--pressure {pressure}: {e}")))?;
+    let _ = liquid::bubble_point(&fuel.components, &x, p).map_err(|e| CliError::input(format!("--pressure {pressure}: {e}")))?;
+    let mut notices = fuel.notices.clone();
+    let bubble = match liquid::subcritical_bubble_point(&fuel.components, &x, p) {
+        Ok(t) => Some(t),
+        Err(note) => {
+            notice(&note);
+            notices.push(note);
+            None
+        }
+    };
     let dew = liquid::dew_point(&fuel.components, &x, p).map_err(|e| CliError::input(format!("--pressure {pressure}: {e}")))?;
     let state = liquid::state(&fuel.components, &fuel.mass_fractions, t);
     let show = FuelShow {
@@ -175,9 +184,9 @@ fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, json:
         density_15C_kg_m3: fuel.density_15c(),
         pressure_Pa: p,
         bubble_point_K: bubble,
-        dew_point_K: dew,
+        dew_point_K: if dew < liquid::pseudo_critical_temperature(&fuel.components, &x) { Some(dew) } else { None },
         liquid_at_T: state,
-        notices: fuel.notices.clone(),
+        notices,
     };
     if json {
         return stdout_write(&output::to_json_string(&show).map_err(CliError::runtime)?);
@@ -192,9 +201,9 @@ fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, json:
         "\nmolar mass            {:.2} g/mol\ndensity at 15 °C      {:.1} kg/m³\nbubble point          {} at {}\ndew point             {}\n\nliquid at {}:\n  vapour pressure     {:.4e} Pa\n  density             {:.1} kg/m³\n  latent heat         {:.1} kJ/kg\n  heat capacity       {:.1} J/(kg K)\n  viscosity           {:.4e} Pa s ({:.4} mm²/s)\n  conductivity        {:.4} W/(m K)\n  surface tension     {:.2} mN/m\n",
         show.molar_mass_kg_mol * 1e3,
         show.density_15C_kg_m3,
-        units::format_temperature(bubble),
+        bubble.map(units::format_temperature).unwrap_or_else(|| "none (critical region, see the note)".into()),
         units::format_pressure(p),
-        units::format_temperature(dew),
+        show.dew_point_K.map(units::format_temperature).unwrap_or_else(|| "none (critical region)".into()),
         units::format_temperature(t),
         l.vapor_pressure_Pa,
         l.density_kg_m3,
@@ -224,6 +233,10 @@ pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<Dr
     inp.correlation = match c.correlation {
         CorrelationArg::Clift => TransferCorrelation::Clift,
         CorrelationArg::RanzMarshall => TransferCorrelation::RanzMarshall,
+    };
+    inp.drag = match c.drag {
+        DragArg::YuenChen => model::film::DragLaw::YuenChen,
+        DragArg::Blowing => model::film::DragLaw::Blowing,
     };
     inp.rtol = rtol;
     inp.max_time = max_time;
@@ -364,6 +377,7 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
                 injected: name == "combustor",
                 ambient_vapor: String::new(),
                 correlation: CorrelationArg::Clift,
+                drag: DragArg::YuenChen,
                 rtol: "1e-6".into(),
                 max_time: tmax.into(),
                 liquid_mixing: MixingArg::WellMixed,

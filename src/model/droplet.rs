@@ -5,7 +5,7 @@ use crate::fuel::Fuel;
 use crate::props::gas::AmbientGas;
 use crate::props::liquid;
 
-use super::film::{ExtraHeat, Film, FilmResult, FilmSetup, TransferCorrelation};
+use super::film::{DragLaw, ExtraHeat, Film, FilmResult, FilmSetup, TransferCorrelation};
 use super::integrator::{locate_event, DormandPrince, OdeSystem, Stats, Tolerances};
 use super::ModelError;
 
@@ -60,6 +60,8 @@ pub struct DropletInputs {
     pub liquid: LiquidOptions,
     /// Radiation and supporting-fibre heat (none by default: a free droplet in a transparent gas).
     pub extra_heat: ExtraHeat,
+    /// Drag law of the evaporating droplet (used with `Motion::Injected`).
+    pub drag: DragLaw,
 }
 
 /// How species mix inside the droplet.
@@ -132,6 +134,7 @@ impl DropletInputs {
             end_mass_fraction: 1e-3,
             liquid: LiquidOptions::default(),
             extra_heat: ExtraHeat::default(),
+            drag: DragLaw::default(),
         }
     }
 }
@@ -150,6 +153,7 @@ impl DropletInputs {
             correlation: self.correlation,
             non_equilibrium: self.liquid.non_equilibrium,
             extra_heat: self.extra_heat,
+            drag: self.drag,
         }
     }
 }
@@ -308,8 +312,16 @@ pub struct RunResult {
     pub profiles: Vec<Profile>,
 }
 
-/// Threshold of Σ X_s at which the heat-limited boiling regime takes over.
+/// Threshold of Σ X_s at which the heat-limited boiling regime takes over; the regime holds the surface at the
+/// temperature where Σ X_s equals it (the bubble point at BOILING_THRESHOLD × p, within a fraction of a kelvin of
+/// the bubble point), so that entering and leaving the regime changes no temperature.
 pub const BOILING_THRESHOLD: f64 = 0.995;
+
+/// Temperature at which the heat-limited boiling regime holds a liquid of mole fractions `x` at pressure `p` [K]:
+/// Σ x_i p_sat,i(T) = BOILING_THRESHOLD · p. None when the liquid has no bubble point at that pressure.
+pub fn boiling_hold_temperature(comps: &[std::sync::Arc<crate::data::Component>], x: &[f64], p: f64) -> Option<f64> {
+    liquid::bubble_point(comps, x, BOILING_THRESHOLD * p).ok()
+}
 
 /// The well-mixed droplet as an ODE system: y = [m_1..m_N, T, U, e_1..e_N].
 pub struct WellMixed {
@@ -345,9 +357,32 @@ impl WellMixed {
         m
     }
 
-    /// Bubble point of the current composition [K].
+    /// Boiling-regime (hold) temperature of the composition `x` [K] (see [`boiling_hold_temperature`]).
     fn bubble_point(&self, x: &[f64]) -> f64 {
-        liquid::bubble_point(&self.film.setup.components, x, self.film.setup.pressure).unwrap_or(self.film.setup.ambient_temperature)
+        boiling_hold_temperature(&self.film.setup.components, x, self.film.setup.pressure).unwrap_or(self.film.setup.ambient_temperature)
+    }
+
+    /// Heat into the liquid [W] if the droplet at state `y` evaporated at its hold temperature without the
+    /// heat limit (the evaporating regime's film at Σ X_s = BOILING_THRESHOLD): positive means the evaporating
+    /// regime would heat the droplet past the hold temperature (boiling holds it there); zero or negative means
+    /// the heat no longer holds it at the bubble point and it leaves the boiling regime.
+    fn heat_at_hold(&mut self, y: &[f64]) -> f64 {
+        let n = self.n;
+        let m = self.unpack(y);
+        let x = std::mem::take(&mut self.x);
+        let t_s = self.bubble_point(&x);
+        let comps = &self.film.setup.components;
+        for i in 0..n {
+            self.latent[i] = comps[i].latent_heat(t_s);
+        }
+        let rho_l = liquid::density(comps, &self.w, t_s);
+        let d = (6.0 * m.max(1e-300) / (std::f64::consts::PI * rho_l)).cbrt();
+        self.film.liquid_density = rho_l;
+        let latent = std::mem::take(&mut self.latent);
+        let f = self.film.evaluate(&x, t_s, d, y[n + 1], &latent, None);
+        self.x = x;
+        self.latent = latent;
+        f.heat_to_liquid
     }
 
     /// Effective latent heat in the boiling regime: Σ ε_i L_i + c_pL dT_b/d(evaporated fraction along ε).
@@ -371,7 +406,7 @@ impl WellMixed {
             self.w_probe[i] = ((self.w[i] - h * self.w_probe[i]) / (1.0 - h)).max(0.0);
         }
         liquid::mass_to_mole_into(comps, &self.w_probe, &mut self.x_probe);
-        let t_b2 = liquid::bubble_point(comps, &self.x_probe, self.film.setup.pressure).unwrap_or(t_b);
+        let t_b2 = boiling_hold_temperature(comps, &self.x_probe, self.film.setup.pressure).unwrap_or(t_b);
         // per unit evaporated mass: dT_b/dm_evap = (t_b2 − t_b)/(h m); sensible heat m cp dT_b = cp (t_b2 − t_b)/h per kg
         l + cp_l * (t_b2 - t_b).max(0.0) / h
     }
@@ -764,22 +799,28 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
     let w0 = &inp.fuel.mass_fractions;
     let t0 = inp.initial_temperature;
     let velocity0 = y0[n + 1];
-    // Starting above the bubble point: flash to the boiling regime at once.
+    // Starting at or above the boiling-regime temperature: flash to it at once, then boil if the net heat holds
+    // the droplet there.
     let x0 = inp.fuel.mole_fractions();
     // No bubble point (vapour pressure below the ambient pressure at every temperature) means no boiling.
     let t_bubble0 = liquid::bubble_point(&comps, &x0, inp.pressure).unwrap_or(f64::INFINITY);
-    if !inp.fixed_temperature && t0 >= t_bubble0 - 1e-9 {
-        let (masses, tb) = adiabatic_flash(&comps, w0, t0, m0, inp.pressure, inp.end_mass_fraction);
+    let t_hold0 = boiling_hold_temperature(&comps, &x0, inp.pressure).unwrap_or(f64::INFINITY);
+    if !inp.fixed_temperature && t0 >= t_hold0 - 1e-9 {
+        let (masses, tb) = adiabatic_flash(&comps, w0, t0, m0, BOILING_THRESHOLD * inp.pressure, inp.end_mass_fraction);
         let m_left: f64 = masses.iter().sum();
         for i in 0..n {
             y0[i] = masses[i];
             y0[n + 2 + i] = m0 * w0[i] - masses[i];
         }
-        sys.regime = Regime::Boiling;
         y0[n] = tb;
+        let holds = sys.heat_at_hold(&y0) > 0.0;
+        if holds {
+            sys.regime = Regime::Boiling;
+        }
         notes.push(format!(
-            "initial temperature {t0:.2} K is above the bubble point {t_bubble0:.2} K at the ambient pressure: {:.3} % of the mass flashed at injection (adiabatic flash), then heat-limited boiling at the bubble point ({tb:.2} K)",
-            100.0 * (1.0 - m_left / m0)
+            "initial temperature {t0:.2} K is at or above the bubble point ({t_bubble0:.2} K at the ambient pressure; the boiling regime holds Σ X_s = {BOILING_THRESHOLD}, {t_hold0:.2} K): {:.3} % of the mass flashed at injection (adiabatic flash) down to {tb:.2} K, {}",
+            100.0 * (1.0 - m_left / m0),
+            if holds { "then heat-limited boiling" } else { "where the net heat cannot hold it at the bubble point: it evaporates below it (no boiling)" }
         ));
     }
     let mut atol = vec![inp.rtol * 1e-3 * m0; 2 * n + 2];
@@ -834,6 +875,8 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
     let mut max_re = first.film.reynolds;
     let mut heatup_end = if first.film.heat_to_liquid.abs() <= 0.1 * first.film.heat_from_gas.abs() { Some(0.0) } else { None };
     let mut boiling_onset = if sys.regime == Regime::Boiling { Some(0.0) } else { None };
+    let mut boiling_entries = usize::from(boiling_onset.is_some());
+    let mut boiling_exits = 0usize;
     if wants_rows {
         observer.on_step(&first);
         history.push(first);
@@ -877,7 +920,7 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         if heatup_end.is_none() && row.film.heat_to_liquid.abs() <= 0.1 * row.film.heat_from_gas.abs() {
             heatup_end = Some(t_now);
         }
-        // boiling onset: Σ X_s reaches the threshold
+        // boiling onset: Σ X_s reaches the threshold while the heat would carry the droplet past it
         if sys.regime == Regime::Evaporating && !inp.fixed_temperature && row.film.surface_vapor_mole_fraction >= BOILING_THRESHOLD && !finished {
             let onset = {
                 let f = &mut sys;
@@ -895,17 +938,43 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
                 )
             };
             stepper.dense(onset, &mut y_end);
-            sys.regime = Regime::Boiling;
             let _ = sys.unpack(&y_end);
             let x = sys.x.clone();
             y_end[n] = sys.bubble_point(&x);
+            if sys.heat_at_hold(&y_end) > 0.0 {
+                sys.regime = Regime::Boiling;
+                boiling_entries += 1;
+                if boiling_onset.is_none() {
+                    boiling_onset = Some(onset);
+                    notes.push(format!(
+                        "surface reached the bubble point (held at {:.2} K, where Σ X_s = {BOILING_THRESHOLD}) at t = {:.4e} s: heat-limited boiling regime while the net heat holds it there",
+                        y_end[n], onset
+                    ));
+                }
+            }
             stepper.reset(&mut sys, onset, &y_end);
-            boiling_onset = Some(onset);
-            notes.push(format!(
-                "surface reached the bubble point ({:.2} K) at t = {:.4e} s: heat-limited boiling regime from then on",
-                y_end[n], onset
-            ));
             t_now = onset;
+            row = make_row(&mut sys, t_now, &y_end, &mut dydt, true);
+        } else if sys.regime == Regime::Boiling && !inp.fixed_temperature && !finished && sys.heat_at_hold(&y_end) <= 0.0 {
+            // leaving the boiling regime: the heat into the liquid (gas, radiation, fibre) no longer holds it
+            let exit = {
+                let f = &mut sys;
+                locate_event(&stepper, |y| f.heat_at_hold(y), &mut buf, 1e-10 * t_now.max(1e-9))
+            };
+            stepper.dense(exit, &mut y_end);
+            sys.regime = Regime::Evaporating;
+            let _ = sys.unpack(&y_end);
+            let x = sys.x.clone();
+            y_end[n] = sys.bubble_point(&x);
+            boiling_exits += 1;
+            if boiling_exits == 1 {
+                notes.push(format!(
+                    "at t = {exit:.4e} s the net heat into the liquid no longer holds the droplet at the bubble point ({:.2} K): it leaves the boiling regime and evaporates below it",
+                    y_end[n]
+                ));
+            }
+            stepper.reset(&mut sys, exit, &y_end);
+            t_now = exit;
             row = make_row(&mut sys, t_now, &y_end, &mut dydt, true);
         }
         let stop = observer.on_step(&row);
@@ -935,6 +1004,9 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         if initial > 0.0 {
             mass_err = mass_err.max(((y[i] + y[n + 2 + i]) - initial).abs() / initial);
         }
+    }
+    if boiling_entries > 1 || boiling_exits > 1 {
+        notes.push(format!("the droplet entered the boiling regime {boiling_entries} time(s) and left it {boiling_exits} time(s)"));
     }
     if let Some(note) = critical.note(&comps) {
         notes.push(note);
@@ -994,6 +1066,34 @@ mod tests {
         let life = o.lifetime.unwrap();
         // order of magnitude: K ≈ 0.3–1 mm²/s for decane at 800 K → lifetime 2.5–10 ms for 50 µm
         assert!(life > 1e-3 && life < 2e-2, "{life}");
+    }
+}
+
+/// Energy balance of a uniform-temperature droplet history: Σ over steps |m̄ c̄_p ΔT − Δt · mean(Q_gas + Q_extra −
+/// Σ ṁ_i L_i(T_s))|, divided by Σ Δt · mean|Q_gas + Q_extra| (trapezoids between recorded rows) [-]. The heat
+/// terms are recomputed from the recorded gas heat, extra heat, species rates and surface temperature, not taken
+/// from the model's own heat-to-liquid, so a regime that holds the temperature while heat flows in shows up.
+pub fn energy_balance_residual(comps: &[std::sync::Arc<crate::data::Component>], rows: &[HistoryRow]) -> f64 {
+    let net = |r: &HistoryRow| -> f64 {
+        let latent: f64 = comps.iter().zip(&r.vapor_mass_fractions).map(|(c, y)| y * r.film.evaporation_rate * c.latent_heat(r.surface_temperature)).sum();
+        r.film.heat_from_gas + r.film.heat_extra - latent
+    };
+    let (mut err, mut scale) = (0.0, 0.0);
+    for (a, b) in rows.iter().zip(rows.iter().skip(1)) {
+        let dt = b.time - a.time;
+        if dt <= 0.0 {
+            continue;
+        }
+        let w: Vec<f64> = a.liquid_mass_fractions.iter().zip(&b.liquid_mass_fractions).map(|(p, q)| 0.5 * (p + q)).collect();
+        let cp = liquid::heat_capacity(comps, &w, 0.5 * (a.surface_temperature + b.surface_temperature));
+        let stored = 0.5 * (a.mass + b.mass) * cp * (b.surface_temperature - a.surface_temperature);
+        err += (stored - 0.5 * dt * (net(a) + net(b))).abs();
+        scale += 0.5 * dt * ((a.film.heat_from_gas + a.film.heat_extra).abs() + (b.film.heat_from_gas + b.film.heat_extra).abs());
+    }
+    if scale > 0.0 {
+        err / scale
+    } else {
+        0.0
     }
 }
 

@@ -224,7 +224,10 @@ fn mixture_doc(t: &MixtureTable, set: &TableSet, sources: &SourceRegistry, date:
     m.push(("temperature_range".into(), format!("{}–{} K in steps of {} K ({} rows)", g(grid.from), g(grid.to), g(grid.step), t.rows.len())));
     m.push(("range_start".into(), grid.from_rule.clone()));
     m.push(("range_end".into(), grid.to_rule.clone()));
-    m.push(("bubble_point_K".into(), t.limits.bubble_point.map(g).unwrap_or_else(|| "none at this pressure".into())));
+    m.push((
+        "bubble_point_K".into(),
+        t.limits.bubble_point.map(g).unwrap_or_else(|| if t.limits.bubble_point_note.is_empty() { "none at this pressure".into() } else { format!("none: {}", t.limits.bubble_point_note) }),
+    ));
     m.push((
         "freezing_point_K".into(),
         match t.limits.freezing_point {

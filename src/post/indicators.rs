@@ -577,7 +577,14 @@ pub fn indicators(components: &[Arc<Component>], mass_fractions: &[f64], opts: &
             "simulated single-stage batch (Rayleigh) distillation at {p_text}, ideal liquid (Raoult), liquid at its bubble point; {what}, evaporated fraction on a {basis_text} basis; RK4 in −ln(1−F)"
         )
     };
+    let near_critical = liquid::subcritical_bubble_point(components, &x, opts.pressure).err().filter(|_| liquid::bubble_point(components, &x, opts.pressure).is_ok());
     match distillation_temperatures(components, &x, opts.pressure, opts.recovery_basis, &fractions, opts.max_step) {
+        Ok(_) if near_critical.is_some() => {
+            for key in ["bubble_point_K", "initial_boiling_point_K", "t10_K", "t20_K", "t50_K", "t90_K", "final_boiling_point_K"] {
+                ind.set(key, None, curve_method("distillation"));
+                ind.note(key, near_critical.clone().unwrap_or_default());
+            }
+        }
         Ok(t) => {
             ind.set("bubble_point_K", Some(t[0]), format!("bubble point at {p_text} by Raoult's law, Σ x_i p_sat,i(T) = p"));
             ind.set("initial_boiling_point_K", Some(t[0]), curve_method("IBP = bubble point of the initial liquid"));

@@ -192,6 +192,21 @@ pub fn pseudo_critical_pressure(components: &[Arc<Component>], x: &[f64]) -> f64
     components.iter().zip(x).map(|(c, x)| x * c.critical_pressure()).sum()
 }
 
+/// Bubble point [K] only where it lies below the liquid's pseudo-critical temperature (Kay's rule, Σ x_i T_c,i):
+/// a Raoult bubble point at or above it is an extrapolation of the vapour-pressure correlations into the critical
+/// region (e.g. n-dodecane at 30 bar: 698 K against T_c = 658 K) and is reported as none, with the reason.
+pub fn subcritical_bubble_point(components: &[Arc<Component>], x: &[f64], pressure: f64) -> Result<f64, String> {
+    let t_b = bubble_point(components, x, pressure).map_err(|e| e.to_string())?;
+    let t_pc = pseudo_critical_temperature(components, x);
+    if t_b >= t_pc {
+        return Err(format!(
+            "no bubble point at {:.4} MPa: Raoult's law would put it at {t_b:.1} K, at or above the liquid's pseudo-critical temperature {t_pc:.1} K (Kay's rule): the liquid is in its critical region, outside the ideal-solution model",
+            pressure / 1e6
+        ));
+    }
+    Ok(t_b)
+}
+
 /// A snapshot of the mixture liquid properties at one temperature.
 #[derive(Debug, Clone, serde::Serialize)]
 #[allow(non_snake_case)]

@@ -13,7 +13,7 @@ use std::sync::Arc;
 use crate::data::{suggest, toml_error_at, Library};
 use crate::fuel::Fuel;
 use crate::model::droplet::{LiquidHeat, LiquidMixing, LiquidOptions};
-use crate::model::film::{Radiation, SupportFibre};
+use crate::model::film::{DragLaw, Radiation, SupportFibre};
 use crate::model::{DropletInputs, Motion, TransferCorrelation};
 use crate::props::gas::AmbientGas;
 use crate::units::{self, Quantity};
@@ -64,6 +64,8 @@ const fn factor(key: &'static str, column: &'static str) -> Variable {
 
 /// Names of the Nusselt/Sherwood correlations.
 pub const CORRELATIONS: [&str; 2] = ["clift", "ranz-marshall"];
+/// Names of the drag laws (`simulate --drag`).
+pub const DRAG_LAWS: [&str; 2] = ["yuen-chen", "blowing"];
 /// Names of the liquid species-mixing models.
 pub const LIQUID_MIXING: [&str; 2] = ["well-mixed", "diffusion"];
 /// Names of the liquid heat-transport models.
@@ -75,7 +77,7 @@ pub const RADIATION_WORDS: [&str; 2] = ["off", "ambient"];
 pub const FIBRE_WORDS: [&str; 1] = ["none"];
 
 /// The condition variables in case-id order (the last varies fastest); defaults equal those of `simulate`.
-pub const VARIABLES: [Variable; 22] = [
+pub const VARIABLES: [Variable; 23] = [
     var("ambient-temperature", "ambient_temperature_K", Kind::Quantity(Quantity::Temperature), "800K"),
     var("pressure", "pressure_Pa", Kind::Quantity(Quantity::Pressure), "1atm"),
     var("gas", "gas", Kind::Gas, "air"),
@@ -98,6 +100,7 @@ pub const VARIABLES: [Variable; 22] = [
     var("fibre-diameter", "fibre_diameter_m", Kind::QuantityOr(Quantity::Length, &FIBRE_WORDS), "none"),
     Variable { key: "fibre-conductivity", column: "fibre_conductivity_W_mK", kind: Kind::Quantity(Quantity::Dimensionless), default: "1.4", max: 500.0 },
     var("fibre-stems", "fibre_stems", Kind::Count(1, 4), "1"),
+    var("drag", "drag", Kind::Choice(&DRAG_LAWS), "yuen-chen"),
 ];
 
 // Positions in VARIABLES (checked by a unit test).
@@ -123,6 +126,7 @@ const ABSORPTION: usize = 18;
 const FIBRE_DIAMETER: usize = 19;
 const FIBRE_CONDUCTIVITY: usize = 20;
 const FIBRE_STEMS: usize = 21;
+const DRAG: usize = 22;
 
 const TOP_KEYS: [&str; 7] = ["name", "description", "fuels", "zipped", "conditions", "model", "output"];
 const RANGE_KEYS: [&str; 4] = ["from", "to", "steps", "scale"];
@@ -536,6 +540,7 @@ impl SweepSpec {
         let velocity = num(VELOCITY);
         inp.motion = if flag(INJECTED) { Motion::Injected { velocity } } else { Motion::Fixed { velocity } };
         inp.correlation = if choice(CORRELATION) == "ranz-marshall" { TransferCorrelation::RanzMarshall } else { TransferCorrelation::Clift };
+        inp.drag = if choice(DRAG) == "blowing" { DragLaw::Blowing } else { DragLaw::YuenChen };
         inp.rtol = num(RTOL);
         inp.max_time = num(MAX_TIME);
         if let Value::AmbientVapor(v) = &case.values[AMBIENT_VAPOR] {
@@ -952,6 +957,7 @@ velocity = [0, 5, 10]
             (FIBRE_DIAMETER, "fibre-diameter"),
             (FIBRE_CONDUCTIVITY, "fibre-conductivity"),
             (FIBRE_STEMS, "fibre-stems"),
+            (DRAG, "drag"),
         ];
         assert_eq!(keys.len(), VARIABLES.len());
         for (i, k) in keys {

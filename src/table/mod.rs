@@ -175,8 +175,10 @@ fn check_step(step: f64) -> Result<(), TableError> {
 /// region) and the lowest critical temperature of a major component (with its id).
 #[derive(Debug, Clone)]
 pub struct RangeLimits {
-    /// Bubble point at the table pressure [K].
+    /// Bubble point at the table pressure [K] (None at or above the pseudo-critical temperature).
     pub bubble_point: Option<f64>,
+    /// Why there is no bubble point (empty when there is one).
+    pub bubble_point_note: String,
     /// Lowest critical temperature of a component with mole fraction above 1 % [K].
     pub critical_temperature: f64,
     /// Id of that component.
@@ -212,8 +214,10 @@ pub fn range_limits(components: &[Arc<Component>], mass_fractions: &[f64], press
         }
     }
     let (tf, controlling, skipped) = freezing_point(components, &x);
+    let bubble = liquid::subcritical_bubble_point(components, &x, pressure);
     RangeLimits {
-        bubble_point: liquid::bubble_point(components, &x, pressure).ok(),
+        bubble_point: bubble.as_ref().ok().copied(),
+        bubble_point_note: bubble.err().unwrap_or_default(),
         critical_temperature: tc,
         critical_component: id,
         freezing_point: tf,

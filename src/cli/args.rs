@@ -375,6 +375,9 @@ pub struct MergeArgs {
     /// Folder for the merged summary.csv (and the shards' cases/ histories, if any).
     #[arg(long)]
     pub out: PathBuf,
+    /// The sweep spec: each row's fuel and conditions are then checked against its case id.
+    #[arg(long, value_name = "SPEC")]
+    pub spec: Option<PathBuf>,
 }
 
 /// Table file format.

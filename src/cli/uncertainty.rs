@@ -31,7 +31,7 @@ fn read_spec(lib: &Library, args: &UncertaintyArgs) -> Result<UncertaintySpec, C
         None => UncertaintySpec::default(),
         Some(path) => {
             let shown = path.display().to_string();
-            let bytes = std::fs::read(path).map_err(|e| CliError::input(format!("--uncertainty {shown}: {e}")))?;
+            let bytes = crate::data::read_input_file(path).map_err(|e| CliError::input(format!("--uncertainty {shown}: {e}")))?;
             let text = String::from_utf8(bytes).map_err(|_| CliError::input(format!("--uncertainty {shown}: the file is not UTF-8 text")))?;
             UncertaintySpec::parse(&text, &shown, lib)?
         }
@@ -61,7 +61,7 @@ fn settings(args: &UncertaintyArgs) -> Result<Settings, CliError> {
         SamplingArg::MonteCarlo => Method::MonteCarlo,
         SamplingArg::LatinHypercube => Method::LatinHypercube,
     };
-    Ok(Settings { samples, seed, method, threads: args.threads, ..Settings::default() })
+    Ok(Settings { samples, seed, method, threads: super::commands::worker_threads(args.threads), ..Settings::default() })
 }
 
 fn ms(v: Option<f64>) -> String {

@@ -308,6 +308,7 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
         let summary = output::history::Summary::of(&inp, &run.outcome);
         stdout_write(&output::to_json_string(&summary).map_err(CliError::runtime)?)?;
     } else {
+        stdout_write(&table_header())?;
         stdout_write(&format_outcome_line(&inp.fuel.name, "", &run.outcome))?;
         let what = if args.no_plots { "history.csv, summary.json and index.html" } else { "history.csv, summary.json, charts and index.html" };
         stdout_write(&format!("wrote {what} in {}\n", args.out.display()))?;
@@ -464,9 +465,10 @@ fn validate(out: &Path) -> Result<(), CliError> {
     ));
     doc.push_str(&crate::checks::markdown_table(&results));
     output::write_atomic(out, doc.as_bytes())?;
-    stdout_write(&format!("{passed} passed, {} failed\nwrote {}\n", results.len() - passed, out.display()))?;
-    if passed != results.len() {
-        return Err(CliError::runtime("some validation checks failed (see the report)"));
+    let failed = results.len() - passed;
+    stdout_write(&format!("{passed} passed, {failed} failed ({known} of them known failures listed in the report)\nwrote {}\n", out.display()))?;
+    if failed > known {
+        return Err(CliError::runtime(format!("{} validation check(s) failed that are not known failures (see the report)", failed - known)));
     }
     Ok(())
 }

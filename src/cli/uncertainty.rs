@@ -85,6 +85,7 @@ fn report(label: &str, run: &UncertaintyRun) -> String {
         s.push_str(&format!("  {:<32} {:>13} {:>11} {:>11} {:>11}\n", "residue at 50 %: DCN", num(det[5], 2), num(r[5].p05, 2), num(r[5].p50, 2), num(r[5].p95, 2)));
         let c = |v: Option<f64>| num(v.map(|k| k - 273.15), 1);
         s.push_str(&format!("  {:<32} {:>13} {:>11} {:>11} {:>11}\n", "residue at 50 %: flash point [°C]", c(det[2]), c(r[2].p05), c(r[2].p50), c(r[2].p95)));
+        s.push_str(&format!("  caution: {}\n", crate::post::CAUTION));
     }
     for (o, desc) in RANKED_OUTPUTS {
         let top: Vec<String> = run

@@ -839,8 +839,9 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         observer.on_step(&first);
         history.push(first);
     }
-    let mut crossing = [None, None, None];
     let levels = [0.9, 0.5, 0.1];
+    // a flash at injection may already have evaporated 10 % or more: those times are 0, not missing
+    let mut crossing = levels.map(|lvl| (remaining(&y0) <= lvl).then_some(0.0));
     let mut status = Status::TimeLimit;
     let mut lifetime = None;
     loop {

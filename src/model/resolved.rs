@@ -449,7 +449,8 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         next_profile += 1;
     }
     let levels = [0.9, 0.5, 0.1];
-    let mut crossing: [Option<f64>; 3] = [None, None, None];
+    // a flash at injection may already have evaporated 10 % or more: those times are 0, not missing
+    let mut crossing: [Option<f64>; 3] = levels.map(|lvl| (state.mass / m0 <= lvl).then_some(0.0));
     let mut status = Status::TimeLimit;
     let mut lifetime = None;
     let mut boiling_stop = false;

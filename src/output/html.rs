@@ -169,6 +169,7 @@ fn residue_table_html(run: &SavedRun) -> Option<String> {
         s.push_str("</tr>\n");
     }
     s.push_str("</table>\n<p class=\"sub\">Screening estimates of the liquid left in the droplet (residue.csv), not certified fuel properties.</p>\n");
+    s.push_str(&format!("<p class=\"sub\">Caution: {}</p>\n", escape(crate::post::CAUTION)));
     Some(s)
 }
 
@@ -266,6 +267,9 @@ pub fn comparison_table_html(t: &ComparisonTable, link_runs: bool) -> String {
     s.push_str("</table>\n");
     if t.rows.len() > 1 {
         s.push_str(&format!("<p class=\"sub\">Grey: difference to {} (times in percent, temperatures in K).</p>\n", escape(&t.rows[0].label)));
+    }
+    if t.shows_flash_point() {
+        s.push_str(&format!("<p class=\"sub\">Caution: {}</p>\n", escape(crate::post::CAUTION)));
     }
     s
 }

@@ -62,6 +62,9 @@ pub fn head_text(spec: &SweepSpec, shard: Shard, header: &[String]) -> String {
         spec.case_count()
     ));
     s.push_str("# units: SI (K, Pa, m, m/s, s); an empty result cell means the run did not get there; status: evaporated, time-limit or failed: <reason>\n");
+    if header.iter().any(|h| h.contains("flash_point")) {
+        s.push_str(&format!("# caution: residue_* columns (flash point among them): {}\n", crate::post::CAUTION));
+    }
     if !shard.is_whole() {
         s.push_str(&format!("{SHARD_LINE_PREFIX}{shard} (the cases with case_id % {} == {}; join the shards with dropcut merge)\n", shard.count, shard.index));
     }

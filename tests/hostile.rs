@@ -515,3 +515,14 @@ fn times_already_passed_at_injection_are_zero_not_missing() {
     assert!(flashed, "{summary}");
     assert_eq!(v["t10_s"].as_f64(), Some(0.0), "{summary}");
 }
+
+#[test]
+fn an_uncertainty_folder_opens_with_an_index_page() {
+    let d = scratch("uncertainty-index");
+    ok(&d, &["uncertainty", "n-decane", "--samples", "4", "--diameter", "10um", "--out", "u"]);
+    let page = fs::read_to_string(d.join("u/index.html")).unwrap();
+    for want in ["bands_history.csv", "sensitivity.csv", "chart_band_d2.png", "licensed practice", "lifetime [ms]"] {
+        assert!(page.contains(want), "index.html lacks {want}: {page}");
+    }
+    assert!(!page.contains("http://") && !page.contains("https://") && !page.contains("<script"), "{page}");
+}

@@ -248,7 +248,8 @@ fn damaged_shard_rows_stop_the_merge_naming_the_case() {
     shards(&d);
     let header: Vec<String> = fs::read_to_string(d.join("whole/summary.csv")).unwrap().lines().find(|l| !l.starts_with('#')).unwrap().split(',').map(String::from).collect();
     let lifetime = header.iter().position(|h| h == "lifetime_s").unwrap();
-    let edits: Vec<(&str, Box<dyn Fn(&str) -> String>)> = vec![
+    type Edit = Box<dyn Fn(&str) -> String>;
+    let edits: Vec<(&str, Edit)> = vec![
         ("NaN", Box::new(move |r: &str| set_field(r, lifetime, "NaN"))),
         ("NUL", Box::new(|r: &str| r.replacen("n-decane", "n-de\0cane", 1))),
         ("CR", Box::new(|r: &str| format!("{r}\r"))),
@@ -525,4 +526,16 @@ fn an_uncertainty_folder_opens_with_an_index_page() {
         assert!(page.contains(want), "index.html lacks {want}: {page}");
     }
     assert!(!page.contains("http://") && !page.contains("https://") && !page.contains("<script"), "{page}");
+}
+
+#[test]
+fn validate_passes_with_only_known_failures_and_writes_into_docs_only_when_asked() {
+    let d = scratch("validate");
+    let out = ok(&d, &["validate"]);
+    let stdout = String::from_utf8_lossy(&out.stdout);
+    assert!(stdout.contains("known failures"), "{stdout}");
+    assert!(d.join("dropcut-out/validation.md").is_file(), "{stdout}");
+    assert!(!d.join("docs").exists());
+    let report = fs::read_to_string(d.join("dropcut-out/validation.md")).unwrap();
+    assert!(report.starts_with("# Validation report"));
 }

@@ -473,7 +473,7 @@ impl Component {
         }
         let lo = corr.t_min.max(self.constants.melting_point.value);
         let hi = corr.t_max.min(self.constants.critical_temperature.value);
-        if !(hi > lo) {
+        if hi <= lo || hi.is_nan() || lo.is_nan() {
             return Ok(());
         }
         let n = 32;
@@ -481,7 +481,7 @@ impl Component {
         for k in 1..=n {
             let t = lo + (hi - lo) * k as f64 / n as f64;
             let v = corr.eval(t);
-            if !(v > previous) {
+            if v <= previous || v.is_nan() {
                 return Err(DataError::Invalid {
                     context: format!("{ctx}: [vapor-pressure]"),
                     message: format!(

@@ -34,7 +34,7 @@ impl<T> ThinnedHistory<T> {
     pub fn push(&mut self, row: T) {
         let k = self.count;
         self.count += 1;
-        if k % self.stride != 0 {
+        if !k.is_multiple_of(self.stride) {
             self.last = Some(row);
             return;
         }
@@ -84,12 +84,12 @@ impl StagnationGuard {
     /// stop: it could not reach `max_time` or the end of evaporation, whichever comes first, within
     /// `step_limit` steps at its present pace. None: go on.
     pub fn check(&mut self, steps: u64, time: f64, max_time: f64, evaporated: f64, step_limit: u64) -> Option<String> {
-        if steps < STAGNATION_CHECK_STEPS.saturating_sub(10_000) || steps % 10_000 != 0 || !(time > 0.0) {
+        if steps < STAGNATION_CHECK_STEPS.saturating_sub(10_000) || !steps.is_multiple_of(10_000) || time.partial_cmp(&0.0) != Some(std::cmp::Ordering::Greater) {
             return None;
         }
         let evaporated = evaporated.clamp(0.0, 1.0);
-        let Some((s0, t0, e0)) = self.last.replace((steps, time, evaporated)) else { return None };
-        if steps < STAGNATION_CHECK_STEPS || steps <= s0 || !(time > t0) {
+        let (s0, t0, e0) = self.last.replace((steps, time, evaporated))?;
+        if steps < STAGNATION_CHECK_STEPS || steps <= s0 || time <= t0 {
             return None;
         }
         let step_size = (time - t0) / (steps - s0) as f64;

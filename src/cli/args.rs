@@ -25,7 +25,7 @@ pub enum Command {
         #[arg(long)]
         json: bool,
     },
-    /// Fuel definitions: show one.
+    /// Fuel definitions: show one, or build one from lab data (show, build).
     Fuel {
         /// What to do.
         #[command(subcommand)]
@@ -63,10 +63,10 @@ pub enum Command {
     /// per sample on all cores, and write percentile bands, a sensitivity ranking and charts (several fuels:
     /// bands side by side and whether they overlap).
     Uncertainty(UncertaintyArgs),
-    /// Rerun every validation check and write the report (Markdown).
+    /// Rerun every validation check and write the report (Markdown); exit 0 when only known failures fail.
     Validate {
-        /// Report file.
-        #[arg(long, default_value = "docs/validation.md")]
+        /// Report file (the committed report is written with --out docs/validation.md).
+        #[arg(long, default_value = "dropcut-out/validation.md")]
         out: PathBuf,
     },
 }
@@ -387,6 +387,9 @@ pub struct MergeArgs {
     /// Folder for the merged summary.csv (and the shards' cases/ histories, if any).
     #[arg(long)]
     pub out: PathBuf,
+    /// The sweep spec: each row's fuel and conditions are then checked against its case id.
+    #[arg(long, value_name = "SPEC")]
+    pub spec: Option<PathBuf>,
 }
 
 /// Table file format.

@@ -31,7 +31,7 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
         Command::Compare(args) => plot::compare(&lib, &args),
         Command::Plot { dir } => plot::plot(&lib, &dir),
         Command::Sweep(args) => super::sweep::sweep(&lib, &args, cli.components.as_deref()),
-        Command::Merge(args) => super::sweep::merge(&args),
+        Command::Merge(args) => super::sweep::merge(&lib, &args),
         Command::Validate { out } => validate(&out),
         Command::Residue(args) => residue(&lib, &args),
         Command::Table(args) => super::table::table(&lib, &args),
@@ -250,6 +250,13 @@ pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<Dr
         if !(v > 0.0 && v <= 1e8) {
             return Err(CliError::input(format!("--{name}: {v} must be a positive factor up to 1e8")));
         }
+        if v < crate::sweep::spec::MIN_LIQUID_FACTOR {
+            return Err(CliError::input(format!(
+                "--{name}: {} is below {}: the liquid layers would grow thinner than the radial grid can follow and the run stalls or fails",
+                crate::output::fmt_f64(v).unwrap_or_default(),
+                crate::sweep::spec::MIN_LIQUID_FACTOR
+            )));
+        }
         Ok(v)
     };
     inp.liquid = model::droplet::LiquidOptions {
@@ -295,13 +302,17 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
         notice(n);
     }
     let inp = droplet_inputs(lib, fuel, &args.condition)?;
+    out_dir(&args.out)?;
     // a bad limits file stops the command before the run, not after it has written half of its files
     let limits = load_limits(args.limits.as_deref())?;
     progress(&format!("simulating {} ...", inp.fuel.name));
-    let mut rec = model::droplet::Recorder::default();
+    let mut rec = model::guard::RowsOnly;
     let run = model::simulate(&inp, &mut rec)?;
-    output::history::write_run(&args.out, &inp, &run)?;
-    write_droplet_residue(&args.out, &inp, &run, limits.as_ref())?;
+    // history, summary and residue replace the earlier run's files together or not at all
+    output::together(|| -> Result<(), CliError> {
+        output::history::write_run(&args.out, &inp, &run)?;
+        write_droplet_residue(&args.out, &inp, &run, limits.as_ref())
+    })?;
     for n in &run.outcome.regime_notes {
         notice(n);
     }
@@ -310,6 +321,7 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
         let summary = output::history::Summary::of(&inp, &run.outcome);
         stdout_write(&output::to_json_string(&summary).map_err(CliError::runtime)?)?;
     } else {
+        stdout_write(&table_header())?;
         stdout_write(&format_outcome_line(&inp.fuel.name, "", &run.outcome))?;
         let what = if args.no_plots { "history.csv, summary.json and index.html" } else { "history.csv, summary.json, charts and index.html" };
         stdout_write(&format!("wrote {what} in {}\n", args.out.display()))?;
@@ -353,6 +365,7 @@ pub const DEMO_CONDITIONS: [(&str, &str, &str, &str, &str, &str, &str, &str); 2]
 pub const DEMO_FUELS: [&str; 3] = ["demo-narrow", "demo-wide", "demo-blend"];
 
 fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
+    out_dir(out)?;
     output::ensure_dir(out)?;
     let mut table = table_header();
     let mut report = String::from("# dropcut demo\n\nInvented demo fuels at two invented conditions. Open `index.html` for the charts and comparison tables.\n\n");
@@ -393,7 +406,7 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
                 fibre_stems: "1".into(),
             };
             let inp = droplet_inputs(lib, fuel, &cond)?;
-            let mut rec = model::droplet::Recorder::default();
+            let mut rec = model::guard::RowsOnly;
             let run = model::simulate(&inp, &mut rec)?;
             let dir_name = format!("{fuel_id}_{name}");
             let dir = out.join(&dir_name);
@@ -425,7 +438,36 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
     stdout_write(&format!("wrote {} (open index.html)\n", out.display()))
 }
 
+/// Worker threads for `--threads N`: 0 = every core; more than the cores this process may use is capped to
+/// them with a note (the results do not depend on the thread count; thousands of threads only cost time and
+/// memory).
+pub(super) fn worker_threads(requested: usize) -> usize {
+    let cores = std::thread::available_parallelism().map(|n| n.get()).unwrap_or(1);
+    if requested > cores {
+        notice(&format!("--threads {requested}: this machine lets dropcut use {cores} cores; running {cores} threads"));
+        return cores;
+    }
+    requested
+}
+
+/// Refuse an existing `--out` that is not a folder (a file, device, FIFO) before any work is done.
+pub(super) fn out_dir(out: &Path) -> Result<(), CliError> {
+    match output::refuse_dir_target(out) {
+        Some(m) => Err(CliError::input(format!("--out {}: {m}", out.display()))),
+        None => Ok(()),
+    }
+}
+
+/// Refuse an existing `--out` file that is not a regular file (device, FIFO, symbolic link, folder).
+pub(super) fn out_file(out: &Path) -> Result<(), CliError> {
+    match output::refuse_file_target(out) {
+        Some(m) => Err(CliError::input(format!("--out {}: {m}", out.display()))),
+        None => Ok(()),
+    }
+}
+
 fn validate(out: &Path) -> Result<(), CliError> {
+    out_file(out)?;
     let results = crate::checks::all();
     let passed = results.iter().filter(|r| r.passed).count();
     let known = results.iter().filter(|r| !r.passed && (r.check.contains("KNOWN FAILURE") || r.source.contains("from memory") || r.check.contains("from memory"))).count();
@@ -437,9 +479,10 @@ fn validate(out: &Path) -> Result<(), CliError> {
     ));
     doc.push_str(&crate::checks::markdown_table(&results));
     output::write_atomic(out, doc.as_bytes())?;
-    stdout_write(&format!("{passed} passed, {} failed\nwrote {}\n", results.len() - passed, out.display()))?;
-    if passed != results.len() {
-        return Err(CliError::runtime("some validation checks failed (see the report)"));
+    let failed = results.len() - passed;
+    stdout_write(&format!("{passed} passed, {failed} failed ({known} of them known failures listed in the report)\nwrote {}\n", out.display()))?;
+    if failed > known {
+        return Err(CliError::runtime(format!("{} validation check(s) failed that are not known failures (see the report)", failed - known)));
     }
     Ok(())
 }
@@ -494,6 +537,9 @@ fn residue(lib: &Library, args: &ResidueArgs) -> Result<(), CliError> {
         v
     };
     let limits = load_limits(args.limits.as_deref())?;
+    if let Some(path) = &args.out {
+        out_file(path)?;
+    }
     let fuel = Fuel::resolve(&args.fuel, lib)?;
     for n in &fuel.notices {
         notice(n);

@@ -53,6 +53,7 @@ fn check_out(out: &Path, input: Option<&Path>) -> Result<(), CliError> {
     if out.as_os_str().is_empty() || out.is_dir() {
         return Err(CliError::input(format!("--out {}: give a file name", out.display())));
     }
+    super::commands::out_file(out)?;
     if let Some(inp) = input {
         let same = match (out.canonicalize(), inp.canonicalize()) {
             (Ok(a), Ok(b)) => a == b,
@@ -66,7 +67,7 @@ fn check_out(out: &Path, input: Option<&Path>) -> Result<(), CliError> {
 }
 
 fn write(out: &Path, text: &str) -> Result<(), CliError> {
-    output::write_atomic(out, text.as_bytes()).map_err(|e| CliError::runtime(e.to_string()))
+    output::write_atomic(out, text.as_bytes()).map_err(CliError::from)
 }
 
 /// Entry point of `fuel build`.

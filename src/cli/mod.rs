@@ -62,6 +62,8 @@ impl From<crate::output::OutputError> for CliError {
         match e {
             // saved files given by the user (plot, compare inputs) that cannot be read: bad input
             crate::output::OutputError::Read { .. } => CliError::input(e.to_string()),
+            // an output path that is a device, FIFO, symbolic link or a file where a folder belongs
+            crate::output::OutputError::Target { .. } => CliError::input(e.to_string()),
             _ => CliError::runtime(e.to_string()),
         }
     }
@@ -109,6 +111,7 @@ const MAX_MESSAGE_CHARS: usize = 1000;
 /// An error message as one printable line: newlines become spaces, other control characters are escaped
 /// (`\u{1b}`), and an overlong message keeps its start and end around `…`.
 fn printable_line(message: &str) -> String {
+    let message = shorten_long_numbers(message);
     let mut s = String::with_capacity(message.len().min(4 * MAX_MESSAGE_CHARS));
     for c in message.chars() {
         match c {
@@ -124,6 +127,35 @@ fn printable_line(message: &str) -> String {
     let head: String = s.chars().take(MAX_MESSAGE_CHARS * 2 / 3).collect();
     let tail: String = s.chars().skip(n - MAX_MESSAGE_CHARS / 3).collect();
     format!("{head} … ({} characters left out) … {tail}", n - head.chars().count() - tail.chars().count())
+}
+
+/// Numbers written out as hundreds of digits (`0.000…0001` for 1e-300) in shortest exponent form.
+fn shorten_long_numbers(message: &str) -> String {
+    let bytes = message.as_bytes();
+    let mut out = String::with_capacity(message.len());
+    let mut i = 0;
+    while i < bytes.len() {
+        let c = bytes[i];
+        let starts_number = c.is_ascii_digit() || (c == b'-' && bytes.get(i + 1).is_some_and(u8::is_ascii_digit));
+        let after_word = i > 0 && (bytes[i - 1].is_ascii_alphanumeric() || bytes[i - 1] == b'.');
+        if starts_number && !after_word {
+            let mut j = i + 1;
+            while j < bytes.len() && (bytes[j].is_ascii_digit() || bytes[j] == b'.') {
+                j += 1;
+            }
+            let token = &message[i..j];
+            match token.parse::<f64>() {
+                Ok(v) if j - i > 24 && v.is_finite() => out.push_str(&crate::output::fmt_f64(v).unwrap_or_else(|| token.to_string())),
+                _ => out.push_str(token),
+            }
+            i = j;
+        } else {
+            let ch = message[i..].chars().next().unwrap_or(' ');
+            out.push(ch);
+            i += ch.len_utf8();
+        }
+    }
+    out
 }
 
 /// Fold clap's multi-line usage error (message, tip, usage, pointer to --help) into one `error:` line.

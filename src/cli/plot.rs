@@ -303,13 +303,15 @@ pub(super) fn compare(lib: &Library, args: &CompareArgs) -> Result<(), CliError>
     output::ensure_dir(&args.out)?;
     for (label, dir, inp) in &plan {
         progress(&format!("compare: {label} ..."));
-        let mut rec = model::droplet::Recorder::default();
+        let mut rec = model::guard::RowsOnly;
         let run = model::simulate(inp, &mut rec).map_err(|e| {
             let c: CliError = e.into();
             CliError { code: c.code, message: format!("{label}: {}", c.message) }
         })?;
-        output::history::write_run(&args.out.join(dir), inp, &run)?;
-        write_droplet_residue(&args.out.join(dir), inp, &run, None)?;
+        output::together(|| -> Result<(), CliError> {
+            output::history::write_run(&args.out.join(dir), inp, &run)?;
+            write_droplet_residue(&args.out.join(dir), inp, &run, None)
+        })?;
     }
     let names = fuels.iter().map(|f| f.name.as_str()).collect::<Vec<_>>().join(", ");
     let title = match &vary {

@@ -97,6 +97,7 @@ pub fn sweep(lib: &Library, args: &SweepArgs, components: Option<&Path>) -> Resu
             notice(n);
         }
     }
+    super::commands::out_dir(&args.out)?;
     if args.slurm_script {
         return slurm_script(&spec, args, components);
     }
@@ -111,7 +112,7 @@ pub fn sweep(lib: &Library, args: &SweepArgs, components: Option<&Path>) -> Resu
         },
     };
     let opts = RunOptions {
-        threads: args.threads,
+        threads: super::commands::worker_threads(args.threads),
         shard,
         histories: args.histories,
         resume: args.resume,
@@ -120,6 +121,9 @@ pub fn sweep(lib: &Library, args: &SweepArgs, components: Option<&Path>) -> Resu
     let started = Instant::now();
     let mut progress = StderrProgress::new(args.progress_log);
     let report = sweep::run(&spec, &args.out, &opts, &mut progress)?;
+    if let Some((id, reason)) = &report.damaged_row {
+        notice(&format!("{}: the row of case {id} {reason}; it and every later row were run again", args.out.join(sweep::JOURNAL_FILE).display()));
+    }
     let what = if shard.is_whole() { String::new() } else { format!(" (shard {shard})") };
     let line = if report.already_complete {
         format!("{} already holds all {} cases{what}; nothing to run\n", report.summary.display(), report.cases)
@@ -150,16 +154,14 @@ fn slurm_script(spec: &SweepSpec, args: &SweepArgs, components: Option<&Path>) -
     let mut global_args = vec![];
     if let Some(dir) = components {
         global_args.push("--components".to_string());
-        global_args.push(absolute(dir)?.display().to_string());
+        let dir = absolute(dir)?;
+        global_args.push(slurm::script_text("--components", dir.as_os_str()).map_err(CliError::input)?);
     }
     let mut sweep_args = vec![];
     if args.histories {
         sweep_args.push("--histories".to_string());
     }
-    // The log folder must exist before Slurm starts a task, also when the script is given to sbatch directly.
-    let logs = out.join("logs");
-    std::fs::create_dir_all(&logs).map_err(|e| CliError::runtime(format!("{}: {e}", logs.display())))?;
-    let script = slurm::batch_script(&slurm::BatchScript {
+    let batch = slurm::BatchScript {
         dropcut,
         spec: spec_path,
         out,
@@ -170,13 +172,22 @@ fn slurm_script(spec: &SweepSpec, args: &SweepArgs, components: Option<&Path>) -
         global_args,
         sweep_args,
         sbatch_options: args.sbatch.clone(),
-    });
+    };
+    let script = slurm::batch_script(&batch).map_err(CliError::input)?;
+    // The log folder must exist before Slurm starts a task, also when the script is given to sbatch directly.
+    let logs = batch.out.join("logs");
+    crate::output::ensure_dir(&logs)?;
     stdout_write(&script)
 }
 
 /// `dropcut merge DIR... --out DIR`
-pub fn merge(args: &MergeArgs) -> Result<(), CliError> {
-    let report = sweep::merge(&args.dirs, &args.out)?;
+pub fn merge(lib: &Library, args: &MergeArgs) -> Result<(), CliError> {
+    super::commands::out_dir(&args.out)?;
+    let spec = match &args.spec {
+        Some(path) => Some(SweepSpec::load(path, lib)?),
+        None => None,
+    };
+    let report = sweep::merge(&args.dirs, &args.out, spec.as_ref())?;
     let mut line = format!("wrote {}: {} cases from {} shards, {} failed", report.summary.display(), report.cases, report.shards, report.failed);
     if report.histories_copied > 0 {
         line.push_str(&format!("; copied {} case histories", report.histories_copied));

@@ -31,7 +31,7 @@ fn read_spec(lib: &Library, args: &UncertaintyArgs) -> Result<UncertaintySpec, C
         None => UncertaintySpec::default(),
         Some(path) => {
             let shown = path.display().to_string();
-            let bytes = std::fs::read(path).map_err(|e| CliError::input(format!("--uncertainty {shown}: {e}")))?;
+            let bytes = crate::data::read_input_file(path).map_err(|e| CliError::input(format!("--uncertainty {shown}: {e}")))?;
             let text = String::from_utf8(bytes).map_err(|_| CliError::input(format!("--uncertainty {shown}: the file is not UTF-8 text")))?;
             UncertaintySpec::parse(&text, &shown, lib)?
         }
@@ -61,7 +61,7 @@ fn settings(args: &UncertaintyArgs) -> Result<Settings, CliError> {
         SamplingArg::MonteCarlo => Method::MonteCarlo,
         SamplingArg::LatinHypercube => Method::LatinHypercube,
     };
-    Ok(Settings { samples, seed, method, threads: args.threads, ..Settings::default() })
+    Ok(Settings { samples, seed, method, threads: super::commands::worker_threads(args.threads), ..Settings::default() })
 }
 
 fn ms(v: Option<f64>) -> String {
@@ -85,6 +85,7 @@ fn report(label: &str, run: &UncertaintyRun) -> String {
         s.push_str(&format!("  {:<32} {:>13} {:>11} {:>11} {:>11}\n", "residue at 50 %: DCN", num(det[5], 2), num(r[5].p05, 2), num(r[5].p50, 2), num(r[5].p95, 2)));
         let c = |v: Option<f64>| num(v.map(|k| k - 273.15), 1);
         s.push_str(&format!("  {:<32} {:>13} {:>11} {:>11} {:>11}\n", "residue at 50 %: flash point [°C]", c(det[2]), c(r[2].p05), c(r[2].p50), c(r[2].p95)));
+        s.push_str(&format!("  caution: {}\n", crate::post::CAUTION));
     }
     for (o, desc) in RANKED_OUTPUTS {
         let top: Vec<String> = run
@@ -171,18 +172,20 @@ pub(super) fn uncertainty(lib: &Library, args: &UncertaintyArgs) -> Result<(), C
     }
     let single = runs.len() == 1;
     let mut text = String::new();
+    let mut sections = vec![];
     for (label, run) in &runs {
         let dir = if single { args.out.clone() } else { args.out.join(safe_name(label)) };
         out::write_run(&dir, run)?;
-        if !args.no_plots {
-            out::write_band_charts(&dir, &[LabelledBands { label, run }])?;
-        }
+        let charts = if args.no_plots { vec![] } else { out::write_band_charts(&dir, &[LabelledBands { label, run }])? };
         text.push_str(&report(label, run));
+        let prefix = if single { String::new() } else { format!("{}/", safe_name(label)) };
+        sections.push(output::html::UncertaintySection { heading: label.clone(), prefix, charts, files: out::FILES.iter().map(|f| f.to_string()).collect() });
     }
     if !single {
         let labelled: Vec<LabelledBands> = runs.iter().map(|(l, r)| LabelledBands { label: l, run: r }).collect();
         if !args.no_plots {
-            out::write_band_charts(&args.out, &labelled)?;
+            let charts = out::write_band_charts(&args.out, &labelled)?;
+            sections.insert(0, output::html::UncertaintySection { heading: "all fuels".into(), prefix: String::new(), charts, files: vec!["overlap.csv".into()] });
         }
         let mut pairs = vec![];
         text.push_str("do the 5–95 % bands overlap?\n");
@@ -197,8 +200,10 @@ pub(super) fn uncertainty(lib: &Library, args: &UncertaintyArgs) -> Result<(), C
         }
         out::overlap_table(&pairs)?.write(&args.out.join("overlap.csv"))?;
     }
+    let labels: Vec<&str> = runs.iter().map(|(l, _)| l.as_str()).collect();
+    output::html::write_uncertainty_page(&args.out, &format!("dropcut uncertainty: {}", labels.join(", ")), &text, &sections)?;
     stdout_write(&text)?;
-    let what = if args.no_plots { "" } else { " and band charts" };
+    let what = if args.no_plots { ", index.html" } else { ", index.html and band charts" };
     let where_ = if single { format!("{}", args.out.display()) } else { format!("{} (one folder per fuel; overlap.csv and overlaid charts on top)", args.out.display()) };
     stdout_write(&format!("wrote {}{what} in {where_}\n", out::FILES.join(", ")))?;
     Ok(())

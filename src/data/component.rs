@@ -461,6 +461,39 @@ impl Component {
                 });
             }
         }
+        self.check_vapor_pressure_rises(ctx)
+    }
+
+    /// The vapour pressure must rise with temperature across its range (Clausius–Clapeyron: the latent heat
+    /// is positive), checked at 33 points; a curve that falls would make the droplet condense as it heats.
+    fn check_vapor_pressure_rises(&self, ctx: &str) -> Result<(), DataError> {
+        let Some((_, corr)) = self.correlations().into_iter().find(|(k, _)| *k == "vapor-pressure") else { return Ok(()) };
+        if matches!(corr.form, super::correlation::Form::CorrespondingStates | super::correlation::Form::Constant(_)) {
+            return Ok(());
+        }
+        let lo = corr.t_min.max(self.constants.melting_point.value);
+        let hi = corr.t_max.min(self.constants.critical_temperature.value);
+        if hi <= lo || hi.is_nan() || lo.is_nan() {
+            return Ok(());
+        }
+        let n = 32;
+        let mut previous = corr.eval(lo);
+        for k in 1..=n {
+            let t = lo + (hi - lo) * k as f64 / n as f64;
+            let v = corr.eval(t);
+            if v <= previous || v.is_nan() {
+                return Err(DataError::Invalid {
+                    context: format!("{ctx}: [vapor-pressure]"),
+                    message: format!(
+                        "falls from {} Pa to {} Pa between {:.2} K and {t:.2} K; a vapour pressure must rise with temperature (check the coefficients and their signs)",
+                        short(previous),
+                        short(v),
+                        lo + (hi - lo) * (k - 1) as f64 / n as f64
+                    ),
+                });
+            }
+            previous = v;
+        }
         Ok(())
     }
 

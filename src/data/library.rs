@@ -79,7 +79,7 @@ impl Library {
         paths.sort();
         for p in paths {
             let shown = p.display().to_string();
-            let bytes = std::fs::read(&p).map_err(|e| DataError::Io { file: shown.clone(), message: e.to_string() })?;
+            let bytes = super::read_input_file(&p).map_err(|message| DataError::Io { file: shown.clone(), message })?;
             let text = String::from_utf8(bytes).map_err(|_| DataError::Parse { file: shown.clone(), message: "file is not UTF-8 text".into() })?;
             if p.file_name().is_some_and(|n| n == "sources.toml") {
                 self.sources.extend(SourceRegistry::parse(&text, &shown)?);

@@ -56,6 +56,33 @@ pub enum DataError {
     },
 }
 
+/// Largest input file read (fuel, component, spec, limits, spreads, class tables) [bytes]: anything bigger is
+/// not one of dropcut's input files.
+pub const MAX_INPUT_BYTES: u64 = 64 * 1024 * 1024;
+
+/// Read an input file, refusing what is not a regular file (a FIFO would block forever, a device never ends)
+/// and what is larger than [`MAX_INPUT_BYTES`]; the error is the message, without the file name.
+pub fn read_input_file(path: &std::path::Path) -> Result<Vec<u8>, String> {
+    use std::io::Read;
+    let meta = std::fs::metadata(path).map_err(|e| e.to_string())?;
+    if meta.is_dir() {
+        return Err("is a folder, not a file".into());
+    }
+    if !meta.is_file() {
+        return Err("is not a regular file (a FIFO, device or socket); dropcut reads its inputs from regular files".into());
+    }
+    if meta.len() > MAX_INPUT_BYTES {
+        return Err(format!("is {} MB; no dropcut input file is larger than {} MB", meta.len() / 1_000_000, MAX_INPUT_BYTES / 1_048_576));
+    }
+    let f = std::fs::File::open(path).map_err(|e| e.to_string())?;
+    let mut bytes = vec![];
+    f.take(MAX_INPUT_BYTES + 1).read_to_end(&mut bytes).map_err(|e| e.to_string())?;
+    if bytes.len() as u64 > MAX_INPUT_BYTES {
+        return Err(format!("is larger than {} MB; no dropcut input file is", MAX_INPUT_BYTES / 1_048_576));
+    }
+    Ok(bytes)
+}
+
 /// Reduce a TOML parser error to one line naming what and where.
 pub fn toml_error_line(e: &toml::de::Error) -> String {
     let msg = e.message().replace('\n', " ");

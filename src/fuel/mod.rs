@@ -60,6 +60,15 @@ struct RawFuel {
 }
 
 /// True when two components are the same apart from the file they were read from.
+/// True when some line of `text` starts with one of a fuel or component file's keys or sections (so a syntax
+/// error in it may be shown with its line); an environment or key file named by mistake is never echoed.
+fn looks_like_fuel_file(text: &str) -> bool {
+    const KEYS: [&str; 10] = ["basis", "name", "description", "id", "[composition", "[blend", "[constants", "[[component", "[[composition", "[[blend"];
+    text.lines().map(str::trim_start).any(|l| {
+        KEYS.iter().any(|k| l.strip_prefix(k).is_some_and(|rest| k.starts_with('[') || rest.trim_start().starts_with('=') || rest.starts_with(']')))
+    })
+}
+
 fn same_component(a: &Component, b: &Component) -> bool {
     if a.origin == b.origin {
         return a == b;
@@ -166,21 +175,31 @@ impl Fuel {
 
     /// Resolve a fuel given on the command line: a file path, a library fuel id, or a component id.
     pub fn resolve(spec: &str, lib: &Library) -> Result<Self, FuelError> {
-        Self::resolve_depth(spec, lib, 0)
+        Self::resolve_depth(spec, lib, 0, Path::new(""))
     }
 
-    fn resolve_depth(spec: &str, lib: &Library, depth: usize) -> Result<Self, FuelError> {
+    /// `base` is the folder of the file that names `spec` (a blend entry): a relative file path resolves
+    /// against it, so a blend means the same fuel from whatever folder it is used. Empty: the current folder.
+    fn resolve_depth(spec: &str, lib: &Library, depth: usize, base: &Path) -> Result<Self, FuelError> {
         if depth > 8 {
             return Err(FuelError::Composition { context: format!("fuel '{spec}'"), message: "blends nest more than 8 levels deep (a blend that includes itself?)".into() });
         }
-        let path = Path::new(spec);
-        if spec.ends_with(".toml") || path.is_file() {
-            let text = std::fs::read(path).map_err(|e| DataError::Io { file: spec.into(), message: e.to_string() })?;
-            let text = String::from_utf8(text).map_err(|_| DataError::Parse { file: spec.into(), message: "file is not UTF-8 text".into() })?;
-            return Self::parse_depth(&text, spec, lib, depth);
+        let joined;
+        let path = if base.as_os_str().is_empty() || Path::new(spec).is_absolute() {
+            Path::new(spec)
+        } else {
+            joined = base.join(spec);
+            joined.as_path()
+        };
+        // an existing path that is not a folder is read as a file (a FIFO or device is then refused, not opened)
+        if spec.ends_with(".toml") || (path.exists() && !path.is_dir()) || std::fs::symlink_metadata(path).is_ok_and(|m| !m.is_dir() && !m.is_file() && !m.file_type().is_symlink()) {
+            let shown = path.display().to_string();
+            let text = crate::data::read_input_file(path).map_err(|message| DataError::Io { file: shown.clone(), message })?;
+            let text = String::from_utf8(text).map_err(|_| DataError::Parse { file: shown.clone(), message: "file is not UTF-8 text".into() })?;
+            return Self::parse_depth(&text, &shown, lib, depth, path.parent().unwrap_or(Path::new("")));
         }
         if let Some((origin, text)) = lib.fuels.get(spec) {
-            return Self::parse_depth(text, origin, lib, depth);
+            return Self::parse_depth(text, origin, lib, depth, Path::new(""));
         }
         if let Some(c) = lib.component(spec) {
             return Ok(Fuel::pure(c.clone()));
@@ -190,11 +209,13 @@ impl Fuel {
     }
 
     /// Parse a fuel file's text; `file` names it in messages.
+    /// Relative file names in a `[blend]` resolve against the current folder; use [`Fuel::resolve`] on the file
+    /// to resolve them against its own folder.
     pub fn parse(text: &str, file: &str, lib: &Library) -> Result<Self, FuelError> {
-        Self::parse_depth(text, file, lib, 0)
+        Self::parse_depth(text, file, lib, 0, Path::new(""))
     }
 
-    fn parse_depth(text: &str, file: &str, lib: &Library, depth: usize) -> Result<Self, FuelError> {
+    fn parse_depth(text: &str, file: &str, lib: &Library, depth: usize, base: &Path) -> Result<Self, FuelError> {
         // A component file (e.g. from `dropcut fuel build --from-groups`) is read as a pure fuel.
         if let Ok(table) = toml::from_str::<toml::Table>(text) {
             if table.contains_key("constants") && table.contains_key("id") && !table.contains_key("composition") {
@@ -210,8 +231,23 @@ impl Fuel {
                 return Ok(fuel);
             }
         }
-        let raw: RawFuel = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_at(&e, text) })?;
+        let raw: RawFuel = toml::from_str(text).map_err(|e| {
+            // A file with none of a fuel file's keys (an environment file, a key file) is not echoed back.
+            let looks_like_fuel = text.trim().is_empty() || looks_like_fuel_file(text);
+            let message = if looks_like_fuel {
+                toml_error_at(&e, text)
+            } else {
+                "is not a fuel file (no basis, [composition] or [blend]; nothing of it is shown)".to_string()
+            };
+            DataError::Parse { file: file.into(), message }
+        })?;
         let name = raw.name.clone().unwrap_or_else(|| Path::new(file).file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default());
+        if let Some(c) = name.chars().find(|c| c.is_control()) {
+            return Err(FuelError::Composition {
+                context: format!("{file}: name"),
+                message: format!("{:?} holds the control character {c:?}; a fuel name is one line of printable text", name),
+            });
+        }
         let (entries, is_blend) = match (&raw.composition, &raw.blend) {
             (Some(c), None) => (c, false),
             (None, Some(b)) => (b, true),
@@ -269,7 +305,7 @@ impl Fuel {
         };
         if is_blend {
             for (key, x) in &fractions {
-                let sub = Self::resolve_depth(key, lib, depth + 1).map_err(|e| match e {
+                let sub = Self::resolve_depth(key, lib, depth + 1, base).map_err(|e| match e {
                     FuelError::Data(DataError::Unknown { kind, id, hint, .. }) => {
                         FuelError::Data(DataError::Unknown { context: format!("{file}: blend.{key}"), kind, id, hint })
                     }

@@ -829,7 +829,8 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
     let tol = Tolerances { rtol: inp.rtol, atol };
     let mut dydt = vec![0.0; 2 * n + 2];
     let mut stepper = DormandPrince::new(&mut sys, 0.0, &y0, tol, 0.0, inp.max_time / 20.0);
-    let mut history = vec![];
+    let mut history = super::guard::ThinnedHistory::new();
+    let mut stagnation = super::guard::StagnationGuard::default();
     let wants_rows = observer.wants_rows();
     let mut buf = vec![0.0; 2 * n + 2];
 
@@ -881,8 +882,9 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         observer.on_step(&first);
         history.push(first);
     }
-    let mut crossing = [None, None, None];
     let levels = [0.9, 0.5, 0.1];
+    // a flash at injection may already have evaporated 10 % or more: those times are 0, not missing
+    let mut crossing = levels.map(|lvl| (remaining(&y0) <= lvl).then_some(0.0));
     let mut status = Status::TimeLimit;
     let mut lifetime = None;
     loop {
@@ -996,6 +998,9 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         if stepper.stats.steps > 2_000_000 {
             return Err(ModelError::Integration { time: stepper.t, reason: "more than 2 000 000 steps".into() });
         }
+        if let Some(reason) = stagnation.check(stepper.stats.steps, stepper.t, inp.max_time, 1.0 - remaining(&stepper.y), 2_000_000) {
+            return Err(ModelError::Integration { time: stepper.t, reason });
+        }
     }
     let y = &stepper.y;
     let mut mass_err: f64 = 0.0;
@@ -1042,7 +1047,7 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
         evaporated_mass: y[n + 2..].to_vec(),
         final_liquid_mass_fractions: y[..n].iter().map(|v| v.max(0.0) / m_end.max(1e-300)).collect(),
     };
-    Ok(RunResult { outcome, history, profiles: vec![] })
+    Ok(RunResult { outcome, history: history.into_rows(), profiles: vec![] })
 }
 
 #[cfg(test)]

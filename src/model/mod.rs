@@ -3,6 +3,7 @@
 
 pub mod droplet;
 pub mod film;
+pub mod guard;
 pub mod integrator;
 pub mod radial;
 pub mod resolved;

@@ -429,7 +429,8 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
     let tol = 3e-2 * (inp.rtol / 1e-6).sqrt();
     let mut dt = 1e-3 * inp.initial_diameter * inp.initial_diameter / 1e-7;
     let mut stats = Stats::default();
-    let mut history = vec![];
+    let mut history = super::guard::ThinnedHistory::new();
+    let mut stagnation = super::guard::StagnationGuard::default();
     let mut profiles = vec![];
     let mut next_profile = 0;
     let wants_rows = observer.wants_rows();
@@ -448,13 +449,17 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         next_profile += 1;
     }
     let levels = [0.9, 0.5, 0.1];
-    let mut crossing: [Option<f64>; 3] = [None, None, None];
+    // a flash at injection may already have evaporated 10 % or more: those times are 0, not missing
+    let mut crossing: [Option<f64>; 3] = levels.map(|lvl| (state.mass / m0 <= lvl).then_some(0.0));
     let mut status = Status::TimeLimit;
     let mut lifetime = None;
     let mut boiling_stop = false;
     loop {
         if stats.steps > 1_000_000 {
             return Err(ModelError::Integration { time: state.time, reason: "more than 1 000 000 steps".into() });
+        }
+        if let Some(reason) = stagnation.check(stats.steps, state.time, inp.max_time, 1.0 - state.mass / m0, 1_000_000) {
+            return Err(ModelError::Integration { time: state.time, reason });
         }
         dt = dt.min(inp.max_time - state.time).max(1e-15);
         let start = model.start(&state);
@@ -587,5 +592,5 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         evaporated_mass: state.evaporated.clone(),
         final_liquid_mass_fractions: model.w_mean.clone(),
     };
-    Ok(RunResult { outcome, history, profiles })
+    Ok(RunResult { outcome, history: history.into_rows(), profiles })
 }

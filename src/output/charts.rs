@@ -223,14 +223,18 @@ fn save(dir: &Path, stem: &str, title: &str, size: (u32, u32), fig: Figure) -> R
     }
     write_replace(&svg_path, svg.as_bytes())?;
     // The bitmap encoder picks the format from the extension: the temporary name must end in .png.
-    let tmp = dir.join(format!(".{stem}.tmp-{}.png", std::process::id()));
+    let tmp = super::temp_path(&png_path, ".", ".png");
     {
         let root = CrispText(BitMapBackend::new(&tmp, size)).into_drawing_area();
         draw_figure(&root, &fig).map_err(|m| chart_err(&png_path, m))?;
         root.present().map_err(|e| chart_err(&png_path, de(e)))?;
     }
-    std::fs::rename(&tmp, &png_path).map_err(|e| chart_err(&png_path, e.to_string()))?;
-    super::remove_stale_temps(dir, &format!(".{stem}.tmp-"), ".png");
+    super::check_file_target(&png_path)?;
+    if let Err(e) = std::fs::rename(&tmp, &png_path) {
+        let _ = std::fs::remove_file(&tmp);
+        return Err(chart_err(&png_path, e.to_string()));
+    }
+    super::remove_stale_temps_of(&png_path, ".", ".png");
     Ok(ChartFiles { stem: stem.into(), title: title.into(), png: png_path, svg: svg_path })
 }
 

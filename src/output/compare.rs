@@ -256,6 +256,11 @@ impl ComparisonTable {
         }
     }
 
+    /// True when the table shows a flash point (which then needs the screening caution beside it).
+    pub fn shows_flash_point(&self) -> bool {
+        self.metrics.iter().any(|m| m.key.contains("flash_point"))
+    }
+
     /// Plain-text table: one line per quantity, one column per run, differences to the first run in brackets.
     pub fn render_text(&self) -> String {
         let mut cols: Vec<Vec<String>> = vec![];
@@ -292,6 +297,9 @@ impl ComparisonTable {
         if self.rows.len() > 1 {
             s.push_str(&format!("(in brackets: difference to {}; times in percent, temperatures in K)\n", self.rows[0].label));
         }
+        if self.shows_flash_point() {
+            s.push_str(&format!("caution: {}\n", crate::post::CAUTION));
+        }
         s
     }
 }
@@ -314,6 +322,9 @@ pub fn comparison_csv(tables: &[ComparisonTable]) -> Result<CsvTable, OutputErro
         format!("{TOOL_VERSION} comparison table"),
         "values in SI units; *_at50pct_* / *_at90pct_*: residual liquid when 50 % / 90 % of the initial mass has evaporated".into(),
     ];
+    if tables.iter().any(ComparisonTable::shows_flash_point) {
+        csv.metadata.push(format!("caution: {}", crate::post::CAUTION));
+    }
     for t in tables {
         for row in &t.rows {
             let mut cells = vec![Cell::Text(t.group.clone()), Cell::Text(row.label.clone()), Cell::Text(row.dir.clone())];

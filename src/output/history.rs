@@ -253,12 +253,20 @@ pub fn profiles_table(inputs: &DropletInputs, profiles: &[crate::model::droplet:
     Ok(t)
 }
 
-/// Write history.csv, summary.json and (resolved models) profiles.csv into `dir`.
+/// Write history.csv, summary.json and (resolved models) profiles.csv into `dir`, together or not at all
+/// (inside a caller's [`super::together`] group, with the caller's other files).
 pub fn write_run(dir: &Path, inputs: &DropletInputs, result: &crate::model::RunResult) -> Result<(), OutputError> {
+    super::together(|| write_run_files(dir, inputs, result))
+}
+
+fn write_run_files(dir: &Path, inputs: &DropletInputs, result: &crate::model::RunResult) -> Result<(), OutputError> {
     super::ensure_dir(dir)?;
     history_table(inputs, &result.history)?.write(&dir.join("history.csv"))?;
     if !result.profiles.is_empty() {
         profiles_table(inputs, &result.profiles)?.write(&dir.join("profiles.csv"))?;
+    } else {
+        // an earlier resolved run's profiles would not belong to this history
+        super::remove_output(&dir.join("profiles.csv"))?;
     }
     super::write_json(&dir.join("summary.json"), &Summary::of(inputs, &result.outcome))
 }

@@ -54,11 +54,52 @@ fn href(rel: &str) -> String {
 }
 
 fn page(title: &str, body: &str) -> String {
+    page_with_footer(title, body, "from the data files in this folder; redraw with <code>dropcut plot &lt;folder&gt;</code>")
+}
+
+/// A page whose footer says "Written by dropcut x.y " followed by `footer` (HTML).
+fn page_with_footer(title: &str, body: &str, footer: &str) -> String {
     format!(
-        "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n<title>{}</title>\n<style>\n{STYLE}\n</style>\n</head>\n<body>\n<main>\n{body}<footer>Written by {} from the data files in this folder; redraw with <code>dropcut plot &lt;folder&gt;</code>.</footer>\n</main>\n</body>\n</html>\n",
+        "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n<title>{}</title>\n<style>\n{STYLE}\n</style>\n</head>\n<body>\n<main>\n{body}<footer>Written by {} {footer}.</footer>\n</main>\n</body>\n</html>\n",
         escape(title),
         escape(TOOL_VERSION)
     )
+}
+
+/// One part of an uncertainty page: a heading, the folder of its files relative to the page ("" or "name/"),
+/// its band charts and its data files.
+#[derive(Debug, Clone)]
+pub struct UncertaintySection {
+    /// Heading (fuel name, or "all fuels").
+    pub heading: String,
+    /// Folder of the files relative to the page, ending in '/' (or empty).
+    pub prefix: String,
+    /// Band charts.
+    pub charts: Vec<ChartFiles>,
+    /// Data files (names inside the folder).
+    pub files: Vec<String>,
+}
+
+/// Write `index.html` of an uncertainty folder: the text report (with the screening caution), then per fuel
+/// its band charts and links to its data files.
+pub fn write_uncertainty_page(dir: &Path, title: &str, report: &str, sections: &[UncertaintySection]) -> Result<PathBuf, OutputError> {
+    let mut b = format!("<h1>{}</h1>\n<h2>Report</h2>\n<pre>{}</pre>\n", escape(title), escape(report));
+    b.push_str(&format!("<p class=\"sub\">Caution: {}</p>\n", escape(crate::post::CAUTION)));
+    for sec in sections {
+        b.push_str(&format!("<h2>{}</h2>\n", escape(&sec.heading)));
+        b.push_str(&figures(&sec.prefix, &sec.charts));
+        if !sec.files.is_empty() {
+            b.push_str("<ul>\n");
+            for f in &sec.files {
+                let rel = format!("{}{f}", sec.prefix);
+                b.push_str(&format!("<li><a href=\"{}\">{}</a></li>\n", href(&rel), escape(&rel)));
+            }
+            b.push_str("</ul>\n");
+        }
+    }
+    let path = dir.join("index.html");
+    write_replace(&path, page_with_footer(title, &b, "from the samples run in this folder (dropcut uncertainty)").as_bytes())?;
+    Ok(path)
 }
 
 fn file_name(p: &Path) -> String {
@@ -169,6 +210,7 @@ fn residue_table_html(run: &SavedRun) -> Option<String> {
         s.push_str("</tr>\n");
     }
     s.push_str("</table>\n<p class=\"sub\">Screening estimates of the liquid left in the droplet (residue.csv), not certified fuel properties.</p>\n");
+    s.push_str(&format!("<p class=\"sub\">Caution: {}</p>\n", escape(crate::post::CAUTION)));
     Some(s)
 }
 
@@ -266,6 +308,9 @@ pub fn comparison_table_html(t: &ComparisonTable, link_runs: bool) -> String {
     s.push_str("</table>\n");
     if t.rows.len() > 1 {
         s.push_str(&format!("<p class=\"sub\">Grey: difference to {} (times in percent, temperatures in K).</p>\n", escape(&t.rows[0].label)));
+    }
+    if t.shows_flash_point() {
+        s.push_str(&format!("<p class=\"sub\">Caution: {}</p>\n", escape(crate::post::CAUTION)));
     }
     s
 }

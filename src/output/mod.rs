@@ -12,9 +12,11 @@ pub mod sweep_maps;
 pub mod tables;
 pub mod uncertainty;
 
+use std::cell::RefCell;
 use std::fs;
 use std::io::Write;
 use std::path::{Path, PathBuf};
+use std::sync::atomic::{AtomicU64, Ordering};
 
 use thiserror::Error;
 
@@ -45,6 +47,15 @@ pub enum OutputError {
         /// What is wrong.
         message: String,
     },
+    /// An output path that dropcut will not replace: an existing device, FIFO, socket or symbolic link where a
+    /// regular file is written, or an existing non-folder where a folder is expected (bad input).
+    #[error("{path}: {message}")]
+    Target {
+        /// Path given.
+        path: String,
+        /// What it is and what to do.
+        message: String,
+    },
     /// A chart that could not be drawn.
     #[error("{path}: cannot draw the chart: {message}")]
     Chart {
@@ -59,12 +70,65 @@ fn io_err(path: &Path, e: std::io::Error) -> OutputError {
     OutputError::Io { path: path.display().to_string(), message: e.to_string() }
 }
 
-/// Create a folder (and parents).
+/// Why an existing `path` may not be replaced by a written file, if it may not: only a regular file (not a
+/// symbolic link, device, FIFO or socket) is ever replaced.
+pub fn refuse_file_target(path: &Path) -> Option<String> {
+    let meta = fs::symlink_metadata(path).ok()?;
+    let ft = meta.file_type();
+    if ft.is_file() {
+        return None;
+    }
+    Some(if ft.is_symlink() {
+        "is a symbolic link; dropcut replaces only regular files (give the path it points to, or another name)".to_string()
+    } else if ft.is_dir() {
+        "is a folder; give a file name".to_string()
+    } else {
+        "exists and is not a regular file (a device, FIFO or socket); dropcut writes only regular files: give another name".to_string()
+    })
+}
+
+/// Why an existing `path` cannot be used as an output folder, if it cannot (a symbolic link to a folder is fine).
+pub fn refuse_dir_target(path: &Path) -> Option<String> {
+    let meta = fs::metadata(path).or_else(|_| fs::symlink_metadata(path)).ok()?;
+    if meta.is_dir() {
+        return None;
+    }
+    Some(if meta.is_file() {
+        "exists and is a file, not a folder; give a folder name".to_string()
+    } else if meta.file_type().is_symlink() {
+        "is a symbolic link that leads nowhere; give a folder name".to_string()
+    } else {
+        "exists and is not a folder (a device, FIFO or socket); give a folder name".to_string()
+    })
+}
+
+/// Refuse an output file path that is not a regular file (see [`refuse_file_target`]).
+pub fn check_file_target(path: &Path) -> Result<(), OutputError> {
+    match refuse_file_target(path) {
+        Some(message) => Err(OutputError::Target { path: path.display().to_string(), message }),
+        None => Ok(()),
+    }
+}
+
+/// Create a folder (and parents); refuses an existing path that is not a folder, or a parent that is not one.
 pub fn ensure_dir(dir: &Path) -> Result<(), OutputError> {
+    if dir.as_os_str().is_empty() {
+        return Ok(());
+    }
+    let mut p = Some(dir);
+    while let Some(q) = p {
+        if !q.as_os_str().is_empty() {
+            if let Some(message) = refuse_dir_target(q) {
+                return Err(OutputError::Target { path: q.display().to_string(), message });
+            }
+        }
+        p = q.parent();
+    }
     fs::create_dir_all(dir).map_err(|e| io_err(dir, e))
 }
 
-/// Write `contents` to `path` atomically (temporary file in the same folder, then rename).
+/// Write `contents` to `path` atomically (temporary file in the same folder, synced, then renamed, and the
+/// folder synced). Inside [`together`] the rename waits until the whole group is written.
 pub fn write_atomic(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
     write_via_temp(path, contents, true)
 }
@@ -75,45 +139,204 @@ pub fn write_replace(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
     write_via_temp(path, contents, false)
 }
 
+/// Marker inside temporary file names: `<file>.tmp-<pid>-<n>`.
+const TEMP_MARK: &str = ".tmp-";
+
+/// A temporary name beside `path` that no other thread or process uses: `<name>.tmp-<pid>-<n>` (`n` counts up
+/// inside the process). `suffix` is appended (the bitmap encoder needs `.png`).
+pub(crate) fn temp_path(path: &Path, prefix: &str, suffix: &str) -> PathBuf {
+    static NEXT: AtomicU64 = AtomicU64::new(0);
+    let mut name = std::ffi::OsString::from(prefix);
+    name.push(path.file_name().unwrap_or_default());
+    name.push(format!("{TEMP_MARK}{}-{}{suffix}", std::process::id(), NEXT.fetch_add(1, Ordering::Relaxed)));
+    path.with_file_name(name)
+}
+
+/// Sync a folder so renames inside it survive a power cut (best effort: not every system allows it).
+pub(crate) fn sync_dir(dir: &Path) {
+    let dir = if dir.as_os_str().is_empty() { Path::new(".") } else { dir };
+    if let Ok(f) = fs::File::open(dir) {
+        let _ = f.sync_all();
+    }
+}
+
+/// A group of files written by [`together`]: temporaries waiting for their rename, files to remove.
+#[derive(Default)]
+struct Group {
+    renames: Vec<(PathBuf, PathBuf)>,
+    removals: Vec<PathBuf>,
+}
+
+thread_local! {
+    static GROUP: RefCell<Option<Group>> = const { RefCell::new(None) };
+}
+
+/// Run `write` so that the files it writes with [`write_atomic`] / [`write_replace`] (and removes with
+/// [`remove_output`]) replace the old ones together or not at all: each file goes to a temporary first, and
+/// only when every one is written are they renamed into place. On an error (a full disk) the temporaries are
+/// removed and the old files stay as they were. Groups do not nest (an inner group joins the outer one).
+pub fn together<T, E: From<OutputError>>(write: impl FnOnce() -> Result<T, E>) -> Result<T, E> {
+    let outer = GROUP.with(|g| g.borrow().is_some());
+    if outer {
+        return write();
+    }
+    GROUP.with(|g| *g.borrow_mut() = Some(Group::default()));
+    let result = write();
+    let group = GROUP.with(|g| g.borrow_mut().take()).unwrap_or_default();
+    match result {
+        Ok(v) => {
+            let mut dirs: Vec<PathBuf> = vec![];
+            for (tmp, path) in &group.renames {
+                if let Err(e) = fs::rename(tmp, path) {
+                    for (t, _) in &group.renames {
+                        let _ = fs::remove_file(t);
+                    }
+                    return Err(io_err(path, e).into());
+                }
+                let dir = path.parent().map(Path::to_path_buf).unwrap_or_default();
+                if !dirs.contains(&dir) {
+                    dirs.push(dir);
+                }
+            }
+            for p in &group.removals {
+                let _ = fs::remove_file(p);
+            }
+            for d in &dirs {
+                sync_dir(d);
+            }
+            for (_, path) in &group.renames {
+                remove_stale_temps_of(path, "", "");
+            }
+            Ok(v)
+        }
+        Err(e) => {
+            for (tmp, _) in &group.renames {
+                let _ = fs::remove_file(tmp);
+            }
+            Err(e)
+        }
+    }
+}
+
+/// Remove an earlier output file that this run does not produce (e.g. profiles.csv of an earlier resolved
+/// run); inside [`together`] the removal waits for the group. A missing file is fine.
+pub fn remove_output(path: &Path) -> Result<(), OutputError> {
+    if fs::symlink_metadata(path).is_err() {
+        return Ok(());
+    }
+    check_file_target(path)?;
+    let queued = GROUP.with(|g| match g.borrow_mut().as_mut() {
+        Some(group) => {
+            group.removals.push(path.to_path_buf());
+            true
+        }
+        None => false,
+    });
+    if !queued {
+        fs::remove_file(path).map_err(|e| io_err(path, e))?;
+    }
+    Ok(())
+}
+
 fn write_via_temp(path: &Path, contents: &[u8], sync: bool) -> Result<(), OutputError> {
+    check_file_target(path)?;
     if let Some(parent) = path.parent() {
         if !parent.as_os_str().is_empty() {
             ensure_dir(parent)?;
         }
     }
-    let tmp: PathBuf = {
-        let mut name = path.file_name().map(|s| s.to_os_string()).unwrap_or_default();
-        name.push(format!(".tmp-{}", std::process::id()));
-        path.with_file_name(name)
-    };
-    {
-        let mut f = fs::File::create(&tmp).map_err(|e| io_err(&tmp, e))?;
-        f.write_all(contents).map_err(|e| io_err(&tmp, e))?;
+    let tmp = temp_path(path, "", "");
+    let written = (|| -> std::io::Result<()> {
+        let mut f = fs::OpenOptions::new().write(true).create_new(true).open(&tmp)?;
+        f.write_all(contents)?;
         if sync {
-            f.sync_all().map_err(|e| io_err(&tmp, e))?;
+            f.sync_all()?;
         }
+        Ok(())
+    })();
+    if let Err(e) = written {
+        let _ = fs::remove_file(&tmp);
+        return Err(io_err(&tmp, e));
     }
-    fs::rename(&tmp, path).map_err(|e| io_err(path, e))?;
-    if let (Some(dir), Some(name)) = (path.parent(), path.file_name()) {
-        let mut prefix = name.to_os_string();
-        prefix.push(".tmp-");
-        remove_stale_temps(dir, &prefix.to_string_lossy(), "");
+    let queued = GROUP.with(|g| match g.borrow_mut().as_mut() {
+        Some(group) => {
+            group.renames.push((tmp.clone(), path.to_path_buf()));
+            true
+        }
+        None => false,
+    });
+    if queued {
+        return Ok(());
     }
+    if let Err(e) = fs::rename(&tmp, path) {
+        let _ = fs::remove_file(&tmp);
+        return Err(io_err(path, e));
+    }
+    if sync {
+        sync_dir(path.parent().unwrap_or(Path::new("")));
+    }
+    remove_stale_temps_of(path, "", "");
     Ok(())
 }
 
-/// Remove temporary files `<prefix><anything><suffix>` that an interrupted earlier run left in `dir` (the
-/// file the current run just wrote has already been renamed into place). Best effort: failures are ignored.
+/// Remove the temporaries of `path` (named by [`temp_path`] with this prefix and suffix) that an interrupted
+/// earlier run left behind.
+pub(crate) fn remove_stale_temps_of(path: &Path, prefix: &str, suffix: &str) {
+    if let (Some(dir), Some(name)) = (path.parent(), path.file_name()) {
+        let mut p = std::ffi::OsString::from(prefix);
+        p.push(name);
+        p.push(TEMP_MARK);
+        remove_stale_temps(dir, &p.to_string_lossy(), suffix);
+    }
+}
+
+/// True when the process `pid` may still be running (so its temporary file may be in flight).
+fn process_may_run(pid: u32) -> bool {
+    if pid == std::process::id() {
+        return true;
+    }
+    let proc_root = Path::new("/proc");
+    if proc_root.join("self").exists() {
+        proc_root.join(pid.to_string()).exists()
+    } else {
+        true
+    }
+}
+
+/// Remove temporary files `<prefix><pid>-<n><suffix>` that an interrupted earlier run left in `dir`: only those
+/// of processes that no longer run (another process's or thread's file in flight is left alone), or, where
+/// processes cannot be checked, those older than a day. Best effort: failures are ignored.
 pub(crate) fn remove_stale_temps(dir: &Path, prefix: &str, suffix: &str) {
     let dir = if dir.as_os_str().is_empty() { Path::new(".") } else { dir };
     let Ok(entries) = fs::read_dir(dir) else { return };
     for e in entries.flatten() {
         let name = e.file_name();
         let name = name.to_string_lossy();
-        if name.len() > prefix.len() + suffix.len() && name.starts_with(prefix) && name.ends_with(suffix) {
+        if name.len() <= prefix.len() + suffix.len() || !name.starts_with(prefix) || !name.ends_with(suffix) {
+            continue;
+        }
+        let middle = &name[prefix.len()..name.len() - suffix.len()];
+        let Some(pid) = middle.split('-').next().and_then(|p| p.parse::<u32>().ok()) else { continue };
+        let old = e.metadata().ok().and_then(|m| m.modified().ok()).and_then(|t| t.elapsed().ok()).is_some_and(|a| a.as_secs() > 86_400);
+        let is_file = e.file_type().is_ok_and(|t| t.is_file());
+        if is_file && (!process_may_run(pid) || (old && pid != std::process::id())) {
             let _ = fs::remove_file(e.path());
         }
     }
+}
+
+/// Text for one `#` metadata line: line breaks and tabs become spaces, other control characters (ESC, CR
+/// inside names) are written escaped (`\u{1b}`), so no name can start a line or drive a terminal.
+pub fn metadata_text(text: &str) -> String {
+    let mut s = String::with_capacity(text.len());
+    for c in text.chars() {
+        match c {
+            '\n' | '\r' | '\t' => s.push(' '),
+            c if c.is_control() => s.extend(c.escape_default()),
+            c => s.push(c),
+        }
+    }
+    s
 }
 
 /// Format a float for CSV: shortest round-trip representation; refuses NaN/infinity.
@@ -186,7 +409,7 @@ impl CsvTable {
         let mut s = String::new();
         for m in &self.metadata {
             s.push_str("# ");
-            s.push_str(&m.replace('\n', " "));
+            s.push_str(&metadata_text(m));
             s.push('\n');
         }
         s.push_str(&self.header.join(","));

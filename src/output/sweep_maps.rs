@@ -16,6 +16,19 @@ const AXES: [(&str, &str, f64); 5] = [
     ("droplet_temperature_K", "initial droplet temperature [K]", 1.0),
 ];
 
+/// A held input as "name = value unit" in the axis's display unit ("pressure = 5 bar", not "pressure_Pa = 500000").
+fn held_value(column: &str, value: f64) -> String {
+    match AXES.iter().find(|(c, ..)| *c == column) {
+        Some((_, label, scale)) => {
+            let (name, unit) = label.split_once(" [").map(|(n, u)| (n, u.trim_end_matches(']'))).unwrap_or((label, ""));
+            let shown = format!("{:.6}", value * scale);
+            let shown = shown.trim_end_matches('0').trim_end_matches('.');
+            format!("{name} = {shown} {unit}").trim_end().to_string()
+        }
+        None => format!("{column} = {value}"),
+    }
+}
+
 fn distinct(values: &[f64]) -> Vec<f64> {
     let mut v: Vec<f64> = values.to_vec();
     v.sort_by(|a, b| a.total_cmp(b));
@@ -82,7 +95,7 @@ pub fn sweep_maps(dir: &Path) -> Result<Vec<ChartFiles>, OutputError> {
                 }
             }
         }
-        let held = if others.is_empty() { String::new() } else { format!("; other swept inputs at their first value ({})", others.iter().map(|(c, v)| format!("{c} = {v}")).collect::<Vec<_>>().join(", ")) };
+        let held = if others.is_empty() { String::new() } else { format!("; other swept inputs at their first value ({})", others.iter().map(|(c, v)| held_value(c, *v)).collect::<Vec<_>>().join(", ")) };
         let map = GridMap {
             title: format!("{} of {fuel}", if use_lifetime { "Droplet lifetime" } else { "Time to 50 % evaporated" }),
             subtitle: format!("sweep in {}{held}", dir.file_name().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default()),
@@ -97,4 +110,16 @@ pub fn sweep_maps(dir: &Path) -> Result<Vec<ChartFiles>, OutputError> {
         drawn.push(lifetime_map(dir, &stem, &map)?);
     }
     Ok(drawn)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::held_value;
+
+    #[test]
+    fn held_inputs_are_shown_in_display_units() {
+        assert_eq!(held_value("pressure_Pa", 500_000.0), "pressure = 5 bar");
+        assert_eq!(held_value("diameter_m", 2.5e-5), "initial diameter = 25 µm");
+        assert_eq!(held_value("ambient_temperature_K", 800.0), "ambient temperature = 800 K");
+    }
 }

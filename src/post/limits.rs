@@ -191,7 +191,7 @@ impl Limits {
     /// Read a limits file from disk.
     pub fn load(path: &Path) -> Result<Self, LimitsError> {
         let file = path.display().to_string();
-        let bytes = std::fs::read(path).map_err(|e| LimitsError::Io { file: file.clone(), message: e.to_string() })?;
+        let bytes = crate::data::read_input_file(path).map_err(|message| LimitsError::Io { file: file.clone(), message })?;
         let text = String::from_utf8(bytes).map_err(|_| LimitsError::Parse { file: file.clone(), message: "file is not UTF-8 text".into() })?;
         Self::parse(&text, &file)
     }

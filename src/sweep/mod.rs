@@ -69,6 +69,7 @@ impl From<crate::output::OutputError> for SweepError {
     fn from(e: crate::output::OutputError) -> Self {
         match e {
             crate::output::OutputError::Io { path, message } => SweepError::Io { path, message },
+            crate::output::OutputError::Target { path, message } => SweepError::Mismatch { path, message },
             other => SweepError::Internal(other.to_string()),
         }
     }

@@ -21,7 +21,7 @@ use std::sync::mpsc::{self, RecvTimeoutError, Sender};
 use std::sync::{Condvar, Mutex};
 use std::time::{Duration, Instant};
 
-use crate::model::{self, droplet::Recorder, droplet::NoHistory};
+use crate::model::{self, droplet::NoHistory};
 
 use super::shard::Shard;
 use super::spec::SweepSpec;
@@ -85,6 +85,8 @@ pub struct SweepReport {
     pub summary: PathBuf,
     /// The folder already held the finished summary of this sweep (nothing ran).
     pub already_complete: bool,
+    /// Resume found a damaged row in the journal (case id, what is wrong): it and every later row were run again.
+    pub damaged_row: Option<(u64, String)>,
 }
 
 struct Gate {
@@ -110,7 +112,7 @@ pub fn run(spec: &SweepSpec, out: &Path, opts: &RunOptions, progress: &mut dyn P
     fs::create_dir_all(out).map_err(|e| SweepError::io(out, e))?;
     let final_path = out.join(SUMMARY_FILE);
     let journal = out.join(JOURNAL_FILE);
-    let mut report = SweepReport { shard: opts.shard, cases: total, resumed: 0, ran: 0, failed: 0, summary: final_path.clone(), already_complete: false };
+    let mut report = SweepReport { shard: opts.shard, cases: total, resumed: 0, ran: 0, failed: 0, summary: final_path.clone(), already_complete: false, damaged_row: None };
 
     if final_path.exists() {
         if !opts.resume {
@@ -119,12 +121,16 @@ pub fn run(spec: &SweepSpec, out: &Path, opts: &RunOptions, progress: &mut dyn P
                 message: "already holds a finished sweep (summary.csv); choose another --out, or pass --resume to check it and run nothing".into(),
             });
         }
-        let scan = scan_rows(&final_path, &head, opts.shard, header.len(), total)?;
+        let scan = scan_rows(&final_path, &head, spec, opts.shard, &header, total)?;
         if !scan.head_ok || scan.rows != total || scan.valid_end != scan.file_len {
             return Err(SweepError::Mismatch {
                 path: final_path.display().to_string(),
                 message: if scan.head_ok {
-                    format!("holds {} valid rows of {total} (damaged or edited); delete it to rerun", scan.rows)
+                    let why = match &scan.damaged {
+                        Some((id, reason)) => format!("the row of case {id} {reason}"),
+                        None => "it ends early or has rows beyond the sweep".to_string(),
+                    };
+                    format!("holds {} valid rows of {total} (damaged or edited: {why}); delete it to rerun", scan.rows)
                 } else {
                     "was written for another spec, shard or dropcut version (its header lines differ); choose another --out".into()
                 },
@@ -145,7 +151,9 @@ pub fn run(spec: &SweepSpec, out: &Path, opts: &RunOptions, progress: &mut dyn P
         }
         let f = OpenOptions::new().read(true).write(true).open(&journal).map_err(|e| SweepError::io(&journal, e))?;
         lock_journal(&f, &journal, out)?;
-        recover_journal(f, &journal, &head, opts.shard, header.len(), total)?
+        let (f, done, failed, damaged) = recover_journal(f, &journal, &head, spec, opts.shard, &header, total)?;
+        report.damaged_row = damaged;
+        (f, done, failed)
     } else {
         let mut f = OpenOptions::new().write(true).create_new(true).open(&journal).map_err(|e| SweepError::io(&journal, e))?;
         lock_journal(&f, &journal, out)?;
@@ -239,7 +247,7 @@ fn run_case(spec: &SweepSpec, id: u64, out: &Path, histories: bool, extra: &[Box
     }
     let result = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
         if histories {
-            model::simulate(&inputs, &mut Recorder::default())
+            model::simulate(&inputs, &mut model::guard::RowsOnly)
         } else {
             model::simulate(&inputs, &mut NoHistory)
         }
@@ -321,6 +329,8 @@ fn write_rows(
 }
 
 struct Scan {
+    /// The first whole row that failed its check (case id, what is wrong).
+    damaged: Option<(u64, String)>,
     head_ok: bool,
     head_is_prefix: bool,
     rows: u64,
@@ -330,13 +340,18 @@ struct Scan {
 }
 
 /// Read a journal or summary back: does it start with `head`, and how many valid rows follow in order.
-fn scan_rows(path: &Path, head: &str, shard: Shard, n_fields: usize, total: u64) -> Result<Scan, SweepError> {
+///
+/// Each row is checked against the spec ([`summary::check_row`]): the inputs its case id stands for, finite
+/// results, a known status; the scan stops at the first row that fails and names it.
+fn scan_rows(path: &Path, head: &str, spec: &SweepSpec, shard: Shard, header: &[String], total: u64) -> Result<Scan, SweepError> {
+    let n_fields = header.len();
+    let mut fmt = RowFormatter::new(header.to_vec());
     let f = File::open(path).map_err(|e| SweepError::io(path, e))?;
     let file_len = f.metadata().map_err(|e| SweepError::io(path, e))?.len();
     let mut reader = BufReader::new(f);
     let mut got = Vec::with_capacity(head.len());
     (&mut reader).take(head.len() as u64).read_to_end(&mut got).map_err(|e| SweepError::io(path, e))?;
-    let mut scan = Scan { head_ok: got == head.as_bytes(), head_is_prefix: head.as_bytes().starts_with(&got), rows: 0, failed: 0, valid_end: 0, file_len };
+    let mut scan = Scan { damaged: None, head_ok: got == head.as_bytes(), head_is_prefix: head.as_bytes().starts_with(&got), rows: 0, failed: 0, valid_end: 0, file_len };
     if !scan.head_ok {
         return Ok(scan);
     }
@@ -348,8 +363,17 @@ fn scan_rows(path: &Path, head: &str, shard: Shard, n_fields: usize, total: u64)
         if k == 0 || line.last() != Some(&b'\n') {
             break;
         }
-        let Ok(text) = std::str::from_utf8(&line[..k - 1]) else { break };
-        if scan.rows >= total || summary::row_case_id(text) != Some(shard.case_id(scan.rows)) || summary::field_count(text) != n_fields {
+        let id = shard.case_id(scan.rows);
+        let Ok(text) = std::str::from_utf8(&line[..k - 1]) else {
+            scan.damaged = Some((id, "is not UTF-8 text".into()));
+            break;
+        };
+        if scan.rows >= total {
+            break;
+        }
+        let prefix = spec.case(id).map(|case| fmt.input_prefix(spec, &case));
+        if let Err(reason) = summary::check_row(text, id, n_fields, prefix.as_deref()) {
+            scan.damaged = Some((id, reason));
             break;
         }
         if summary::is_failed_row(text) {
@@ -375,15 +399,16 @@ fn lock_journal(file: &File, journal: &Path, out: &Path) -> Result<(), SweepErro
     }
 }
 
-fn recover_journal(mut f: File, path: &Path, head: &str, shard: Shard, n_fields: usize, total: u64) -> Result<(File, u64, u64), SweepError> {
-    let scan = scan_rows(path, head, shard, n_fields, total)?;
+#[allow(clippy::type_complexity)]
+fn recover_journal(mut f: File, path: &Path, head: &str, spec: &SweepSpec, shard: Shard, header: &[String], total: u64) -> Result<(File, u64, u64, Option<(u64, String)>), SweepError> {
+    let scan = scan_rows(path, head, spec, shard, header, total)?;
     let io = |e: std::io::Error| SweepError::io(path, e);
     if !scan.head_ok {
         if scan.head_is_prefix {
             // Killed while writing the header lines: start over.
             f.set_len(0).map_err(io)?;
             f.write_all(head.as_bytes()).and_then(|_| f.sync_data()).map_err(io)?;
-            return Ok((f, 0, 0));
+            return Ok((f, 0, 0, None));
         }
         return Err(SweepError::Mismatch {
             path: path.display().to_string(),
@@ -393,5 +418,5 @@ fn recover_journal(mut f: File, path: &Path, head: &str, shard: Shard, n_fields:
     f.set_len(scan.valid_end).map_err(io)?;
     f.seek(SeekFrom::End(0)).map_err(io)?;
     f.sync_data().map_err(io)?;
-    Ok((f, scan.rows, scan.failed))
+    Ok((f, scan.rows, scan.failed, scan.damaged))
 }

@@ -131,6 +131,12 @@ const DRAG: usize = 22;
 const TOP_KEYS: [&str; 7] = ["name", "description", "fuels", "zipped", "conditions", "model", "output"];
 const RANGE_KEYS: [&str; 4] = ["from", "to", "steps", "scale"];
 const MODEL_KEYS: [&str; 2] = ["reference-weight", "end-mass-fraction"];
+/// Smallest liquid diffusivity or conductivity factor accepted: below it the concentration or temperature layer
+/// at the surface grows thinner than the radial grid resolves, and runs stall (hours) or fail (measured: 0.01
+/// runs in 0.1 s for demo-wide, 0.001 fails, 0.0001 ran for minutes).
+pub const MIN_LIQUID_FACTOR: f64 = 0.01;
+/// Smallest `model.end-mass-fraction` accepted (a remaining diameter of 1 % of the initial one).
+pub const MIN_END_MASS_FRACTION: f64 = 1e-6;
 const OUTPUT_KEYS: [&str; 2] = ["histories", "residue-indicators"];
 /// Largest number of cases a spec may describe.
 pub const MAX_CASES: u64 = 1_000_000_000_000;
@@ -327,7 +333,11 @@ fn type_name(v: &toml::Value) -> &'static str {
 }
 
 fn show(v: &toml::Value) -> String {
-    let s = v.to_string();
+    // a float in shortest form, in exponent notation when tiny or huge (never hundreds of digits)
+    let s = match v {
+        toml::Value::Float(f) if f.is_finite() && *f != 0.0 && !(1e-4..1e15).contains(&f.abs()) => format!("{f:e}"),
+        other => other.to_string(),
+    };
     if s.len() > 60 {
         format!("{}…", &s[..s.char_indices().nth(57).map(|(i, _)| i).unwrap_or(s.len())])
     } else {
@@ -380,7 +390,7 @@ impl SweepSpec {
     /// Read and validate a spec file; relative fuel paths resolve against the spec's folder, then the current one.
     pub fn load(path: &Path, lib: &Library) -> Result<SweepSpec, SweepError> {
         let file = path.display().to_string();
-        let bytes = std::fs::read(path).map_err(|e| SweepError::Spec { file: file.clone(), field: "(file)".into(), message: format!("cannot read the spec: {e}") })?;
+        let bytes = crate::data::read_input_file(path).map_err(|e| SweepError::Spec { file: file.clone(), field: "(file)".into(), message: format!("cannot read the spec: {e}") })?;
         let text = String::from_utf8(bytes).map_err(|_| SweepError::Spec { file: file.clone(), field: "(file)".into(), message: "the spec is not UTF-8 text".into() })?;
         let base = path.parent().unwrap_or(Path::new(""));
         Self::parse(&text, &file, base, lib)
@@ -626,6 +636,9 @@ fn quantity(ctx: &Ctx, var: &Variable, q: Quantity, v: &toml::Value, field: &str
     if x > var.max {
         return Err(ctx.err(field, format!("{} must not exceed {}", show(v), var.max)));
     }
+    if var.key.starts_with("liquid-") && var.key.ends_with("-factor") && x < MIN_LIQUID_FACTOR {
+        return Err(ctx.err(field, format!("{} is below {MIN_LIQUID_FACTOR}: the liquid layers would grow thinner than the radial grid can follow and the run stalls or fails", show(v))));
+    }
     Ok(Value::Number(x))
 }
 
@@ -816,7 +829,12 @@ fn parse_model(ctx: &Ctx, v: Option<&toml::Value>) -> Result<ModelOptions, Sweep
             "reference-weight" => {
                 let x = number()?;
                 if !(0.0..=1.0).contains(&x) {
-                    return Err(ctx.err(&field, format!("{x} must lie between 0 and 1")));
+                    return Err(ctx.err(&field, format!("{x} must lie between 0 and 1 (1 excluded)")));
+                }
+                if x == 1.0 {
+                    // The reference state would be the far-field gas alone, with no fuel vapour in the film
+                    // mixture: the vapour-weighted film properties are undefined there and every case fails.
+                    return Err(ctx.err(&field, "1 puts the film reference state at the far-field gas, which holds no fuel vapour, so the film properties are undefined; use a value below 1 (e.g. 0.99)"));
                 }
                 m.reference_weight = x;
             }
@@ -824,6 +842,11 @@ fn parse_model(ctx: &Ctx, v: Option<&toml::Value>) -> Result<ModelOptions, Sweep
                 let x = number()?;
                 if !(x > 0.0 && x < 0.5) {
                     return Err(ctx.err(&field, format!("{x} must lie between 0 and 0.5 (exclusive)")));
+                }
+                if x < MIN_END_MASS_FRACTION {
+                    // Below this the diameter is under 1 % of the initial one and the step size of the integrator
+                    // reaches the round-off limit before the end is reached: every case would fail.
+                    return Err(ctx.err(&field, format!("{} is below {MIN_END_MASS_FRACTION:e}: the integration cannot follow the droplet that far (the diameter would be under 1 % of the initial one)", crate::output::fmt_f64(x).unwrap_or_default())));
                 }
                 m.end_mass_fraction = x;
             }

@@ -9,7 +9,7 @@
 use rayon::prelude::*;
 use serde::Serialize;
 
-use crate::model::droplet::{Recorder, Status};
+use crate::model::droplet::Status;
 use crate::model::{simulate, DropletInputs, HistoryRow, RunResult};
 use crate::post::droplet::{residues_along_history, Layer};
 use crate::post::{residue_table, IndicatorOptions};
@@ -377,7 +377,7 @@ fn reduce(inputs: &DropletInputs, run: &RunResult, z: Vec<f64>, grid: &[f64], se
 
 /// One droplet run reduced to a record.
 fn evaluate(inputs: &DropletInputs, z: Vec<f64>, grid: &[f64], settings: &Settings) -> SampleRecord {
-    match simulate(inputs, &mut Recorder::default()) {
+    match simulate(inputs, &mut crate::model::guard::RowsOnly) {
         Ok(run) => reduce(inputs, &run, z, grid, settings),
         Err(e) => empty_record(SampleStatus::Failed(e.to_string()), z, grid, settings),
     }
@@ -406,7 +406,7 @@ pub fn run(nominal: &DropletInputs, spec: &UncertaintySpec, settings: &Settings,
     check_settings(settings)?;
     let (factors, mut notices) = resolve(spec, nominal)?;
     // the deterministic run sets the time scale of the grid
-    let det_run = simulate(nominal, &mut Recorder::default())?;
+    let det_run = simulate(nominal, &mut crate::model::guard::RowsOnly)?;
     let reference_time = match det_run.outcome.lifetime {
         Some(t) if t > 0.0 => t,
         _ => {

@@ -27,6 +27,10 @@ use crate::data::{suggest, HydrocarbonClass, Library, GAS_CONSTANT};
 use crate::units::{self, Quantity};
 
 use super::petroleum::{self as pet, CutConstants};
+/// Largest relative difference between a pseudo-component's molar mass and its formula's mass: below the 10 %
+/// the component loader accepts for petroleum fractions, so every built fuel loads.
+const FORMULA_MASS_TOLERANCE: f64 = 0.08;
+
 use super::{formula_molar_mass, fuel_file_text, input_error, read_back, BuildError, BuiltFuel, ComponentSpec, CompositionLine, CpPolynomial, CurveSimulator, Value};
 
 /// Kind of distillation curve.
@@ -473,9 +477,45 @@ fn cut_component(c: &CutInput, opts: &DistillationOptions, notes: &mut Vec<Strin
             best = Some((n_c, n_h, err));
         }
     }
-    let (n_c, n_h, _) = best.unwrap_or((2, 6, 0.0));
+    let (mut n_c, mut n_h, err) = best.unwrap_or((2, 6, 0.0));
+    let mut adjusted = false;
+    if err > FORMULA_MASS_TOLERANCE {
+        // The ratio's formula misses the molar mass (light cuts, where the paraffin limit caps H/C): take the
+        // whole-atom hydrocarbon (H/C between 1 and the paraffin limit) of nearest mass, then nearest H/C.
+        let mut wide: Option<(u32, u32, f64, f64)> = None;
+        for c in (x_c.floor() as u32).saturating_sub(3).max(1)..=(x_c.ceil() as u32 + 3) {
+            for h in c.max(2)..=(2 * c + 2) {
+                let e = (formula_molar_mass(c, h, 0) / w_rd - 1.0).abs();
+                let d = (f64::from(h) / f64::from(c) - hc_atomic).abs();
+                if e <= FORMULA_MASS_TOLERANCE && wide.is_none_or(|b| d < b.3) {
+                    wide = Some((c, h, e, d));
+                }
+            }
+        }
+        match wide {
+            Some((c, h, ..)) => {
+                (n_c, n_h, adjusted) = (c, h, true);
+            }
+            None => {
+                return Err(input_error(
+                    ctx,
+                    format!(
+                        "{}: Tb {:.1} K and SG {sg:.4} give a molar mass of {:.1} g/mol that no hydrocarbon formula matches within {:.0} % (the lightest, CH4, is 16 g/mol; the Riazi–Daubert correlation covers fractions of about 70–300 g/mol, boiling from about 35 °C): start the curve at a higher temperature or use fewer pseudo-components (--pseudo)",
+                        c.id,
+                        tb,
+                        w_rd * 1e3,
+                        100.0 * FORMULA_MASS_TOLERANCE
+                    ),
+                ));
+            }
+        }
+    }
     let w_formula = formula_molar_mass(n_c, n_h, 0);
     let mut formula_note = format!("formula C{n_c}H{n_h}: whole atoms nearest the molar mass with the Riazi (1986) C/H weight ratio {ch:.3} (H/C {hc_atomic:.3})");
+    if adjusted {
+        formula_note = format!("formula C{n_c}H{n_h}: the whole-atom hydrocarbon nearest the molar mass (within {:.0} %), H/C nearest the Riazi (1986) ratio {hc_atomic:.3}, which alone gives no formula of that mass", 100.0 * FORMULA_MASS_TOLERANCE);
+        notes.push(format!("{}: the Riazi C/H ratio gives no formula near the molar mass {:.1} g/mol; C{n_c}H{n_h} used", c.id, w_rd * 1e3));
+    }
     if hc_atomic > 2.0 + 2.0 / f64::from(n_c) + 1e-9 {
         formula_note.push_str("; the ratio was above the paraffin limit and is capped there");
         notes.push(format!("{}: the Riazi C/H ratio is above the paraffin limit; capped at CnH2n+2", c.id));

@@ -48,7 +48,8 @@ pub(crate) fn read_csv_or_toml<T>(
     parse_toml: impl FnOnce(&str, &str, &str) -> Result<T, BuildError>,
 ) -> Result<T, BuildError> {
     let shown = path.display().to_string();
-    let text = std::fs::read_to_string(path).map_err(|e| input_error(&shown, format!("cannot read: {e}")))?;
+    let bytes = crate::data::read_input_file(path).map_err(|e| input_error(&shown, format!("cannot read: {e}")))?;
+    let text = String::from_utf8(bytes).map_err(|_| input_error(&shown, "cannot read: stream did not contain valid UTF-8".to_string()))?;
     let stem = path.file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_else(|| "fuel".into());
     if path.extension().is_some_and(|e| e.eq_ignore_ascii_case("csv")) {
         parse_csv(&text, &shown, &stem)

@@ -231,6 +231,9 @@ def tables():
     L("jobpred", "Misc/joback_predictions.tsv")
     L("polinglj", "Viscosity/PolingLJ.tsv")
     L("costald", "Density/COSTALD Parameters.tsv")
+    L("vdirho", "Density/VDI PPDS Density of Saturated Liquids.tsv")
+    L("vdimu", "Viscosity/VDI PPDS Dynamic viscosity of saturated liquids polynomials.tsv")
+    L("cascc", "Misc/common_chemistry_data.tsv")
 
 
 def webbook(cas, key):
@@ -345,13 +348,74 @@ def vapor_pressure(cas):
     return cs("ambrose-walton")
 
 
-def liquid_density(cas):
+# Published single measurements (papers read in this session; the numbers are quoted in the abstracts):
+# CAS -> list of (T/K, density kg/m3, dynamic viscosity mPa s or None, source id).
+LITERATURE_POINTS = {
+    # Luning Prak, Jones, Cowart, Trulove, J. Chem. Eng. Data 60 (2015): pure-component values at 293.15 K
+    "4390-04-9": [(293.15, 784.48, 3.71, "luning-prak-2015")],
+    "13475-82-6": [(293.15, 745.21, 1.31, "luning-prak-2015")],
+}
+
+
+def crc_density(cas):
+    """CRC density with its temperature. chemicals 1.5.2 stores the CRC entry d(t) in g/cm3 at t degC as
+    1000 d + t/1000 (e.g. 875.82 = 0.8758 g/cm3 at 20 degC; 862.325 = 0.8623 at 25 degC). Checked against
+    CoolProp 8.0 for 14 fluids (agreement within 0.2 % at the decoded temperature except n-hexane)."""
+    v = first(T["crcphys"], cas, "rho")
+    if not v:
+        return None
+    rho = round(v, 1)
+    t_c = round((v - rho) * 1000)
+    if not 0 <= t_c <= 40:
+        return None
+    return 273.15 + t_c, rho
+
+
+def common_chemistry_density(cas, M):
+    """Liquid density from the molar volume carried for CAS Common Chemistry (experimental property page);
+    chemicals 1.5.2 does not carry the temperature."""
+    v = first(T["cascc"], cas.replace("-", ""), "Vml")
+    return M / v if v else None
+
+
+def rackett_anchored(T0, rho0, M, Tc, Pc, Tm, source, how):
+    """Rackett form with Z_RA fitted to one measured density: rho = (Pc/(R Tc)) / Z^(1 + (1 - T/Tc)^(2/7)),
+    written as DIPPR 105 (A = Pc/(R Tc) in kmol/m3, B = Z_RA, C = Tc, D = 2/7)."""
+    A = Pc / (R * Tc) / 1000.0
+    rho_m = rho0 / M / 1000.0  # kmol/m3
+    expo = 1.0 + (1.0 - T0 / Tc) ** (2.0 / 7.0)
+    Z = math.exp(math.log(A / rho_m) / expo)
+    return sec("dippr105", [float(f"{A:.8g}"), float(f"{Z:.8g}"), Tc, float(f"{2/7:.10g}")], "kmol/m3", Tm, Tc, source,
+               uncertainty=0.01,
+               note=f"Rackett equation with Z_RA = {Z:.5f} fitted to the measured density {rho0} kg/m3 at {T0:.2f} K ({how}); "
+                    f"A = Pc/(R Tc) from the critical constants of this file; temperature dependence from the Rackett form "
+                    f"(hold-out error in validation/README.md)")
+
+
+def liquid_density(cas, k):
     p = perry("p105", cas, 4)
     if p:
         c1 = T["p105"][cas][0]["C1"]
         c = [float(Decimal(c1) / 1000)] + p[0][1:]
         return sec("dippr105", c, "kmol/m3", p[1], p[2], "perry8-table-2-32",
                    note=f"chemicals carries C1 = {c1} (mol/m3 basis); restored to the printed kmol/m3 value C1/1000")
+    r = first(T["vdirho"], cas, "Tc", "rhoc", "A", "B", "C", "D")
+    if r:
+        tc, rhoc, A, B, C, D = r
+        return sec("ppds-density", [rhoc, A, B, C, D], "kg/m3", k["Tm"], tc, "vdi-heat-atlas-ppds", tc=tc,
+                   note="VDI Heat Atlas PPDS saturated-liquid density, rho = rhoc + A tau^0.35 + B tau^(2/3) + C tau + D tau^(4/3), "
+                        "tau = 1 - T/Tc (Tc of the VDI table); t-min set to the melting point")
+    M, Tc, Pc = k["M"], k["Tc"], k["Pc"]
+    for T0, rho0, _mu, src in LITERATURE_POINTS.get(cas, []):
+        return rackett_anchored(T0, rho0, M, Tc, Pc, k["Tm"], src, "published measurement")
+    crc = crc_density(cas)
+    if crc:
+        return rackett_anchored(crc[0], crc[1], M, Tc, Pc, k["Tm"], "crc95-physical-constants",
+                                "CRC Handbook, density column as decoded from chemicals 1.5.2")
+    rho = common_chemistry_density(cas, M)
+    if rho:
+        return rackett_anchored(293.15, round(rho, 1), M, Tc, Pc, k["Tm"], "cas-common-chemistry",
+                                "CAS Common Chemistry experimental density; the temperature is not carried by chemicals 1.5.2, 20 degC assumed")
     return cs("rackett")
 
 
@@ -381,19 +445,45 @@ def liquid_cp(cas, Tc):
     return cs("rowlinson-bondi")
 
 
-def liquid_viscosity(cas):
+def joback_viscosity_slope(groups):
+    """Joback & Reid (1987) liquid viscosity ln(mu) = ln(M) + (sum eta_a - 597.82)/T + sum eta_b - 11.202:
+    the 1/T slope sum eta_a - 597.82 [K] (increments as carried by thermo's Joback table)."""
+    ETA_A = {"CH3": 548.29, "CH2": 94.16, "CH": -322.15, "C": -573.56, "rCH2": 307.53, "rCH": -394.29,
+             "rCHa": 259.65, "rCa": -245.74}
+    if any(g not in ETA_A for g in groups):
+        return None
+    return sum(ETA_A[g] * n for g, n in groups.items()) - 597.82
+
+
+def liquid_viscosity(cas, comp=None, k=None):
     p = perry("p313", cas, 5)
     if p:
         c = p[0]
         while len(c) > 2 and c[-1] == 0:
             c.pop()
         return sec("dippr101", c, "Pa*s", p[1], p[2], "perry8-table-2-313")
+    r = first(T["vdimu"], cas, "A", "B", "C", "D", "E")
+    if r and k:
+        A, B, C, D, E = r
+        return sec("ppds-viscosity", [A, B, C, D, E], "Pa*s", k["Tm"], k["Tb"], "vdi-heat-atlas-ppds",
+                   note="VDI Heat Atlas PPDS equation 9, mu = E exp(A x^(1/3) + B x^(4/3)), x = (C - T)/(T - D); "
+                        "chemicals does not carry the validity range: t-min/t-max set to Tm..Tb here")
     for key, src in (("vn3", "viswanath-natarajan-1989"), ("dp3", "dutt-prasad-viswanath-2007")):
         r = first(T[key], cas, "A", "B", "C", "Tmin", "Tmax")
         if r:
             A, B, C, tmin, tmax = r
             return sec("vogel", [A, -B, -C], "mPa*s", tmin, tmax, src,
                        note=f"published as log10(mu/cP) = A + B/(C - T) with A = {A!r}, B = {B!r}, C = {C!r}; rewritten exactly as log10(mu/mPa s) = A + (-B)/(T + (-C))")
+    pts = [p for p in LITERATURE_POINTS.get(cas, []) if p[2]]
+    slope = joback_viscosity_slope(comp[6]) if comp else None
+    if pts and slope and k:
+        T0, _rho, mu0, src = pts[0]
+        A = math.log(mu0 * 1e-3) - slope / T0
+        return sec("dippr101", [float(f"{A:.8g}"), float(f"{slope:.6g}")], "Pa*s", k["Tm"], 0.7 * k["Tc"], src,
+                   uncertainty=0.15,
+                   note=f"Andrade form ln(mu/Pa s) = A + B/T through the measured {mu0} mPa s at {T0:.2f} K; the slope "
+                        f"B = {slope:.2f} K is the Joback & Reid (1987) group value (sum eta_a - 597.82); hold-out error of "
+                        f"this one-point method in validation/README.md")
     return cs("letsou-stiel")
 
 
@@ -848,10 +938,10 @@ def main():
         consts, k = constants(comp, vp, lh)
         secs = {
             "vapor-pressure": vp,
-            "liquid-density": liquid_density(cas),
+            "liquid-density": liquid_density(cas, k),
             "latent-heat": lh,
             "liquid-heat-capacity": liquid_cp(cas, k["Tc"]),
-            "liquid-viscosity": liquid_viscosity(cas),
+            "liquid-viscosity": liquid_viscosity(cas, comp, k),
             "liquid-conductivity": liquid_conductivity(cas, k["Tm"], k["Tb"]),
             "surface-tension": surface_tension(cas),
             "ideal-gas-heat-capacity": ideal_gas_cp(cas, comp, args.igcp),

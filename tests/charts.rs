@@ -257,7 +257,7 @@ fn demo_writes_charts_and_pages_and_plot_redraws_them() {
     ok(&["demo", "--out", p(&demo)]);
     for cond in ["combustor", "relight"] {
         for stem in ["d2", "surface_temperature", "evaporated"] {
-            check_chart(&demo, &format!("chart_{cond}_{stem}"), &["demo-narrow", "demo-wide", "demo-blend"]);
+            check_chart(&demo, &format!("chart_{cond}_{stem}"), &["demo-narrow", "demo-wide", "demo-blend", "demo-paraffinic"]);
         }
         check_chart(&demo.join(format!("demo-wide_{cond}")), "chart_liquid_composition", &["n-alkanes"]);
         check_page(&demo.join(format!("demo-narrow_{cond}")).join("index.html"), &["chart_d2.png"]);
@@ -265,7 +265,7 @@ fn demo_writes_charts_and_pages_and_plot_redraws_them() {
     check_page(&demo.join("index.html"), &["combustor condition", "relight condition", "chart_relight_d2.png", "demo-blend_relight/index.html"]);
     let svg = std::fs::read(demo.join("chart_combustor_d2.svg")).unwrap();
     let out = ok(&["plot", p(&demo)]);
-    assert!(out.contains("drew 38 charts"), "{out}");
+    assert!(out.contains("drew 48 charts"), "{out}"); // 4 demo fuels × 2 conditions × 5 run charts + 8 group charts
     assert_eq!(std::fs::read(demo.join("chart_combustor_d2.svg")).unwrap(), svg);
 
     // a folder of run folders without study.json: compared as one group

@@ -72,6 +72,15 @@ def raw(sec, T):
     if m == "mulero-cachadina":
         x = max(1 - T / sec["tc"], 0.0)
         return sum(c[i] * x ** c[i + 1] for i in range(0, len(c), 2))
+    if m == "ppds-density":  # VDI Heat Atlas PPDS: rhoc + A tau^0.35 + B tau^(2/3) + C tau + D tau^(4/3)
+        tau = max(1 - T / sec["tc"], 0.0)
+        return c[0] + c[1] * tau ** 0.35 + c[2] * tau ** (2 / 3) + c[3] * tau + c[4] * tau ** (4 / 3)
+    if m == "ppds-viscosity":  # PPDS eq. 9: E exp(A x^(1/3) + B x^(4/3)), x = (C - T)/(T - D)
+        A, B, C, D, E = c
+        T = max(T, D + 5.0)
+        x = (C - T) / (T - D)
+        x13 = math.copysign(abs(x) ** (1 / 3), x)
+        return E * math.exp(A * x13 + B * x * x13)
     if m == "nasa7":
         a = sec["coefficients-low"] if T < sec["t-mid"] else sec["coefficients-high"]
         return sum(a[i] * T ** i for i in range(5))

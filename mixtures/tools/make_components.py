@@ -92,11 +92,20 @@ COMPONENTS = [
     ("3-methyldecane", "3-Methyldecane", [], "13151-34-3", "iso-alkane", (11, 24, 0), {"CH3": 3, "CH2": 7, "CH": 1}, 0),
     ("2-methylundecane", "2-Methylundecane", [], "7045-71-8", "iso-alkane", (12, 26, 0), {"CH3": 3, "CH2": 8, "CH": 1}, 0),
     ("2-methyltetradecane", "2-Methyltetradecane", [], "1560-95-8", "iso-alkane", (15, 32, 0), {"CH3": 3, "CH2": 11, "CH": 1}, 0),
+    ("2-methyldecane", "2-Methyldecane", [], "6975-98-0", "iso-alkane", (11, 24, 0), {"CH3": 3, "CH2": 7, "CH": 1}, 0),
+    ("3-methylundecane", "3-Methylundecane", [], "1002-43-3", "iso-alkane", (12, 26, 0), {"CH3": 3, "CH2": 8, "CH": 1}, 0),
+    ("2-methyltridecane", "2-Methyltridecane", [], "1560-96-9", "iso-alkane", (14, 30, 0), {"CH3": 3, "CH2": 10, "CH": 1}, 0),
+    ("2-6-dimethyloctane", "2,6-Dimethyloctane", [], "2051-30-1", "iso-alkane", (10, 22, 0), {"CH3": 4, "CH2": 4, "CH": 2}, 0),
+    ("2-6-10-14-tetramethylpentadecane", "2,6,10,14-Tetramethylpentadecane", ["pristane"], "1921-70-6", "iso-alkane", (19, 40, 0), {"CH3": 6, "CH2": 9, "CH": 4}, 0),
     ("cyclohexane", "Cyclohexane", [], "110-82-7", "monocycloalkane", (6, 12, 0), {"rCH2": 6}, 0),
     ("methylcyclohexane", "Methylcyclohexane", [], "108-87-2", "monocycloalkane", (7, 14, 0), {"rCH2": 5, "rCH": 1, "CH3": 1}, 0),
     ("ethylcyclohexane", "Ethylcyclohexane", [], "1678-91-7", "monocycloalkane", (8, 16, 0), {"rCH2": 5, "rCH": 1, "CH2": 1, "CH3": 1}, 0),
     ("n-propylcyclohexane", "n-Propylcyclohexane", ["propylcyclohexane"], "1678-92-8", "monocycloalkane", (9, 18, 0), {"rCH2": 5, "rCH": 1, "CH2": 2, "CH3": 1}, 0),
     ("n-butylcyclohexane", "n-Butylcyclohexane", ["butylcyclohexane"], "1678-93-9", "monocycloalkane", (10, 20, 0), {"rCH2": 5, "rCH": 1, "CH2": 3, "CH3": 1}, 0),
+    ("isopropylcyclohexane", "Isopropylcyclohexane", [], "696-29-7", "monocycloalkane", (9, 18, 0), {"rCH2": 5, "rCH": 1, "CH": 1, "CH3": 2}, 0),
+    ("n-pentylcyclohexane", "n-Pentylcyclohexane", ["pentylcyclohexane"], "4292-92-6", "monocycloalkane", (11, 22, 0), {"rCH2": 5, "rCH": 1, "CH2": 4, "CH3": 1}, 0),
+    ("n-hexylcyclohexane", "n-Hexylcyclohexane", ["hexylcyclohexane"], "4292-75-5", "monocycloalkane", (12, 24, 0), {"rCH2": 5, "rCH": 1, "CH2": 5, "CH3": 1}, 0),
+    ("n-decylcyclohexane", "n-Decylcyclohexane", ["decylcyclohexane"], "1795-16-0", "monocycloalkane", (16, 32, 0), {"rCH2": 5, "rCH": 1, "CH2": 9, "CH3": 1}, 0),
     ("cis-decalin", "cis-Decahydronaphthalene", ["cis-decahydronaphthalene"], "493-01-6", "dicycloalkane", (10, 18, 0), {"rCH2": 8, "rCH": 2}, 0),
     ("trans-decalin", "trans-Decahydronaphthalene", ["trans-decahydronaphthalene"], "493-02-7", "dicycloalkane", (10, 18, 0), {"rCH2": 8, "rCH": 2}, 0),
     ("toluene", "Toluene", ["methylbenzene"], "108-88-3", "alkylbenzene", (7, 8, 0), {"rCHa": 5, "rCa": 1, "CH3": 1}, 1),
@@ -108,9 +117,20 @@ COMPONENTS = [
     ("1-2-4-trimethylbenzene", "1,2,4-Trimethylbenzene", ["pseudocumene"], "95-63-6", "alkylbenzene", (9, 12, 0), {"rCHa": 3, "rCa": 3, "CH3": 3}, 1),
     ("1-3-5-trimethylbenzene", "1,3,5-Trimethylbenzene", ["mesitylene"], "108-67-8", "alkylbenzene", (9, 12, 0), {"rCHa": 3, "rCa": 3, "CH3": 3}, 1),
     ("n-butylbenzene", "n-Butylbenzene", ["butylbenzene"], "104-51-8", "alkylbenzene", (10, 14, 0), {"rCHa": 5, "rCa": 1, "CH2": 3, "CH3": 1}, 1),
+    ("1-2-3-trimethylbenzene", "1,2,3-Trimethylbenzene", ["hemimellitene"], "526-73-8", "alkylbenzene", (9, 12, 0), {"rCHa": 3, "rCa": 3, "CH3": 3}, 1),
+    ("p-cymene", "1-Isopropyl-4-methylbenzene", ["4-isopropyltoluene"], "99-87-6", "alkylbenzene", (10, 14, 0), {"rCHa": 4, "rCa": 2, "CH": 1, "CH3": 3}, 1),
+    ("1-2-3-4-tetramethylbenzene", "1,2,3,4-Tetramethylbenzene", ["prehnitene"], "488-23-3", "alkylbenzene", (10, 14, 0), {"rCHa": 2, "rCa": 4, "CH3": 4}, 1),
+    ("n-pentylbenzene", "n-Pentylbenzene", ["pentylbenzene"], "538-68-1", "alkylbenzene", (11, 16, 0), {"rCHa": 5, "rCa": 1, "CH2": 4, "CH3": 1}, 1),
+    ("n-hexylbenzene", "n-Hexylbenzene", ["hexylbenzene"], "1077-16-3", "alkylbenzene", (12, 18, 0), {"rCHa": 5, "rCa": 1, "CH2": 5, "CH3": 1}, 1),
+    ("n-heptylbenzene", "n-Heptylbenzene", ["heptylbenzene"], "1078-71-3", "alkylbenzene", (13, 20, 0), {"rCHa": 5, "rCa": 1, "CH2": 6, "CH3": 1}, 1),
+    ("n-octylbenzene", "n-Octylbenzene", ["octylbenzene"], "2189-60-8", "alkylbenzene", (14, 22, 0), {"rCHa": 5, "rCa": 1, "CH2": 7, "CH3": 1}, 1),
+    ("n-decylbenzene", "n-Decylbenzene", ["decylbenzene"], "104-72-3", "alkylbenzene", (16, 26, 0), {"rCHa": 5, "rCa": 1, "CH2": 9, "CH3": 1}, 1),
     ("tetralin", "1,2,3,4-Tetrahydronaphthalene", ["tetrahydronaphthalene"], "119-64-2", "cycloaromatic", (10, 12, 0), {"rCHa": 4, "rCa": 2, "rCH2": 4}, 1),
     ("naphthalene", "Naphthalene", [], "91-20-3", "diaromatic", (10, 8, 0), {"rCHa": 8, "rCa": 2}, 2),
     ("1-methylnaphthalene", "1-Methylnaphthalene", ["alpha-methylnaphthalene", "1-mn"], "90-12-0", "diaromatic", (11, 10, 0), {"rCHa": 7, "rCa": 3, "CH3": 1}, 2),
+    ("1-ethylnaphthalene", "1-Ethylnaphthalene", [], "1127-76-0", "diaromatic", (12, 12, 0), {"rCHa": 7, "rCa": 3, "CH2": 1, "CH3": 1}, 2),
+    ("1-3-dimethylnaphthalene", "1,3-Dimethylnaphthalene", [], "575-41-7", "diaromatic", (12, 12, 0), {"rCHa": 6, "rCa": 4, "CH3": 2}, 2),
+    ("1-6-dimethylnaphthalene", "1,6-Dimethylnaphthalene", [], "575-43-9", "diaromatic", (12, 12, 0), {"rCHa": 6, "rCa": 4, "CH3": 2}, 2),
     ("ethanol", "Ethanol", ["ethyl-alcohol"], "64-17-5", "oxygenate", (2, 6, 1), {"CH3": 1, "CH2": 1, "OH": 1}, 0),
 ]
 
@@ -231,6 +251,9 @@ def tables():
     L("jobpred", "Misc/joback_predictions.tsv")
     L("polinglj", "Viscosity/PolingLJ.tsv")
     L("costald", "Density/COSTALD Parameters.tsv")
+    L("vdirho", "Density/VDI PPDS Density of Saturated Liquids.tsv")
+    L("vdimu", "Viscosity/VDI PPDS Dynamic viscosity of saturated liquids polynomials.tsv")
+    L("cascc", "Misc/common_chemistry_data.tsv")
 
 
 def webbook(cas, key):
@@ -345,13 +368,74 @@ def vapor_pressure(cas):
     return cs("ambrose-walton")
 
 
-def liquid_density(cas):
+# Published single measurements (papers read in this session; the numbers are quoted in the abstracts):
+# CAS -> list of (T/K, density kg/m3, dynamic viscosity mPa s or None, source id).
+LITERATURE_POINTS = {
+    # Luning Prak, Jones, Cowart, Trulove, J. Chem. Eng. Data 60 (2015): pure-component values at 293.15 K
+    "4390-04-9": [(293.15, 784.48, 3.71, "luning-prak-2015")],
+    "13475-82-6": [(293.15, 745.21, 1.31, "luning-prak-2015")],
+}
+
+
+def crc_density(cas):
+    """CRC density with its temperature. chemicals 1.5.2 stores the CRC entry d(t) in g/cm3 at t degC as
+    1000 d + t/1000 (e.g. 875.82 = 0.8758 g/cm3 at 20 degC; 862.325 = 0.8623 at 25 degC). Checked against
+    CoolProp 8.0 for 14 fluids (agreement within 0.2 % at the decoded temperature except n-hexane)."""
+    v = first(T["crcphys"], cas, "rho")
+    if not v:
+        return None
+    rho = round(v, 1)
+    t_c = round((v - rho) * 1000)
+    if not 0 <= t_c <= 40:
+        return None
+    return 273.15 + t_c, rho
+
+
+def common_chemistry_density(cas, M):
+    """Liquid density from the molar volume carried for CAS Common Chemistry (experimental property page);
+    chemicals 1.5.2 does not carry the temperature."""
+    v = first(T["cascc"], cas.replace("-", ""), "Vml")
+    return M / v if v else None
+
+
+def rackett_anchored(T0, rho0, M, Tc, Pc, Tm, source, how):
+    """Rackett form with Z_RA fitted to one measured density: rho = (Pc/(R Tc)) / Z^(1 + (1 - T/Tc)^(2/7)),
+    written as DIPPR 105 (A = Pc/(R Tc) in kmol/m3, B = Z_RA, C = Tc, D = 2/7)."""
+    A = Pc / (R * Tc) / 1000.0
+    rho_m = rho0 / M / 1000.0  # kmol/m3
+    expo = 1.0 + (1.0 - T0 / Tc) ** (2.0 / 7.0)
+    Z = math.exp(math.log(A / rho_m) / expo)
+    return sec("dippr105", [float(f"{A:.8g}"), float(f"{Z:.8g}"), Tc, float(f"{2/7:.10g}")], "kmol/m3", Tm, Tc, source,
+               uncertainty=0.01,
+               note=f"Rackett equation with Z_RA = {Z:.5f} fitted to the measured density {rho0} kg/m3 at {T0:.2f} K ({how}); "
+                    f"A = Pc/(R Tc) from the critical constants of this file; temperature dependence from the Rackett form "
+                    f"(hold-out error in validation/README.md)")
+
+
+def liquid_density(cas, k):
     p = perry("p105", cas, 4)
     if p:
         c1 = T["p105"][cas][0]["C1"]
         c = [float(Decimal(c1) / 1000)] + p[0][1:]
         return sec("dippr105", c, "kmol/m3", p[1], p[2], "perry8-table-2-32",
                    note=f"chemicals carries C1 = {c1} (mol/m3 basis); restored to the printed kmol/m3 value C1/1000")
+    r = first(T["vdirho"], cas, "Tc", "rhoc", "A", "B", "C", "D")
+    if r:
+        tc, rhoc, A, B, C, D = r
+        return sec("ppds-density", [rhoc, A, B, C, D], "kg/m3", k["Tm"], tc, "vdi-heat-atlas-ppds", tc=tc,
+                   note="VDI Heat Atlas PPDS saturated-liquid density, rho = rhoc + A tau^0.35 + B tau^(2/3) + C tau + D tau^(4/3), "
+                        "tau = 1 - T/Tc (Tc of the VDI table); t-min set to the melting point")
+    M, Tc, Pc = k["M"], k["Tc"], k["Pc"]
+    for T0, rho0, _mu, src in LITERATURE_POINTS.get(cas, []):
+        return rackett_anchored(T0, rho0, M, Tc, Pc, k["Tm"], src, "published measurement")
+    crc = crc_density(cas)
+    if crc:
+        return rackett_anchored(crc[0], crc[1], M, Tc, Pc, k["Tm"], "crc95-physical-constants",
+                                "CRC Handbook, density column as decoded from chemicals 1.5.2")
+    rho = common_chemistry_density(cas, M)
+    if rho:
+        return rackett_anchored(293.15, round(rho, 1), M, Tc, Pc, k["Tm"], "cas-common-chemistry",
+                                "CAS Common Chemistry experimental density; the temperature is not carried by chemicals 1.5.2, 20 degC assumed")
     return cs("rackett")
 
 
@@ -381,19 +465,45 @@ def liquid_cp(cas, Tc):
     return cs("rowlinson-bondi")
 
 
-def liquid_viscosity(cas):
+def joback_viscosity_slope(groups):
+    """Joback & Reid (1987) liquid viscosity ln(mu) = ln(M) + (sum eta_a - 597.82)/T + sum eta_b - 11.202:
+    the 1/T slope sum eta_a - 597.82 [K] (increments as carried by thermo's Joback table)."""
+    ETA_A = {"CH3": 548.29, "CH2": 94.16, "CH": -322.15, "C": -573.56, "rCH2": 307.53, "rCH": -394.29,
+             "rCHa": 259.65, "rCa": -245.74}
+    if any(g not in ETA_A for g in groups):
+        return None
+    return sum(ETA_A[g] * n for g, n in groups.items()) - 597.82
+
+
+def liquid_viscosity(cas, comp=None, k=None):
     p = perry("p313", cas, 5)
     if p:
         c = p[0]
         while len(c) > 2 and c[-1] == 0:
             c.pop()
         return sec("dippr101", c, "Pa*s", p[1], p[2], "perry8-table-2-313")
+    r = first(T["vdimu"], cas, "A", "B", "C", "D", "E")
+    if r and k:
+        A, B, C, D, E = r
+        return sec("ppds-viscosity", [A, B, C, D, E], "Pa*s", k["Tm"], k["Tb"], "vdi-heat-atlas-ppds",
+                   note="VDI Heat Atlas PPDS equation 9, mu = E exp(A x^(1/3) + B x^(4/3)), x = (C - T)/(T - D); "
+                        "chemicals does not carry the validity range: t-min/t-max set to Tm..Tb here")
     for key, src in (("vn3", "viswanath-natarajan-1989"), ("dp3", "dutt-prasad-viswanath-2007")):
         r = first(T[key], cas, "A", "B", "C", "Tmin", "Tmax")
         if r:
             A, B, C, tmin, tmax = r
             return sec("vogel", [A, -B, -C], "mPa*s", tmin, tmax, src,
                        note=f"published as log10(mu/cP) = A + B/(C - T) with A = {A!r}, B = {B!r}, C = {C!r}; rewritten exactly as log10(mu/mPa s) = A + (-B)/(T + (-C))")
+    pts = [p for p in LITERATURE_POINTS.get(cas, []) if p[2]]
+    slope = joback_viscosity_slope(comp[6]) if comp else None
+    if pts and slope and k:
+        T0, _rho, mu0, src = pts[0]
+        A = math.log(mu0 * 1e-3) - slope / T0
+        return sec("dippr101", [float(f"{A:.8g}"), float(f"{slope:.6g}")], "Pa*s", k["Tm"], 0.7 * k["Tc"], src,
+                   uncertainty=0.15,
+                   note=f"Andrade form ln(mu/Pa s) = A + B/T through the measured {mu0} mPa s at {T0:.2f} K; the slope "
+                        f"B = {slope:.2f} K is the Joback & Reid (1987) group value (sum eta_a - 597.82); hold-out error of "
+                        f"this one-point method in validation/README.md")
     return cs("letsou-stiel")
 
 
@@ -517,18 +627,33 @@ CN_EXTRA = {
     "90-12-0": (0.0, "CN", "astm-d613", "former low reference fuel, CN = 0 by definition"),
     # recalled values / trend values (not confirmed against a compendium in this session)
     "111-65-9": (64.0, "CN", "from-memory", "recalled compendium-level value for n-octane; not re-confirmed"),
-    "111-84-2": (72.0, "CN", "from-memory", "recalled; n-alkane trend"),
+    "111-84-2": (72.0, "CN", "estimated:class-trend", "n-alkane trend between the neighbouring n-alkanes; not a measurement"),
     "124-18-5": (77.0, "CN", "from-memory", "recalled compendium-level value (CN 76-77; IQT DCN is lower, about 66)"),
-    "1120-21-4": (80.0, "CN", "from-memory", "recalled; n-alkane trend"),
+    "1120-21-4": (80.0, "CN", "estimated:class-trend", "n-alkane trend between the neighbouring n-alkanes; not a measurement"),
     "112-40-3": (82.0, "CN", "from-memory", "recalled compendium-level value (about 80-87); IQT DCN is lower, about 74"),
-    "629-59-4": (95.0, "CN", "from-memory", "recalled; n-alkane trend"),
+    "629-59-4": (95.0, "CN", "estimated:class-trend", "n-alkane trend between n-tridecane (90) and n-pentadecane (96, CombustDB); not a measurement"),
     "3891-98-3": (58.0, "DCN", "from-memory", "recalled DCN of farnesane (about 58-59)"),
-    "871-83-0": (66.0, "CN", "from-memory", "trend value for a 2-methyl alkane slightly below the n-alkane of the same carbon number; not a measurement"),
-    "13151-34-3": (68.0, "CN", "from-memory", "trend value; not a measurement"),
-    "7045-71-8": (72.0, "CN", "from-memory", "trend value; not a measurement"),
-    "1560-95-8": (82.0, "CN", "from-memory", "trend value; not a measurement"),
+    "871-83-0": (66.0, "CN", "estimated:class-trend", "trend value for a 2-methyl alkane slightly below the n-alkane of the same carbon number; not a measurement"),
+    "13151-34-3": (68.0, "CN", "estimated:class-trend", "trend value; not a measurement"),
+    "7045-71-8": (72.0, "CN", "estimated:class-trend", "trend value; not a measurement"),
+    "1560-95-8": (82.0, "CN", "estimated:class-trend", "trend value; not a measurement"),
+    "6975-98-0": (68.0, "CN", "estimated:class-trend", "trend value for a 2-methyl alkane slightly below the n-alkane of the same carbon number; not a measurement"),
+    "1002-43-3": (70.0, "CN", "estimated:class-trend", "trend value for a 3-methyl alkane below the n-alkane of the same carbon number; not a measurement"),
+    "1560-96-9": (78.0, "CN", "estimated:class-trend", "trend value for a 2-methyl alkane below the n-alkane of the same carbon number; not a measurement"),
+    "1921-70-6": (45.0, "DCN", "estimated:class-trend", "trend value for a multiply methyl-branched alkane (between 2,6-dimethyloctane 51.7 and farnesane); not a measurement"),
+    "696-29-7": (40.0, "CN", "estimated:class-trend", "trend value for a C9 alkylcyclohexane with a branched side chain, below n-propylcyclohexane (52, CombustDB); not a measurement"),
+    "4292-92-6": (55.0, "CN", "estimated:class-trend", "n-alkylcyclohexane trend (n-propyl 52, n-butyl 47.8 in CombustDB scatter); not a measurement"),
+    "4292-75-5": (58.0, "CN", "estimated:class-trend", "n-alkylcyclohexane trend; not a measurement"),
+    "1795-15-9": (65.0, "CN", "estimated:class-trend", "n-alkylcyclohexane trend; not a measurement"),
+    "1795-16-0": (70.0, "CN", "estimated:class-trend", "n-alkylcyclohexane trend; not a measurement"),
+    "99-87-6": (8.0, "CN", "estimated:class-trend", "C10 alkylbenzene trend (xylenes and trimethylbenzenes 6-10 in the vom Lehn compilation); not a measurement"),
+    "488-23-3": (10.0, "CN", "estimated:class-trend", "C10 polymethylbenzene trend (trimethylbenzenes 8-10); not a measurement"),
+    "104-72-3": (45.0, "CN", "estimated:class-trend", "n-alkylbenzene trend (n-hexyl 26, n-heptyl 35, n-octyl 37.5 in CombustDB); not a measurement"),
+    "1127-76-0": (5.0, "CN", "estimated:class-trend", "alkylnaphthalene trend (1-methylnaphthalene 0 by definition); not a measurement"),
+    "575-41-7": (5.0, "CN", "estimated:class-trend", "alkylnaphthalene trend (1-methylnaphthalene 0 by definition); not a measurement"),
+    "575-43-9": (5.0, "CN", "estimated:class-trend", "alkylnaphthalene trend (1-methylnaphthalene 0 by definition); not a measurement"),
     "493-01-6": (42.0, "CN", "from-memory", "recalled (cis-decalin about 41-46)"),
-    "91-20-3": (0.0, "CN", "from-memory", "naphthalene: no usable measurement (solid); assigned the 1-methylnaphthalene low-reference value"),
+    "91-20-3": (0.0, "CN", "estimated:class-trend", "naphthalene: no usable measurement (solid); assigned the 1-methylnaphthalene low-reference value"),
     "64-17-5": (8.0, "CN", "from-memory", "recalled (ethanol CN about 5-8)"),
 }
 
@@ -650,6 +775,10 @@ def constants(comp, vp_sec, lh_sec):
         for key, col, src in (("atctg", "Hfg", "atct-1-112"), ("crcstd", "Hfg", "crc95-standard-thermo"),
                               ("api", "Hfg", "api-tdb-albahri"), ("yawshf", "Hfg", "yaws-2014")):
             v = first(T[key], cas, col)
+            if v is not None and abs(v - jb["Hf"]) > 60e3:
+                # a compilation entry far from the group estimate is a transcription error in that table
+                # (e.g. API TDB/Albahri n-octylbenzene +538.81 kJ/mol); try the next compilation
+                continue
             if v is not None:
                 hv, hvsrc = hvap298()
                 hfl, hsrc, how = v - hv, src, f"gas enthalpy of formation {v/1e3:.2f} kJ/mol minus enthalpy of vaporisation {hv/1e3:.2f} kJ/mol ({hvsrc})"
@@ -848,10 +977,10 @@ def main():
         consts, k = constants(comp, vp, lh)
         secs = {
             "vapor-pressure": vp,
-            "liquid-density": liquid_density(cas),
+            "liquid-density": liquid_density(cas, k),
             "latent-heat": lh,
             "liquid-heat-capacity": liquid_cp(cas, k["Tc"]),
-            "liquid-viscosity": liquid_viscosity(cas),
+            "liquid-viscosity": liquid_viscosity(cas, comp, k),
             "liquid-conductivity": liquid_conductivity(cas, k["Tm"], k["Tb"]),
             "surface-tension": surface_tension(cas),
             "ideal-gas-heat-capacity": ideal_gas_cp(cas, comp, args.igcp),

@@ -56,6 +56,7 @@ const COOLPROP_FLUIDS: [(&str, &str, &str); 14] = [
 const HANDBOOK_CONSTANTS: &str = include_str!("../../validation/handbook/constants.csv");
 const BINARY_BUBBLE: &str = include_str!("../../validation/coolprop/binary_bubble.csv");
 const CANTERA_DIFFUSION: &str = include_str!("../../validation/cantera/diffusion.csv");
+const DENSITY_VISCOSITY: &str = include_str!("../../validation/handbook/density_viscosity.csv");
 
 // ---------------------------------------------------------------------------------------------------------
 // Tolerances
@@ -87,6 +88,12 @@ pub const TOL_VAPOR_CONDUCTIVITY: f64 = 0.15;
 /// Fuller diffusion coefficients against Chapman–Enskog: 10 %. Fuller et al.'s published average error is
 /// about 5–10 % (Poling, Prausnitz & O'Connell 2001, Table 11-2 — from memory, not confirmed here).
 pub const TOL_DIFFUSION: f64 = 0.10;
+/// Liquid density at 15 °C against a data-backed reference other than the coefficient source: 1.0 % (issue).
+pub const TOL_DENSITY_15C: f64 = 0.010;
+/// Handbook or paper liquid density at 20–25 °C (the temperature of the measurement): 1.5 % (issue).
+pub const TOL_HANDBOOK_DENSITY: f64 = 0.015;
+/// Kinematic viscosity at −20 °C (and at the temperature of a paper's single measurement): 12 % (issue).
+pub const TOL_KINEMATIC_VISCOSITY: f64 = 0.12;
 /// Bubble point of the n-heptane/n-decane binary against the hand calculation: 1 K (issue).
 pub const TOL_BUBBLE_POINT_K: f64 = 1.0;
 /// Raoult surface-equilibrium worked check: 3 % (our p_sat correlations are not the reference EOS).
@@ -97,6 +104,7 @@ pub const TOL_IDENTITY: f64 = 1e-12;
 const GROUP_COOLPROP: &str = "pure-component properties vs reference EOS";
 const GROUP_HANDBOOK: &str = "pure-component constants vs handbooks";
 const GROUP_MIXTURE: &str = "mixture rules";
+const GROUP_DATA: &str = "pure-component density and viscosity vs measured data";
 
 // ---------------------------------------------------------------------------------------------------------
 // Known failures
@@ -534,6 +542,86 @@ pub fn handbook_checks() -> Vec<CheckResult> {
     out
 }
 
+/// Liquid density at 15 °C, handbook/paper density at 20–25 °C and kinematic viscosity at −20 °C of every
+/// component that a data-backed reference in validation/handbook/density_viscosity.csv covers (CoolProp 8.0,
+/// VDI Heat Atlas PPDS, Perry Table 2-32/2-313, Viswanath & Natarajan, Dutt–Prasad, CRC Handbook, papers).
+/// A reference whose source id equals the component's own coefficient source is never used; the first
+/// remaining asserted reference is judged, the others are quoted in the check text. Components with no
+/// independent reference produce no check (listed in validation/README.md).
+pub fn density_viscosity_checks() -> Vec<CheckResult> {
+    let lib = match library() {
+        Ok(l) => l,
+        Err(e) => return vec![failed(GROUP_DATA, "load the embedded component library".into(), "mixtures/", e)],
+    };
+    let table = Table::parse(DENSITY_VISCOSITY);
+    let col = |n: &str| table.column(n);
+    let mut keys: Vec<(String, String, u64)> = vec![];
+    for row in &table.rows {
+        let t = table.number(row, col("temperature_K")).unwrap_or(0.0);
+        let key = (table.text(row, col("id")).to_string(), table.text(row, col("property")).to_string(), (t * 100.0).round() as u64);
+        if !keys.contains(&key) {
+            keys.push(key);
+        }
+    }
+    let mut out = vec![];
+    for (id, property, t_centi) in keys {
+        let t = t_centi as f64 / 100.0;
+        let Some(c) = lib.component(&id) else {
+            out.push(failed(GROUP_DATA, format!("{id}: component present in the library"), "validation/handbook/density_viscosity.csv", "missing from the library".into()));
+            continue;
+        };
+        let rows: Vec<&Vec<String>> = table
+            .rows
+            .iter()
+            .filter(|r| table.text(r, col("id")) == id && table.text(r, col("property")) == property && table.number(r, col("temperature_K")).is_some_and(|x| (x * 100.0).round() as u64 == t_centi))
+            .collect();
+        let own = if property == "density" { &c.liquid_density.source } else { &c.liquid_viscosity.source };
+        if property == "viscosity" && t <= c.constants.melting_point.value {
+            continue; // liquid phase only
+        }
+        let library_value = |rho_ref: Option<f64>| -> (f64, f64) {
+            // (library, reference scale): density as is; viscosity as kinematic ν = μ/ρ
+            if property == "density" {
+                (c.liquid_density(t), 1.0)
+            } else {
+                (c.liquid_viscosity(t) / c.liquid_density(t), 1.0 / rho_ref.unwrap_or_else(|| c.liquid_density(t)))
+            }
+        };
+        let mut judged: Option<(f64, f64, String, String)> = None;
+        let mut also = vec![];
+        for r in &rows {
+            let src_id = table.text(r, col("source_id"));
+            let Some(v) = table.number(r, col("value")) else { continue };
+            let rho_ref = table.number(r, col("reference_density_kg_m3"));
+            let (lib_v, scale) = library_value(rho_ref);
+            let reference = v * scale;
+            let e = relative_error(lib_v, reference);
+            if src_id == own.as_str() {
+                also.push(format!("{src_id} {:+.2} % (coefficient source, not judged)", 100.0 * (lib_v / reference - 1.0)));
+            } else if judged.is_none() && table.text(r, col("asserted")) == "1" {
+                judged = Some((e, reference, src_id.to_string(), table.text(r, col("source")).to_string()));
+            } else {
+                also.push(format!("{src_id} {:+.2} %", 100.0 * (lib_v / reference - 1.0)));
+            }
+        }
+        let Some((error, reference, src_id, source)) = judged else { continue };
+        let (lib_v, _) = library_value(None);
+        let (label, key, tol, unit, shown) = match (property.as_str(), t_centi) {
+            ("density", 28815) => ("liquid density at 15 °C", "density-15C", TOL_DENSITY_15C, "kg/m³", 1.0),
+            ("density", _) => ("handbook liquid density", "handbook-density-20C", TOL_HANDBOOK_DENSITY, "kg/m³", 1.0),
+            _ => ("kinematic viscosity", "kinematic-viscosity", TOL_KINEMATIC_VISCOSITY, "mm²/s", 1e6),
+        };
+        let also = if also.is_empty() { String::new() } else { format!("; other references: {}", also.join(", ")) };
+        let check = format!(
+            "{id} {label} at {t:.2} K: library {} vs {} {unit} (coefficients: {own}; reference: {src_id}){also}",
+            fmt_sig(lib_v * shown),
+            fmt_sig(reference * shown)
+        );
+        out.push(mark_known(CheckResult::relative(GROUP_DATA, check, &source, error, tol), &id, key));
+    }
+    out
+}
+
 /// One handbook value to compare: file key, label, reference and tolerance from the table (SI), library
 /// value (SI), display unit and the factor from SI to it, source text.
 struct HandbookItem {
@@ -867,6 +955,7 @@ fn identity(check: String, source: &str, error: f64) -> CheckResult {
 pub fn all() -> Vec<CheckResult> {
     let mut v = coolprop_checks();
     v.extend(handbook_checks());
+    v.extend(density_viscosity_checks());
     v.extend(mixture_checks());
     v
 }

@@ -362,7 +362,7 @@ pub const DEMO_CONDITIONS: [(&str, &str, &str, &str, &str, &str, &str, &str); 2]
 ];
 
 /// Demo fuels.
-pub const DEMO_FUELS: [&str; 3] = ["demo-narrow", "demo-wide", "demo-blend"];
+pub const DEMO_FUELS: [&str; 4] = ["demo-narrow", "demo-wide", "demo-blend", "demo-paraffinic"];
 
 fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
     out_dir(out)?;

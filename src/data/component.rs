@@ -259,6 +259,13 @@ pub const DEFAULT_UNCERTAINTY: [(&str, f64, f64); 10] = [
     ("vapor-conductivity", 0.05, 0.15),
 ];
 
+/// Physical bounds of a liquid fuel component's density near 15 °C [kg/m³] (n-pentane about 630, polycyclic
+/// aromatics about 1100; common practice, with margin).
+pub const ANCHOR_DENSITY: (f64, f64) = (500.0, 1300.0);
+/// Physical bounds of a liquid fuel component's dynamic viscosity near 15 °C [Pa s] (light alkanes about
+/// 2e-4, heavy multi-ring liquids about 1e-1; common practice, with margin).
+pub const ANCHOR_VISCOSITY: (f64, f64) = (1e-4, 1.0);
+
 /// Broad plausible ranges of each property at the normal boiling point (SI), for load-time checks of
 /// user files: (section, low, high, unit). The vapour pressure there is 1 atm within a factor of two.
 pub const PLAUSIBLE_AT_BOILING: [(&str, f64, f64, &str); 10] = [
@@ -420,6 +427,7 @@ impl Component {
             property_scales: [1.0; 10],
         };
         component.check_plausible(&ctx)?;
+        component.check_anchors(&ctx)?;
         Ok(component)
     }
 
@@ -493,6 +501,40 @@ impl Component {
                 });
             }
             previous = v;
+        }
+        Ok(())
+    }
+
+    /// The near-ambient anchors of a fuel component: liquid density and viscosity at 15 °C (held inside the
+    /// liquid range, melting to boiling point) and a stated `density-15C` must lie inside physical bounds for
+    /// liquid fuel molecules (density 500–1300 kg/m³, viscosity 1e-4–1 Pa s), so a wrong anchor is refused
+    /// at load naming the file, the field and the value. Constant and estimated forms are not judged here.
+    fn check_anchors(&self, ctx: &str) -> Result<(), DataError> {
+        let (tm, tb) = (self.constants.melting_point.value, self.normal_boiling_point());
+        let t = 288.15_f64.clamp(tm, tb);
+        let out_of = |field: &str, v: f64, unit: &str, lo: f64, hi: f64| DataError::Invalid {
+            context: format!("{ctx}: {field}"),
+            message: format!("gives {} {unit} at {t:.2} K, outside the physical {}–{} {unit} of a liquid fuel component (check the anchor value and its unit)", short(v), short(lo), short(hi)),
+        };
+        for (key, corr, lo, hi, unit) in [
+            ("[liquid-density]", &self.liquid_density, ANCHOR_DENSITY.0, ANCHOR_DENSITY.1, "kg/m3"),
+            ("[liquid-viscosity]", &self.liquid_viscosity, ANCHOR_VISCOSITY.0, ANCHOR_VISCOSITY.1, "Pa s"),
+        ] {
+            if matches!(corr.form, super::correlation::Form::CorrespondingStates | super::correlation::Form::Constant(_)) {
+                continue;
+            }
+            let v = corr.eval(t);
+            if !(v.is_finite() && (lo..=hi).contains(&v)) {
+                return Err(out_of(key, v, unit, lo, hi));
+            }
+        }
+        if let Some(d) = &self.constants.density_15c {
+            if !(ANCHOR_DENSITY.0..=ANCHOR_DENSITY.1).contains(&d.value) {
+                return Err(DataError::Invalid {
+                    context: format!("{ctx}: constants.density-15C"),
+                    message: format!("{} kg/m3 is outside the physical {}–{} kg/m3 of a liquid fuel component (the unit is kg/m3)", short(d.value), ANCHOR_DENSITY.0, ANCHOR_DENSITY.1),
+                });
+            }
         }
         Ok(())
     }

@@ -65,6 +65,16 @@ pub enum Form {
         /// Switch temperature [K].
         t_mid: f64,
     },
+    /// VDI Heat Atlas (PPDS) saturated-liquid density: y = ρc + A τ^0.35 + B τ^(2/3) + C τ + D τ^(4/3),
+    /// τ = 1 − T/Tc; coefficients [ρc, A, B, C, D] in the correlation's unit.
+    PpdsDensity {
+        /// Coefficients ρc, A, B, C, D.
+        c: [f64; 5],
+        /// Critical temperature [K].
+        tc: f64,
+    },
+    /// VDI Heat Atlas (PPDS equation 9) liquid viscosity: y = E exp[A x^(1/3) + B x^(4/3)], x = (C − T)/(T − D).
+    Ppds9([f64; 5]),
     /// Estimated from the constants by the default corresponding-states method of the property.
     CorrespondingStates,
 }
@@ -211,6 +221,19 @@ impl RawCorrelation {
             "dippr107" => Form::Dippr107(coeffs(&c, 5, "dippr107").map_err(bad)?),
             "dippr114" => Form::Dippr114 { c: coeffs(&c, 4, "dippr114").map_err(bad)?, tc: need_tc("dippr114")? },
             "antoine" => Form::Antoine(coeffs(&c, 3, "antoine").map_err(bad)?),
+            "ppds-density" => {
+                if c.len() != 5 {
+                    return Err(bad(format!("ppds-density takes 5 coefficients [rhoc, A, B, C, D], found {}", c.len())));
+                }
+                Form::PpdsDensity { c: coeffs(&c, 5, "ppds-density").map_err(bad)?, tc: need_tc("ppds-density")? }
+            }
+            "ppds-viscosity" => {
+                let k: [f64; 5] = coeffs(&c, 5, "ppds-viscosity").map_err(bad)?;
+                if !(k[4] > 0.0 && k[2] > k[3]) {
+                    return Err(bad(format!("ppds-viscosity needs E > 0 and C > D (coefficients [A, B, C, D, E]), found E = {}, C = {}, D = {}", k[4], k[2], k[3])));
+                }
+                Form::Ppds9(k)
+            }
             "vogel" => Form::Vogel(coeffs(&c, 3, "vogel").map_err(bad)?),
             "wagner" => {
                 let pc = match self.pc {
@@ -249,7 +272,7 @@ impl RawCorrelation {
             }
             other => {
                 return Err(bad(format!(
-                    "unknown model '{other}' (known: constant, dippr100, dippr101, dippr102, dippr105, dippr106, dippr107, dippr114, antoine, wagner, vogel, mulero-cachadina, nasa7, corresponding-states)"
+                    "unknown model '{other}' (known: constant, dippr100, dippr101, dippr102, dippr105, dippr106, dippr107, dippr114, antoine, wagner, vogel, mulero-cachadina, nasa7, ppds-density, ppds-viscosity, corresponding-states)"
                 )))
             }
         };
@@ -346,6 +369,18 @@ impl Form {
                 let a = if t < *t_mid { low } else { high };
                 a[0] + t * (a[1] + t * (a[2] + t * (a[3] + t * a[4])))
             }
+            Form::PpdsDensity { c, tc } => {
+                let tau = (1.0 - t / tc).max(0.0);
+                let cbrt = tau.cbrt();
+                c[0] + c[1] * tau.powf(0.35) + c[2] * cbrt * cbrt + tau * (c[3] + c[4] * cbrt)
+            }
+            Form::Ppds9(c) => {
+                // x = (C − T)/(T − D); held 5 K above the pole at T = D, as the VDI Heat Atlas advises
+                let t = t.max(c[3] + 5.0);
+                let x = (c[2] - t) / (t - c[3]);
+                let x13 = x.cbrt();
+                c[4] * (c[0] * x13 + c[1] * x * x13).exp()
+            }
             Form::CorrespondingStates => f64::NAN,
         }
     }
@@ -403,5 +438,53 @@ mod tests {
         assert_eq!(unit_factor("kmol/m3", Dimension::Density, w), Some(100.0));
         assert!((unit_factor("J/kmol", Dimension::SpecificEnergy, w).unwrap() - 0.01).abs() < 1e-15);
         assert!(unit_factor("kg/m3", Dimension::Pressure, w).is_none());
+    }
+
+    /// PPDS equation 9 against the worked example in the `chemicals` 1.5.2 documentation
+    /// (`chemicals.viscosity.PPDS9(400.0, 1.74793, 1.33728, 482.347, 41.78, 9.963e-05)` = 3.5091137378e-4 Pa s).
+    #[test]
+    fn ppds9_viscosity_worked_example() {
+        let f = Form::Ppds9([1.74793, 1.33728, 482.347, 41.78, 9.963e-05]);
+        let v = f.eval(400.0, 0.0, 1e4);
+        assert!((v / 3.5091137378230684e-4 - 1.0).abs() < 1e-12, "{v}");
+        // held 5 K above the pole at T = D: finite and equal to the value at D + 5 K
+        assert_eq!(f.eval(41.0, 0.0, 1e4), f.eval(46.78, 0.0, 1e4));
+    }
+
+    /// VDI PPDS saturated-liquid density of 1-methylnaphthalene (VDI Heat Atlas row as carried by `chemicals`
+    /// 1.5.2: Tc 772 K, ρc 306, A..D 731.0545, −216.5763, 499.7559, −106.6647 kg/m³) against
+    /// `chemicals.volume.volume_VDI_PPDS` at 293.15 K (molar volume 1.3933506e-4 m³/mol, M = 142.2 g/mol →
+    /// 1020.5615 kg/m³), and ρ → ρc at Tc.
+    #[test]
+    fn ppds_density_against_chemicals() {
+        let f = Form::PpdsDensity { c: [306.0, 731.0545, -216.5763, 499.7559, -106.6647], tc: 772.0 };
+        let v = f.eval(293.15, 0.0, 1e4);
+        assert!((v - 1020.5615).abs() < 2e-3, "{v}");
+        assert_eq!(f.eval(772.0, 0.0, 1e4), 306.0);
+        assert_eq!(f.eval(900.0, 0.0, 1e4), 306.0);
+    }
+
+    #[test]
+    fn ppds_forms_refuse_bad_coefficients() {
+        let raw = |model: &str, c: Vec<f64>, tc: Option<f64>| RawCorrelation {
+            model: model.into(),
+            coefficients: Some(c),
+            coefficients_low: None,
+            coefficients_high: None,
+            t_mid: None,
+            unit: Some("kg/m3".into()),
+            t_min: None,
+            t_max: None,
+            tc,
+            pc: None,
+            source: "x".into(),
+            uncertainty: None,
+            note: None,
+        };
+        assert!(raw("ppds-density", vec![1.0, 2.0, 3.0, 4.0], Some(500.0)).build(Dimension::Density, 0.1, 0.01, "f").is_err());
+        assert!(raw("ppds-density", vec![1.0, 2.0, 3.0, 4.0, 5.0], None).build(Dimension::Density, 0.1, 0.01, "f").is_err());
+        let mut v = raw("ppds-viscosity", vec![1.0, 1.0, 100.0, 200.0, 1e-4], None);
+        v.unit = Some("Pa*s".into());
+        assert!(v.build(Dimension::Viscosity, 0.1, 0.01, "f").is_err());
     }
 }

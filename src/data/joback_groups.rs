@@ -1,6 +1,6 @@
 //! The Joback & Reid (1987) group-increment table (data); the estimation formulas are in props::joback.
 //! Tc, Pc, Vc, Tb and cp increments as reprinted in Poling, Prausnitz & O'Connell, 5th ed. (2001), Table C-1;
-//! liquid-viscosity increments recalled (from memory) and checked against published correlations in src/checks.
+//! liquid-viscosity increments as in the Joback table carried by thermo 0.6.1 (mua/mub), checked against published correlations in src/checks.
 
 /// One Joback group's increments.
 #[derive(Debug, Clone, Copy, PartialEq)]

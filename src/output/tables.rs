@@ -296,6 +296,8 @@ pub fn form_description(form: &Form) -> (&'static str, Vec<f64>, Option<f64>) {
         Form::Vogel(c) => ("vogel", c.to_vec(), None),
         Form::MuleroCachadina { terms, tc } => ("mulero-cachadina", terms.iter().flat_map(|(a, b)| [*a, *b]).collect(), Some(*tc)),
         Form::Nasa7 { low, .. } => ("nasa7", low.to_vec(), None),
+        Form::PpdsDensity { c, tc } => ("ppds-density", c.to_vec(), Some(*tc)),
+        Form::Ppds9(c) => ("ppds-viscosity", c.to_vec(), None),
         Form::CorrespondingStates => ("corresponding-states", vec![], None),
     }
 }

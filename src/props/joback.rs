@@ -4,7 +4,7 @@
 //!
 //! Sources: Tc, Pc, Vc, Tb and cp increments as reprinted in Poling, Prausnitz & O'Connell, The Properties of
 //! Gases and Liquids, 5th ed. (2001), Table C-1. The liquid-viscosity increments (η_a, η_b) are Joback &
-//! Reid's; they were recalled (from memory) and are checked in src/checks against published viscosity
+//! Reid's, identical to the Joback table carried by thermo 0.6.1 (group_contribution/joback.py, mua/mub), and are checked in src/checks against published viscosity
 //! correlations of the library (alkanes and alkylbenzenes within about 20 % at 250–350 K; fused rings are
 //! under-predicted by up to a factor of 3, a known weakness of the method).
 

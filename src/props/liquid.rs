@@ -5,6 +5,8 @@ use std::sync::Arc;
 
 use crate::data::Component;
 
+use super::activity::Activity;
+
 use super::PropertyError;
 
 /// Mass fractions → mole fractions.
@@ -180,6 +182,34 @@ pub fn dew_point(components: &[Arc<Component>], y: &[f64], p: f64) -> Result<f64
         1e-9,
     )
     .ok_or(PropertyError::NoSolution { what: "dew point", pressure: p })
+}
+
+/// Bubble-point temperature at pressure `p` with activity coefficients: Σ x_i γ_i(x, T) p_sat,i(T) = p [K]
+/// (the ideal `activity` gives [`bubble_point`]). No allocation.
+pub fn bubble_point_with(components: &[Arc<Component>], activity: &mut Activity, x: &[f64], p: f64) -> Result<f64, PropertyError> {
+    if activity.is_ideal() {
+        return bubble_point(components, x, p);
+    }
+    if !(p.is_finite() && p > 0.0) {
+        return Err(PropertyError::Invalid { what: "pressure", value: p });
+    }
+    let hi = search_ceiling(components);
+    solve_increasing(|t| (activity.bubble_pressure(components, x, t) / p).ln(), 20.0, hi, 1e-9)
+        .ok_or(PropertyError::NoSolution { what: "bubble point", pressure: p })
+}
+
+/// Dew-point temperature at pressure `p` for vapour mole fractions `y` with activity coefficients of the
+/// equilibrium liquid: Σ y_i p/(γ_i p_sat,i(T)) = 1 [K] (the ideal `activity` gives [`dew_point`]).
+pub fn dew_point_with(components: &[Arc<Component>], activity: &mut Activity, y: &[f64], p: f64) -> Result<f64, PropertyError> {
+    if activity.is_ideal() {
+        return dew_point(components, y, p);
+    }
+    if !(p.is_finite() && p > 0.0) {
+        return Err(PropertyError::Invalid { what: "pressure", value: p });
+    }
+    let hi = search_ceiling(components);
+    solve_increasing(|t| -activity.dew_sum(components, y, p, t).ln(), 20.0, hi, 1e-9)
+        .ok_or(PropertyError::NoSolution { what: "dew point", pressure: p })
 }
 
 /// Mixture pseudo-critical temperature by Kay's rule Σ x_i T_c,i [K].

@@ -321,6 +321,7 @@ impl SurrogateBasis {
             class: comps[main].class,
             formula: Formula { carbon: atoms(&|f| f.carbon), hydrogen: atoms(&|f| f.hydrogen), oxygen: atoms(&|f| f.oxygen) },
             joback_groups: vec![],
+            unifac_groups: vec![],
             constants: Constants {
                 molar_mass: sourced(molar_mass, "mean molar mass of the initial liquid"),
                 normal_boiling_point: sourced(tb, "where the fitted vapour-pressure curve reaches 1 atm"),

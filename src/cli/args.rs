@@ -283,6 +283,28 @@ pub struct ConditionArgs {
     /// Fibre stems leaving the droplet: 1 (fibre ends inside) or 2 (fibre passes through).
     #[arg(long, allow_hyphen_values = true, default_value = "1")]
     pub fibre_stems: String,
+    /// Liquid activity coefficients at the surface: ideal (Raoult's law) or unifac (original UNIFAC).
+    #[arg(long, value_enum, default_value = "ideal")]
+    pub activity: ActivityArg,
+}
+
+/// Liquid activity model.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum ActivityArg {
+    /// Ideal solution: Raoult's law.
+    Ideal,
+    /// Original UNIFAC (Hansen et al. 1991 / Wittig et al. 2003 published parameters).
+    Unifac,
+}
+
+impl ActivityArg {
+    /// The model this option selects.
+    pub fn model(self) -> crate::props::activity::ActivityModel {
+        match self {
+            ActivityArg::Ideal => crate::props::activity::ActivityModel::Ideal,
+            ActivityArg::Unifac => crate::props::activity::ActivityModel::Unifac,
+        }
+    }
 }
 
 /// Liquid species mixing.
@@ -447,7 +469,7 @@ pub struct CompareArgs {
     pub condition: ConditionArgs,
     /// Run at several values of one condition option, e.g. ambient-temperature=500K,800K
     /// (ambient-temperature, pressure, diameter, droplet-temperature, velocity, correlation, max-time,
-    /// liquid-mixing, liquid-heat, nodes; gas=air;n2 with ';' between gases).
+    /// liquid-mixing, liquid-heat, nodes, activity; gas=air;n2 with ';' between gases).
     #[arg(long, value_name = "OPTION=V1,V2,...")]
     pub vary: Option<String>,
     /// Output folder.

@@ -252,6 +252,7 @@ pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<Dr
         non_equilibrium: c.non_equilibrium,
         diffusivity_factor: factor("liquid-diffusivity-factor", &c.liquid_diffusivity_factor)?,
         conductivity_factor: factor("liquid-conductivity-factor", &c.liquid_conductivity_factor)?,
+        activity: c.activity.model(),
     };
     inp.extra_heat = extra_heat(c)?;
     Ok(inp)
@@ -377,6 +378,7 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
                 fibre_diameter: "none".into(),
                 fibre_conductivity: "1.4".into(),
                 fibre_stems: "1".into(),
+                activity: super::args::ActivityArg::Ideal,
             };
             let inp = droplet_inputs(lib, fuel, &cond)?;
             let mut rec = model::droplet::Recorder::default();

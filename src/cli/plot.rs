@@ -6,7 +6,7 @@ use std::path::Path;
 
 use clap::ValueEnum;
 
-use super::args::{CompareArgs, ConditionArgs, CorrelationArg, HeatArg, MixingArg};
+use super::args::{ActivityArg, CompareArgs, ConditionArgs, CorrelationArg, HeatArg, MixingArg};
 use super::commands::{droplet_inputs, notice, progress, stdout_write, write_droplet_residue};
 use super::CliError;
 use crate::data::Library;
@@ -18,7 +18,7 @@ use crate::output::read::SavedRun;
 use crate::output::{self, html};
 
 /// Condition options `--vary` accepts, with how their values are separated.
-const VARIABLE_OPTIONS: [&str; 11] = [
+const VARIABLE_OPTIONS: [&str; 12] = [
     "ambient-temperature",
     "pressure",
     "diameter",
@@ -30,6 +30,7 @@ const VARIABLE_OPTIONS: [&str; 11] = [
     "liquid-mixing",
     "liquid-heat",
     "nodes",
+    "activity",
 ];
 
 fn fill_classes(lib: &Library, run: &mut SavedRun) {
@@ -176,6 +177,9 @@ fn apply_vary(c: &ConditionArgs, option: &str, value: &str) -> Result<ConditionA
         "liquid-heat" => {
             c.liquid_heat = HeatArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary liquid-heat: '{value}' is not one of {}", HeatArg::value_variants().iter().filter_map(|v| v.to_possible_value()).map(|p| p.get_name().to_string()).collect::<Vec<_>>().join(", "))))?;
         }
+        "activity" => {
+            c.activity = ActivityArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary activity: '{value}' is not one of ideal, unifac")))?;
+        }
         "correlation" => {
             c.correlation = CorrelationArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary correlation: '{value}' is not one of clift, ranz-marshall")))?;
         }
@@ -203,6 +207,9 @@ fn describe_condition(c: &ConditionArgs, varied: Option<&str>) -> String {
     }
     if !is("velocity") {
         parts.push(format!("{} {} m/s", if c.injected { "injected at" } else { "slip" }, c.velocity.trim_end_matches("m/s")));
+    }
+    if !is("activity") && c.activity == ActivityArg::Unifac {
+        parts.push("UNIFAC liquid".into());
     }
     let mut s = parts.join(", ");
     if let Some(v) = varied {

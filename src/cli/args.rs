@@ -92,6 +92,10 @@ pub struct ResidueArgs {
     /// Also write the table as CSV to this file.
     #[arg(long)]
     pub out: Option<std::path::PathBuf>,
+    /// Liquid activity coefficients of the weathering, bubble point, distillation, vapour pressure and flash
+    /// point: ideal (Raoult's law) or unifac (original UNIFAC).
+    #[arg(long, value_enum, default_value = "ideal")]
+    pub activity: ActivityArg,
 }
 
 /// `fuel` subcommands.
@@ -107,6 +111,9 @@ pub enum FuelAction {
         /// Pressure for bubble and dew points (e.g. 1atm, 10bar).
         #[arg(long, default_value = "1atm", allow_hyphen_values = true)]
         pressure: String,
+        /// Liquid activity coefficients of the bubble and dew points and the vapour pressure: ideal or unifac.
+        #[arg(long, value_enum, default_value = "ideal")]
+        activity: ActivityArg,
         /// Print JSON.
         #[arg(long)]
         json: bool,
@@ -456,6 +463,10 @@ pub struct TableArgs {
     /// Leave the date out of the metadata (byte-identical reruns); SOURCE_DATE_EPOCH, if set, fixes the date instead.
     #[arg(long)]
     pub no_date: bool,
+    /// Liquid activity coefficients of the bubble point, bubble pressure, equilibrium vapour and weathered
+    /// residues: ideal (Raoult's law) or unifac (original UNIFAC); the surrogate is fitted to the ideal liquid.
+    #[arg(long, value_enum, default_value = "ideal")]
+    pub activity: ActivityArg,
 }
 
 /// `compare` arguments.

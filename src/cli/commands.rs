@@ -160,7 +160,7 @@ fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, activ
     let x = fuel.mole_fractions();
     let v = fuel.volume_fractions();
     let model = activity.model();
-    let mut act = crate::props::activity::Activity::new(model, &fuel.components).map_err(|e| CliError::input(format!("--activity {}: {e}", model.as_str())))?;
+    let mut act = crate::props::activity::Activity::new(model, &fuel.components).map_err(|e| CliError::input(format!("--activity {}: fuel {}: {e}", model.as_str(), fuel.origin)))?;
     let bubble = liquid::bubble_point_with(&fuel.components, &mut act, &x, p).map_err(|e| CliError::input(format!("--pressure {pressure}: {e}")))?;
     let dew = liquid::dew_point_with(&fuel.components, &mut act, &x, p).map_err(|e| CliError::input(format!("--pressure {pressure}: {e}")))?;
     let mut state = liquid::state(&fuel.components, &fuel.mass_fractions, t);
@@ -496,7 +496,7 @@ fn residue(lib: &Library, args: &ResidueArgs) -> Result<(), CliError> {
     }
     let opts = crate::post::IndicatorOptions { activity: args.activity.model(), ..Default::default() };
     if let Err(e) = crate::props::activity::Activity::new(opts.activity, &fuel.components) {
-        return Err(CliError::input(format!("--activity {}: {e}", opts.activity.as_str())));
+        return Err(CliError::input(format!("--activity {}: fuel {}: {e}", opts.activity.as_str(), fuel.origin)));
     }
     let residues = crate::post::weathering_residues(&fuel.components, &fuel.mass_fractions, t, &fractions, opts.activity).map_err(|e| CliError::input(e.to_string()))?;
     let rows = crate::post::residue_table(&fuel.components, &residues, &opts).map_err(|e| CliError::runtime(e.to_string()))?;

@@ -525,7 +525,7 @@ pub(crate) fn check_inputs(inp: &DropletInputs) -> Result<(), ModelError> {
         return bad("reference-weight", format!("{}", inp.reference_weight), "must lie between 0 and 1");
     }
     if let Err(e) = Activity::new(inp.liquid.activity, &inp.fuel.components) {
-        return bad("activity", inp.liquid.activity.as_str().to_string(), &e.to_string());
+        return bad("activity", inp.liquid.activity.as_str().to_string(), &format!("fuel {}: {e}", inp.fuel.origin));
     }
     if let Some(r) = inp.extra_heat.radiation {
         if let Some(t) = r.temperature {

@@ -113,11 +113,16 @@ impl Activity {
         if model == ActivityModel::Ideal || n < 2 {
             return Ok(out);
         }
-        let missing: Vec<&str> = components.iter().filter(|c| c.unifac_groups.is_empty()).map(|c| c.id.as_str()).collect();
+        let missing: Vec<&Arc<Component>> = components.iter().filter(|c| c.unifac_groups.is_empty()).collect();
         if let Some(first) = missing.first() {
-            let more = if missing.len() > 1 { format!(" (and {} more: {})", missing.len() - 1, missing[1..].join(", ")) } else { String::new() };
+            let more = if missing.len() > 1 {
+                format!(" (and {} more: {})", missing.len() - 1, missing[1..].iter().map(|c| c.id.as_str()).collect::<Vec<_>>().join(", "))
+            } else {
+                String::new()
+            };
             return Err(ActivityError(format!(
-                "component '{first}'{more} has no unifac-groups table, so UNIFAC activity coefficients cannot be computed; add the table to its component file (docs/component-format.md) or use --activity ideal"
+                "component '{}' ({}){more} has no unifac-groups table, so UNIFAC activity coefficients cannot be computed; add the table to its component file (docs/component-format.md) or use --activity ideal",
+                first.id, first.origin
             )));
         }
         let mut present: Vec<&'static Subgroup> = vec![];

@@ -434,6 +434,18 @@ impl SweepSpec {
             values.push(v);
         }
 
+        if let Values::List(models) = &values[ACTIVITY] {
+            for m in models {
+                if let Value::Choice(name) = m {
+                    let model = crate::props::activity::ActivityModel::parse(name).unwrap_or_default();
+                    for f in &fuels {
+                        if let Err(e) = crate::props::activity::Activity::new(model, &f.fuel.components) {
+                            return Err(ctx.err("conditions.activity", format!("{name} for fuel '{}': {e}", f.entry)));
+                        }
+                    }
+                }
+            }
+        }
         let groups = parse_zipped(&ctx, table.get("zipped"), &given, &values)?;
         let model = parse_model(&ctx, table.get("model"))?;
         let (histories, residue_indicators) = parse_output(&ctx, table.get("output"))?;

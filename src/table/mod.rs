@@ -482,7 +482,7 @@ pub struct MixtureTable {
 
 /// Build the mixture table of `fuel` at `opts.pressure` over the user or default range.
 pub fn mixture_table(label: &str, fuel: &Fuel, opts: &TableOptions) -> Result<MixtureTable, TableError> {
-    let mut activity = Activity::new(opts.activity, &fuel.components).map_err(|e| input("activity", opts.activity.as_str().into(), e.to_string()))?;
+    let mut activity = Activity::new(opts.activity, &fuel.components).map_err(|e| input("activity", opts.activity.as_str().into(), format!("fuel {}: {e}", fuel.origin)))?;
     let limits = range_limits(&fuel.components, &fuel.mass_fractions, opts.pressure, opts.activity);
     let grid = liquid_grid(&limits, opts.from, opts.to, opts.step)?;
     let rows = grid.temperatures.iter().map(|t| mixture_row(&fuel.components, &mut activity, &fuel.mass_fractions, &opts.gas, opts.pressure, *t, &limits)).collect();

@@ -358,6 +358,8 @@ mod tests {
         assert_eq!(apply_vary(&args.condition, "ambient-temperature", "500K").unwrap().ambient_temperature, "500K");
         assert_eq!(apply_vary(&args.condition, "gas", "n2").unwrap().gas, "n2");
         assert!(apply_vary(&args.condition, "liquid-heat", "warm").is_err());
+        assert_eq!(apply_vary(&args.condition, "activity", "unifac").unwrap().activity, ActivityArg::Unifac);
+        assert!(apply_vary(&args.condition, "activity", "raoult").is_err());
         assert!(apply_vary(&args.condition, "correlation", "ranz-marshall").is_ok());
     }
 

@@ -750,7 +750,7 @@ pub fn simulate(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunR
         let mut eq = inp.clone();
         eq.liquid.non_equilibrium = false;
         let reference = simulate(&eq, &mut NoHistory)?;
-        let mut res = simulate_model(inp, observer)?;
+        let mut res = activity_note(inp, simulate_model(inp, observer)?);
         if let (Some(a), Some(b)) = (res.outcome.lifetime, reference.outcome.lifetime) {
             let change = a / b - 1.0;
             let note = format!("non-equilibrium (Langmuir–Knudsen) surface changes the lifetime by {:+.2} % against the equilibrium surface", 100.0 * change);
@@ -762,7 +762,19 @@ pub fn simulate(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunR
         }
         return Ok(res);
     }
-    simulate_model(inp, observer)
+    simulate_model(inp, observer).map(|r| activity_note(inp, r))
+}
+
+/// With UNIFAC, say when the surface got hotter than the parameters' regression range (docs/property-methods.md).
+fn activity_note(inp: &DropletInputs, mut res: RunResult) -> RunResult {
+    let t_max = res.outcome.max_surface_temperature;
+    if inp.liquid.activity == ActivityModel::Unifac && t_max > crate::props::activity::UNIFAC_UPPER_TEMPERATURE {
+        res.outcome.regime_notes.push(format!(
+            "surface temperature reached {t_max:.1} K, above the about {:.0} K up to which the original-UNIFAC parameters were fitted: activity coefficients are extrapolated there",
+            crate::props::activity::UNIFAC_UPPER_TEMPERATURE
+        ));
+    }
+    res
 }
 
 fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {

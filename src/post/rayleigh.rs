@@ -360,6 +360,24 @@ mod tests {
         Library::embedded().unwrap()
     }
 
+    /// The UNIFAC path (RK4, γ re-evaluated at each stage) of two components with the same UNIFAC groups
+    /// (m- and p-xylene: γ = 1 identically) reproduces the closed-form Rayleigh equation at constant T.
+    #[test]
+    fn isothermal_unifac_path_matches_rayleigh_for_an_ideal_pair() {
+        let l = lib();
+        let comps = vec![l.component("m-xylene").unwrap().clone(), l.component("p-xylene").unwrap().clone()];
+        let t = 360.0;
+        let alpha = comps[0].vapor_pressure(t) / comps[1].vapor_pressure(t);
+        let fr = [0.1, 0.5, 0.9];
+        let (pts, evaluations) = integrate(&comps, &[0.5, 0.5], &[1.0, 1.0], PathMode::Isothermal(t), &fr, 0.02, crate::props::activity::ActivityModel::Unifac).unwrap();
+        assert!(evaluations > 0, "the RK4 path ran");
+        for p in &pts {
+            let remaining = 1.0 - p.evaporated_fraction;
+            let (n1, n2) = (remaining * p.mole_fractions[0] / 0.5, remaining * p.mole_fractions[1] / 0.5);
+            assert!((n1.ln() - alpha * n2.ln()).abs() < 1e-7, "F = {}", p.evaporated_fraction);
+        }
+    }
+
     /// Constant-temperature binary: ln(n1/n10) = α ln(n2/n20) with α = p1/p2 (Rayleigh, constant volatility).
     #[test]
     fn isothermal_binary_matches_rayleigh_equation() {
@@ -370,7 +388,7 @@ mod tests {
         let x0 = [0.5, 0.5];
         let w = [1.0, 1.0];
         let fr = [0.1, 0.3, 0.5, 0.7, 0.9, 0.99];
-        let (pts, _) = integrate(&comps, &x0, &w, PathMode::Isothermal(t), &fr, 0.1).unwrap();
+        let (pts, _) = integrate(&comps, &x0, &w, PathMode::Isothermal(t), &fr, 0.1, Default::default()).unwrap();
         for p in &pts {
             let remaining = 1.0 - p.evaporated_fraction;
             let n1 = remaining * p.mole_fractions[0] / 0.5;
@@ -385,7 +403,7 @@ mod tests {
     fn pure_component_is_flat() {
         let l = lib();
         let comps = vec![l.component("n-decane").unwrap().clone()];
-        let (pts, _) = integrate(&comps, &[1.0], &[1.0], PathMode::Isobaric(101_325.0), &[0.0, 0.5, 0.995], 0.2).unwrap();
+        let (pts, _) = integrate(&comps, &[1.0], &[1.0], PathMode::Isobaric(101_325.0), &[0.0, 0.5, 0.995], 0.2, Default::default()).unwrap();
         let tb = liquid::bubble_point(&comps, &[1.0], 101_325.0).unwrap();
         for p in &pts {
             assert!((p.temperature - tb).abs() < 1e-6, "{} vs {tb}", p.temperature);
@@ -400,8 +418,8 @@ mod tests {
         let x = fuel.mole_fractions();
         let w = basis_weights(&fuel.components, RecoveryBasis::Volume);
         let fr = [0.0, 0.1, 0.2, 0.5, 0.9, 0.995];
-        let (a, _) = integrate(&fuel.components, &x, &w, PathMode::Isobaric(101_325.0), &fr, crate::post::indicators::DEFAULT_MAX_STEP).unwrap();
-        let (b, _) = integrate(&fuel.components, &x, &w, PathMode::Isobaric(101_325.0), &fr, 0.005).unwrap();
+        let (a, _) = integrate(&fuel.components, &x, &w, PathMode::Isobaric(101_325.0), &fr, crate::post::indicators::DEFAULT_MAX_STEP, Default::default()).unwrap();
+        let (b, _) = integrate(&fuel.components, &x, &w, PathMode::Isobaric(101_325.0), &fr, 0.005, Default::default()).unwrap();
         for (p, q) in a.iter().zip(&b) {
             assert!((p.temperature - q.temperature).abs() < 0.01, "F {}: {} vs {}", p.evaporated_fraction, p.temperature, q.temperature);
         }

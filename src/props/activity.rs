@@ -283,7 +283,8 @@ impl Activity {
 fn solve_dense(a: &mut [f64], b: &mut [f64], m: usize) -> bool {
     for col in 0..m {
         let pivot = (col..m).max_by(|&r, &s| a[r * m + col].abs().total_cmp(&a[s * m + col].abs())).unwrap_or(col);
-        if !(a[pivot * m + col].abs() > 1e-300) {
+        let pivot_value = a[pivot * m + col].abs();
+        if pivot_value.is_nan() || pivot_value <= 1e-300 {
             return false;
         }
         if pivot != col {

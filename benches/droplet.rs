@@ -1,5 +1,6 @@
 //! Hot paths: mixture properties, one right-hand-side evaluation, droplet lifetimes (well-mixed 1/10/50
-//! components, diffusion 20 components × 40 cells), table generation, residue indicators.
+//! components, diffusion 20 components × 40 cells), table generation, residue indicators; the right-hand side
+//! with the ideal liquid and with UNIFAC activity coefficients.
 use std::hint::black_box;
 
 use criterion::{criterion_group, criterion_main, Criterion};
@@ -8,6 +9,7 @@ use dropcut::fuel::{Basis, Fuel};
 use dropcut::model::droplet::{LiquidHeat, LiquidMixing, NoHistory, WellMixed};
 use dropcut::model::integrator::OdeSystem;
 use dropcut::model::{simulate, DropletInputs, Motion};
+use dropcut::props::activity::ActivityModel;
 use dropcut::props::gas::AmbientGas;
 use dropcut::props::liquid;
 
@@ -65,6 +67,27 @@ fn benches(c: &mut Criterion) {
     let (mut sys, y0) = WellMixed::new(&inp10);
     let mut dy = vec![0.0; y0.len()];
     c.bench_function("right-hand side, 10 components (well-mixed)", |b| b.iter(|| sys.rhs(0.0, black_box(&y0), &mut dy)));
+    // Cost of the liquid activity model per right-hand side: the same state with Raoult's law and with UNIFAC
+    // (demo-wide, 25 library components, 10 UNIFAC subgroups).
+    for activity in [ActivityModel::Ideal, ActivityModel::Unifac] {
+        let mut inp = inputs_of(Fuel::resolve("demo-wide", &lib).unwrap(), &lib);
+        inp.liquid.activity = activity;
+        let (mut sys, y0) = WellMixed::new(&inp);
+        let mut dy = vec![0.0; y0.len()];
+        // alternate between two droplet temperatures, as successive integrator stages do (a new T each call:
+        // no reuse of the temperature-only UNIFAC terms)
+        let n = inp.fuel.len();
+        let mut y1 = y0.clone();
+        y1[n] += 0.01;
+        let states = [y0, y1];
+        let mut k = 0usize;
+        c.bench_function(&format!("right-hand side, demo-wide 25 components, {}", activity.as_str()), |b| {
+            b.iter(|| {
+                k ^= 1;
+                sys.rhs(0.0, black_box(&states[k]), &mut dy)
+            })
+        });
+    }
     for n in [1, 10, 50] {
         let inp = if n == 50 { inputs_of(all.clone(), &lib) } else { inputs(&lib, n) };
         c.bench_function(&format!("lifetime, {n} components, well-mixed"), |b| b.iter(|| black_box(simulate(&inp, &mut NoHistory).unwrap())));

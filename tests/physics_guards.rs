@@ -18,6 +18,18 @@ struct Guard {
 
 const GUARDS: &[Guard] = &[
     Guard {
+        name: "UNIFAC activity coefficients above their fitted temperature range",
+        args: &["demo-narrow", "--activity", "unifac", "--diameter", "20um"],
+        notes: &["above the about 425 K up to which the original-UNIFAC parameters were fitted"],
+        absent: &[],
+    },
+    Guard {
+        name: "UNIFAC in a cool gas stays inside its range",
+        args: &["demo-narrow", "--activity", "unifac", "--ambient-temperature", "350K", "--diameter", "20um", "--max-time", "50ms"],
+        notes: &[],
+        absent: &["original-UNIFAC parameters were fitted"],
+    },
+    Guard {
         name: "radiation and a suspending fibre are reported",
         args: &["n-heptane", "--diameter", "500um", "--radiation", "ambient", "--absorption-efficiency", "0.5", "--fibre-diameter", "100um", "--max-time", "20ms"],
         notes: &["radiation from black surroundings at 800.0 K is absorbed with efficiency 0.5", "suspended droplet: 1 fibre stem(s) of 100 µm"],

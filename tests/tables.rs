@@ -81,7 +81,7 @@ fn mixture_and_residue_tables_equal_library_functions() {
     let lib = Library::embedded().unwrap();
     let fuel = Fuel::resolve("test-heptane-decane", &lib).unwrap();
     let gas = AmbientGas::air(&lib).unwrap();
-    let residue = dropcut::post::weathering_residues(&fuel.components, &fuel.mass_fractions, 350.0, &[0.0, 0.5]).unwrap();
+    let residue = dropcut::post::weathering_residues(&fuel.components, &fuel.mass_fractions, 350.0, &[0.0, 0.5], Default::default()).unwrap();
     for (file, w) in [("mixture.csv", fuel.mass_fractions.clone()), ("mixture_residue_0.50.csv", residue[1].mass_fractions.clone()), ("mixture_residue_0.00.csv", residue[0].mass_fractions.clone())] {
         let (h, rows) = parse_csv(&read(&dir.join(file)));
         assert!(rows.len() > 20, "{file}: {} rows", rows.len());

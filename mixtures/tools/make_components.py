@@ -134,6 +134,60 @@ COMPONENTS = [
     ("ethanol", "Ethanol", ["ethyl-alcohol"], "64-17-5", "oxygenate", (2, 6, 1), {"CH3": 1, "CH2": 1, "OH": 1}, 0),
 ]
 
+# Original UNIFAC subgroups per component id (names as in mixtures/unifac/original-unifac-subgroups.csv;
+# subgroup definitions of Fredenslund, Jones & Prausnitz 1975 / Hansen et al. 1991). Ring CH2/CH are the chain
+# groups in original UNIFAC; an aromatic carbon carrying an alkyl group is merged with that group's first carbon
+# (ACCH3, ACCH2, ACCH); fused aromatic carbons are AC. Emitted as `unifac-groups`; a component without a row
+# gets no table (then `--activity unifac` refuses it, naming it).
+def unifac_nalk(n):
+    return {"CH3": 2, "CH2": n - 2}
+
+UNIFAC_GROUPS = {
+    **{cid: unifac_nalk(n) for cid, n in [("n-hexane", 6), ("n-heptane", 7), ("n-octane", 8), ("n-nonane", 9),
+       ("n-decane", 10), ("n-undecane", 11), ("n-dodecane", 12), ("n-tridecane", 13), ("n-tetradecane", 14),
+       ("n-pentadecane", 15), ("n-hexadecane", 16), ("n-heptadecane", 17), ("n-octadecane", 18)]},
+    "2-methylheptane": {"CH3": 3, "CH2": 4, "CH": 1},
+    "2-2-4-trimethylpentane": {"CH3": 5, "CH2": 1, "CH": 1, "C": 1},
+    "2-2-4-6-6-pentamethylheptane": {"CH3": 7, "CH2": 2, "CH": 1, "C": 2},
+    "2-6-10-trimethyldodecane": {"CH3": 5, "CH2": 7, "CH": 3},
+    "2-2-4-4-6-8-8-heptamethylnonane": {"CH3": 9, "CH2": 3, "CH": 1, "C": 3},
+    "2-methylnonane": {"CH3": 3, "CH2": 6, "CH": 1},
+    "3-methyldecane": {"CH3": 3, "CH2": 7, "CH": 1},
+    "2-methylundecane": {"CH3": 3, "CH2": 8, "CH": 1},
+    "2-methyltetradecane": {"CH3": 3, "CH2": 11, "CH": 1},
+    "cyclohexane": {"CH2": 6},
+    "methylcyclohexane": {"CH3": 1, "CH2": 5, "CH": 1},
+    "ethylcyclohexane": {"CH3": 1, "CH2": 6, "CH": 1},
+    "n-propylcyclohexane": {"CH3": 1, "CH2": 7, "CH": 1},
+    "n-butylcyclohexane": {"CH3": 1, "CH2": 8, "CH": 1},
+    "cis-decalin": {"CH2": 8, "CH": 2},
+    "trans-decalin": {"CH2": 8, "CH": 2},
+    "toluene": {"ACH": 5, "ACCH3": 1},
+    "ethylbenzene": {"ACH": 5, "ACCH2": 1, "CH3": 1},
+    "o-xylene": {"ACH": 4, "ACCH3": 2},
+    "m-xylene": {"ACH": 4, "ACCH3": 2},
+    "p-xylene": {"ACH": 4, "ACCH3": 2},
+    "n-propylbenzene": {"ACH": 5, "ACCH2": 1, "CH2": 1, "CH3": 1},
+    "1-2-4-trimethylbenzene": {"ACH": 3, "ACCH3": 3},
+    "1-3-5-trimethylbenzene": {"ACH": 3, "ACCH3": 3},
+    "n-butylbenzene": {"ACH": 5, "ACCH2": 1, "CH2": 2, "CH3": 1},
+    "tetralin": {"ACH": 4, "ACCH2": 2, "CH2": 2},
+    "naphthalene": {"ACH": 8, "AC": 2},
+    "1-methylnaphthalene": {"ACH": 7, "AC": 2, "ACCH3": 1},
+    "ethanol": {"CH3": 1, "CH2": 1, "OH": 1},
+}
+
+
+def unifac_line(cid):
+    """The `unifac-groups` line of a component file, or None when the component has no assignment."""
+    groups = UNIFAC_GROUPS.get(cid)
+    if not groups:
+        return None
+    key = lambda g: g if g.replace("_", "").replace("-", "").isalnum() else '"' + g + '"'
+    return ("unifac-groups = { " + ", ".join(f"{key(g)} = {n}" for g, n in groups.items())
+            + " }  # original UNIFAC subgroups (mixtures/unifac/)")
+
+
 # Joback & Reid (1987) group increments, as reprinted in Poling et al. 5th ed. Table 2-2 / Table C-1:
 # (Tc, Pc, Vc, Tb, Tm, Hf, a, b, c, d)
 JOBACK = {
@@ -870,8 +924,10 @@ def write(comp, consts, secs):
          "# Do not edit by hand: change the generator and re-run it.",
          f"id = {tv(cid)}", f"name = {tv(name)}", f"aliases = {tv(aliases)}", f"cas = {tv(cas)}", f"class = {tv(cls)}",
          f"formula = {{ C = {C}, H = {H}, O = {O} }}",
-         "joback-groups = { " + ", ".join(f"{g} = {n}" for g, n in groups.items()) + " }  # Joback & Reid (1987) groups",
-         "", "[constants]"]
+         "joback-groups = { " + ", ".join(f"{g} = {n}" for g, n in groups.items()) + " }  # Joback & Reid (1987) groups"]
+    if unifac_line(cid) is not None:
+        L.append(unifac_line(cid))
+    L += ["", "[constants]"]
     for k in CONST_ORDER:
         if k in consts:
             L.append(f"{k} = {inline(consts[k])}")
@@ -988,6 +1044,9 @@ def main():
             "vapor-conductivity": vapor_conductivity(cas),
         }
         write(comp, consts, secs)
+    for comp in COMPONENTS:
+        if comp[0] not in UNIFAC_GROUPS:
+            print(f"warning: {comp[0]} has no row in UNIFAC_GROUPS (no unifac-groups table written)", file=sys.stderr)
     write_gases()
     print(f"wrote {len(COMPONENTS)} files to {OUT} and gases.toml")
 

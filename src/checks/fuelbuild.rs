@@ -34,7 +34,7 @@ pub const DIESEL_TBP: &str = include_str!("../../examples/diesel-tbp.csv");
 /// The simulated distillation every command reports: single-stage batch (Rayleigh) distillation at 1 atm,
 /// evaporated fraction on a liquid-volume basis (post::indicators::distillation_temperatures).
 pub fn simulated_distillation(fuel: &Fuel, fractions: &[f64]) -> Result<Vec<f64>, String> {
-    distillation_temperatures(&fuel.components, &fuel.mole_fractions(), STANDARD_PRESSURE, RecoveryBasis::Volume, fractions, DEFAULT_MAX_STEP).map_err(|e| e.to_string())
+    distillation_temperatures(&fuel.components, &fuel.mole_fractions(), STANDARD_PRESSURE, RecoveryBasis::Volume, fractions, DEFAULT_MAX_STEP, Default::default()).map_err(|e| e.to_string())
 }
 
 /// True when `e` is a larger error than `worst` (NaN counts as larger, so it is never hidden).

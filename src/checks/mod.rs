@@ -4,6 +4,7 @@
 
 use serde::Serialize;
 
+pub mod activity;
 pub mod droplet;
 pub mod estimation;
 pub mod fuelbuild;
@@ -107,6 +108,7 @@ pub fn all() -> Vec<CheckResult> {
     let mut v = vec![];
     if let Ok(lib) = crate::data::Library::embedded() {
         v.extend(properties::all());
+        v.extend(activity::all(&lib));
         v.extend(residue::all(&lib));
         v.extend(estimation::joback_viscosity_checks(&lib));
         v.extend(model::analytic_checks(&lib));

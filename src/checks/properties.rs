@@ -728,6 +728,7 @@ fn raoult_surface_checks(lib: &Library) -> Vec<CheckResult> {
         non_equilibrium: false,
         extra_heat: Default::default(),
         drag: Default::default(),
+        activity: crate::props::activity::Activity::ideal(2), // Raoult's law, as the worked check
     };
     let mut film = Film::new(setup);
     let x = [0.5, 0.5]; // equimolar liquid

@@ -140,7 +140,7 @@ pub fn binary_flash_point(lib: &Library) -> Vec<CheckResult> {
     cases
         .iter()
         .map(|(x1, reference)| {
-            let t = liaw_flash_point(&comps, &[*x1, 1.0 - x1], &pure).unwrap_or(f64::NAN);
+            let t = liaw_flash_point(&comps, &[*x1, 1.0 - x1], &pure, Default::default()).unwrap_or(f64::NAN);
             CheckResult::absolute(
                 GROUP,
                 format!("Liaw flash point of n-decane/n-dodecane at x_decane = {x1} (pure flash points 46 / 74 °C)"),
@@ -172,14 +172,14 @@ pub fn distillation(lib: &Library) -> Vec<CheckResult> {
     // pure component: flat
     let c10 = component(lib, "n-decane");
     let fr: Vec<f64> = (0..=199).map(|i| f64::from(i) * 0.005).collect(); // 0, 0.5, …, 99.5 %
-    let t = distillation_temperatures(std::slice::from_ref(&c10), &[1.0], p, RecoveryBasis::Volume, &fr, DEFAULT_MAX_STEP).expect("curve");
+    let t = distillation_temperatures(std::slice::from_ref(&c10), &[1.0], p, RecoveryBasis::Volume, &fr, DEFAULT_MAX_STEP, Default::default()).expect("curve");
     let spread = t.iter().cloned().fold(f64::NEG_INFINITY, f64::max) - t.iter().cloned().fold(f64::INFINITY, f64::min);
     out.push(CheckResult::absolute(GROUP, "simulated distillation of pure n-decane at 1 atm is flat (spread over 0–99.5 %)".into(), "analytical (a pure liquid boils at one temperature)", spread, 0.01, "K"));
 
     // binary n-heptane/n-decane, equimolar, mole basis
     let comps = vec![component(lib, "n-heptane"), c10.clone()];
     let x0 = [0.5, 0.5];
-    let curve = distillation_temperatures(&comps, &x0, p, RecoveryBasis::Mole, &fr, DEFAULT_MAX_STEP).expect("curve");
+    let curve = distillation_temperatures(&comps, &x0, p, RecoveryBasis::Mole, &fr, DEFAULT_MAX_STEP, Default::default()).expect("curve");
     let bubble = |x1: f64| liquid::bubble_point(&comps, &[x1, 1.0 - x1], p).expect("bubble point");
     let t_bubble0 = bubble(0.5);
     out.push(CheckResult::absolute(
@@ -216,7 +216,7 @@ pub fn distillation(lib: &Library) -> Vec<CheckResult> {
     };
     let u0 = 0.5f64.ln();
     let targets = [0.1, 0.3, 0.5, 0.7, 0.9];
-    let ours = distillation_temperatures(&comps, &x0, p, RecoveryBasis::Mole, &targets, DEFAULT_MAX_STEP).expect("curve");
+    let ours = distillation_temperatures(&comps, &x0, p, RecoveryBasis::Mole, &targets, DEFAULT_MAX_STEP, Default::default()).expect("curve");
     let mut worst: f64 = 0.0;
     for (f, t_ours) in targets.iter().zip(&ours) {
         let ln_r = (1.0 - f).ln();
@@ -248,7 +248,7 @@ pub fn distillation(lib: &Library) -> Vec<CheckResult> {
     let alpha = comps[0].vapor_pressure(t_w) / comps[1].vapor_pressure(t_w);
     let w0 = liquid::mole_to_mass(&comps, &x0);
     let fr_w = [0.1, 0.3, 0.5, 0.7, 0.9, 0.99];
-    let res = weathering_residues(&comps, &w0, t_w, &fr_w).expect("weathering");
+    let res = weathering_residues(&comps, &w0, t_w, &fr_w, Default::default()).expect("weathering");
     let m0 = liquid::molar_mass(&comps, &x0);
     let mut worst: f64 = 0.0;
     for r in &res {

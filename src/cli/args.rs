@@ -92,6 +92,10 @@ pub struct ResidueArgs {
     /// Also write the table as CSV to this file.
     #[arg(long)]
     pub out: Option<std::path::PathBuf>,
+    /// Liquid activity coefficients of the weathering, bubble point, distillation, vapour pressure and flash
+    /// point: ideal (Raoult's law) or unifac (original UNIFAC).
+    #[arg(long, value_enum, default_value = "ideal")]
+    pub activity: ActivityArg,
 }
 
 /// `fuel` subcommands.
@@ -107,6 +111,9 @@ pub enum FuelAction {
         /// Pressure for bubble and dew points (e.g. 1atm, 10bar).
         #[arg(long, default_value = "1atm", allow_hyphen_values = true)]
         pressure: String,
+        /// Liquid activity coefficients of the bubble and dew points and the vapour pressure: ideal or unifac.
+        #[arg(long, value_enum, default_value = "ideal")]
+        activity: ActivityArg,
         /// Print JSON.
         #[arg(long)]
         json: bool,
@@ -295,6 +302,28 @@ pub struct ConditionArgs {
     /// Fibre stems leaving the droplet: 1 (fibre ends inside) or 2 (fibre passes through).
     #[arg(long, allow_hyphen_values = true, default_value = "1")]
     pub fibre_stems: String,
+    /// Liquid activity coefficients at the surface: ideal (Raoult's law) or unifac (original UNIFAC).
+    #[arg(long, value_enum, default_value = "ideal")]
+    pub activity: ActivityArg,
+}
+
+/// Liquid activity model.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum ActivityArg {
+    /// Ideal solution: Raoult's law.
+    Ideal,
+    /// Original UNIFAC (Hansen et al. 1991 / Wittig et al. 2003 published parameters).
+    Unifac,
+}
+
+impl ActivityArg {
+    /// The model this option selects.
+    pub fn model(self) -> crate::props::activity::ActivityModel {
+        match self {
+            ActivityArg::Ideal => crate::props::activity::ActivityModel::Ideal,
+            ActivityArg::Unifac => crate::props::activity::ActivityModel::Unifac,
+        }
+    }
 }
 
 /// Liquid species mixing.
@@ -449,6 +478,10 @@ pub struct TableArgs {
     /// Leave the date out of the metadata (byte-identical reruns); SOURCE_DATE_EPOCH, if set, fixes the date instead.
     #[arg(long)]
     pub no_date: bool,
+    /// Liquid activity coefficients of the bubble point, bubble pressure, equilibrium vapour and weathered
+    /// residues: ideal (Raoult's law) or unifac (original UNIFAC); the surrogate is fitted to the ideal liquid.
+    #[arg(long, value_enum, default_value = "ideal")]
+    pub activity: ActivityArg,
 }
 
 /// `compare` arguments.
@@ -462,7 +495,7 @@ pub struct CompareArgs {
     pub condition: ConditionArgs,
     /// Run at several values of one condition option, e.g. ambient-temperature=500K,800K
     /// (ambient-temperature, pressure, diameter, droplet-temperature, velocity, correlation, max-time,
-    /// liquid-mixing, liquid-heat, nodes; gas=air;n2 with ';' between gases).
+    /// liquid-mixing, liquid-heat, nodes, activity; gas=air;n2 with ';' between gases).
     #[arg(long, value_name = "OPTION=V1,V2,...")]
     pub vary: Option<String>,
     /// Output folder.

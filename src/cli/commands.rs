@@ -24,7 +24,7 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
     }
     match cli.command {
         Command::Components { json } => components(&lib, json),
-        Command::Fuel { action: FuelAction::Show { fuel, temperature, pressure, json } } => fuel_show(&lib, &fuel, &temperature, &pressure, json),
+        Command::Fuel { action: FuelAction::Show { fuel, temperature, pressure, activity, json } } => fuel_show(&lib, &fuel, &temperature, &pressure, activity, json),
         Command::Fuel { action: FuelAction::Build(args) } => super::fuelbuild::build(&lib, &args),
         Command::Simulate(args) => simulate(&lib, &args),
         Command::Demo { out, no_plots } => demo(&lib, &out, no_plots),
@@ -130,6 +130,7 @@ struct FuelShow {
     pressure_Pa: f64,
     bubble_point_K: Option<f64>,
     dew_point_K: Option<f64>,
+    activity: String,
     liquid_at_T: liquid::LiquidState,
     notices: Vec<String>,
 }
@@ -143,7 +144,7 @@ struct CompositionRow {
     volume_fraction: f64,
 }
 
-fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, json: bool) -> Result<(), CliError> {
+fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, activity: super::args::ActivityArg, json: bool) -> Result<(), CliError> {
     let t = parse_q("temperature", temperature, Quantity::Temperature)?;
     let p = parse_q("pressure", pressure, Quantity::Pressure)?;
     if !(100.0..=1500.0).contains(&t) {
@@ -158,9 +159,11 @@ fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, json:
     }
     let x = fuel.mole_fractions();
     let v = fuel.volume_fractions();
-    let _ = liquid::bubble_point(&fuel.components, &x, p).map_err(|e| CliError::input(format!("--pressure {pressure}: {e}")))?;
+    let model = activity.model();
+    let mut act = crate::props::activity::Activity::new(model, &fuel.components).map_err(|e| CliError::input(format!("--activity {}: fuel {}: {e}", model.as_str(), fuel.origin)))?;
+    let _ = liquid::bubble_point_with(&fuel.components, &mut act, &x, p).map_err(|e| CliError::input(format!("--pressure {pressure}: {e}")))?;
     let mut notices = fuel.notices.clone();
-    let bubble = match liquid::subcritical_bubble_point(&fuel.components, &x, p) {
+    let bubble = match liquid::subcritical_bubble_point_with(&fuel.components, &mut act, &x, p) {
         Ok(t) => Some(t),
         Err(note) => {
             notice(&note);
@@ -168,8 +171,9 @@ fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, json:
             None
         }
     };
-    let dew = liquid::dew_point(&fuel.components, &x, p).map_err(|e| CliError::input(format!("--pressure {pressure}: {e}")))?;
-    let state = liquid::state(&fuel.components, &fuel.mass_fractions, t);
+    let dew = liquid::dew_point_with(&fuel.components, &mut act, &x, p).map_err(|e| CliError::input(format!("--pressure {pressure}: {e}")))?;
+    let mut state = liquid::state(&fuel.components, &fuel.mass_fractions, t);
+    state.vapor_pressure_Pa = act.bubble_pressure(&fuel.components, &x, t);
     let show = FuelShow {
         name: fuel.name.clone(),
         description: fuel.description.clone(),
@@ -185,6 +189,7 @@ fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, json:
         pressure_Pa: p,
         bubble_point_K: bubble,
         dew_point_K: if dew < liquid::pseudo_critical_temperature(&fuel.components, &x) { Some(dew) } else { None },
+        activity: model.description(),
         liquid_at_T: state,
         notices,
     };
@@ -192,6 +197,9 @@ fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, json:
         return stdout_write(&output::to_json_string(&show).map_err(CliError::runtime)?);
     }
     let mut s = format!("fuel {} ({})\n{}\n\n", show.name, show.origin, show.description);
+    if model != crate::props::activity::ActivityModel::Ideal {
+        s.push_str(&format!("liquid: {}\n\n", show.activity));
+    }
     s.push_str(&format!("{:<34} {:<16} {:>9} {:>9} {:>9}\n", "component", "class", "mass %", "mole %", "vol %"));
     for r in &show.composition {
         s.push_str(&format!("{:<34} {:<16} {:>9.3} {:>9.3} {:>9.3}\n", r.id, r.class, 100.0 * r.mass_fraction, 100.0 * r.mole_fraction, 100.0 * r.volume_fraction));
@@ -272,6 +280,7 @@ pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<Dr
         non_equilibrium: c.non_equilibrium,
         diffusivity_factor: factor("liquid-diffusivity-factor", &c.liquid_diffusivity_factor)?,
         conductivity_factor: factor("liquid-conductivity-factor", &c.liquid_conductivity_factor)?,
+        activity: c.activity.model(),
     };
     inp.extra_heat = extra_heat(c)?;
     Ok(inp)
@@ -404,6 +413,7 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
                 fibre_diameter: "none".into(),
                 fibre_conductivity: "1.4".into(),
                 fibre_stems: "1".into(),
+                activity: super::args::ActivityArg::Ideal,
             };
             let inp = droplet_inputs(lib, fuel, &cond)?;
             let mut rec = model::guard::RowsOnly;
@@ -500,7 +510,7 @@ fn load_limits(spec: Option<&str>) -> Result<Option<crate::post::Limits>, CliErr
 pub(super) fn write_droplet_residue(dir: &Path, inp: &DropletInputs, run: &model::RunResult, limits: Option<&crate::post::Limits>) -> Result<(), CliError> {
     use crate::post::droplet::{residues_along_history, Layer};
     let fractions = crate::post::weathering::default_fractions();
-    let opts = crate::post::IndicatorOptions::default();
+    let opts = crate::post::IndicatorOptions { activity: inp.liquid.activity, ..Default::default() };
     let comps = &inp.fuel.components;
     let mean = residues_along_history(&run.history, &fractions, Layer::Mean);
     let mean_rows = crate::post::residue_table(comps, &mean, &opts).map_err(|e| CliError::runtime(e.to_string()))?;
@@ -544,8 +554,11 @@ fn residue(lib: &Library, args: &ResidueArgs) -> Result<(), CliError> {
     for n in &fuel.notices {
         notice(n);
     }
-    let opts = crate::post::IndicatorOptions::default();
-    let residues = crate::post::weathering_residues(&fuel.components, &fuel.mass_fractions, t, &fractions).map_err(|e| CliError::input(e.to_string()))?;
+    let opts = crate::post::IndicatorOptions { activity: args.activity.model(), ..Default::default() };
+    if let Err(e) = crate::props::activity::Activity::new(opts.activity, &fuel.components) {
+        return Err(CliError::input(format!("--activity {}: fuel {}: {e}", opts.activity.as_str(), fuel.origin)));
+    }
+    let residues = crate::post::weathering_residues(&fuel.components, &fuel.mass_fractions, t, &fractions, opts.activity).map_err(|e| CliError::input(e.to_string()))?;
     let rows = crate::post::residue_table(&fuel.components, &residues, &opts).map_err(|e| CliError::runtime(e.to_string()))?;
     notice(crate::post::CAUTION);
     if let Some(path) = &args.out {

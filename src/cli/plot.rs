@@ -6,7 +6,7 @@ use std::path::Path;
 
 use clap::ValueEnum;
 
-use super::args::{CompareArgs, ConditionArgs, CorrelationArg, DragArg, HeatArg, MixingArg};
+use super::args::{ActivityArg, CompareArgs, ConditionArgs, CorrelationArg, DragArg, HeatArg, MixingArg};
 use super::commands::{droplet_inputs, notice, progress, stdout_write, write_droplet_residue};
 use super::CliError;
 use crate::data::Library;
@@ -18,7 +18,7 @@ use crate::output::read::SavedRun;
 use crate::output::{self, html};
 
 /// Condition options `--vary` accepts, with how their values are separated.
-const VARIABLE_OPTIONS: [&str; 12] = [
+const VARIABLE_OPTIONS: [&str; 13] = [
     "ambient-temperature",
     "pressure",
     "diameter",
@@ -31,6 +31,7 @@ const VARIABLE_OPTIONS: [&str; 12] = [
     "liquid-heat",
     "nodes",
     "drag",
+    "activity",
 ];
 
 fn fill_classes(lib: &Library, run: &mut SavedRun) {
@@ -180,6 +181,9 @@ fn apply_vary(c: &ConditionArgs, option: &str, value: &str) -> Result<ConditionA
         "drag" => {
             c.drag = DragArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary drag: '{value}' is not one of yuen-chen, blowing")))?;
         }
+        "activity" => {
+            c.activity = ActivityArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary activity: '{value}' is not one of ideal, unifac")))?;
+        }
         "correlation" => {
             c.correlation = CorrelationArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary correlation: '{value}' is not one of clift, ranz-marshall")))?;
         }
@@ -207,6 +211,9 @@ fn describe_condition(c: &ConditionArgs, varied: Option<&str>) -> String {
     }
     if !is("velocity") {
         parts.push(format!("{} {} m/s", if c.injected { "injected at" } else { "slip" }, c.velocity.trim_end_matches("m/s")));
+    }
+    if !is("activity") && c.activity == ActivityArg::Unifac {
+        parts.push("UNIFAC liquid".into());
     }
     let mut s = parts.join(", ");
     if let Some(v) = varied {
@@ -357,6 +364,8 @@ mod tests {
         assert_eq!(apply_vary(&args.condition, "ambient-temperature", "500K").unwrap().ambient_temperature, "500K");
         assert_eq!(apply_vary(&args.condition, "gas", "n2").unwrap().gas, "n2");
         assert!(apply_vary(&args.condition, "liquid-heat", "warm").is_err());
+        assert_eq!(apply_vary(&args.condition, "activity", "unifac").unwrap().activity, ActivityArg::Unifac);
+        assert!(apply_vary(&args.condition, "activity", "raoult").is_err());
         assert!(apply_vary(&args.condition, "correlation", "ranz-marshall").is_ok());
     }
 

@@ -125,6 +125,7 @@ pub fn table(lib: &Library, args: &TableArgs) -> Result<(), CliError> {
     opts.vapor_to = vapor_to;
     opts.residue_fractions = residue_fractions;
     opts.residue_temperature = residue_temperature;
+    opts.activity = args.activity.model();
     opts.surrogate = if args.no_surrogate { None } else { Some(SurrogateOptions { reference, ..SurrogateOptions::default() }) };
     if std::io::stderr().is_terminal() && opts.surrogate.is_some() {
         let _ = writeln!(std::io::stderr(), "building tables of {} (the surrogate fit runs the droplet model a few dozen times) ...", fuel.name);

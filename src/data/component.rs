@@ -149,6 +149,8 @@ struct RawComponent {
     formula: Formula,
     #[serde(default)]
     joback_groups: Option<std::collections::BTreeMap<String, u32>>,
+    #[serde(default)]
+    unifac_groups: Option<std::collections::BTreeMap<String, u32>>,
     constants: RawConstants,
     vapor_pressure: RawCorrelation,
     liquid_density: RawCorrelation,
@@ -216,6 +218,8 @@ pub struct Component {
     pub formula: Formula,
     /// Joback groups (for group-contribution estimates), in file order.
     pub joback_groups: Vec<(&'static super::joback_groups::Group, u32)>,
+    /// Original-UNIFAC subgroups and their counts (empty: none given; `--activity unifac` then refuses it).
+    pub unifac_groups: Vec<(&'static super::unifac_groups::Subgroup, u32)>,
     /// Scalar constants.
     pub constants: Constants,
     /// Vapour pressure [Pa].
@@ -387,8 +391,25 @@ impl Component {
                 }
             }
         }
+        let mut unifac_groups = vec![];
+        if let Some(map) = &raw.unifac_groups {
+            for (key, count) in map {
+                let g = super::unifac_groups::subgroup(key).ok_or_else(|| DataError::Invalid {
+                    context: format!("{ctx}: unifac-groups.{key}"),
+                    message: format!("unknown original-UNIFAC subgroup '{key}' (names as in mixtures/unifac/original-unifac-subgroups.csv, e.g. CH3, CH2, CH, C, ACH, AC, ACCH3, ACCH2, ACCH, OH)"),
+                })?;
+                if *count == 0 {
+                    return Err(DataError::Invalid { context: format!("{ctx}: unifac-groups.{key}"), message: "count 0: leave the group out or give a positive count".into() });
+                }
+                unifac_groups.push((g, *count));
+            }
+            if unifac_groups.is_empty() {
+                return Err(DataError::Invalid { context: format!("{ctx}: unifac-groups"), message: "empty table: give at least one subgroup or leave the table out".into() });
+            }
+        }
         let component = Component {
             joback_groups,
+            unifac_groups,
             vapor_pressure: build(&raw.vapor_pressure, "vapor-pressure", Dimension::Pressure)?,
             liquid_density: build(&raw.liquid_density, "liquid-density", Dimension::Density)?,
             latent_heat: build(&raw.latent_heat, "latent-heat", Dimension::SpecificEnergy)?,

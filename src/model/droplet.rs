@@ -2,6 +2,7 @@
 //! the quasi-steady film (film.rs), optionally decelerating by drag, with a heat-limited boiling regime.
 
 use crate::fuel::Fuel;
+use crate::props::activity::{Activity, ActivityModel};
 use crate::props::gas::AmbientGas;
 use crate::props::liquid;
 
@@ -99,11 +100,13 @@ pub struct LiquidOptions {
     pub diffusivity_factor: f64,
     /// Multiplier on the liquid conductivity.
     pub conductivity_factor: f64,
+    /// Liquid activity model at the surface (ideal = Raoult's law; UNIFAC).
+    pub activity: ActivityModel,
 }
 
 impl Default for LiquidOptions {
     fn default() -> Self {
-        LiquidOptions { mixing: LiquidMixing::WellMixed, heat: LiquidHeat::Uniform, nodes: 40, non_equilibrium: false, diffusivity_factor: 1.0, conductivity_factor: 1.0 }
+        LiquidOptions { mixing: LiquidMixing::WellMixed, heat: LiquidHeat::Uniform, nodes: 40, non_equilibrium: false, diffusivity_factor: 1.0, conductivity_factor: 1.0, activity: ActivityModel::Ideal }
     }
 }
 
@@ -141,6 +144,10 @@ impl DropletInputs {
 
 impl DropletInputs {
     /// The gas-film inputs of these droplet inputs (no far-field vapour = zeros).
+    ///
+    /// # Panics
+    /// When the activity model cannot be prepared for the fuel (a component without UNIFAC groups): `simulate`
+    /// refuses such inputs first (`check_inputs`, field `activity`).
     pub fn film_setup(&self) -> FilmSetup {
         let n = self.fuel.len();
         FilmSetup {
@@ -154,6 +161,7 @@ impl DropletInputs {
             non_equilibrium: self.liquid.non_equilibrium,
             extra_heat: self.extra_heat,
             drag: self.drag,
+            activity: Activity::new(self.liquid.activity, &self.fuel.components).unwrap_or_else(|e| panic!("--activity {}: {e}", self.liquid.activity.as_str())),
         }
     }
 }
@@ -318,9 +326,9 @@ pub struct RunResult {
 pub const BOILING_THRESHOLD: f64 = 0.995;
 
 /// Temperature at which the heat-limited boiling regime holds a liquid of mole fractions `x` at pressure `p` [K]:
-/// Σ x_i p_sat,i(T) = BOILING_THRESHOLD · p. None when the liquid has no bubble point at that pressure.
-pub fn boiling_hold_temperature(comps: &[std::sync::Arc<crate::data::Component>], x: &[f64], p: f64) -> Option<f64> {
-    liquid::bubble_point(comps, x, BOILING_THRESHOLD * p).ok()
+/// Σ x_i γ_i p_sat,i(T) = BOILING_THRESHOLD · p (γ from `activity`; 1 for the ideal liquid). None when the liquid has no bubble point at that pressure.
+pub fn boiling_hold_temperature(comps: &[std::sync::Arc<crate::data::Component>], activity: &mut Activity, x: &[f64], p: f64) -> Option<f64> {
+    liquid::bubble_point_with(comps, activity, x, BOILING_THRESHOLD * p).ok()
 }
 
 /// The well-mixed droplet as an ODE system: y = [m_1..m_N, T, U, e_1..e_N].
@@ -357,9 +365,12 @@ impl WellMixed {
         m
     }
 
-    /// Boiling-regime (hold) temperature of the composition `x` [K] (see [`boiling_hold_temperature`]).
-    fn bubble_point(&self, x: &[f64]) -> f64 {
-        boiling_hold_temperature(&self.film.setup.components, x, self.film.setup.pressure).unwrap_or(self.film.setup.ambient_temperature)
+    /// Boiling-regime (hold) temperature of the composition `x` with the film's activity model [K] (see
+    /// [`boiling_hold_temperature`]).
+    fn bubble_point(film: &mut Film, x: &[f64]) -> f64 {
+        let fallback = film.setup.ambient_temperature;
+        let pressure = film.setup.pressure;
+        boiling_hold_temperature(&film.setup.components, &mut film.setup.activity, x, pressure).unwrap_or(fallback)
     }
 
     /// Heat into the liquid [W] if the droplet at state `y` evaporated at its hold temperature without the
@@ -370,7 +381,7 @@ impl WellMixed {
         let n = self.n;
         let m = self.unpack(y);
         let x = std::mem::take(&mut self.x);
-        let t_s = self.bubble_point(&x);
+        let t_s = Self::bubble_point(&mut self.film, &x);
         let comps = &self.film.setup.components;
         for i in 0..n {
             self.latent[i] = comps[i].latent_heat(t_s);
@@ -390,9 +401,10 @@ impl WellMixed {
         // ε = equilibrium vapour composition (mass) at the bubble point
         let n = self.n;
         let comps = &self.film.setup.components;
+        let gamma = self.film.setup.activity.gammas(&self.x, t_b);
         let mut sum = 0.0;
         for i in 0..n {
-            self.w_probe[i] = self.x[i] * comps[i].vapor_pressure(t_b) * comps[i].molar_mass();
+            self.w_probe[i] = self.x[i] * gamma[i] * comps[i].vapor_pressure(t_b) * comps[i].molar_mass();
             sum += self.w_probe[i];
         }
         let mut l = 0.0;
@@ -406,7 +418,7 @@ impl WellMixed {
             self.w_probe[i] = ((self.w[i] - h * self.w_probe[i]) / (1.0 - h)).max(0.0);
         }
         liquid::mass_to_mole_into(comps, &self.w_probe, &mut self.x_probe);
-        let t_b2 = boiling_hold_temperature(comps, &self.x_probe, self.film.setup.pressure).unwrap_or(t_b);
+        let t_b2 = boiling_hold_temperature(comps, &mut self.film.setup.activity, &self.x_probe, self.film.setup.pressure).unwrap_or(t_b);
         // per unit evaporated mass: dT_b/dm_evap = (t_b2 − t_b)/(h m); sensible heat m cp dT_b = cp (t_b2 − t_b)/h per kg
         l + cp_l * (t_b2 - t_b).max(0.0) / h
     }
@@ -416,7 +428,7 @@ impl WellMixed {
         let n = self.n;
         let m = self.unpack(y);
         let t_state = y[n];
-        let t_s = if self.regime == Regime::Boiling { self.bubble_point(&self.x) } else { t_state };
+        let t_s = if self.regime == Regime::Boiling { Self::bubble_point(&mut self.film, &self.x) } else { t_state };
         let comps = &self.film.setup.components;
         for i in 0..n {
             self.latent[i] = comps[i].latent_heat(t_s);
@@ -548,6 +560,9 @@ pub(crate) fn check_inputs(inp: &DropletInputs) -> Result<(), ModelError> {
     }
     if !(inp.reference_weight.is_finite() && (0.0..=1.0).contains(&inp.reference_weight)) {
         return bad("reference-weight", format!("{}", inp.reference_weight), "must lie between 0 and 1");
+    }
+    if let Err(e) = Activity::new(inp.liquid.activity, &inp.fuel.components) {
+        return bad("activity", inp.liquid.activity.as_str().to_string(), &format!("fuel {}: {e}", inp.fuel.origin));
     }
     if let Some(r) = inp.extra_heat.radiation {
         if let Some(t) = r.temperature {
@@ -772,7 +787,7 @@ pub fn simulate(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunR
         let mut eq = inp.clone();
         eq.liquid.non_equilibrium = false;
         let reference = simulate(&eq, &mut NoHistory)?;
-        let mut res = simulate_model(inp, observer)?;
+        let mut res = activity_note(inp, simulate_model(inp, observer)?);
         if let (Some(a), Some(b)) = (res.outcome.lifetime, reference.outcome.lifetime) {
             let change = a / b - 1.0;
             let note = format!("non-equilibrium (Langmuir–Knudsen) surface changes the lifetime by {:+.2} % against the equilibrium surface", 100.0 * change);
@@ -784,7 +799,19 @@ pub fn simulate(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunR
         }
         return Ok(res);
     }
-    simulate_model(inp, observer)
+    simulate_model(inp, observer).map(|r| activity_note(inp, r))
+}
+
+/// With UNIFAC, say when the surface got hotter than the parameters' regression range (docs/property-methods.md).
+fn activity_note(inp: &DropletInputs, mut res: RunResult) -> RunResult {
+    let t_max = res.outcome.max_surface_temperature;
+    if inp.liquid.activity == ActivityModel::Unifac && t_max > crate::props::activity::UNIFAC_UPPER_TEMPERATURE {
+        res.outcome.regime_notes.push(format!(
+            "surface temperature reached {t_max:.1} K, above the about {:.0} K up to which the original-UNIFAC parameters were fitted: activity coefficients are extrapolated there",
+            crate::props::activity::UNIFAC_UPPER_TEMPERATURE
+        ));
+    }
+    res
 }
 
 fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {
@@ -803,10 +830,10 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
     // the droplet there.
     let x0 = inp.fuel.mole_fractions();
     // No bubble point (vapour pressure below the ambient pressure at every temperature) means no boiling.
-    let t_bubble0 = liquid::bubble_point(&comps, &x0, inp.pressure).unwrap_or(f64::INFINITY);
-    let t_hold0 = boiling_hold_temperature(&comps, &x0, inp.pressure).unwrap_or(f64::INFINITY);
+    let t_bubble0 = sys.film.bubble_point(&x0).unwrap_or(f64::INFINITY);
+    let t_hold0 = boiling_hold_temperature(&comps, &mut sys.film.setup.activity, &x0, inp.pressure).unwrap_or(f64::INFINITY);
     if !inp.fixed_temperature && t0 >= t_hold0 - 1e-9 {
-        let (masses, tb) = adiabatic_flash(&comps, w0, t0, m0, BOILING_THRESHOLD * inp.pressure, inp.end_mass_fraction);
+        let (masses, tb) = adiabatic_flash(&comps, &mut sys.film.setup.activity, w0, t0, m0, BOILING_THRESHOLD * inp.pressure, inp.end_mass_fraction);
         let m_left: f64 = masses.iter().sum();
         for i in 0..n {
             y0[i] = masses[i];
@@ -942,7 +969,7 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
             stepper.dense(onset, &mut y_end);
             let _ = sys.unpack(&y_end);
             let x = sys.x.clone();
-            y_end[n] = sys.bubble_point(&x);
+            y_end[n] = WellMixed::bubble_point(&mut sys.film, &x);
             if sys.heat_at_hold(&y_end) > 0.0 {
                 sys.regime = Regime::Boiling;
                 boiling_entries += 1;
@@ -967,7 +994,7 @@ fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<Ru
             sys.regime = Regime::Evaporating;
             let _ = sys.unpack(&y_end);
             let x = sys.x.clone();
-            y_end[n] = sys.bubble_point(&x);
+            y_end[n] = WellMixed::bubble_point(&mut sys.film, &x);
             boiling_exits += 1;
             if boiling_exits == 1 {
                 notes.push(format!(
@@ -1104,8 +1131,8 @@ pub fn energy_balance_residual(comps: &[std::sync::Arc<crate::data::Component>],
 
 /// Adiabatic flash of a superheated liquid at pressure `p`: the superheat m cp (T − T_b) evaporates liquid of
 /// the equilibrium-vapour composition, in portions of at most 1 %, until the liquid sits at its bubble point.
-/// Returns the component masses left and the final temperature [K].
-pub fn adiabatic_flash(comps: &[std::sync::Arc<crate::data::Component>], w0: &[f64], t0: f64, m0: f64, p: f64, end_mass_fraction: f64) -> (Vec<f64>, f64) {
+/// Returns the component masses left and the final temperature [K]. `activity`: the liquid activity model.
+pub fn adiabatic_flash(comps: &[std::sync::Arc<crate::data::Component>], activity: &mut Activity, w0: &[f64], t0: f64, m0: f64, p: f64, end_mass_fraction: f64) -> (Vec<f64>, f64) {
     let n = comps.len();
     let mut masses: Vec<f64> = (0..n).map(|i| m0 * w0[i]).collect();
     let mut t = t0;
@@ -1121,14 +1148,15 @@ pub fn adiabatic_flash(comps: &[std::sync::Arc<crate::data::Component>], w0: &[f
             w[i] = masses[i] / m;
         }
         liquid::mass_to_mole_into(comps, &w, &mut x);
-        let tb = liquid::bubble_point(comps, &x, p).unwrap_or(t);
+        let tb = liquid::bubble_point_with(comps, activity, &x, p).unwrap_or(t);
         if t <= tb + 1e-9 {
             t = t.max(tb);
             break;
         }
+        let gamma = activity.gammas(&x, tb);
         let mut s = 0.0;
         for i in 0..n {
-            eps[i] = x[i] * comps[i].vapor_pressure(tb) * comps[i].molar_mass();
+            eps[i] = x[i] * gamma[i] * comps[i].vapor_pressure(tb) * comps[i].molar_mass();
             s += eps[i];
         }
         let mut l = 0.0;

@@ -1,10 +1,12 @@
 //! Quasi-steady gas film around an evaporating droplet: Abramzon & Sirignano (1989) with Raoult's law at the
-//! surface, the 1/3 reference state, lumped Wilke film mixing and Fuller diffusion. See docs/model.md.
+//! surface (activity coefficients γ_i from `props::activity` when UNIFAC is chosen), the 1/3 reference state, lumped Wilke film mixing and Fuller diffusion. See docs/model.md.
 
 use std::sync::Arc;
 
 use crate::data::{Component, GAS_CONSTANT};
+use crate::props::activity::Activity;
 use crate::props::gas::{wilke_phi, AmbientGas};
+use crate::props::{liquid, PropertyError};
 
 /// Correlation for the Nusselt and Sherwood numbers of a non-evaporating sphere.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
@@ -133,6 +135,8 @@ pub struct FilmSetup {
     pub extra_heat: ExtraHeat,
     /// Drag law of the evaporating droplet.
     pub drag: DragLaw,
+    /// Liquid activity model prepared for `components` (ideal: Raoult's law), with its work buffers.
+    pub activity: Activity,
 }
 
 /// Thermal radiation exchanged between the droplet and an enclosure (the gas itself is transparent).
@@ -296,20 +300,26 @@ impl Film {
         }
     }
 
+    /// Bubble point of liquid mole fractions `x` at the film pressure, with the film's activity model [K].
+    pub fn bubble_point(&mut self, x: &[f64]) -> Result<f64, PropertyError> {
+        liquid::bubble_point_with(&self.setup.components, &mut self.setup.activity, x, self.setup.pressure)
+    }
+
     /// Free-stream gas density [kg/m³].
     pub fn ambient_density(&self) -> f64 {
         self.ambient_density
     }
 
-    /// Raoult's-law surface vapour (mole and mass fractions) for liquid mole fractions `x` at `t`.
-    /// Returns Σ X_s (1 at the bubble point).
+    /// Surface vapour (mole and mass fractions) for liquid mole fractions `x` at `t` by the modified Raoult's law
+    /// X_s,i = x_i γ_i p_sat,i(T)/p (γ = 1 for the ideal liquid). Returns Σ X_s (1 at the bubble point).
     #[inline]
     pub fn surface_equilibrium(&mut self, x: &[f64], t: f64) -> f64 {
         let p = self.setup.pressure;
         let mut sum_x = 0.0;
         let mut sum_xw = 0.0;
+        let gamma = self.setup.activity.gammas(x, t);
         for i in 0..x.len() {
-            let xs = x[i] * self.setup.components[i].vapor_pressure(t) / p;
+            let xs = x[i] * gamma[i] * self.setup.components[i].vapor_pressure(t) / p;
             self.surface_mole[i] = xs;
             sum_x += xs;
             sum_xw += xs * self.molar_mass[i];

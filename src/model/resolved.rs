@@ -359,7 +359,7 @@ fn error_norm(a: &State, b: &State, m0: f64) -> f64 {
 pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {
     let n = inp.fuel.len();
     let comps = inp.fuel.components.clone();
-    let film = Film::new(inp.film_setup());
+    let mut film = Film::new(inp.film_setup());
     let nodes = inp.liquid.nodes;
     if !(4..=400).contains(&nodes) {
         return Err(ModelError::Input { field: "nodes", value: nodes.to_string(), reason: "must lie between 4 and 400".into() });
@@ -372,11 +372,11 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
     let rho0 = liquid::density(&comps, w0, t0);
     let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
     let x0 = inp.fuel.mole_fractions();
-    let t_bubble0 = liquid::bubble_point(&comps, &x0, inp.pressure).unwrap_or(f64::INFINITY);
+    let t_bubble0 = film.bubble_point(&x0).unwrap_or(f64::INFINITY);
     let mut masses: Vec<f64> = w0.iter().map(|w| w * m0).collect();
     let mut t_start = t0;
     if !inp.fixed_temperature && t0 >= t_bubble0 - 1e-9 {
-        let (m_left, tb) = adiabatic_flash(&comps, w0, t0, m0, inp.pressure, inp.end_mass_fraction);
+        let (m_left, tb) = adiabatic_flash(&comps, &mut film.setup.activity, w0, t0, m0, inp.pressure, inp.end_mass_fraction);
         let total: f64 = m_left.iter().sum();
         notes.push(format!(
             "initial temperature {t0:.2} K is above the bubble point {t_bubble0:.2} K: {:.3} % of the mass flashed at injection; the resolved liquid starts at {:.2} K just below the bubble point",

@@ -155,7 +155,15 @@ impl InputEcho {
             reference_weight: inp.reference_weight,
             rtol: inp.rtol,
             max_time_s: inp.max_time,
-            liquid_model: format!("species {:?}, heat {:?}, {} radial cells, non-equilibrium surface {}", inp.liquid.mixing, inp.liquid.heat, inp.liquid.nodes, inp.liquid.non_equilibrium).to_lowercase(),
+            liquid_model: format!(
+                "species {:?}, heat {:?}, {} radial cells, non-equilibrium surface {}, activity {}",
+                inp.liquid.mixing,
+                inp.liquid.heat,
+                inp.liquid.nodes,
+                inp.liquid.non_equilibrium,
+                inp.liquid.activity.as_str()
+            )
+            .to_lowercase(),
             ambient_vapor_mass_fractions: if inp.ambient_vapor.is_empty() { vec![] } else { ids().zip(inp.ambient_vapor.iter().copied()).collect() },
             extra_heat: inp.extra_heat,
         }

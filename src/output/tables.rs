@@ -250,8 +250,12 @@ fn mixture_doc(t: &MixtureTable, set: &TableSet, sources: &SourceRegistry, date:
     m.push(("lowest_major_critical_temperature_K".into(), format!("{} ({})", g(t.limits.critical_temperature), t.limits.critical_component)));
     m.push((
         "vapor_columns".into(),
-        "the equilibrium vapour leaving the liquid at T (Raoult: mole fractions proportional to x_i p_sat,i(T)), pure fuel vapour without ambient gas; its diffusivity is in the ambient gas at the table pressure".into(),
+        match set.options.activity {
+            crate::props::activity::ActivityModel::Ideal => "the equilibrium vapour leaving the liquid at T (Raoult: mole fractions proportional to x_i p_sat,i(T)), pure fuel vapour without ambient gas; its diffusivity is in the ambient gas at the table pressure".to_string(),
+            crate::props::activity::ActivityModel::Unifac => "the equilibrium vapour leaving the liquid at T (modified Raoult's law: mole fractions proportional to x_i γ_i p_sat,i(T), γ by original UNIFAC), pure fuel vapour without ambient gas; its diffusivity is in the ambient gas at the table pressure".to_string(),
+        },
     ));
+    m.push(("liquid_activity".into(), set.options.activity.description()));
     m.push(("properties".into(), "saturated-liquid correlations without pressure correction; low-pressure (ideal-gas) vapour properties".into()));
     m.extend(column_lines(&MIXTURE_COLUMNS));
     m.push(("column validity".into(), VALIDITY_TEXT.into()));

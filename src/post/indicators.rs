@@ -29,6 +29,7 @@ use std::sync::Arc;
 use serde::{Deserialize, Serialize};
 
 use crate::data::{Component, GAS_CONSTANT};
+use crate::props::activity::{Activity, ActivityModel};
 use crate::props::liquid;
 
 use super::rayleigh::{self, PathMode};
@@ -135,6 +136,8 @@ pub struct IndicatorOptions {
     pub final_fraction: f64,
     /// Largest RK4 step in φ = −ln(1 − F) along the distillation [-].
     pub max_step: f64,
+    /// Liquid activity model of the bubble point, distillation, vapour pressure and flash point.
+    pub activity: ActivityModel,
 }
 
 impl Default for IndicatorOptions {
@@ -146,6 +149,7 @@ impl Default for IndicatorOptions {
             cetane_rule: CetaneRule::VolumeLinear,
             final_fraction: DEFAULT_FINAL_FRACTION,
             max_step: DEFAULT_MAX_STEP,
+            activity: ActivityModel::Ideal,
         }
     }
 }
@@ -442,11 +446,13 @@ pub(crate) fn solve_increasing(mut f: impl FnMut(f64) -> f64, mut lo: f64, mut h
     Some(0.5 * (lo + hi))
 }
 
-/// Liaw et al. (2002) flash point of an ideal liquid mixture [K]: the T that solves
-/// Σ x_i p_sat,i(T) / p_sat,i(T_fp,i) = 1 (Le Chatelier's rule with Raoult's law, activity coefficients 1),
-/// given each component's closed-cup flash point `pure_flash_points[i]`. Components with x_i = 0 are
-/// ignored. `None` when no solution is bracketed.
-pub fn liaw_flash_point(components: &[Arc<Component>], mole_fractions: &[f64], pure_flash_points: &[f64]) -> Option<f64> {
+/// Liaw et al. (2002) flash point of a liquid mixture [K]: the T that solves
+/// Σ x_i γ_i p_sat,i(T) / p_sat,i(T_fp,i) = 1 (Le Chatelier's rule with the modified Raoult's law; γ = 1 for the
+/// ideal model, UNIFAC γ_i(x, T) for the non-ideal one, as in Liaw et al.'s non-ideal form), given each
+/// component's closed-cup flash point `pure_flash_points[i]`. Components with x_i = 0 are ignored. `None` when
+/// no solution is bracketed or the activity model cannot be prepared.
+pub fn liaw_flash_point(components: &[Arc<Component>], mole_fractions: &[f64], pure_flash_points: &[f64], activity: ActivityModel) -> Option<f64> {
+    let mut act = Activity::new(activity, components).ok()?;
     let mut lo = f64::INFINITY;
     let mut hi = f64::NEG_INFINITY;
     let mut terms: Vec<(&Component, f64, f64)> = Vec::with_capacity(components.len());
@@ -464,10 +470,29 @@ pub fn liaw_flash_point(components: &[Arc<Component>], mole_fractions: &[f64], p
     if terms.is_empty() {
         return None;
     }
-    let g = |t: f64| terms.iter().map(|(c, x, p_fp)| x * c.vapor_pressure(t) / p_fp).sum::<f64>().ln();
-    // The root lies between the lowest and the highest pure flash point (each term is ≤ x_i at the
-    // lowest and ≥ x_i at the highest); widen slightly for round-off.
-    solve_increasing(g, lo - 0.5, hi + 0.5, 1e-7)
+    let ideal = act.is_ideal();
+    let g = |t: f64| {
+        if ideal {
+            terms.iter().map(|(c, x, p_fp)| x * c.vapor_pressure(t) / p_fp).sum::<f64>().ln()
+        } else {
+            let gamma = act.gammas(mole_fractions, t);
+            let mut s = 0.0;
+            let mut k = 0;
+            for (i, &x) in mole_fractions.iter().enumerate() {
+                if x > 0.0 {
+                    let (c, x, p_fp) = terms[k];
+                    s += x * gamma[i] * c.vapor_pressure(t) / p_fp;
+                    k += 1;
+                }
+            }
+            s.ln()
+        }
+    };
+    // Ideal: the root lies between the lowest and the highest pure flash point (each term is ≤ x_i at the
+    // lowest and ≥ x_i at the highest); widen slightly for round-off. With activity coefficients above 1 the
+    // mixture can flash below its lowest component: search from 100 K below.
+    let lo = if ideal { lo - 0.5 } else { (lo - 100.0).max(100.0) };
+    solve_increasing(g, lo, hi + 0.5, 1e-7)
 }
 
 /// Blend of component cetane numbers by `rule`; `w` mass fractions, `x` mole fractions, `v` volume fractions.
@@ -513,11 +538,12 @@ pub fn distillation_temperatures(
     basis: RecoveryBasis,
     fractions: &[f64],
     max_step: f64,
+    activity: ActivityModel,
 ) -> Result<Vec<f64>, PostError> {
     let (comps, x): (Vec<Arc<Component>>, Vec<f64>) =
         components.iter().zip(mole_fractions).filter(|(_, x)| **x > 0.0).map(|(c, x)| (c.clone(), *x)).unzip();
     let weights = rayleigh::basis_weights(&comps, basis);
-    let (pts, _) = rayleigh::integrate(&comps, &x, &weights, PathMode::Isobaric(pressure), fractions, max_step)?;
+    let (pts, _) = rayleigh::integrate(&comps, &x, &weights, PathMode::Isobaric(pressure), fractions, max_step, activity)?;
     Ok(pts.into_iter().map(|p| p.temperature).collect())
 }
 
@@ -572,13 +598,23 @@ pub fn indicators(components: &[Arc<Component>], mass_fractions: &[f64], opts: &
         RecoveryBasis::Mass => "mass",
         RecoveryBasis::Mole => "moles",
     };
+    let (liquid_text, raoult_text) = match opts.activity {
+        ActivityModel::Ideal => ("ideal liquid (Raoult)", "Raoult's law, Σ x_i p_sat,i(T) = p"),
+        ActivityModel::Unifac => ("liquid activity coefficients by original UNIFAC", "the modified Raoult's law with UNIFAC activity coefficients, Σ x_i γ_i p_sat,i(T) = p"),
+    };
     let curve_method = |what: &str| {
         format!(
-            "simulated single-stage batch (Rayleigh) distillation at {p_text}, ideal liquid (Raoult), liquid at its bubble point; {what}, evaporated fraction on a {basis_text} basis; RK4 in −ln(1−F)"
+            "simulated single-stage batch (Rayleigh) distillation at {p_text}, {liquid_text}, liquid at its bubble point; {what}, evaporated fraction on a {basis_text} basis; RK4 in −ln(1−F)"
         )
     };
-    let near_critical = liquid::subcritical_bubble_point(components, &x, opts.pressure).err().filter(|_| liquid::bubble_point(components, &x, opts.pressure).is_ok());
-    match distillation_temperatures(components, &x, opts.pressure, opts.recovery_basis, &fractions, opts.max_step) {
+    let near_critical = {
+        let mut act = crate::props::activity::Activity::new(opts.activity, components).ok();
+        match act.as_mut() {
+            Some(a) => liquid::subcritical_bubble_point_with(components, a, &x, opts.pressure).err().filter(|_| liquid::bubble_point(components, &x, opts.pressure).is_ok()),
+            None => None,
+        }
+    };
+    match distillation_temperatures(components, &x, opts.pressure, opts.recovery_basis, &fractions, opts.max_step, opts.activity) {
         Ok(_) if near_critical.is_some() => {
             for key in ["bubble_point_K", "initial_boiling_point_K", "t10_K", "t20_K", "t50_K", "t90_K", "final_boiling_point_K"] {
                 ind.set(key, None, curve_method("distillation"));
@@ -586,7 +622,7 @@ pub fn indicators(components: &[Arc<Component>], mass_fractions: &[f64], opts: &
             }
         }
         Ok(t) => {
-            ind.set("bubble_point_K", Some(t[0]), format!("bubble point at {p_text} by Raoult's law, Σ x_i p_sat,i(T) = p"));
+            ind.set("bubble_point_K", Some(t[0]), format!("bubble point at {p_text} by {raoult_text}"));
             ind.set("initial_boiling_point_K", Some(t[0]), curve_method("IBP = bubble point of the initial liquid"));
             ind.set("t10_K", Some(t[1]), curve_method("T at 10 % evaporated"));
             ind.set("t20_K", Some(t[2]), curve_method("T at 20 % evaporated"));
@@ -603,10 +639,14 @@ pub fn indicators(components: &[Arc<Component>], mass_fractions: &[f64], opts: &
     }
 
     // --- vapour pressure at 38 °C ------------------------------------------------------------------
+    let tvp = match Activity::new(opts.activity, components) {
+        Ok(mut act) => Some(act.bubble_pressure(components, &x, T_38C)),
+        Err(_) => None,
+    };
     ind.set(
         "vapor_pressure_38C_Pa",
-        Some(liquid::bubble_pressure(components, &x, T_38C)),
-        "true vapour pressure at 38 °C by Raoult's law, Σ x_i p_sat,i (no air, no vapour/liquid ratio: not a Reid vapour pressure)",
+        tvp,
+        format!("true vapour pressure at 38 °C by {raoult_text} at 38 °C (no air, no vapour/liquid ratio: not a Reid vapour pressure)"),
     );
 
     // --- flash point -------------------------------------------------------------------------------
@@ -622,11 +662,14 @@ pub fn indicators(components: &[Arc<Component>], mass_fractions: &[f64], opts: &
             t
         })
         .collect();
-    let fp = liaw_flash_point(components, &x, &pure_fp);
+    let fp = liaw_flash_point(components, &x, &pure_fp, opts.activity);
     ind.set(
         "flash_point_K",
         fp,
-        "Liaw et al. (2002) ideal-solution model: Σ x_i p_sat,i(T)/p_sat,i(T_fp,i) = 1 with the components' closed-cup flash points (Le Chatelier + Raoult)",
+        match opts.activity {
+            ActivityModel::Ideal => "Liaw et al. (2002) ideal-solution model: Σ x_i p_sat,i(T)/p_sat,i(T_fp,i) = 1 with the components' closed-cup flash points (Le Chatelier + Raoult)",
+            ActivityModel::Unifac => "Liaw et al. (2002) non-ideal model: Σ x_i γ_i p_sat,i(T)/p_sat,i(T_fp,i) = 1 with UNIFAC γ_i and the components' closed-cup flash points (Le Chatelier + modified Raoult)",
+        },
     );
     if fp.is_none() {
         ind.note("flash_point_K", "not computed: no root between the lowest and highest component flash points");
@@ -808,10 +851,10 @@ mod tests {
         let l = lib();
         let comps = vec![l.component("n-decane").unwrap().clone(), l.component("n-dodecane").unwrap().clone()];
         let fp = [319.15, 347.15];
-        let t = liaw_flash_point(&comps, &[0.5, 0.5], &fp).unwrap();
+        let t = liaw_flash_point(&comps, &[0.5, 0.5], &fp, ActivityModel::Ideal).unwrap();
         assert!(t > fp[0] && t < fp[1]);
         // more of the light component lowers it
-        let t2 = liaw_flash_point(&comps, &[0.8, 0.2], &fp).unwrap();
+        let t2 = liaw_flash_point(&comps, &[0.8, 0.2], &fp, ActivityModel::Ideal).unwrap();
         assert!(t2 < t);
     }
 

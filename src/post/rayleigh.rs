@@ -23,6 +23,7 @@
 use std::sync::Arc;
 
 use crate::data::Component;
+use crate::props::activity::{Activity, ActivityModel};
 use crate::props::liquid;
 
 use super::PostError;
@@ -39,6 +40,8 @@ pub enum PathMode {
 /// Reusable scratch space for the bubble-point solve and the right-hand side.
 struct Evaluator<'a> {
     components: &'a [Arc<Component>],
+    /// Liquid activity model (γ = 1: Raoult's law), K_i = γ_i p_sat,i/p.
+    activity: Activity,
     weights: &'a [f64],
     mode: PathMode,
     x: Vec<f64>,
@@ -53,12 +56,13 @@ struct Evaluator<'a> {
 const BUBBLE_TOL: f64 = 1e-10;
 
 impl<'a> Evaluator<'a> {
-    /// ln Σ x_i p_sat,i(t), filling `k` with p_sat,i(t).
+    /// ln Σ x_i γ_i p_sat,i(t), filling `k` with γ_i p_sat,i(t).
     #[inline]
     fn log_bubble_pressure(&mut self, t: f64) -> f64 {
         let mut s = 0.0;
-        for ((c, x), k) in self.components.iter().zip(&self.x).zip(self.k.iter_mut()) {
-            *k = c.vapor_pressure(t);
+        let gamma = self.activity.gammas(&self.x, t);
+        for (((c, x), k), g) in self.components.iter().zip(&self.x).zip(self.k.iter_mut()).zip(gamma) {
+            *k = g * c.vapor_pressure(t);
             s += x * *k;
         }
         s.ln()
@@ -99,7 +103,7 @@ impl<'a> Evaluator<'a> {
             f0 = f1;
         }
         // Robust fallback: bracketed search of the props layer.
-        let t = liquid::bubble_point(self.components, &self.x, p)?;
+        let t = liquid::bubble_point_with(self.components, &mut self.activity, &self.x, p)?;
         self.log_bubble_pressure(t);
         self.t_guess = t;
         Ok(t)
@@ -125,7 +129,13 @@ impl<'a> Evaluator<'a> {
                 }
                 t
             }
-            PathMode::Isothermal(t) => t, // k already holds p_sat,i(T) (any common scale cancels)
+            PathMode::Isothermal(t) => {
+                // k holds p_sat,i(T) for the ideal liquid (any common scale cancels); γ_i p_sat,i(T) otherwise
+                if !self.activity.is_ideal() {
+                    self.log_bubble_pressure(t);
+                }
+                t
+            }
         };
         let mut num = 0.0;
         let mut den = 0.0;
@@ -164,8 +174,10 @@ pub fn integrate(
     mode: PathMode,
     fractions: &[f64],
     max_step: f64,
+    activity: ActivityModel,
 ) -> Result<(Vec<PathPoint>, usize), PostError> {
     let n = components.len();
+    let activity = Activity::new(activity, components).map_err(|e| PostError::Input { what: "activity", message: e.to_string() })?;
     if n == 0 || x0.len() != n || weights.len() != n {
         return Err(PostError::Input { what: "rayleigh path", message: "components, fractions and weights differ in length".into() });
     }
@@ -196,8 +208,10 @@ pub fn integrate(
             t
         }
     };
+    let ideal = activity.is_ideal();
     let mut ev = Evaluator {
         components,
+        activity,
         weights,
         mode,
         x: x0.to_vec(),
@@ -217,7 +231,9 @@ pub fn integrate(
     }
     let total: f64 = x0.iter().sum();
     if let PathMode::Isothermal(t) = mode {
-        return Ok((isothermal(&ev.k, x0, total, weights, fractions, t), 0));
+        if ideal {
+            return Ok((isothermal(&ev.k, x0, total, weights, fractions, t), 0));
+        }
     }
     let mut ln_n: Vec<f64> = x0.iter().map(|x| (x / total).ln()).collect();
     let mut stage = vec![0.0; n];
@@ -344,6 +360,24 @@ mod tests {
         Library::embedded().unwrap()
     }
 
+    /// The UNIFAC path (RK4, γ re-evaluated at each stage) of two components with the same UNIFAC groups
+    /// (m- and p-xylene: γ = 1 identically) reproduces the closed-form Rayleigh equation at constant T.
+    #[test]
+    fn isothermal_unifac_path_matches_rayleigh_for_an_ideal_pair() {
+        let l = lib();
+        let comps = vec![l.component("m-xylene").unwrap().clone(), l.component("p-xylene").unwrap().clone()];
+        let t = 360.0;
+        let alpha = comps[0].vapor_pressure(t) / comps[1].vapor_pressure(t);
+        let fr = [0.1, 0.5, 0.9];
+        let (pts, evaluations) = integrate(&comps, &[0.5, 0.5], &[1.0, 1.0], PathMode::Isothermal(t), &fr, 0.02, crate::props::activity::ActivityModel::Unifac).unwrap();
+        assert!(evaluations > 0, "the RK4 path ran");
+        for p in &pts {
+            let remaining = 1.0 - p.evaporated_fraction;
+            let (n1, n2) = (remaining * p.mole_fractions[0] / 0.5, remaining * p.mole_fractions[1] / 0.5);
+            assert!((n1.ln() - alpha * n2.ln()).abs() < 1e-7, "F = {}", p.evaporated_fraction);
+        }
+    }
+
     /// Constant-temperature binary: ln(n1/n10) = α ln(n2/n20) with α = p1/p2 (Rayleigh, constant volatility).
     #[test]
     fn isothermal_binary_matches_rayleigh_equation() {
@@ -354,7 +388,7 @@ mod tests {
         let x0 = [0.5, 0.5];
         let w = [1.0, 1.0];
         let fr = [0.1, 0.3, 0.5, 0.7, 0.9, 0.99];
-        let (pts, _) = integrate(&comps, &x0, &w, PathMode::Isothermal(t), &fr, 0.1).unwrap();
+        let (pts, _) = integrate(&comps, &x0, &w, PathMode::Isothermal(t), &fr, 0.1, Default::default()).unwrap();
         for p in &pts {
             let remaining = 1.0 - p.evaporated_fraction;
             let n1 = remaining * p.mole_fractions[0] / 0.5;
@@ -369,7 +403,7 @@ mod tests {
     fn pure_component_is_flat() {
         let l = lib();
         let comps = vec![l.component("n-decane").unwrap().clone()];
-        let (pts, _) = integrate(&comps, &[1.0], &[1.0], PathMode::Isobaric(101_325.0), &[0.0, 0.5, 0.995], 0.2).unwrap();
+        let (pts, _) = integrate(&comps, &[1.0], &[1.0], PathMode::Isobaric(101_325.0), &[0.0, 0.5, 0.995], 0.2, Default::default()).unwrap();
         let tb = liquid::bubble_point(&comps, &[1.0], 101_325.0).unwrap();
         for p in &pts {
             assert!((p.temperature - tb).abs() < 1e-6, "{} vs {tb}", p.temperature);
@@ -384,8 +418,8 @@ mod tests {
         let x = fuel.mole_fractions();
         let w = basis_weights(&fuel.components, RecoveryBasis::Volume);
         let fr = [0.0, 0.1, 0.2, 0.5, 0.9, 0.995];
-        let (a, _) = integrate(&fuel.components, &x, &w, PathMode::Isobaric(101_325.0), &fr, crate::post::indicators::DEFAULT_MAX_STEP).unwrap();
-        let (b, _) = integrate(&fuel.components, &x, &w, PathMode::Isobaric(101_325.0), &fr, 0.005).unwrap();
+        let (a, _) = integrate(&fuel.components, &x, &w, PathMode::Isobaric(101_325.0), &fr, crate::post::indicators::DEFAULT_MAX_STEP, Default::default()).unwrap();
+        let (b, _) = integrate(&fuel.components, &x, &w, PathMode::Isobaric(101_325.0), &fr, 0.005, Default::default()).unwrap();
         for (p, q) in a.iter().zip(&b) {
             assert!((p.temperature - q.temperature).abs() < 0.01, "F {}: {} vs {}", p.evaporated_fraction, p.temperature, q.temperature);
         }

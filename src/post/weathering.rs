@@ -48,6 +48,7 @@ pub fn weathering_residues(
     mass_fractions: &[f64],
     temperature: f64,
     evaporated_fractions: &[f64],
+    activity: crate::props::activity::ActivityModel,
 ) -> Result<Vec<Residue>, PostError> {
     let w = normalised(components, mass_fractions, "mass fractions")?;
     let x = liquid::mass_to_mole(components, &w);
@@ -55,7 +56,7 @@ pub fn weathering_residues(
     let comps: Vec<Arc<Component>> = active.iter().map(|&i| components[i].clone()).collect();
     let xa: Vec<f64> = active.iter().map(|&i| x[i]).collect();
     let weights = rayleigh::basis_weights(&comps, RecoveryBasis::Mass);
-    let (pts, _) = rayleigh::integrate(&comps, &xa, &weights, PathMode::Isothermal(temperature), evaporated_fractions, 1.0)?; // closed form: no step
+    let (pts, _) = rayleigh::integrate(&comps, &xa, &weights, PathMode::Isothermal(temperature), evaporated_fractions, 0.02, activity)?; // ideal: closed form, no step
     Ok(pts
         .into_iter()
         .map(|p| {
@@ -88,7 +89,7 @@ pub fn weathering_table(
     evaporated_fractions: &[f64],
     opts: &IndicatorOptions,
 ) -> Result<Vec<ResidueRow>, PostError> {
-    let residues = weathering_residues(components, mass_fractions, temperature, evaporated_fractions)?;
+    let residues = weathering_residues(components, mass_fractions, temperature, evaporated_fractions, opts.activity)?;
     residue_table(components, &residues, opts)
 }
 
@@ -105,7 +106,7 @@ mod tests {
         let fuel = Fuel::resolve("demo-wide", &l).unwrap();
         let t = 400.0;
         let fr = default_fractions();
-        let res = weathering_residues(&fuel.components, &fuel.mass_fractions, t, &fr).unwrap();
+        let res = weathering_residues(&fuel.components, &fuel.mass_fractions, t, &fr, Default::default()).unwrap();
         let x0 = fuel.mole_fractions();
         let p: Vec<f64> = fuel.components.iter().map(|c| c.vapor_pressure(t)).collect();
         let m: Vec<f64> = fuel.components.iter().map(|c| c.molar_mass()).collect();
@@ -146,7 +147,7 @@ mod tests {
         assert_eq!(rows.len(), 3);
         assert_eq!(rows[1].indicators.evaporated_fraction, Some(0.5));
         assert!(rows[2].indicators.bubble_point_K.unwrap() > rows[0].indicators.bubble_point_K.unwrap());
-        assert!(weathering_residues(&fuel.components, &fuel.mass_fractions, 380.0, &[0.5, 0.2]).is_err());
-        assert!(weathering_residues(&fuel.components, &fuel.mass_fractions, 380.0, &[1.0]).is_err());
+        assert!(weathering_residues(&fuel.components, &fuel.mass_fractions, 380.0, &[0.5, 0.2], Default::default()).is_err());
+        assert!(weathering_residues(&fuel.components, &fuel.mass_fractions, 380.0, &[1.0], Default::default()).is_err());
     }
 }

@@ -5,6 +5,8 @@ use std::sync::Arc;
 
 use crate::data::Component;
 
+use super::activity::Activity;
+
 use super::PropertyError;
 
 /// Mass fractions → mole fractions.
@@ -182,6 +184,34 @@ pub fn dew_point(components: &[Arc<Component>], y: &[f64], p: f64) -> Result<f64
     .ok_or(PropertyError::NoSolution { what: "dew point", pressure: p })
 }
 
+/// Bubble-point temperature at pressure `p` with activity coefficients: Σ x_i γ_i(x, T) p_sat,i(T) = p [K]
+/// (the ideal `activity` gives [`bubble_point`]). No allocation.
+pub fn bubble_point_with(components: &[Arc<Component>], activity: &mut Activity, x: &[f64], p: f64) -> Result<f64, PropertyError> {
+    if activity.is_ideal() {
+        return bubble_point(components, x, p);
+    }
+    if !(p.is_finite() && p > 0.0) {
+        return Err(PropertyError::Invalid { what: "pressure", value: p });
+    }
+    let hi = search_ceiling(components);
+    solve_increasing(|t| (activity.bubble_pressure(components, x, t) / p).ln(), 20.0, hi, 1e-9)
+        .ok_or(PropertyError::NoSolution { what: "bubble point", pressure: p })
+}
+
+/// Dew-point temperature at pressure `p` for vapour mole fractions `y` with activity coefficients of the
+/// equilibrium liquid: Σ y_i p/(γ_i p_sat,i(T)) = 1 [K] (the ideal `activity` gives [`dew_point`]).
+pub fn dew_point_with(components: &[Arc<Component>], activity: &mut Activity, y: &[f64], p: f64) -> Result<f64, PropertyError> {
+    if activity.is_ideal() {
+        return dew_point(components, y, p);
+    }
+    if !(p.is_finite() && p > 0.0) {
+        return Err(PropertyError::Invalid { what: "pressure", value: p });
+    }
+    let hi = search_ceiling(components);
+    solve_increasing(|t| -activity.dew_sum(components, y, p, t).ln(), 20.0, hi, 1e-9)
+        .ok_or(PropertyError::NoSolution { what: "dew point", pressure: p })
+}
+
 /// Mixture pseudo-critical temperature by Kay's rule Σ x_i T_c,i [K].
 pub fn pseudo_critical_temperature(components: &[Arc<Component>], x: &[f64]) -> f64 {
     components.iter().zip(x).map(|(c, x)| x * c.critical_temperature()).sum()
@@ -196,11 +226,17 @@ pub fn pseudo_critical_pressure(components: &[Arc<Component>], x: &[f64]) -> f64
 /// a Raoult bubble point at or above it is an extrapolation of the vapour-pressure correlations into the critical
 /// region (e.g. n-dodecane at 30 bar: 698 K against T_c = 658 K) and is reported as none, with the reason.
 pub fn subcritical_bubble_point(components: &[Arc<Component>], x: &[f64], pressure: f64) -> Result<f64, String> {
-    let t_b = bubble_point(components, x, pressure).map_err(|e| e.to_string())?;
+    subcritical_bubble_point_with(components, &mut Activity::ideal(components.len()), x, pressure)
+}
+
+/// [`subcritical_bubble_point`] with a liquid activity model (ideal: Raoult's law) [K].
+pub fn subcritical_bubble_point_with(components: &[Arc<Component>], activity: &mut Activity, x: &[f64], pressure: f64) -> Result<f64, String> {
+    let t_b = bubble_point_with(components, activity, x, pressure).map_err(|e| e.to_string())?;
     let t_pc = pseudo_critical_temperature(components, x);
     if t_b >= t_pc {
+        let law = if activity.is_ideal() { "Raoult's law" } else { "the modified Raoult's law (UNIFAC)" };
         return Err(format!(
-            "no bubble point at {:.4} MPa: Raoult's law would put it at {t_b:.1} K, at or above the liquid's pseudo-critical temperature {t_pc:.1} K (Kay's rule): the liquid is in its critical region, outside the ideal-solution model",
+            "no bubble point at {:.4} MPa: {law} would put it at {t_b:.1} K, at or above the liquid's pseudo-critical temperature {t_pc:.1} K (Kay's rule): the liquid is in its critical region, outside the ideal-solution model",
             pressure / 1e6
         ));
     }

@@ -1,6 +1,7 @@
 //! Properties layer: pure components (published correlations or corresponding states), liquid mixtures,
 //! ambient gas and gas-film mixtures.
 
+pub mod activity;
 pub mod gas;
 pub mod joback;
 pub mod liquid;

@@ -36,7 +36,8 @@ impl ExtraColumns for ResidueIndicators {
         if w.len() != inputs.fuel.len() || !(w.iter().sum::<f64>() > 0.0) {
             return none;
         }
-        match indicators(&inputs.fuel.components, w, &self.options) {
+        let options = IndicatorOptions { activity: inputs.liquid.activity, ..self.options.clone() };
+        match indicators(&inputs.fuel.components, w, &options) {
             Ok(ind) => RESIDUE_KEYS.iter().map(|k| ind.get(k).flatten()).collect(),
             Err(_) => none,
         }

@@ -71,13 +71,16 @@ pub const LIQUID_MIXING: [&str; 2] = ["well-mixed", "diffusion"];
 /// Names of the liquid heat-transport models.
 pub const LIQUID_HEAT: [&str; 2] = ["uniform", "conduction"];
 
+/// Names of the liquid activity models.
+pub const ACTIVITY_MODELS: [&str; 2] = ["ideal", "unifac"];
+
 /// Keywords of the `radiation` variable.
 pub const RADIATION_WORDS: [&str; 2] = ["off", "ambient"];
 /// Keyword of the `fibre-diameter` variable (no fibre).
 pub const FIBRE_WORDS: [&str; 1] = ["none"];
 
 /// The condition variables in case-id order (the last varies fastest); defaults equal those of `simulate`.
-pub const VARIABLES: [Variable; 23] = [
+pub const VARIABLES: [Variable; 24] = [
     var("ambient-temperature", "ambient_temperature_K", Kind::Quantity(Quantity::Temperature), "800K"),
     var("pressure", "pressure_Pa", Kind::Quantity(Quantity::Pressure), "1atm"),
     var("gas", "gas", Kind::Gas, "air"),
@@ -101,6 +104,7 @@ pub const VARIABLES: [Variable; 23] = [
     Variable { key: "fibre-conductivity", column: "fibre_conductivity_W_mK", kind: Kind::Quantity(Quantity::Dimensionless), default: "1.4", max: 500.0 },
     var("fibre-stems", "fibre_stems", Kind::Count(1, 4), "1"),
     var("drag", "drag", Kind::Choice(&DRAG_LAWS), "yuen-chen"),
+    var("activity", "activity", Kind::Choice(&ACTIVITY_MODELS), "ideal"),
 ];
 
 // Positions in VARIABLES (checked by a unit test).
@@ -127,6 +131,7 @@ const FIBRE_DIAMETER: usize = 19;
 const FIBRE_CONDUCTIVITY: usize = 20;
 const FIBRE_STEMS: usize = 21;
 const DRAG: usize = 22;
+const ACTIVITY: usize = 23;
 
 const TOP_KEYS: [&str; 7] = ["name", "description", "fuels", "zipped", "conditions", "model", "output"];
 const RANGE_KEYS: [&str; 4] = ["from", "to", "steps", "scale"];
@@ -443,6 +448,18 @@ impl SweepSpec {
             values.push(v);
         }
 
+        if let Values::List(models) = &values[ACTIVITY] {
+            for m in models {
+                if let Value::Choice(name) = m {
+                    let model = crate::props::activity::ActivityModel::parse(name).unwrap_or_default();
+                    for f in &fuels {
+                        if let Err(e) = crate::props::activity::Activity::new(model, &f.fuel.components) {
+                            return Err(ctx.err("conditions.activity", format!("{name} for fuel '{}': {e}", f.entry)));
+                        }
+                    }
+                }
+            }
+        }
         let groups = parse_zipped(&ctx, table.get("zipped"), &given, &values)?;
         let model = parse_model(&ctx, table.get("model"))?;
         let (histories, residue_indicators) = parse_output(&ctx, table.get("output"))?;
@@ -563,6 +580,7 @@ impl SweepSpec {
             non_equilibrium: flag(NON_EQUILIBRIUM),
             diffusivity_factor: num(DIFFUSIVITY_FACTOR),
             conductivity_factor: num(CONDUCTIVITY_FACTOR),
+            activity: crate::props::activity::ActivityModel::parse(choice(ACTIVITY)).unwrap_or_default(),
         };
         inp.extra_heat.radiation = match &case.values[RADIATION] {
             Value::Number(t) => Some(Radiation { temperature: Some(*t), absorption_efficiency: num(ABSORPTION) }),
@@ -981,6 +999,7 @@ velocity = [0, 5, 10]
             (FIBRE_CONDUCTIVITY, "fibre-conductivity"),
             (FIBRE_STEMS, "fibre-stems"),
             (DRAG, "drag"),
+            (ACTIVITY, "activity"),
         ];
         assert_eq!(keys.len(), VARIABLES.len());
         for (i, k) in keys {

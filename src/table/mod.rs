@@ -22,6 +22,7 @@ use crate::model::ModelError;
 use crate::post::indicators::freezing_point;
 use crate::post::PostError;
 use crate::props::gas::{gas_mixture_state, vapor_diffusion_coefficient, AmbientGas};
+use crate::props::activity::{Activity, ActivityModel};
 use crate::props::liquid;
 use crate::props::PropertyError;
 
@@ -202,8 +203,8 @@ fn major(x: &[f64]) -> Vec<bool> {
     m
 }
 
-/// Bubble point, critical limit and freezing point of a composition.
-pub fn range_limits(components: &[Arc<Component>], mass_fractions: &[f64], pressure: f64) -> RangeLimits {
+/// Bubble point (with the liquid activity model `activity`), critical limit and freezing point of a composition.
+pub fn range_limits(components: &[Arc<Component>], mass_fractions: &[f64], pressure: f64, activity: ActivityModel) -> RangeLimits {
     let x = liquid::mass_to_mole(components, mass_fractions);
     let m = major(&x);
     let (mut tc, mut id) = (f64::INFINITY, String::new());
@@ -214,7 +215,10 @@ pub fn range_limits(components: &[Arc<Component>], mass_fractions: &[f64], press
         }
     }
     let (tf, controlling, skipped) = freezing_point(components, &x);
-    let bubble = liquid::subcritical_bubble_point(components, &x, pressure);
+    let bubble = match Activity::new(activity, components) {
+        Ok(mut a) => liquid::subcritical_bubble_point_with(components, &mut a, &x, pressure),
+        Err(e) => Err(e.to_string()),
+    };
     RangeLimits {
         bubble_point: bubble.as_ref().ok().copied(),
         bubble_point_note: bubble.err().unwrap_or_default(),
@@ -321,9 +325,11 @@ pub struct VaporState {
     pub diffusivity: f64,
 }
 
-/// Equilibrium vapour of a liquid at `t` (Raoult): mole fractions ∝ x_i p_sat,i(T), as mass fractions.
-pub fn equilibrium_vapor_mass_fractions(components: &[Arc<Component>], mole_fractions: &[f64], t: f64) -> Vec<f64> {
-    let y: Vec<f64> = components.iter().zip(mole_fractions).map(|(c, x)| x * c.vapor_pressure(t) * c.molar_mass()).collect();
+/// Equilibrium vapour of a liquid at `t` (modified Raoult's law): mole fractions ∝ x_i γ_i p_sat,i(T), as mass
+/// fractions (γ from `activity`; 1 for the ideal liquid).
+pub fn equilibrium_vapor_mass_fractions(components: &[Arc<Component>], activity: &mut Activity, mole_fractions: &[f64], t: f64) -> Vec<f64> {
+    let gamma = activity.gammas(mole_fractions, t);
+    let y: Vec<f64> = components.iter().zip(mole_fractions).zip(gamma).map(|((c, x), g)| x * g * c.vapor_pressure(t) * c.molar_mass()).collect();
     let s: f64 = y.iter().sum();
     y.iter().map(|v| if s > 0.0 { v / s } else { 0.0 }).collect()
 }
@@ -434,11 +440,13 @@ impl MixtureRow {
     }
 }
 
-/// Evaluate one mixture row at `t` (mass fractions `w`) at table pressure `p` in `gas`.
-pub fn mixture_row(components: &[Arc<Component>], w: &[f64], gas: &AmbientGas, p: f64, t: f64, limits: &RangeLimits) -> MixtureRow {
+/// Evaluate one mixture row at `t` (mass fractions `w`) at table pressure `p` in `gas`, with the liquid activity
+/// model `activity` (bubble pressure and equilibrium vapour).
+pub fn mixture_row(components: &[Arc<Component>], activity: &mut Activity, w: &[f64], gas: &AmbientGas, p: f64, t: f64, limits: &RangeLimits) -> MixtureRow {
     let x = liquid::mass_to_mole(components, w);
-    let state = liquid::state(components, w, t);
-    let eps = equilibrium_vapor_mass_fractions(components, &x, t);
+    let mut state = liquid::state(components, w, t);
+    state.vapor_pressure_Pa = activity.bubble_pressure(components, &x, t);
+    let eps = equilibrium_vapor_mass_fractions(components, activity, &x, t);
     let latent_eq = components.iter().zip(&eps).map(|(c, e)| e * c.latent_heat(t)).sum();
     let vapor = vapor_state(components, &eps, gas, t, p);
     let liquid_diffusivity = mixture_liquid_diffusivity(components, &x, state.viscosity_Pa_s, t);
@@ -481,9 +489,10 @@ pub struct MixtureTable {
 
 /// Build the mixture table of `fuel` at `opts.pressure` over the user or default range.
 pub fn mixture_table(label: &str, fuel: &Fuel, opts: &TableOptions) -> Result<MixtureTable, TableError> {
-    let limits = range_limits(&fuel.components, &fuel.mass_fractions, opts.pressure);
+    let mut activity = Activity::new(opts.activity, &fuel.components).map_err(|e| input("activity", opts.activity.as_str().into(), format!("fuel {}: {e}", fuel.origin)))?;
+    let limits = range_limits(&fuel.components, &fuel.mass_fractions, opts.pressure, opts.activity);
     let grid = liquid_grid(&limits, opts.from, opts.to, opts.step)?;
-    let rows = grid.temperatures.iter().map(|t| mixture_row(&fuel.components, &fuel.mass_fractions, &opts.gas, opts.pressure, *t, &limits)).collect();
+    let rows = grid.temperatures.iter().map(|t| mixture_row(&fuel.components, &mut activity, &fuel.mass_fractions, &opts.gas, opts.pressure, *t, &limits)).collect();
     Ok(MixtureTable { label: label.to_string(), fuel: fuel.clone(), evaporated_fraction: None, pressure: opts.pressure, gas: opts.gas.label.clone(), limits, grid, rows })
 }
 
@@ -698,6 +707,8 @@ pub struct TableOptions {
     pub residue_temperature: f64,
     /// Surrogate fit (None = skip).
     pub surrogate: Option<surrogate::SurrogateOptions>,
+    /// Liquid activity model of the bubble point, bubble pressure, equilibrium vapour and weathering.
+    pub activity: ActivityModel,
 }
 
 impl TableOptions {
@@ -715,6 +726,7 @@ impl TableOptions {
             residue_fractions: vec![],
             residue_temperature: 350.0,
             surrogate: Some(surrogate::SurrogateOptions::default()),
+            activity: ActivityModel::Ideal,
         }
     }
 }
@@ -769,7 +781,7 @@ pub fn build(fuel: &Fuel, opts: &TableOptions) -> Result<TableSet, TableError> {
         fuel.components.iter().map(|c| component_table(c, &mixture.grid.temperatures, &vgrid.temperatures, &opts.gas, opts.pressure, &solvent)).collect();
     let mut residues = vec![];
     if !opts.residue_fractions.is_empty() {
-        let res = crate::post::weathering_residues(&fuel.components, &fuel.mass_fractions, opts.residue_temperature, &opts.residue_fractions)?;
+        let res = crate::post::weathering_residues(&fuel.components, &fuel.mass_fractions, opts.residue_temperature, &opts.residue_fractions, opts.activity)?;
         for r in res {
             let label = residue_label(r.evaporated_fraction);
             let name = format!("{} residue {:.2} (weathered at {} K)", fuel.name, r.evaporated_fraction, opts.residue_temperature);
@@ -823,9 +835,10 @@ mod tests {
     fn one_component_row_is_the_component() {
         let (_, fuel, gas) = setup("n-decane");
         let c = &fuel.components[0];
-        let limits = range_limits(&fuel.components, &fuel.mass_fractions, 101_325.0);
+        let limits = range_limits(&fuel.components, &fuel.mass_fractions, 101_325.0, ActivityModel::Ideal);
+        let mut ideal = Activity::ideal(fuel.components.len());
         for t in [260.0, 350.0, 440.0] {
-            let r = mixture_row(&fuel.components, &fuel.mass_fractions, &gas, 101_325.0, t, &limits);
+            let r = mixture_row(&fuel.components, &mut ideal, &fuel.mass_fractions, &gas, 101_325.0, t, &limits);
             let l = &r.liquid;
             assert!(close(l.density_kg_m3, c.liquid_density(t)) && close(l.cp_J_kgK, c.liquid_heat_capacity(t)) && close(l.viscosity_Pa_s, c.liquid_viscosity(t)));
             assert!(close(l.conductivity_W_mK, c.liquid_conductivity(t)) && close(l.surface_tension_N_m, c.surface_tension(t)));

@@ -306,7 +306,7 @@ impl SurrogateBasis {
         let target: f64 = comps.iter().zip(w).map(|(c, w)| w * gas.fuller_coefficient_of(c.molar_mass(), c.diffusion_volume())).sum();
         let diffusion_volume = bisect(|v| target - gas.fuller_coefficient_of(molar_mass, v), 1.0, 1e5)
             .ok_or_else(|| TableError::Fit("surrogate: no Fuller diffusion volume matches the mixture".into()))?;
-        let limits = range_limits(comps, w, 101_325.0);
+        let limits = range_limits(comps, w, 101_325.0, crate::props::activity::ActivityModel::Ideal);
         let melting = limits.freezing_point.unwrap_or_else(|| kay(&|c| c.constants.melting_point.value));
         let (lr, vr) = (liquid_range, vapor_range);
         let vapor_pressure = correlation(Form::Dippr101(p), lr);
@@ -321,6 +321,7 @@ impl SurrogateBasis {
             class: comps[main].class,
             formula: Formula { carbon: atoms(&|f| f.carbon), hydrogen: atoms(&|f| f.hydrogen), oxygen: atoms(&|f| f.oxygen) },
             joback_groups: vec![],
+            unifac_groups: vec![],
             constants: Constants {
                 molar_mass: sourced(molar_mass, "mean molar mass of the initial liquid"),
                 normal_boiling_point: sourced(tb, "where the fitted vapour-pressure curve reaches 1 atm"),
@@ -526,7 +527,7 @@ impl Fitter<'_> {
 /// `vapor_range` (extended to the highest ambient temperature of the runs).
 pub fn fit_surrogate(fuel: &Fuel, gas: &AmbientGas, liquid_grid: &super::TemperatureGrid, vapor_range: (f64, f64), opts: &SurrogateOptions) -> Result<Surrogate, TableError> {
     let cond = opts.reference;
-    let limits = range_limits(&fuel.components, &fuel.mass_fractions, cond.pressure);
+    let limits = range_limits(&fuel.components, &fuel.mass_fractions, cond.pressure, crate::props::activity::ActivityModel::Ideal);
     let t_hi = super::END_CRITICAL_FRACTION * limits.critical_temperature;
     let t_lo = liquid_grid.from.min(cond.droplet_temperature);
     let t_max_ambient = opts.evaluation.iter().map(|e| e.0).chain(std::iter::once(cond.ambient_temperature)).fold(0.0, f64::max);

@@ -354,7 +354,8 @@ fn reduce(inputs: &DropletInputs, run: &RunResult, z: Vec<f64>, grid: &[f64], se
     let (d2, surface_temperature) = on_grid(&run.history, grid, status == SampleStatus::Evaporated);
     let mut residue = vec![[None; 6]; settings.residue_fractions.len()];
     let residues = residues_along_history(&run.history, &settings.residue_fractions, Layer::Mean);
-    if let Ok(rows) = residue_table(&inputs.fuel.components, &residues, &settings.indicator_options) {
+    let indicator_options = IndicatorOptions { activity: inputs.liquid.activity, ..settings.indicator_options.clone() };
+    if let Ok(rows) = residue_table(&inputs.fuel.components, &residues, &indicator_options) {
         for row in rows {
             if let Some(j) = settings.residue_fractions.iter().position(|f| *f == row.evaporated_fraction) {
                 for (m, (key, _)) in RESIDUE_KEYS.iter().enumerate() {

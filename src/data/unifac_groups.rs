@@ -1,0 +1,111 @@
+//! The original-UNIFAC parameter tables (data): subgroup volumes R_k and areas Q_k with their main groups, and
+//! the main-group interaction parameters a_mn [K]. Parameter set: original UNIFAC (Fredenslund, Jones &
+//! Prausnitz 1975) with the published DDBST matrix = Hansen et al. (1991), Ind. Eng. Chem. Res. 30:2352, revised
+//! by Wittig, Lohmann & Gmehling (2003), Ind. Eng. Chem. Res. 42:183. The tables are the committed files
+//! `mixtures/unifac/*.csv`, written by `mixtures/tools/make_unifac_tables.py` (provenance in their headers);
+//! the activity-coefficient equations are in `props::activity`.
+
+use std::collections::HashMap;
+use std::sync::OnceLock;
+
+/// One original-UNIFAC subgroup.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Subgroup {
+    /// Name used in component files (`unifac-groups`), e.g. "ACCH3".
+    pub name: String,
+    /// Subgroup number of the published table.
+    pub number: u32,
+    /// Main-group number of the published table.
+    pub main_group: u32,
+    /// Main-group name.
+    pub main_group_name: String,
+    /// Van der Waals group volume R_k [-].
+    pub volume: f64,
+    /// Van der Waals group surface area Q_k [-].
+    pub area: f64,
+}
+
+/// The parsed parameter tables.
+#[derive(Debug)]
+pub struct UnifacTables {
+    /// Subgroups in table order.
+    pub subgroups: Vec<Subgroup>,
+    interactions: HashMap<(u32, u32), f64>,
+}
+
+/// Provenance line of the parameter set, for output metadata and docs.
+pub const PARAMETER_SET: &str = "original UNIFAC (Fredenslund, Jones & Prausnitz 1975), DDBST published matrix: Hansen et al. (1991) Ind. Eng. Chem. Res. 30:2352, revised by Wittig, Lohmann & Gmehling (2003) Ind. Eng. Chem. Res. 42:183";
+
+const SUBGROUPS_CSV: &str = include_str!("../../mixtures/unifac/original-unifac-subgroups.csv");
+const INTERACTIONS_CSV: &str = include_str!("../../mixtures/unifac/original-unifac-interactions.csv");
+
+fn data_lines(text: &str) -> impl Iterator<Item = Vec<&str>> {
+    text.lines().filter(|l| !l.starts_with('#') && !l.trim().is_empty()).skip(1).map(|l| l.split(',').collect())
+}
+
+fn parse() -> UnifacTables {
+    // The committed tables are checked by the unit tests below; a malformed table is a build defect.
+    let subgroups = data_lines(SUBGROUPS_CSV)
+        .map(|f| Subgroup {
+            name: f[0].to_string(),
+            number: f[1].parse().expect("subgroup number"),
+            main_group: f[2].parse().expect("main-group number"),
+            main_group_name: f[3].to_string(),
+            volume: f[4].parse().expect("R_k"),
+            area: f[5].parse().expect("Q_k"),
+        })
+        .collect();
+    let interactions = data_lines(INTERACTIONS_CSV)
+        .map(|f| ((f[0].parse().expect("main group m"), f[1].parse().expect("main group n")), f[2].parse().expect("a_mn")))
+        .collect();
+    UnifacTables { subgroups, interactions }
+}
+
+/// The tables, parsed on first use.
+pub fn tables() -> &'static UnifacTables {
+    static TABLES: OnceLock<UnifacTables> = OnceLock::new();
+    TABLES.get_or_init(parse)
+}
+
+/// Look a subgroup up by its name (exact, case-sensitive as in the published table).
+pub fn subgroup(name: &str) -> Option<&'static Subgroup> {
+    tables().subgroups.iter().find(|s| s.name == name)
+}
+
+impl UnifacTables {
+    /// Interaction parameter a_mn [K] between main groups m and n (0 for m = n); None where none is published.
+    pub fn interaction(&self, m: u32, n: u32) -> Option<f64> {
+        if m == n {
+            return Some(0.0);
+        }
+        self.interactions.get(&(m, n)).copied()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The committed tables parse, names are unique, and spot values match the published table as printed
+    /// in the transcription header's source (values cross-read from Poling, Prausnitz & O'Connell 5th ed.
+    /// Table 8-23/8-24 — from memory, so only the transcription is asserted, not the publication).
+    #[test]
+    fn tables_parse_and_spot_values() {
+        let t = tables();
+        assert_eq!(t.subgroups.len(), 113);
+        let mut names: Vec<&str> = t.subgroups.iter().map(|s| s.name.as_str()).collect();
+        names.sort();
+        names.dedup();
+        assert_eq!(names.len(), 113);
+        let ach = subgroup("ACH").unwrap();
+        assert_eq!((ach.number, ach.main_group, ach.volume, ach.area), (9, 3, 0.5313, 0.4));
+        let ch3 = subgroup("CH3").unwrap();
+        assert_eq!((ch3.main_group, ch3.volume, ch3.area), (1, 0.9011, 0.848));
+        assert_eq!(t.interaction(1, 3), Some(61.13));
+        assert_eq!(t.interaction(3, 1), Some(-11.12));
+        assert_eq!(t.interaction(1, 5), Some(986.5));
+        assert_eq!(t.interaction(5, 1), Some(156.4));
+        assert_eq!(t.interaction(4, 4), Some(0.0));
+        assert!(subgroup("ch3").is_none());
+    }
+}

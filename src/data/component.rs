@@ -243,6 +243,21 @@ pub struct Component {
     /// Multipliers on the ten properties, in [`Component::correlations`] order [-]: 1 everywhere except in
     /// uncertainty samples (`crate::uncertainty`), which set them with [`Component::with_property_scales`].
     pub property_scales: [f64; 10],
+    /// Coefficients of the extensions of the published correlations beyond their ranges, fitted to them on
+    /// first use (`crate::props::pure`); empty until then.
+    pub extensions: std::sync::OnceLock<Extensions>,
+}
+
+/// Coefficients that continue published correlations past their ranges (docs/property-methods.md), fitted
+/// to the published correlations themselves by `crate::props::pure::fit_extensions`.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct Extensions {
+    /// Hildebrand fluidity law 1/μ = a·V + b above the takeover temperature: (takeover [K], a [1/(Pa·s)/(m³/mol)],
+    /// b [1/(Pa·s)]); None when the liquid viscosity has no published coefficients or the fit failed.
+    pub fluidity: Option<(f64, f64, f64)>,
+    /// Wilhoit ideal-gas cp above the published range: (B [K], a0, a1, a2, cp at 0 K [J/(mol·K)], classical
+    /// limit [J/(mol·K)]); None when the ideal-gas cp is not a polynomial with a finite range.
+    pub wilhoit: Option<(f64, [f64; 3], f64, f64)>,
 }
 
 /// Default relative uncertainties (published coefficients, estimated) per property; docs/property-methods.md.
@@ -418,6 +433,7 @@ impl Component {
             },
             origin: file.to_string(),
             property_scales: [1.0; 10],
+            extensions: std::sync::OnceLock::new(),
         };
         component.check_plausible(&ctx)?;
         Ok(component)

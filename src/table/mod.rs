@@ -23,6 +23,7 @@ use crate::post::indicators::freezing_point;
 use crate::post::PostError;
 use crate::props::gas::{gas_mixture_state, vapor_diffusion_coefficient, AmbientGas};
 use crate::props::liquid;
+use crate::props::pure::{merge_excursions, RangeExcursion};
 use crate::props::PropertyError;
 
 use fit::{fit_property, FitForm, FitVariable, PolyFit};
@@ -114,8 +115,9 @@ pub const LIQUID_KEYS: [&str; 7] = ["vapor-pressure", "liquid-density", "latent-
 /// Correlations that feed the vapour columns.
 pub const VAPOR_KEYS: [&str; 3] = ["ideal-gas-heat-capacity", "vapor-viscosity", "vapor-conductivity"];
 
-/// Property keys (in `Component::correlations` order) whose correlation is outside its published range at `t`
-/// for any component with a positive fraction, among `keys`.
+/// Property keys (in `Component::correlations` order) used outside their valid range at `t`
+/// ([`Component::valid_range`]: the published correlation's range, or a published extension method inside the
+/// range it was stated or checked for) by any component with a positive fraction, among `keys`.
 pub fn extrapolated_properties(components: &[Arc<Component>], fractions: &[f64], t: f64, keys: &[&str]) -> Vec<&'static str> {
     let mut out = vec![];
     for k in 0..10 {
@@ -124,9 +126,9 @@ pub fn extrapolated_properties(components: &[Arc<Component>], fractions: &[f64],
             if *f <= 0.0 {
                 continue;
             }
-            let (key, corr) = c.correlations()[k];
-            if keys.contains(&key) && !corr.in_range(t) {
-                hit = Some(key);
+            let r = c.valid_range(k);
+            if keys.contains(&r.key) && !(t >= r.low && t <= r.high) {
+                hit = Some(r.key);
                 break;
             }
         }
@@ -135,6 +137,21 @@ pub fn extrapolated_properties(components: &[Arc<Component>], fractions: &[f64],
         }
     }
     out
+}
+
+/// Every (component, property) among `keys` used outside its valid range somewhere in `[from, to]`, with how
+/// far, for the components with a positive fraction.
+pub fn range_excursions(components: &[Arc<Component>], fractions: &[f64], from: f64, to: f64, keys: &[&str]) -> Vec<RangeExcursion> {
+    merge_excursions(components.iter().zip(fractions).filter(|(_, f)| **f > 0.0).flat_map(|(c, _)| c.outside_valid_ranges(from, to, keys)))
+}
+
+/// One line per excursion, or a statement that there is none.
+pub fn describe_excursions(list: &[RangeExcursion]) -> String {
+    if list.is_empty() {
+        "none: every property rests on its published correlation or a published extension inside its stated or checked range".into()
+    } else {
+        list.iter().map(|e| format!("{} ({})", e.describe(), e.method)).collect::<Vec<_>>().join("; ")
+    }
 }
 
 // ---------------------------------------------------------------------------------------------------------

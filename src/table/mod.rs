@@ -860,10 +860,16 @@ mod tests {
         let t = mixture_table("mixture", &fuel, &opts).unwrap();
         assert!((t.grid.from - 265.0).abs() < 1e-9 && (t.grid.to - 485.0).abs() < 1e-9, "{:?}", t.grid);
         assert_eq!(t.rows.len(), 45);
-        // cp's published range ends at 330 K: extrapolated above it
+        // cp's published polynomial ends at 330 K, but its Rowlinson–Bondi continuation is valid to 0.98 Tc:
+        // ok at 400 K; the surface tension (Mulero–Cachadiña from 273.15 K) is extrapolated below it
         let r400 = t.rows.iter().find(|r| (r.liquid.temperature_K - 400.0).abs() < 1e-9).unwrap();
-        assert_eq!(r400.validity, Validity::Extrapolated);
-        assert!(r400.extrapolated_properties.contains(&"liquid-heat-capacity"));
+        assert_eq!(r400.validity, Validity::Ok, "{:?}", r400.extrapolated_properties);
+        let flagged: Vec<f64> = t.rows.iter().filter(|r| r.validity == Validity::Extrapolated).map(|r| r.liquid.temperature_K).collect();
+        assert_eq!(flagged, vec![265.0, 270.0]);
+        assert_eq!(t.rows[0].extrapolated_properties, vec!["surface-tension"]);
+        let outside = range_excursions(&fuel.components, &fuel.mass_fractions, 265.0, 485.0, &LIQUID_KEYS);
+        assert_eq!(outside.len(), 1);
+        assert!((outside[0].below_K - (273.15 - 265.0)).abs() < 1e-9 && outside[0].above_K == 0.0, "{outside:?}");
         opts.pressure = 1e6;
         let t = mixture_table("mixture", &fuel, &opts).unwrap();
         assert!((t.grid.to - 610.0).abs() < 1e-9, "{:?}", t.grid);

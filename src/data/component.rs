@@ -257,8 +257,11 @@ pub struct Extensions {
     pub fluidity: Option<(f64, f64, f64)>,
     /// Wilhoit ideal-gas cp above the published range: (B [K], a0, a1, a2, cp at 0 K [J/(mol·K)], classical
     /// limit [J/(mol·K)]); None when the ideal-gas cp is not a polynomial with a finite range.
-    pub wilhoit: Option<(f64, [f64; 3], f64, f64)>,
+    pub wilhoit: Option<WilhoitCoefficients>,
 }
+
+/// Wilhoit ideal-gas cp coefficients: (B [K], [a0, a1, a2], cp at 0 K [J/(mol·K)], classical limit [J/(mol·K)]).
+pub type WilhoitCoefficients = (f64, [f64; 3], f64, f64);
 
 /// Default relative uncertainties (published coefficients, estimated) per property; docs/property-methods.md.
 pub const DEFAULT_UNCERTAINTY: [(&str, f64, f64); 10] = [

@@ -1,7 +1,7 @@
 //! Pure-component properties in SI mass basis, from published correlations or, where a component file
 //! says `corresponding-states`, from the constants by the methods named in docs/property-methods.md.
 
-use crate::data::component::Extensions;
+use crate::data::component::{Extensions, WilhoitCoefficients};
 use crate::data::{Component, Correlation, Form, HydrocarbonClass, GAS_CONSTANT};
 
 /// Highest reduced temperature at which corresponding-states liquid forms are evaluated.
@@ -236,7 +236,7 @@ pub fn merge_excursions(list: impl IntoIterator<Item = RangeExcursion>) -> Vec<R
 /// Wilhoit (1975) ideal-gas heat capacity [J/(mol·K)]: cp = cp0 + (cp∞ − cp0) y² [1 + (y − 1)(a0 + a1 y + a2 y²)],
 /// y = T/(T + B), for `w` = (B, [a0, a1, a2], cp0, cp∞).
 #[inline]
-pub fn wilhoit_cp(t: f64, w: (f64, [f64; 3], f64, f64)) -> f64 {
+pub fn wilhoit_cp(t: f64, w: WilhoitCoefficients) -> f64 {
     let (b, a, cp0, cp_inf) = w;
     let y = t.max(0.0) / (t.max(0.0) + b);
     cp0 + (cp_inf - cp0) * y * y * (1.0 + (y - 1.0) * (a[0] + y * (a[1] + y * a[2])))
@@ -244,13 +244,13 @@ pub fn wilhoit_cp(t: f64, w: (f64, [f64; 3], f64, f64)) -> f64 {
 
 /// Least-squares Wilhoit fit [(B, a, cp0, cp∞), worst relative error] to molar cp values `cp` at `t`, with
 /// cp0 = 4R (non-linear molecule) and cp∞ = (3N − 2)R; B scanned over 50–700 K in 10 K steps.
-pub fn fit_wilhoit(t: &[f64], cp: &[f64], atoms: u32) -> Option<((f64, [f64; 3], f64, f64), f64)> {
+pub fn fit_wilhoit(t: &[f64], cp: &[f64], atoms: u32) -> Option<(WilhoitCoefficients, f64)> {
     let cp0 = 4.0 * GAS_CONSTANT;
     let cp_inf = (3.0 * f64::from(atoms) - 2.0) * GAS_CONSTANT;
     if atoms < 3 || t.len() < 4 || cp.iter().any(|c| !(c.is_finite() && *c > cp0 && *c < cp_inf)) {
         return None;
     }
-    let mut best: Option<((f64, [f64; 3], f64, f64), f64)> = None;
+    let mut best: Option<(WilhoitCoefficients, f64)> = None;
     for step in 0..=65 {
         let b = 50.0 + 10.0 * f64::from(step);
         // (cp − cp0)/((cp∞ − cp0) y²) − 1 = (y − 1)(a0 + a1 y + a2 y²): linear least squares via normal equations
@@ -288,8 +288,9 @@ fn solve3(mut m: [[f64; 3]; 3], mut r: [f64; 3]) -> Option<[f64; 3]> {
         r.swap(col, p);
         for row in col + 1..3 {
             let f = m[row][col] / m[col][col];
-            for k in col..3 {
-                m[row][k] -= f * m[col][k];
+            let pivot = m[col];
+            for (v, p) in m[row].iter_mut().zip(pivot).skip(col) {
+                *v -= f * p;
             }
             r[row] -= f * r[col];
         }
@@ -333,7 +334,7 @@ fn fit_fluidity(c: &Component) -> Option<(f64, f64, f64)> {
 }
 
 /// Wilhoit fit to a published ideal-gas cp polynomial over its range (41 points).
-fn fit_component_wilhoit(c: &Component) -> Option<(f64, [f64; 3], f64, f64)> {
+fn fit_component_wilhoit(c: &Component) -> Option<WilhoitCoefficients> {
     let corr = &c.ideal_gas_heat_capacity;
     if !matches!(corr.form, Form::Dippr100(_)) || corr.t_max >= 1e4 {
         return None;

@@ -3,7 +3,7 @@
 
 Writes, under validation/coolprop/ (next to this script):
   <id>.csv         saturated-liquid properties (Q = 0) on a 5 K grid
-  <id>_vapor.csv   dilute-gas properties on a 25 K grid
+  <id>_vapor.csv   dilute-gas properties on a 25 K grid, 300-1500 K
   constants.csv    molar mass, critical point, acentric factor, normal
                    boiling point, triple point and EOS reference per fluid
 
@@ -56,6 +56,7 @@ ABSENT_TRIES = {
     "2-2-4-trimethylpentane": ["Isooctane", "IsoOctane", "iso-octane", "2,2,4-trimethylpentane", "540-84-1"],
 }
 
+T_VAPOR_END = 1500.0  # K; upper end of the dilute-gas grid (ideal-gas cp checked to 1500 K)
 R_PA_DILUTE = 1.0  # Pa; pressure of the dilute-gas state (zero-density limit in practice)
 P_ATM = 101325.0
 FMT = "%.10g"
@@ -203,7 +204,7 @@ def vapor_table(fid, name):
     notes = {}
     rows = []
     T = 300.0
-    while T <= 1000.0 + 1e-9:
+    while T <= T_VAPOR_END + 1e-9:
         rho_molar = R_PA_DILUTE / (Ru * T)  # ideal-gas density at 1 Pa
         AS.update(CP.DmolarT_INPUTS, rho_molar, T)
         cp0 = safe(AS.cp0mass, notes, "ideal_gas_cp")
@@ -221,7 +222,8 @@ def vapor_table(fid, name):
     ]
     hdr = common_header(name, "Dilute-gas reference properties of %s vapour for dropcut validation." % fid)
     hdr += [
-        "state: T on a 25 K grid 300..1000 K, molar density = (%.0f Pa)/(R T) set with DmolarT inputs"
+        "state: T on a 25 K grid 300..%.0f K,"
+        % T_VAPOR_END + " molar density = (%.0f Pa)/(R T) set with DmolarT inputs"
         " (well below the saturation pressure at every T of the grid)" % R_PA_DILUTE,
         "EOS stated range: T_triple %.3f K .. T_max %.1f K; CoolProp evaluates above T_max without error, see beyond_eos_tmax"
         % (AS.Ttriple(), Tmax_eos),

@@ -1,6 +1,6 @@
 //! Checks of the property tables (`dropcut table`): the n-dodecane table against the CoolProp 8.0.0 reference
-//! (same tolerances and scoring as the property checks: only rows where the library's correlation is inside
-//! its published range are judged), and the single-component surrogate (lifetime at the reference condition,
+//! (same tolerances as the property checks: rows where the library's property is inside its valid range
+//! — the published correlation or its extension method, `Component::valid_range` — are judged), and the single-component surrogate (lifetime at the reference condition,
 //! its reported errors recomputed by independent droplet runs, and the identity limit of a pure fuel).
 
 use super::properties::{KNOWN_FAILURES, KNOWN_FAILURE_MARKER, TOL_IDEAL_GAS_CP, TOL_LATENT_HEAT, TOL_LIQUID_CONDUCTIVITY, TOL_LIQUID_CP, TOL_LIQUID_DENSITY, TOL_LIQUID_VISCOSITY, TOL_SURFACE_TENSION, TOL_VAPOR_CONDUCTIVITY, TOL_VAPOR_PRESSURE, TOL_VAPOR_VISCOSITY};
@@ -91,7 +91,7 @@ const VAPOR_PAIRS: [Pair; 3] = [
 ];
 
 /// Compare `table` rows (temperature first) with the reference rows at equal temperatures; rows where the
-/// correlation is outside its published range, outside `window`, or flagged beyond the EOS range are not judged.
+/// property is outside its valid range, outside `window`, or flagged beyond the EOS range are not judged.
 #[allow(clippy::too_many_arguments)]
 fn compare(c: &Component, what: &str, table_header: &[&str], table_rows: &[Vec<Option<f64>>], reference: &str, pair: &Pair, window: (f64, f64), source: &str) -> CheckResult {
     let (ref_header, ref_rows) = parse_csv(reference);
@@ -103,6 +103,8 @@ fn compare(c: &Component, what: &str, table_header: &[&str], table_rows: &[Vec<O
         return failed(GROUP_COOLPROP, format!("{} {} table: column {}", c.id, pair.label, pair.table_column), source, "missing".into());
     };
     let corr = (pair.correlation)(c);
+    let index = c.correlations().iter().position(|(k, _)| *k == pair.key).unwrap_or(0);
+    let valid = c.valid_range(index);
     let (mut worst, mut at, mut judged, mut skipped, mut beyond_eos) = (0.0f64, f64::NAN, 0usize, 0usize, 0usize);
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     for r in &ref_rows {
@@ -116,7 +118,7 @@ fn compare(c: &Component, what: &str, table_header: &[&str], table_rows: &[Vec<O
             beyond_eos += 1;
             continue;
         }
-        if !corr.in_range(t) {
+        if !(t >= valid.low && t <= valid.high) {
             skipped += 1;
             continue;
         }
@@ -129,7 +131,11 @@ fn compare(c: &Component, what: &str, table_header: &[&str], table_rows: &[Vec<O
             at = t;
         }
     }
-    let mut skipped_text = if skipped > 0 { format!("; {skipped} matching rows outside the published range {:.1}–{:.1} K of '{}' not judged", corr.t_min, corr.t_max, corr.source) } else { String::new() };
+    let mut skipped_text = if skipped > 0 {
+        format!("; {skipped} matching rows outside the valid range {:.1}–{:.1} K ({}; '{}') not judged", valid.low, valid.high, valid.method, corr.source)
+    } else {
+        String::new()
+    };
     if beyond_eos > 0 {
         skipped_text.push_str(&format!("; {beyond_eos} rows above the EOS T_max (CoolProp extrapolates there) not judged"));
     }

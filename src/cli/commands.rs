@@ -327,7 +327,7 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
     }
     plot::finish_run(lib, &args.out, !args.no_plots)?;
     if args.json {
-        let summary = output::history::Summary::of(&inp, &run.outcome);
+        let summary = output::history::Summary::of(&inp, &run);
         stdout_write(&output::to_json_string(&summary).map_err(CliError::runtime)?)?;
     } else {
         stdout_write(&table_header())?;

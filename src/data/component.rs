@@ -88,7 +88,7 @@ pub struct Sourced {
     #[serde(default)]
     #[serde(skip_serializing_if = "Option::is_none")]
     pub note: Option<String>,
-    /// For cetane numbers: "DCN" or "CN".
+    /// For cetane numbers: "CN", "DCN" or "estimate" (see [`CETANE_KINDS`]).
     #[serde(default)]
     #[serde(skip_serializing_if = "Option::is_none")]
     pub kind: Option<String>,
@@ -247,7 +247,25 @@ pub struct Component {
     /// Multipliers on the ten properties, in [`Component::correlations`] order [-]: 1 everywhere except in
     /// uncertainty samples (`crate::uncertainty`), which set them with [`Component::with_property_scales`].
     pub property_scales: [f64; 10],
+    /// Coefficients of the extensions of the published correlations beyond their ranges, fitted to them on
+    /// first use (`crate::props::pure`); empty until then.
+    pub extensions: std::sync::OnceLock<Extensions>,
 }
+
+/// Coefficients that continue published correlations past their ranges (docs/property-methods.md), fitted
+/// to the published correlations themselves by `crate::props::pure::fit_extensions`.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct Extensions {
+    /// Hildebrand fluidity law 1/μ = a·V + b above the takeover temperature: (takeover [K], a [1/(Pa·s)/(m³/mol)],
+    /// b [1/(Pa·s)]); None when the liquid viscosity has no published coefficients or the fit failed.
+    pub fluidity: Option<(f64, f64, f64)>,
+    /// Wilhoit ideal-gas cp above the published range: (B [K], a0, a1, a2, cp at 0 K [J/(mol·K)], classical
+    /// limit [J/(mol·K)]); None when the ideal-gas cp is not a polynomial with a finite range.
+    pub wilhoit: Option<WilhoitCoefficients>,
+}
+
+/// Wilhoit ideal-gas cp coefficients: (B [K], [a0, a1, a2], cp at 0 K [J/(mol·K)], classical limit [J/(mol·K)]).
+pub type WilhoitCoefficients = (f64, [f64; 3], f64, f64);
 
 /// Default relative uncertainties (published coefficients, estimated) per property; docs/property-methods.md.
 pub const DEFAULT_UNCERTAINTY: [(&str, f64, f64); 10] = [
@@ -284,6 +302,21 @@ pub const PLAUSIBLE_AT_BOILING: [(&str, f64, f64, &str); 10] = [
     ("vapor-viscosity", 1e-7, 1e-3, "Pa s"),
     ("vapor-conductivity", 1e-4, 1.0, "W/(m K)"),
 ];
+
+/// Kinds of cetane value a component file may give (`kind` of `cetane-number`), with what they mean.
+pub const CETANE_KINDS: [(&str, &str); 3] = [
+    ("CN", "engine cetane number (ASTM D613 cooperative fuel research engine)"),
+    ("DCN", "derived cetane number from ignition delay in a constant-volume combustion chamber (ASTM D6890, D7170, D7668)"),
+    ("estimate", "estimated (correlation, class trend or index), not measured"),
+];
+
+/// Physical bounds of a liquid density of a fuel molecule at any temperature of its liquid range [kg/m³]:
+/// below the lightest liquid hydrocarbons near their critical point, above dense polyaromatics (common practice).
+pub const DENSITY_BOUNDS: (f64, f64) = (100.0, 2000.0);
+/// Physical bounds of a liquid dynamic viscosity between the melting and boiling points [Pa·s]: a liquid is
+/// not less viscous than about 1e-5 Pa·s (near-critical light hydrocarbons) and a fuel molecule well above its
+/// melting point not more than 1e3 Pa·s (common practice).
+pub const VISCOSITY_BOUNDS: (f64, f64) = (1e-5, 1e3);
 
 /// A number in four significant digits, in exponent form outside 0.001–100000.
 fn short(v: f64) -> String {
@@ -359,9 +392,30 @@ impl Component {
             return Err(DataError::Invalid { context: format!("{ctx}: constants.cetane-number"), message: format!("{} is outside -20–150", c.cetane_number.value) });
         }
         match c.cetane_number.kind.as_deref() {
-            Some("DCN") | Some("CN") => {}
-            Some(other) => return Err(DataError::Invalid { context: format!("{ctx}: constants.cetane-number.kind"), message: format!("\"{other}\" must be \"DCN\" or \"CN\"") }),
-            None => return Err(DataError::Invalid { context: format!("{ctx}: constants.cetane-number"), message: "needs kind = \"DCN\" (derived) or kind = \"CN\" (engine cetane number)".into() }),
+            Some(k) if CETANE_KINDS.iter().any(|(name, _)| *name == k) => {}
+            Some(other) => {
+                return Err(DataError::Invalid {
+                    context: format!("{ctx}: constants.cetane-number.kind"),
+                    message: format!("\"{other}\" must be \"CN\" (engine, ASTM D613), \"DCN\" (derived, constant-volume combustion chamber, e.g. ASTM D6890/D7668) or \"estimate\""),
+                })
+            }
+            None => {
+                return Err(DataError::Invalid {
+                    context: format!("{ctx}: constants.cetane-number"),
+                    message: format!(
+                        "value {} has no kind: add kind = \"DCN\" (derived, ASTM D6890/D7668), kind = \"CN\" (engine, ASTM D613) or kind = \"estimate\"",
+                        short(c.cetane_number.value)
+                    ),
+                })
+            }
+        }
+        if let Some(d) = &c.density_15c {
+            if !(DENSITY_BOUNDS.0..=DENSITY_BOUNDS.1).contains(&d.value) {
+                return Err(DataError::Invalid {
+                    context: format!("{ctx}: constants.density-15C"),
+                    message: format!("value {} kg/m3 is outside the physical bounds {}–{} kg/m3 of a liquid fuel molecule (the unit is kg/m3)", short(d.value), DENSITY_BOUNDS.0, DENSITY_BOUNDS.1),
+                });
+            }
         }
         let wf = raw.formula;
         let formula_mass = 12.011e-3 * f64::from(wf.carbon) + 1.008e-3 * f64::from(wf.hydrogen) + 15.999e-3 * f64::from(wf.oxygen);
@@ -446,6 +500,7 @@ impl Component {
             },
             origin: file.to_string(),
             property_scales: [1.0; 10],
+            extensions: std::sync::OnceLock::new(),
         };
         component.check_plausible(&ctx)?;
         component.check_anchors(&ctx)?;
@@ -474,6 +529,18 @@ impl Component {
                         context: format!("{ctx}: [{key}]"),
                         message: format!("gives {} {unit} at {t:.2} K; it must be a positive finite number there (check the coefficients, their signs and 'unit')", short(v)),
                     });
+                }
+            }
+            if key == "liquid-density" || key == "liquid-viscosity" {
+                let ((lo_b, hi_b), u) = if key == "liquid-density" { (DENSITY_BOUNDS, "kg/m3") } else { (VISCOSITY_BOUNDS, "Pa s") };
+                for &t in temps {
+                    let v = corr.eval(t);
+                    if !matches!(corr.form, super::correlation::Form::Constant(_)) && !(lo_b..=hi_b).contains(&v) {
+                        return Err(DataError::Invalid {
+                            context: format!("{ctx}: [{key}]"),
+                            message: format!("gives {} {u} at {t:.2} K, outside the plausible physical bounds {}–{} {u} of a liquid (check 'unit' and the coefficients)", short(v), short(lo_b), short(hi_b)),
+                        });
+                    }
                 }
             }
             // a `constant` form is an idealised property (analytic test liquids): positive is all it must be

@@ -4,7 +4,7 @@ use std::path::Path;
 
 use serde::Serialize;
 
-use crate::model::{DropletInputs, HistoryRow, Motion, RunOutcome};
+use crate::model::{DropletInputs, HistoryRow, Motion};
 
 
 use super::{Cell, CsvTable, OutputError, TOOL_VERSION};
@@ -204,6 +204,14 @@ pub struct Summary {
     pub mass_balance_error: f64,
     /// Estimated (not published) properties used, per component.
     pub estimated_properties: Vec<(String, Vec<String>)>,
+    /// Liquid temperatures the run reached (lowest and highest of surface, mean and centre) [K]; the liquid
+    /// properties were evaluated in this span.
+    pub liquid_temperature_span_K: (f64, f64),
+    /// Properties used outside their valid range (component, property, method, valid range, how far below
+    /// and above): liquid properties over `liquid_temperature_span_K`, vapour properties from its lower end to
+    /// the ambient temperature. Empty when every property rests on its published range or a published
+    /// extension inside its stated or checked range (docs/property-methods.md, Ranges).
+    pub properties_outside_valid_range: Vec<crate::props::pure::RangeExcursion>,
     /// Hydrocarbon class of each component (id, class), so charts can group components when redrawn.
     pub component_classes: Vec<(String, String)>,
     /// Inputs echoed back.
@@ -212,7 +220,20 @@ pub struct Summary {
 
 impl Summary {
     /// Summary of a run.
-    pub fn of(inp: &DropletInputs, o: &RunOutcome) -> Self {
+    pub fn of(inp: &DropletInputs, result: &crate::model::RunResult) -> Self {
+        let o = &result.outcome;
+        let (mut lo, mut hi) = (inp.initial_temperature, inp.initial_temperature.max(o.max_surface_temperature));
+        for r in &result.history {
+            for t in [r.surface_temperature, r.mean_temperature, r.center_temperature] {
+                if t.is_finite() {
+                    lo = lo.min(t);
+                    hi = hi.max(t);
+                }
+            }
+        }
+        let fractions = vec![1.0; inp.fuel.components.len()];
+        let mut outside = crate::table::range_excursions(&inp.fuel.components, &fractions, lo, hi, &crate::table::LIQUID_KEYS);
+        outside.extend(crate::table::range_excursions(&inp.fuel.components, &fractions, lo, hi.max(inp.ambient_temperature), &crate::table::VAPOR_KEYS));
         Summary {
             tool: TOOL_VERSION.into(),
             status: format!("{:?}", o.status).to_lowercase(),
@@ -236,6 +257,8 @@ impl Summary {
                 .map(|c| (c.id.clone(), c.estimated_properties().iter().map(|s| s.to_string()).collect()))
                 .collect(),
             component_classes: inp.fuel.components.iter().map(|c| (c.id.clone(), c.class.as_str().to_string())).collect(),
+            liquid_temperature_span_K: (lo, hi),
+            properties_outside_valid_range: outside,
             input: InputEcho::of(inp),
         }
     }
@@ -276,5 +299,5 @@ fn write_run_files(dir: &Path, inputs: &DropletInputs, result: &crate::model::Ru
         // an earlier resolved run's profiles would not belong to this history
         super::remove_output(&dir.join("profiles.csv"))?;
     }
-    super::write_json(&dir.join("summary.json"), &Summary::of(inputs, &result.outcome))
+    super::write_json(&dir.join("summary.json"), &Summary::of(inputs, result))
 }

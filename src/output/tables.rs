@@ -10,7 +10,7 @@ use crate::data::{Component, Correlation, Form, SourceRegistry};
 use crate::fuel::Fuel;
 use crate::table::fit::PolyFit;
 use crate::table::surrogate::{ConditionComparison, Surrogate, SOURCE as SURROGATE_SOURCE};
-use crate::table::{Column, ComponentTable, MixtureTable, TableFits, TableSet, COMPONENT_COLUMNS, MIXTURE_COLUMNS};
+use crate::table::{describe_excursions, range_excursions, Column, ComponentTable, MixtureTable, TableFits, TableSet, COMPONENT_COLUMNS, LIQUID_KEYS, MIXTURE_COLUMNS, VAPOR_KEYS};
 
 use super::{fmt_f64, write_atomic, Cell, CsvTable, OutputError, TOOL_VERSION};
 
@@ -127,7 +127,7 @@ fn g(v: f64) -> String {
 // Metadata
 // ---------------------------------------------------------------------------------------------------------
 
-const VALIDITY_TEXT: &str = "ok = every correlation inside its published range; extrapolated = some correlation outside its published range (see extrapolated_properties); above-bubble-point = liquid superheated at the table pressure; near-critical = above 0.9 Tc of a component with mole fraction > 1 % (component tables: of the component); vapor-only = component tables, outside the liquid range (liquid cells empty); the most severe applies (near-critical > above-bubble-point > extrapolated > ok)";
+const VALIDITY_TEXT: &str = "ok = every property inside its valid range (its published correlation, or a published extension method inside the range it was stated or checked for; docs/property-methods.md, Ranges); extrapolated = some property outside its valid range (see extrapolated_properties and properties_outside_valid_range); above-bubble-point = liquid superheated at the table pressure; near-critical = above 0.9 Tc of a component with mole fraction > 1 % (component tables: of the component); vapor-only = component tables, outside the liquid range (liquid cells empty); the most severe applies (near-critical > above-bubble-point > extrapolated > ok)";
 
 fn common(title: &str, fuel: &Fuel, set: &TableSet, date: &Option<String>) -> Vec<(String, String)> {
     let mut m = vec![
@@ -185,7 +185,7 @@ fn sources_used(components: &[std::sync::Arc<Component>], sources: &SourceRegist
 fn columns_with_flags(columns: &[Column]) -> Vec<(String, String)> {
     let mut out: Vec<(String, String)> = columns.iter().map(|c| (c.name.to_string(), c.description.to_string())).collect();
     out.push(("validity".into(), "validity flag".into()));
-    out.push(("extrapolated_properties".into(), "properties outside their published range".into()));
+    out.push(("extrapolated_properties".into(), "properties outside their valid range".into()));
     out
 }
 
@@ -259,7 +259,13 @@ fn mixture_doc(t: &MixtureTable, set: &TableSet, sources: &SourceRegistry, date:
     m.push(("properties".into(), "saturated-liquid correlations without pressure correction; low-pressure (ideal-gas) vapour properties".into()));
     m.extend(column_lines(&MIXTURE_COLUMNS));
     m.push(("column validity".into(), VALIDITY_TEXT.into()));
-    m.push(("column extrapolated_properties".into(), "property keys (component-file sections) evaluated outside their published range for some component, separated by ';'".into()));
+    m.push(("column extrapolated_properties".into(), "property keys (component-file sections) evaluated outside their valid range for some component, separated by ';'".into()));
+    let keys: Vec<&str> = LIQUID_KEYS.iter().chain(VAPOR_KEYS.iter()).copied().collect();
+    let excursions = match (t.rows.first(), t.rows.last()) {
+        (Some(a), Some(b)) => range_excursions(&t.fuel.components, &t.fuel.mass_fractions, a.liquid.temperature_K, b.liquid.temperature_K, &keys),
+        _ => vec![],
+    };
+    m.push(("properties_outside_valid_range".into(), describe_excursions(&excursions)));
     m.push(("estimated_components".into(), estimated_components(&t.fuel.components)));
     let (src_text, src_json) = sources_used(&t.fuel.components, sources);
     m.push(("sources".into(), src_text));
@@ -277,6 +283,7 @@ fn mixture_doc(t: &MixtureTable, set: &TableSet, sources: &SourceRegistry, date:
     let mut extra = Map::new();
     extra.insert("composition".into(), composition_json(&t.fuel));
     extra.insert("sources".into(), src_json);
+    extra.insert("properties_outside_valid_range".into(), json!(excursions));
     Doc { metadata: m, columns, rows, extra }
 }
 
@@ -407,7 +414,17 @@ fn component_doc(t: &ComponentTable, fuel: &Fuel, set: &TableSet, sources: &Sour
     }
     m.extend(column_lines(&COMPONENT_COLUMNS));
     m.push(("column validity".into(), VALIDITY_TEXT.into()));
-    m.push(("column extrapolated_properties".into(), "property keys evaluated outside their published range, separated by ';'".into()));
+    m.push(("column extrapolated_properties".into(), "property keys evaluated outside their valid range, separated by ';'".into()));
+    let one = std::slice::from_ref(c);
+    let mut excursions = match t.liquid_range {
+        Some((a, b)) => range_excursions(one, &[1.0], a, b, &LIQUID_KEYS),
+        None => vec![],
+    };
+    let vapor_ts: Vec<f64> = t.rows.iter().map(|r| r.temperature).collect();
+    if let (Some(a), Some(b)) = (vapor_ts.iter().copied().reduce(f64::min), vapor_ts.iter().copied().reduce(f64::max)) {
+        excursions.extend(range_excursions(one, &[1.0], a, b, &VAPOR_KEYS));
+    }
+    m.push(("properties_outside_valid_range".into(), describe_excursions(&excursions)));
     let est = c.estimated_properties();
     m.push(("estimated_properties".into(), if est.is_empty() { "none".into() } else { est.join(", ") }));
     let columns = columns_with_flags(&COMPONENT_COLUMNS);
@@ -424,6 +441,7 @@ fn component_doc(t: &ComponentTable, fuel: &Fuel, set: &TableSet, sources: &Sour
     let mut extra = Map::new();
     let constants: Map<String, Value> = constants_of(c).into_iter().map(|(n, v, s)| (n.to_string(), json!({"value": v, "source": s}))).collect();
     extra.insert("constants".into(), Value::Object(constants));
+    extra.insert("properties_outside_valid_range".into(), json!(excursions));
     extra.insert("correlations".into(), Value::Array(c.correlations().iter().map(|(k, corr)| correlation_json(k, corr, sources, coefficients)).collect()));
     Doc { metadata: m, columns, rows, extra }
 }

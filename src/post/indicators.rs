@@ -155,7 +155,7 @@ impl Default for IndicatorOptions {
 }
 
 /// Every numeric indicator key with its SI unit, in table order.
-pub const INDICATOR_KEYS: [(&str, &str); 23] = [
+pub const INDICATOR_KEYS: [(&str, &str); 24] = [
     ("evaporated_fraction", "-"),
     ("bubble_point_K", "K"),
     ("initial_boiling_point_K", "K"),
@@ -172,6 +172,7 @@ pub const INDICATOR_KEYS: [(&str, &str); 23] = [
     ("kinematic_viscosity_40C_m2_s", "m2/s"),
     ("surface_tension_20C_N_m", "N/m"),
     ("dcn", "-"),
+    ("dcn_not_measured_share", "-"),
     ("lhv_J_kg", "J/kg"),
     ("lhv_volume_J_m3", "J/m3"),
     ("hydrogen_mass_fraction", "-"),
@@ -218,6 +219,9 @@ pub struct Indicators {
     pub surface_tension_20C_N_m: Option<f64>,
     /// Derived cetane number by the chosen blending rule [-].
     pub dcn: Option<f64>,
+    /// Share of the DCN's blend weight (the blending rule's fractions) carried by components whose cetane
+    /// value is not a measured derived cetane number: engine CN, estimates, or values recalled from memory [-].
+    pub dcn_not_measured_share: Option<f64>,
     /// Lower heating value, mass basis [J/kg].
     pub lhv_J_kg: Option<f64>,
     /// Lower heating value per liquid volume at 15 °C [J/m³].
@@ -268,6 +272,7 @@ impl Indicators {
             "kinematic_viscosity_40C_m2_s" => self.kinematic_viscosity_40C_m2_s,
             "surface_tension_20C_N_m" => self.surface_tension_20C_N_m,
             "dcn" => self.dcn,
+            "dcn_not_measured_share" => self.dcn_not_measured_share,
             "lhv_J_kg" => self.lhv_J_kg,
             "lhv_volume_J_m3" => self.lhv_volume_J_m3,
             "hydrogen_mass_fraction" => self.hydrogen_mass_fraction,
@@ -307,6 +312,7 @@ impl Indicators {
             kinematic_viscosity_40C_m2_s: None,
             surface_tension_20C_N_m: None,
             dcn: None,
+            dcn_not_measured_share: None,
             lhv_J_kg: None,
             lhv_volume_J_m3: None,
             hydrogen_mass_fraction: None,
@@ -341,6 +347,7 @@ impl Indicators {
             "kinematic_viscosity_40C_m2_s" => &mut self.kinematic_viscosity_40C_m2_s,
             "surface_tension_20C_N_m" => &mut self.surface_tension_20C_N_m,
             "dcn" => &mut self.dcn,
+            "dcn_not_measured_share" => &mut self.dcn_not_measured_share,
             "lhv_J_kg" => &mut self.lhv_J_kg,
             "lhv_volume_J_m3" => &mut self.lhv_volume_J_m3,
             "hydrogen_mass_fraction" => &mut self.hydrogen_mass_fraction,
@@ -493,6 +500,42 @@ pub fn liaw_flash_point(components: &[Arc<Component>], mole_fractions: &[f64], p
     // mixture can flash below its lowest component: search from 100 K below.
     let lo = if ideal { lo - 0.5 } else { (lo - 100.0).max(100.0) };
     solve_increasing(g, lo, hi + 0.5, 1e-7)
+}
+
+/// True when a component's cetane value is a measured derived cetane number: kind "DCN" from a published
+/// source (not `from-memory`, `common-practice` or `estimated:`).
+pub fn is_measured_dcn(c: &Component) -> bool {
+    let v = &c.constants.cetane_number;
+    v.kind.as_deref() == Some("DCN") && !(v.source == "from-memory" || v.source == "common-practice" || v.source.starts_with("estimated"))
+}
+
+/// Share of the blend weights `f` carried by components without a measured DCN, and a short breakdown
+/// ("engine CN 40.0 %, estimate 10.0 %, from memory 5.0 %").
+pub fn cetane_basis(components: &[Arc<Component>], f: &[f64]) -> (f64, String) {
+    let total: f64 = f.iter().filter(|v| **v > 0.0).sum();
+    if total <= 0.0 {
+        return (0.0, String::new());
+    }
+    let (mut cn, mut est, mut memory) = (0.0, 0.0, 0.0);
+    for (c, f) in components.iter().zip(f) {
+        if *f <= 0.0 || is_measured_dcn(c) {
+            continue;
+        }
+        let v = &c.constants.cetane_number;
+        if v.source == "from-memory" || v.source == "common-practice" {
+            memory += f;
+        } else if v.kind.as_deref() == Some("estimate") || v.source.starts_with("estimated") {
+            est += f;
+        } else {
+            cn += f;
+        }
+    }
+    let parts: Vec<String> = [("engine CN", cn), ("estimate", est), ("recalled from memory", memory)]
+        .iter()
+        .filter(|(_, v)| *v > 0.0)
+        .map(|(n, v)| format!("{n} {:.1} %", 100.0 * v / total))
+        .collect();
+    ((cn + est + memory) / total, parts.join(", "))
 }
 
 /// Blend of component cetane numbers by `rule`; `w` mass fractions, `x` mole fractions, `v` volume fractions.
@@ -721,9 +764,19 @@ pub fn indicators(components: &[Arc<Component>], mass_fractions: &[f64], opts: &
         CetaneRule::MassLinear => "mass-linear blend Σ w_i CN_i of the component cetane numbers (simple alternative, not a standard rule)",
     };
     ind.set("dcn", Some(cn), cn_method);
-    let mixed_kinds = components.iter().zip(&x).filter(|(_, x)| **x > 0.0).map(|(c, _)| c.constants.cetane_number.kind.as_deref().unwrap_or("CN")).collect::<std::collections::BTreeSet<_>>();
-    if mixed_kinds.len() > 1 {
-        ind.note("dcn", "component values mix engine cetane numbers (CN) and derived cetane numbers (DCN)");
+    let weights = match opts.cetane_rule {
+        CetaneRule::VolumeLinear => &vol,
+        CetaneRule::MoleLinear => &x,
+        CetaneRule::MassLinear => &w,
+    };
+    let (share, parts) = cetane_basis(components, weights);
+    ind.set(
+        "dcn_not_measured_share",
+        Some(share),
+        "share of the DCN blend weight carried by components whose value is not a measured derived cetane number (kind CN, kind estimate, or a value from memory or an estimate source)",
+    );
+    if share > 0.0 {
+        ind.note("dcn", format!("{:.1} % of the blend weight rests on values that are not measured DCNs ({parts})", 100.0 * share));
     }
 
     // --- heating value, hydrogen, H/C, aromatics, molar mass ---------------------------------------

@@ -24,6 +24,7 @@ use crate::post::PostError;
 use crate::props::gas::{gas_mixture_state, vapor_diffusion_coefficient, AmbientGas};
 use crate::props::activity::{Activity, ActivityModel};
 use crate::props::liquid;
+use crate::props::pure::{merge_excursions, RangeExcursion};
 use crate::props::PropertyError;
 
 use fit::{fit_property, FitForm, FitVariable, PolyFit};
@@ -115,8 +116,9 @@ pub const LIQUID_KEYS: [&str; 7] = ["vapor-pressure", "liquid-density", "latent-
 /// Correlations that feed the vapour columns.
 pub const VAPOR_KEYS: [&str; 3] = ["ideal-gas-heat-capacity", "vapor-viscosity", "vapor-conductivity"];
 
-/// Property keys (in `Component::correlations` order) whose correlation is outside its published range at `t`
-/// for any component with a positive fraction, among `keys`.
+/// Property keys (in `Component::correlations` order) used outside their valid range at `t`
+/// ([`Component::valid_range`]: the published correlation's range, or a published extension method inside the
+/// range it was stated or checked for) by any component with a positive fraction, among `keys`.
 pub fn extrapolated_properties(components: &[Arc<Component>], fractions: &[f64], t: f64, keys: &[&str]) -> Vec<&'static str> {
     let mut out = vec![];
     for k in 0..10 {
@@ -125,9 +127,9 @@ pub fn extrapolated_properties(components: &[Arc<Component>], fractions: &[f64],
             if *f <= 0.0 {
                 continue;
             }
-            let (key, corr) = c.correlations()[k];
-            if keys.contains(&key) && !corr.in_range(t) {
-                hit = Some(key);
+            let r = c.valid_range(k);
+            if keys.contains(&r.key) && !(t >= r.low && t <= r.high) {
+                hit = Some(r.key);
                 break;
             }
         }
@@ -136,6 +138,21 @@ pub fn extrapolated_properties(components: &[Arc<Component>], fractions: &[f64],
         }
     }
     out
+}
+
+/// Every (component, property) among `keys` used outside its valid range somewhere in `[from, to]`, with how
+/// far, for the components with a positive fraction.
+pub fn range_excursions(components: &[Arc<Component>], fractions: &[f64], from: f64, to: f64, keys: &[&str]) -> Vec<RangeExcursion> {
+    merge_excursions(components.iter().zip(fractions).filter(|(_, f)| **f > 0.0).flat_map(|(c, _)| c.outside_valid_ranges(from, to, keys)))
+}
+
+/// One line per excursion, or a statement that there is none.
+pub fn describe_excursions(list: &[RangeExcursion]) -> String {
+    if list.is_empty() {
+        "none: every property rests on its published correlation or a published extension inside its stated or checked range".into()
+    } else {
+        list.iter().map(|e| format!("{} ({})", e.describe(), e.method)).collect::<Vec<_>>().join("; ")
+    }
 }
 
 // ---------------------------------------------------------------------------------------------------------
@@ -860,10 +877,16 @@ mod tests {
         let t = mixture_table("mixture", &fuel, &opts).unwrap();
         assert!((t.grid.from - 265.0).abs() < 1e-9 && (t.grid.to - 485.0).abs() < 1e-9, "{:?}", t.grid);
         assert_eq!(t.rows.len(), 45);
-        // cp's published range ends at 330 K: extrapolated above it
+        // cp's published polynomial ends at 330 K, but its Rowlinson–Bondi continuation is valid to 0.98 Tc:
+        // ok at 400 K; the surface tension (Mulero–Cachadiña from 273.15 K) is extrapolated below it
         let r400 = t.rows.iter().find(|r| (r.liquid.temperature_K - 400.0).abs() < 1e-9).unwrap();
-        assert_eq!(r400.validity, Validity::Extrapolated);
-        assert!(r400.extrapolated_properties.contains(&"liquid-heat-capacity"));
+        assert_eq!(r400.validity, Validity::Ok, "{:?}", r400.extrapolated_properties);
+        let flagged: Vec<f64> = t.rows.iter().filter(|r| r.validity == Validity::Extrapolated).map(|r| r.liquid.temperature_K).collect();
+        assert_eq!(flagged, vec![265.0, 270.0]);
+        assert_eq!(t.rows[0].extrapolated_properties, vec!["surface-tension"]);
+        let outside = range_excursions(&fuel.components, &fuel.mass_fractions, 265.0, 485.0, &LIQUID_KEYS);
+        assert_eq!(outside.len(), 1);
+        assert!((outside[0].below_K - (273.15 - 265.0)).abs() < 1e-9 && outside[0].above_K == 0.0, "{outside:?}");
         opts.pressure = 1e6;
         let t = mixture_table("mixture", &fuel, &opts).unwrap();
         assert!((t.grid.to - 610.0).abs() < 1e-9, "{:?}", t.grid);

@@ -352,6 +352,7 @@ impl SurrogateBasis {
             vapor_conductivity: correlation(Form::Dippr100(kv), vr),
             origin: "dropcut table: surrogate fit".into(),
             property_scales: [1.0; 10],
+            extensions: std::sync::OnceLock::new(),
         };
         Ok(SurrogateBasis { base, liquid_range, vapor_range, fit_errors: errors })
     }

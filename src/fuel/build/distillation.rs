@@ -546,7 +546,7 @@ fn cut_component(c: &CutInput, opts: &DistillationOptions, notes: &mut Vec<Strin
         cn_note.push_str(&format!("; clamped to {cn:.0}"));
     }
     let mut cn_value = Value::new(cn, "estimated:astm-d976", cn_note);
-    cn_value.kind = Some("CN".into());
+    cn_value.kind = Some("estimate".into());
     cn_value.uncertainty = Some(0.3);
     let mut density_value = Value::new(rho15, "estimated:watson-k", format!("SG {sg:.5} x 999.0 kg/m3 from the Watson factor K_W = {:.4} shared by all cuts", c.k_w));
     density_value.uncertainty = Some(0.02);

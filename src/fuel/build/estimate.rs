@@ -327,7 +327,7 @@ pub fn estimate_component(lib: &Library, id: &str, name: &str, groups: &[(&'stat
     let class = opts.class.unwrap_or_else(|| infer_class(groups));
     let (cn, cn_note) = class_trend_cetane(lib, class, c);
     let mut cn_value = Value::new(cn, "estimated:class-trend", format!("cetane number of the class at C{c}: {cn_note}"));
-    cn_value.kind = Some("CN".into());
+    cn_value.kind = Some("estimate".into());
     cn_value.uncertainty = Some(0.3);
     let cp = joback::cp_coefficients(groups);
     let constants = vec![

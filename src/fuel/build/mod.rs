@@ -77,7 +77,7 @@ pub struct Value {
     pub source: String,
     /// Free note naming inputs and caveats.
     pub note: Option<String>,
-    /// For cetane numbers: "CN" or "DCN".
+    /// For cetane numbers: "CN", "DCN" or "estimate".
     pub kind: Option<String>,
     /// Relative uncertainty.
     pub uncertainty: Option<f64>,

@@ -739,6 +739,7 @@ mod boiling_tests {
             non_equilibrium: false,
             extra_heat,
             drag: DragLaw::YuenChen,
+            activity: Activity::ideal(1),
         })
     }
 

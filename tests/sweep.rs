@@ -41,20 +41,11 @@ impl Drop for TempDir {
 }
 
 fn dropcut(dir: &Path, args: &[&str]) -> Output {
-    Command::new(BIN)
-        .args(args)
-        .current_dir(dir)
-        .env_remove("SLURM_ARRAY_TASK_ID")
-        .env_remove("SLURM_ARRAY_TASK_COUNT")
-        .env_remove("SLURM_ARRAY_TASK_MIN")
-        .output()
-        .unwrap()
+    common::run_in(dir, args)
 }
 
 fn ok(dir: &Path, args: &[&str]) -> Output {
-    let out = dropcut(dir, args);
-    assert!(out.status.success(), "dropcut {args:?} failed: {}", String::from_utf8_lossy(&out.stderr));
-    out
+    common::ok_in(dir, args)
 }
 
 fn read(p: impl AsRef<Path>) -> Vec<u8> {

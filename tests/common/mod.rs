@@ -31,3 +31,22 @@ pub fn ok(args: &[&str]) -> String {
 pub fn p(path: &Path) -> &str {
     path.to_str().unwrap()
 }
+
+/// Run the binary in folder `dir` with `args`, outside any Slurm job (the array variables removed).
+pub fn run_in(dir: &Path, args: &[&str]) -> Output {
+    Command::new(BIN)
+        .args(args)
+        .current_dir(dir)
+        .env_remove("SLURM_ARRAY_TASK_ID")
+        .env_remove("SLURM_ARRAY_TASK_COUNT")
+        .env_remove("SLURM_ARRAY_TASK_MIN")
+        .output()
+        .unwrap()
+}
+
+/// [`run_in`], requiring success.
+pub fn ok_in(dir: &Path, args: &[&str]) -> Output {
+    let out = run_in(dir, args);
+    assert!(out.status.success(), "dropcut {args:?} failed: {}", String::from_utf8_lossy(&out.stderr));
+    out
+}

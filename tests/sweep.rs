@@ -322,7 +322,7 @@ fn residue_indicator_columns_and_switching_them_off() {
     let off = String::from_utf8(read(t.path().join("off/summary.csv"))).unwrap();
     let header_on = on.lines().find(|l| !l.starts_with('#')).unwrap();
     let header_off = off.lines().find(|l| !l.starts_with('#')).unwrap();
-    for col in ["residue_t50_K", "residue_flash_point_K", "residue_density_15C_kg_m3", "residue_dcn"] {
+    for col in ["residue_t50_K", "residue_flash_point_K", "residue_density_15C_kg_m3", "residue_dcn", "residue_dcn_not_measured_share"] {
         assert!(header_on.contains(col), "{header_on}");
     }
     assert!(!header_off.contains("residue_"));

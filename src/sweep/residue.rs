@@ -8,12 +8,13 @@ use crate::post::{indicators, IndicatorOptions};
 use super::summary::ExtraColumns;
 
 /// Indicator keys (of [`crate::post::INDICATOR_KEYS`]) written for the residue, each as column `residue_<key>`.
-pub const RESIDUE_KEYS: [&str; 7] = [
+pub const RESIDUE_KEYS: [&str; 8] = [
     "t50_K",
     "flash_point_K",
     "density_15C_kg_m3",
     "kinematic_viscosity_minus20C_m2_s",
     "dcn",
+    "dcn_not_measured_share",
     "freezing_point_K",
     "molar_mass_kg_mol",
 ];

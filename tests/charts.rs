@@ -310,3 +310,44 @@ fn bad_input_exits_2_with_one_line() {
     fails_with_2(&["compare", "test-decane", "no-such-fuel", "--out", &out], "no-such-fuel");
     assert!(!dir.join("cmp").join("study.json").exists(), "nothing is run before the inputs are checked");
 }
+
+#[test]
+fn pure_fuel_run_has_no_flat_residue_chart_but_a_note() {
+    let dir = scratch("pure");
+    small_run(&dir, "test-decane");
+    // the residue table is still written; the chart of flat lines is not, and the page says why
+    assert!(dir.join("residue.csv").is_file());
+    assert!(!dir.join("chart_residue.png").exists() && !dir.join("chart_residue.svg").exists());
+    let page = check_page(&dir.join("index.html"), &["No residue chart: a single-component fuel does not change as it evaporates", "chart_d2.png"]);
+    assert!(!page.contains("chart_residue"));
+    // a two-component fuel keeps its residue chart and gets no such note
+    let mix = scratch("pure-mix");
+    small_run(&mix, "test-heptane-decane");
+    assert!(mix.join("chart_residue.png").is_file());
+    assert!(!std::fs::read_to_string(mix.join("index.html")).unwrap().contains("No residue chart"));
+}
+
+#[test]
+fn vapour_pressure_is_drawn_on_a_log_axis() {
+    let dir = scratch("table-log");
+    ok(&["table", "test-heptane-decane", "--no-surrogate", "--out", p(&dir)]);
+    let chart = std::fs::read_dir(&dir).unwrap().filter_map(|e| e.ok()).map(|e| e.path()).find(|p| p.file_name().unwrap().to_string_lossy() == "chart_mixture.svg");
+    let svg = check_svg(&chart.expect("chart_mixture.svg"), &["pressure", "[kPa], log scale"]);
+    // whole-decade tick labels of a vapour pressure between a few Pa and an atmosphere
+    let shown: Vec<&str> = svg.split("<text").skip(1).map(|t| t[t.find('>').unwrap() + 1..t.find("</text>").unwrap()].trim()).collect();
+    let at = shown.iter().position(|t| *t == "[kPa], log scale").unwrap();
+    let decades = ["0.01", "0.1", "1", "10", "100"].iter().filter(|d| shown[at..at + 12].contains(*d)).count();
+    assert!(decades >= 4, "expected decade tick labels on the log axis: {:?}", &shown[at..at + 12]);
+}
+
+#[test]
+fn micrometres_are_spelled_one_way_in_chart_text() {
+    let dir = scratch("um");
+    let cmp = dir.join("cmp");
+    ok(&["compare", "test-decane", "--vary", "diameter=10um,12um", "--out", p(&cmp)]);
+    let svg = check_svg(&cmp.join("chart_all_d2.svg"), &["µm"]);
+    for text in svg.split("<text").skip(1) {
+        let shown = &text[text.find('>').unwrap() + 1..text.find("</text>").unwrap()];
+        assert!(!shown.contains("0um") && !shown.contains("2um") && !shown.contains(" m]"), "chart text '{shown}'");
+    }
+}

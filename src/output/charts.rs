@@ -147,6 +147,8 @@ pub struct Panel {
     pub celsius_axis: bool,
     /// Shaded bands, drawn under the curves.
     pub bands: Vec<Band>,
+    /// Logarithmic y axis (decades); values that are not positive are left out.
+    pub y_log: bool,
 }
 
 /// One legend line.
@@ -446,6 +448,33 @@ fn thin(n: usize, max: usize) -> Vec<usize> {
     idx
 }
 
+/// One spelling for micrometres in chart text: a number followed by "um" (e.g. a run label "d0=30um" typed
+/// on the command line) is shown with "µm"; other words are left alone.
+pub fn micrometre_text(s: &str) -> String {
+    let c: Vec<char> = s.chars().collect();
+    let mut out = String::with_capacity(s.len() + 2);
+    let mut i = 0;
+    while i < c.len() {
+        let after_number = {
+            let mut j = i;
+            while j > 0 && c[j - 1] == ' ' {
+                j -= 1;
+            }
+            j > 0 && c[j - 1].is_ascii_digit()
+        };
+        let ends = c.get(i + 2).is_none_or(|n| !n.is_alphanumeric());
+        if c[i] == 'u' && c.get(i + 1) == Some(&'m') && after_number && ends {
+            out.push('µ');
+            out.push('m');
+            i += 2;
+        } else {
+            out.push(c[i]);
+            i += 1;
+        }
+    }
+    out
+}
+
 fn truncate_label(s: &str, max_chars: usize) -> String {
     if s.chars().count() <= max_chars {
         s.to_string()
@@ -503,7 +532,7 @@ fn legend_width<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Chart) ->
     }
     let mut w = text_width(root, &c.legend_title, 18);
     for e in &c.legend {
-        w = w.max(text_width(root, &truncate_label(&e.name, 34), 17) + 44);
+        w = w.max(text_width(root, &truncate_label(&micrometre_text(&e.name), 34), 17) + 44);
     }
     (w + 24).clamp(120, 380)
 }
@@ -544,7 +573,7 @@ fn draw_legend<DB: DrawingBackend>(area: &DrawingArea<DB, Shift>, c: &Chart) -> 
                 }
             }
         }
-        area.draw_text(&truncate_label(&e.name, 34), &st, (42, cy)).map_err(de)?;
+        area.draw_text(&truncate_label(&micrometre_text(&e.name), 34), &st, (42, cy)).map_err(de)?;
         y += row;
     }
     if shown < c.legend.len() {
@@ -556,7 +585,7 @@ fn draw_legend<DB: DrawingBackend>(area: &DrawingArea<DB, Shift>, c: &Chart) -> 
 
 fn draw_chart<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Chart) -> Result<(), String> {
     root.fill(&WHITE).map_err(de)?;
-    let top = draw_title(root, &c.title, &c.subtitle)?;
+    let top = draw_title(root, &micrometre_text(&c.title), &micrometre_text(&c.subtitle))?;
     let (_, body) = root.split_vertically(top);
     let cols = c.columns.max(1);
     let rows = c.panels.len().div_ceil(cols).max(1);
@@ -579,12 +608,55 @@ fn draw_chart<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, c: &Chart) -> R
     Ok(())
 }
 
+/// Share of the axis span added on each side of a line chart so curves at the extremes are not cut by the frame.
+const FRAME_MARGIN: f64 = 0.015;
+
+fn widen(r: (f64, f64), share: f64) -> (f64, f64) {
+    let span = r.1 - r.0;
+    (r.0 - share * span, r.1 + share * span)
+}
+
+/// Axis ranges of a panel; line panels get a small margin inside the frame (stacked areas fill it exactly).
 fn panel_ranges(p: &Panel) -> ((f64, f64), (f64, f64)) {
+    let (xr, yr) = data_ranges(p);
+    if p.stacked {
+        (xr, yr)
+    } else if p.y_log {
+        (widen(xr, FRAME_MARGIN), yr)
+    } else {
+        (widen(xr, FRAME_MARGIN), widen(yr, FRAME_MARGIN))
+    }
+}
+
+/// Whole decades (log10 of the values) enclosing the positive values of a log panel, with a small margin.
+fn log_range(p: &Panel) -> (f64, f64) {
+    let logs = p.series.iter().flat_map(|s| s.points.iter().filter_map(|q| q.1)).filter(|v| *v > 0.0 && v.is_finite()).map(f64::log10);
+    let (lo, hi) = logs.fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| (a.min(v), b.max(v)));
+    if !lo.is_finite() {
+        return (0.0, 1.0);
+    }
+    let (lo, hi) = ((lo - 0.05).floor(), (hi + 0.05).ceil());
+    if hi - lo < 1.0 { (lo, lo + 1.0) } else { (lo, hi) }
+}
+
+/// Tick label of a log axis at log10 value `v`: the value itself at whole decades, nothing between.
+fn decade_label(v: f64) -> String {
+    let k = v.round();
+    if (v - k).abs() > 1e-9 {
+        return String::new();
+    }
+    let value = 10f64.powi(k as i32);
+    if k >= 0.0 { format!("{value:.0}") } else { format!("{:.*}", (-k) as usize, value) }
+}
+
+fn data_ranges(p: &Panel) -> ((f64, f64), (f64, f64)) {
     let band_x = p.bands.iter().flat_map(|b| b.points.iter().filter(|q| q.1.is_some()).map(|q| q.0));
     let band_y = p.bands.iter().flat_map(|b| b.points.iter().filter_map(|q| q.1).flat_map(|(lo, hi)| [lo, hi]));
     let xr = p.x_range.unwrap_or_else(|| padded_range(p.series.iter().flat_map(|s| s.points.iter().filter(|q| q.1.is_some()).map(|q| q.0)).chain(band_x), 0.0, false));
     let yr = p.y_range.unwrap_or_else(|| {
-        if p.stacked {
+        if p.y_log {
+            log_range(p)
+        } else if p.stacked {
             let n = p.series.first().map(|s| s.points.len()).unwrap_or(0);
             let tops = (0..n).map(|i| p.series.iter().map(|s| s.points.get(i).and_then(|q| q.1).unwrap_or(0.0)).sum::<f64>());
             padded_range(tops.chain(std::iter::once(0.0)), 0.02, true)
@@ -598,19 +670,21 @@ fn panel_ranges(p: &Panel) -> ((f64, f64), (f64, f64)) {
 fn draw_panel<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, area: &DrawingArea<DB, Shift>, p: &Panel, multi: bool) -> Result<(), String> {
     let (xr, yr) = panel_ranges(p);
     let (xn, yn) = if multi { (6, 6) } else { (10, 8) };
-    let (xn, yn) = (enough_ticks(xr, xn), enough_ticks(yr, yn));
+    let log = p.y_log;
+    // a log axis is drawn on log10 of the values: one tick per whole decade
+    let (xn, yn) = (enough_ticks(xr, xn), if log { (yr.1 - yr.0).round().max(1.0) as usize + 1 } else { enough_ticks(yr, yn) });
     let label_size: u32 = if multi { 16 } else { 18 };
     let desc_size: u32 = if multi { 17 } else { 20 };
     let xd = tick_decimals(xr, xn);
     let yd = tick_decimals(yr, yn);
     let fx = move |v: &f64| format_tick(*v, xd);
-    let fy = move |v: &f64| format_tick(*v, yd);
+    let fy = move |v: &f64| if log { decade_label(*v) } else { format_tick(*v, yd) };
     let widest = ticks(yr, yn).iter().map(|v| text_width(root, &fy(v), label_size)).max().unwrap_or(20);
     let y_area = widest + desc_size + 22;
     let mut builder = ChartBuilder::on(area);
     builder.margin(10).margin_right(if p.celsius_axis { 10 } else { 22 }).x_label_area_size(label_size + desc_size + 26).y_label_area_size(y_area);
     if !p.title.is_empty() {
-        builder.caption(&p.title, TextStyle::from((FONT, 19).into_font().style(FontStyle::Bold)).color(&TEXT));
+        builder.caption(micrometre_text(&p.title), TextStyle::from((FONT, 19).into_font().style(FontStyle::Bold)).color(&TEXT));
     }
     let label_style = TextStyle::from((FONT, label_size).into_font()).color(&TEXT);
     let desc_style = TextStyle::from((FONT, desc_size).into_font()).color(&TEXT);
@@ -622,8 +696,8 @@ fn draw_panel<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, area: &DrawingA
         builder.right_y_label_area_size(widest_c + desc_size + 22);
         let mut cc = builder.build_cartesian_2d(xr.0..xr.1, yr.0..yr.1).map_err(de)?.set_secondary_coord(xr.0..xr.1, cr.0..cr.1);
         cc.configure_mesh()
-            .x_desc(&p.x_label)
-            .y_desc(&p.y_label)
+            .x_desc(micrometre_text(&p.x_label))
+            .y_desc(micrometre_text(&p.y_label))
             .x_labels(xn)
             .y_labels(yn)
             .x_label_formatter(&fx)
@@ -640,8 +714,8 @@ fn draw_panel<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, area: &DrawingA
     } else {
         let mut cc = builder.build_cartesian_2d(xr.0..xr.1, yr.0..yr.1).map_err(de)?;
         cc.configure_mesh()
-            .x_desc(&p.x_label)
-            .y_desc(&p.y_label)
+            .x_desc(micrometre_text(&p.x_label))
+            .y_desc(micrometre_text(&p.y_label))
             .x_labels(xn)
             .y_labels(yn)
             .x_label_formatter(&fx)
@@ -698,7 +772,7 @@ fn draw_series<DB: DrawingBackend>(cc: &mut Cc<'_, DB>, p: &Panel, yr: (f64, f64
         let mut segments: Vec<Vec<(f64, f64)>> = vec![vec![]];
         for &(x, y) in &s.points {
             match y {
-                Some(y) if x.is_finite() && y.is_finite() => segments.last_mut().unwrap().push((x, clamp(y))),
+                Some(y) if x.is_finite() && y.is_finite() && (!p.y_log || y > 0.0) => segments.last_mut().unwrap().push((x, clamp(if p.y_log { y.log10() } else { y }))),
                 _ => {
                     if !segments.last().unwrap().is_empty() {
                         segments.push(vec![]);
@@ -777,7 +851,7 @@ fn check_map(m: &GridMap) -> Result<(), String> {
 fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &GridMap) -> Result<(), String> {
     check_map(m)?;
     root.fill(&WHITE).map_err(de)?;
-    let top = draw_title(root, &m.title, &m.subtitle)?;
+    let top = draw_title(root, &micrometre_text(&m.title), &micrometre_text(&m.subtitle))?;
     let (_, body) = root.split_vertically(top);
     let (w, _) = body.dim_in_pixel();
     let (plot, bar) = body.split_horizontally(w - 130);
@@ -820,8 +894,8 @@ fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &GridMap) -> R
         .map_err(de)?;
     cc.configure_mesh()
         .disable_mesh()
-        .x_desc(&m.x_label)
-        .y_desc(&m.y_label)
+        .x_desc(micrometre_text(&m.x_label))
+        .y_desc(micrometre_text(&m.y_label))
         .x_labels(nx as usize + 1)
         .y_labels(ny as usize + 1)
         .x_label_formatter(&xlabels)
@@ -1168,8 +1242,17 @@ const RESIDUE_PANELS: [(&[&str], &str, &str, f64, f64); 5] = [
     (&["dcn"], "Derived cetane number", "DCN  [-]", 1.0, 0.0),
 ];
 
+/// True when a run's fuel is one pure component: its residual liquid is the same liquid throughout, so the
+/// residue indicators stay at their initial values.
+pub fn is_pure_fuel(run: &SavedRun) -> bool {
+    run.components.len() == 1
+}
+
+/// Note shown on a page instead of the residue chart of a pure fuel.
+pub const PURE_FUEL_RESIDUE_NOTE: &str = "No residue chart: a single-component fuel does not change as it evaporates, so its residue indicators (bubble point, T50, flash point, viscosity, density, cetane number) stay at their initial values; they are listed in residue.csv and the table above.";
+
 /// Residual-liquid indicators against evaporated fraction, one panel each, from residue.csv; `None` when no run
-/// has a residue table.
+/// has a residue table. (A single pure-fuel run gets no residue chart: see [`write_run_charts`].)
 pub fn residue_chart(runs: &[LabelledRun], stem: &str, subtitle: &str) -> Result<Option<Chart>, OutputError> {
     let with: Vec<(usize, &LabelledRun)> = runs.iter().enumerate().filter(|(_, r)| r.run.residue.is_some()).collect();
     if with.is_empty() {
@@ -1255,12 +1338,15 @@ pub fn table_vs_temperature_chart(table: &CsvData, stem: &str, title: &str, subt
             continue;
         }
         let (name, unit, scale) = column_display(col);
+        // vapour and bubble pressures span decades over the liquid range: a log axis shows them all
+        let y_log = col.ends_with("_Pa") && name.contains("pressure") && y.iter().flatten().any(|v| *v > 0.0);
         let points = t.iter().zip(&y).filter_map(|(x, y)| x.map(|x| (x, y.map(|v| v * scale)))).collect();
         panels.push(Panel {
             title: truncate_label(&name, 40),
             x_label: "temperature  [K]".into(),
-            y_label: format!("[{unit}]"),
+            y_label: if y_log { format!("[{unit}], log scale") } else { format!("[{unit}]") },
             series: vec![Series { name: name.clone(), points, color: PALETTE[panels.len() % PALETTE.len()], stroke: Stroke::Solid }],
+            y_log,
             ..Default::default()
         });
     }
@@ -1284,7 +1370,9 @@ pub fn table_vs_temperature(csv: &Path, dir: &Path, stem: &str, title: &str) -> 
 /// File stems of the per-run charts, in page order.
 pub const RUN_CHARTS: [&str; 5] = ["chart_d2", "chart_surface_temperature", "chart_liquid_composition", "chart_vapor_composition", "chart_residue"];
 
-/// Draw every chart of one run folder beside its data; the residue chart only when residue.csv exists.
+/// Draw every chart of one run folder beside its data; the residue chart only when residue.csv exists and the
+/// fuel has more than one component (a pure fuel's residue indicators are flat lines; the run page says so
+/// with [`PURE_FUEL_RESIDUE_NOTE`]). Comparison charts keep pure fuels: there their level is the information.
 pub fn write_run_charts(run: &SavedRun) -> Result<Vec<ChartFiles>, OutputError> {
     let sub = run_subtitle(run);
     let label = run.fuel_name();
@@ -1295,8 +1383,10 @@ pub fn write_run_charts(run: &SavedRun) -> Result<Vec<ChartFiles>, OutputError> 
         liquid_composition_chart(run, RUN_CHARTS[2], &sub)?,
         vapor_composition_chart(run, RUN_CHARTS[3], &sub)?,
     ];
-    if let Some(c) = residue_chart(&one, RUN_CHARTS[4], &sub)? {
-        charts.push(c);
+    if !is_pure_fuel(run) {
+        if let Some(c) = residue_chart(&one, RUN_CHARTS[4], &sub)? {
+            charts.push(c);
+        }
     }
     remove_stale(&run.dir, RUN_CHARTS[4], charts.len() < 5);
     charts.iter().map(|c| write_chart(&run.dir, c)).collect()
@@ -1340,6 +1430,34 @@ mod tests {
         assert_eq!(tick_decimals((0.0, 10.0), 10), 0);
         assert_eq!(format_tick(-0.0001, 2), "0.00");
         assert_eq!(format_tick(-1.5, 1), "−1.5");
+    }
+
+    #[test]
+    fn micrometres_have_one_spelling() {
+        assert_eq!(micrometre_text("initial-diameter=30um"), "initial-diameter=30µm");
+        assert_eq!(micrometre_text("d0 = 30 um, 45um"), "d0 = 30 µm, 45µm");
+        assert_eq!(micrometre_text("umbrella 3umx drum"), "umbrella 3umx drum");
+        assert_eq!(micrometre_text("sum 10 µm"), "sum 10 µm");
+    }
+
+    #[test]
+    fn log_axis_labels_whole_decades() {
+        assert_eq!(decade_label(2.0), "100");
+        assert_eq!(decade_label(0.0), "1");
+        assert_eq!(decade_label(-2.0), "0.01");
+        assert_eq!(decade_label(0.5), "");
+        let p = Panel { y_log: true, series: vec![Series { name: "p".into(), points: vec![(300.0, Some(0.2)), (400.0, Some(-1.0)), (500.0, Some(350.0))], color: PALETTE[0], stroke: Stroke::Solid }], ..Default::default() };
+        assert_eq!(log_range(&p), (-1.0, 3.0));
+    }
+
+    #[test]
+    fn line_panels_keep_a_margin_inside_the_frame() {
+        let p = Panel { x_range: Some((0.0, 100.0)), y_range: Some((0.0, 1.0)), series: vec![Series { name: "a".into(), points: vec![(0.0, Some(0.0)), (100.0, Some(1.0))], color: PALETTE[0], stroke: Stroke::Solid }], ..Default::default() };
+        let (xr, yr) = panel_ranges(&p);
+        assert!(xr.0 < 0.0 && xr.1 > 100.0 && yr.0 < 0.0 && yr.1 > 1.0, "{xr:?} {yr:?}");
+        assert!(xr.1 - xr.0 < 105.0);
+        let stacked = Panel { stacked: true, ..p };
+        assert_eq!(panel_ranges(&stacked), ((0.0, 100.0), (0.0, 1.0)));
     }
 
     #[test]
@@ -1413,6 +1531,7 @@ mod tests {
             assert!(svg.contains(name), "{name}");
         }
         assert!(!svg.contains(">note<"));
+        assert!(svg.contains("[kPa], log scale"), "vapour pressure on a log axis");
         let png = std::fs::read(&files.png).unwrap();
         assert_eq!(&png[1..4], b"PNG");
         if std::env::var_os("DROPCUT_CHART_DIR").is_none() {

@@ -235,6 +235,9 @@ pub fn write_run_page(run: &SavedRun, charts: &[ChartFiles]) -> Result<PathBuf, 
         b.push_str("<h2>Charts</h2>\n");
         b.push_str(&figures("", charts));
     }
+    if run.residue.is_some() && super::charts::is_pure_fuel(run) {
+        b.push_str(&format!("<p class=\"sub\">{}</p>\n", escape(super::charts::PURE_FUEL_RESIDUE_NOTE)));
+    }
     let notes: Vec<String> = run.summary.get("regime_notes").and_then(|n| n.as_array()).map(|a| a.iter().filter_map(|v| v.as_str().map(String::from)).collect()).unwrap_or_default();
     if !notes.is_empty() {
         b.push_str("<h2>Notes</h2>\n<ul class=\"notes\">\n");

@@ -376,29 +376,17 @@ impl Film {
         if lo.1 >= 0.0 {
             return self.non_equilibrium_at(x, t_s, d, speed, latent, sum_x, 0.0, &mut lo.1);
         }
-        let mut side = 0i32;
-        for _ in 0..100 {
-            let xm = (lo.0 * hi.1 - hi.0 * lo.1) / (hi.1 - lo.1);
-            let xm = if xm.is_finite() && xm > lo.0 && xm < hi.0 { xm } else { 0.5 * (lo.0 + hi.0) };
-            let mut hm = 0.0;
-            r = self.non_equilibrium_at(x, t_s, d, speed, latent, sum_x, xm, &mut hm);
-            if hm.abs() <= 1e-12 * sum_x || hi.0 - lo.0 <= 1e-13 * sum_x {
-                break;
-            }
-            if hm < 0.0 {
-                lo = (xm, hm);
-                if side == -1 {
-                    hi.1 *= 0.5;
-                }
-                side = -1;
-            } else {
-                hi = (xm, hm);
-                if side == 1 {
-                    lo.1 *= 0.5;
-                }
-                side = 1;
-            }
-        }
+        illinois(
+            lo,
+            hi,
+            100,
+            |xm| {
+                let mut hm = 0.0;
+                r = self.non_equilibrium_at(x, t_s, d, speed, latent, sum_x, xm, &mut hm);
+                hm
+            },
+            |_, hm, lo, hi| hm.abs() <= 1e-12 * sum_x || hi - lo <= 1e-13 * sum_x,
+        );
         r
     }
 
@@ -538,30 +526,7 @@ impl Film {
                     hi_l *= 2.0;
                     hi = (hi_l, resid(hi_l));
                 }
-                let mut side = 0i32;
-                let mut lam = hi.0;
-                for _ in 0..200 {
-                    let lm = (lo.0 * hi.1 - hi.0 * lo.1) / (hi.1 - lo.1);
-                    lam = if lm.is_finite() && lm > lo.0 && lm < hi.0 { lm } else { 0.5 * (lo.0 + hi.0) };
-                    let rm = resid(lam);
-                    if rm.abs() <= 1e-13 * (q_extra.abs() + g_of(lam) * l_eff * lam) || hi.0 - lo.0 <= 1e-15 * hi.0 {
-                        break;
-                    }
-                    if rm < 0.0 {
-                        lo = (lam, rm);
-                        if side == -1 {
-                            hi.1 *= 0.5;
-                        }
-                        side = -1;
-                    } else {
-                        hi = (lam, rm);
-                        if side == 1 {
-                            lo.1 *= 0.5;
-                        }
-                        side = 1;
-                    }
-                }
-                lam
+                illinois(lo, hi, 200, resid, |lam, rm, lo_l, hi_l| rm.abs() <= 1e-13 * (q_extra.abs() + g_of(lam) * l_eff * lam) || hi_l - lo_l <= 1e-15 * hi_l)
             };
             let b_t = lam.exp_m1().min(1e300);
             let g_t = g_of(lam);
@@ -658,6 +623,42 @@ impl Film {
             heat_extra: 0.0,
         }
     }
+}
+
+/// Root of `f` bracketed by `lo` = (x, f(x) < 0) and `hi` = (x, f(x) > 0) by the Illinois variant of regula
+/// falsi (Dowell & Jarratt 1971): at most `max_iterations` evaluations, stopping when `done(x, f(x), lo, hi)`
+/// holds for the new point and the bracket it was taken from. Returns the last point evaluated (`hi.0` if none).
+fn illinois(
+    mut lo: (f64, f64),
+    mut hi: (f64, f64),
+    max_iterations: usize,
+    mut f: impl FnMut(f64) -> f64,
+    mut done: impl FnMut(f64, f64, f64, f64) -> bool,
+) -> f64 {
+    let mut side = 0i32;
+    let mut x = hi.0;
+    for _ in 0..max_iterations {
+        let xm = (lo.0 * hi.1 - hi.0 * lo.1) / (hi.1 - lo.1);
+        x = if xm.is_finite() && xm > lo.0 && xm < hi.0 { xm } else { 0.5 * (lo.0 + hi.0) };
+        let fx = f(x);
+        if done(x, fx, lo.0, hi.0) {
+            break;
+        }
+        if fx < 0.0 {
+            lo = (x, fx);
+            if side == -1 {
+                hi.1 *= 0.5;
+            }
+            side = -1;
+        } else {
+            hi = (x, fx);
+            if side == 1 {
+                lo.1 *= 0.5;
+            }
+            side = 1;
+        }
+    }
+    x
 }
 
 #[cfg(test)]

@@ -447,7 +447,7 @@ const CASES: &[Case] = &[
     case!(["sweep", "spec-ok.toml", "--out", "{out}", "--shard", "-1/4"], ["--shard -1/4", "not a whole number"]),
     case!(["sweep", "spec-ok.toml", "--out", "{out}", "--threads", "-1"], ["--threads", "'-1'"]),
     case!(["sweep", "spec-ok.toml", "--out", "{out}", "--threads", "many"], ["--threads", "many"]),
-    case!(["sweep", "spec-ok.toml", "--slurm-script", "--out", "{out}", "--job-name", "a\ntouch /tmp/x #"], ["--job-name", "control character"]),
+    case!(["sweep", "spec-ok.toml", "--slurm-script", "--out", "{out}", "--job-name", "a\ntouch injected-file #"], ["--job-name", "control character"]),
     case!(["sweep", "spec-ok.toml", "--slurm-script", "--out", "{out}", "--sbatch", "--partition=a\nb"], ["--sbatch", "control character"]),
     case!(["sweep", "spec-ok.toml", "--slurm-script", "--out", "{out}", "--sbatch", "partition=a"], ["--sbatch", "starts with '-'"]),
     case!(["merge", "no-such-shard", "--out", "{out}", "--spec", "@no-such-spec.toml"], ["cannot read the spec"]),

@@ -850,7 +850,7 @@ def constants(comp, vp_sec, lh_sec):
                               ("api", "Hfg", "api-tdb-albahri"), ("yawshf", "Hfg", "yaws-2014")):
             v = first(T[key], cas, col)
             if v is not None and abs(v - jb["Hf"]) > 60e3:
-                # a compilation entry far from the group estimate is a transcription error in that table
+                # a compilation entry far from the group estimate is a copying error in that table
                 # (e.g. API TDB/Albahri n-octylbenzene +538.81 kJ/mol); try the next compilation
                 continue
             if v is not None:

@@ -10,7 +10,7 @@ parameters UNIFAC", www.ddbst.com): Hansen, Rasmussen, Fredenslund, Schiller & G
 Res. 30:2352-2355 (revision and extension 5), with the revision of Wittig, Lohmann & Gmehling (2003), Ind. Eng.
 Chem. Res. 42:183-188 (revision and extension 6).
 
-Transcription: the thermo package (pip install thermo; the version is written into the header) carries that
+Copy: the thermo package (pip install thermo; the version is written into the header) carries that
 DDBST table as `thermo.unifac.UFSG` (subgroups) and the file "UNIFAC original interaction parameters.tsv"
 (`thermo.unifac.UFIP`). This script copies them digit for digit; nothing is fitted or changed.
 

@@ -23,7 +23,9 @@
 //! not evaporate faster than either experiment beyond the same tolerance: both rigs only add heat.
 //!
 //! Cases marked "reported, not asserted" are printed in the validation report with the reason and are not part
-//! of the asserted test (reference values from memory, or a known disagreement explained in the text).
+//! of the asserted test (reference values from memory, or a known disagreement explained in the text). Today every
+//! case is reported only: the microgravity pair rests on second-hand plot readings and fibre dimensions from
+//! memory, and a passing check may not rest on values from memory.
 //!
 //! # Independent check of the film equations for these conditions (computed here, earlier)
 //!
@@ -144,8 +146,8 @@ pub fn cases() -> Vec<ExperimentCase> {
             NOMURA,
             Some(SupportFibre { diameter: 0.15e-3, conductivity: QUARTZ, stems: 1 }),
             "0.15 mm quartz fibre, one stem (from memory)",
-            true,
-            "",
+            false,
+            "reported, not asserted: the reference is a second-hand plot reading (quoted in issue 17) and the fibre dimensions are from memory; to be asserted once the original papers are read",
         ),
         heptane(
             "Chauveau et al., n-heptane in N2, 0.1 MPa, 748 K, d0 0.70 mm, microgravity",
@@ -154,8 +156,8 @@ pub fn cases() -> Vec<ExperimentCase> {
             CHAUVEAU,
             Some(SupportFibre { diameter: 14e-6, conductivity: QUARTZ, stems: 4 }),
             "two crossed 14 µm quartz fibres, four stems (from memory)",
-            true,
-            "",
+            false,
+            "reported, not asserted: the reference is a second-hand plot reading (quoted in issue 17) and the fibre dimensions are from memory; to be asserted once the original papers are read",
         ),
         heptane(
             "Chauveau et al., n-heptane in N2, 0.1 MPa, 748 K, d0 0.70 mm, microgravity",
@@ -274,7 +276,7 @@ pub fn model_value(case: &ExperimentCase, lib: &Library) -> Result<f64, String> 
 }
 
 /// The rig without radiation and with black furnace walls at the gas temperature (absorption efficiency 1).
-fn rig_bounds(case: &ExperimentCase) -> (ExtraHeat, ExtraHeat) {
+pub fn rig_bounds(case: &ExperimentCase) -> (ExtraHeat, ExtraHeat) {
     let slow = ExtraHeat { radiation: None, fibre: case.fibre };
     let fast = ExtraHeat { radiation: Some(Radiation { temperature: None, absorption_efficiency: 1.0 }), fibre: case.fibre };
     (slow, fast)

@@ -87,8 +87,8 @@ mod tests {
     use super::*;
 
     /// The committed tables parse, names are unique, and spot values match the published table as printed
-    /// in the transcription header's source (values cross-read from Poling, Prausnitz & O'Connell 5th ed.
-    /// Table 8-23/8-24 — from memory, so only the transcription is asserted, not the publication).
+    /// in the source named in the table header (values cross-read from Poling, Prausnitz & O'Connell 5th ed.
+    /// Table 8-23/8-24 — from memory, so only the copy of the table is asserted, not the publication).
     #[test]
     fn tables_parse_and_spot_values() {
         let t = tables();

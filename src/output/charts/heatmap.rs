@@ -36,6 +36,52 @@ pub(super) fn exact_decimals(values: &[f64]) -> usize {
         .unwrap_or(6)
 }
 
+/// Colour range of a heat map: the data's full range, unless a few outliers lie beyond Tukey's far fences
+/// (quartiles ∓ 3 interquartile ranges); then the range stops at the fences, cells beyond take the end colours
+/// (their printed values stay exact) and the counts above and below are reported on the colour bar.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(super) struct ColourScale {
+    /// Value at the low end of the colour bar.
+    pub(super) low: f64,
+    /// Value at the high end of the colour bar.
+    pub(super) high: f64,
+    /// Cells above `high`.
+    pub(super) above: usize,
+    /// Cells below `low`.
+    pub(super) below: usize,
+}
+
+pub(super) fn colour_scale(values: &[f64]) -> ColourScale {
+    if values.is_empty() {
+        return ColourScale { low: 0.0, high: 1.0, above: 0, below: 0 };
+    }
+    let mut v: Vec<f64> = values.to_vec();
+    v.sort_by(|a, b| a.total_cmp(b));
+    let (lo, hi) = (v[0], v[v.len() - 1]);
+    if hi - lo <= 1e-12 * hi.abs().max(1.0) {
+        return ColourScale { low: lo - 0.05 * lo.abs().max(1.0), high: hi + 0.05 * hi.abs().max(1.0), above: 0, below: 0 };
+    }
+    let full = ColourScale { low: lo, high: hi, above: 0, below: 0 };
+    if v.len() < 8 {
+        return full;
+    }
+    let quantile = |q: f64| {
+        let x = q * (v.len() - 1) as f64;
+        let i = x.floor() as usize;
+        let f = x - i as f64;
+        if i + 1 < v.len() { v[i] + f * (v[i + 1] - v[i]) } else { v[i] }
+    };
+    let (q1, q3) = (quantile(0.25), quantile(0.75));
+    let iqr = q3 - q1;
+    let (fence_low, fence_high) = (q1 - 3.0 * iqr, q3 + 3.0 * iqr);
+    let low = v.iter().copied().find(|x| *x >= fence_low).unwrap_or(lo);
+    let high = v.iter().rev().copied().find(|x| *x <= fence_high).unwrap_or(hi);
+    if high - low <= 1e-12 * high.abs().max(1.0) {
+        return full;
+    }
+    ColourScale { low, high, above: v.iter().filter(|x| **x > high).count(), below: v.iter().filter(|x| **x < low).count() }
+}
+
 pub(super) fn check_map(m: &GridMap) -> Result<(), String> {
     if m.x.is_empty() || m.y.is_empty() {
         return Err("the map needs at least one x and one y value".into());
@@ -62,17 +108,8 @@ pub(super) fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &Gr
     let (w, _) = body.dim_in_pixel();
     let (plot, bar) = body.split_horizontally(w - 130);
     let vals: Vec<f64> = m.values.iter().flatten().flatten().copied().collect();
-    let (vmin, vmax) = if vals.is_empty() {
-        (0.0, 1.0)
-    } else {
-        let lo = vals.iter().cloned().fold(f64::INFINITY, f64::min);
-        let hi = vals.iter().cloned().fold(f64::NEG_INFINITY, f64::max);
-        if hi - lo <= 1e-12 * hi.abs().max(1.0) {
-            (lo - 0.5 * lo.abs().max(1.0) * 0.1, hi + 0.5 * hi.abs().max(1.0) * 0.1)
-        } else {
-            (lo, hi)
-        }
-    };
+    let scale = colour_scale(&vals);
+    let (vmin, vmax) = (scale.low, scale.high);
     let (nx, ny) = (m.x.len() as i32, m.y.len() as i32);
     let (xd, yd) = (exact_decimals(&m.x), exact_decimals(&m.y));
     let cell_decimals = tick_decimals((vmin, vmax), 6) + 1;
@@ -126,7 +163,7 @@ pub(super) fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &Gr
             cc.draw_series(std::iter::once(Rectangle::new(corners, WHITE.stroke_width(1)))).map_err(de)?;
             if annotate {
                 let text = v.map(|v| format_tick(v, cell_decimals)).unwrap_or_else(|| "n/a".into());
-                let light = v.map(|v| (v - vmin) / (vmax - vmin) < 0.55).unwrap_or(false);
+                let light = v.map(|v| ((v - vmin) / (vmax - vmin)).clamp(0.0, 1.0) < 0.55).unwrap_or(false);
                 let size = if cell_w >= 70.0 && cell_h >= 30.0 { 18 } else { 14 };
                 let st = TextStyle::from((FONT, size).into_font()).color(if light { &WHITE } else { &TEXT }).pos(Pos::new(HPos::Center, VPos::Center));
                 cc.draw_series(std::iter::once(Text::new(text, (SegmentValue::CenterOf(i), SegmentValue::CenterOf(j)), st))).map_err(de)?;
@@ -154,9 +191,14 @@ pub(super) fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &Gr
         Rectangle::new([(0.0, a), (1.0, b)], heat_color((k as f64 + 0.5) / steps as f64).filled())
     }))
     .map_err(de)?;
+    let (_, bh) = bar.dim_in_pixel();
+    let note = TextStyle::from((FONT, 14).into_font()).color(&TEXT).pos(Pos::new(HPos::Left, VPos::Center));
+    for (k, (count, word)) in [(scale.above, "above"), (scale.below, "below")].into_iter().filter(|(c, _)| *c > 0).enumerate() {
+        let text = format!("{count} cell{} {word} scale", if count == 1 { "" } else { "s" });
+        bar.draw_text(&text, &note, (6, bh as i32 - 66 + 16 * k as i32)).map_err(de)?;
+    }
     if m.values.iter().flatten().any(|v| v.is_none()) {
         let st = TextStyle::from((FONT, 16).into_font()).color(&TEXT).pos(Pos::new(HPos::Left, VPos::Center));
-        let (_, bh) = bar.dim_in_pixel();
         bar.draw(&Rectangle::new([(6, bh as i32 - 44), (24, bh as i32 - 26)], RGBColor(225, 225, 225).filled())).map_err(de)?;
         bar.draw_text("n/a: no value", &st, (30, bh as i32 - 35)).map_err(de)?;
     }

@@ -260,6 +260,23 @@ mod tests {
     use super::*;
 
     #[test]
+    fn one_outlier_does_not_swamp_the_colour_scale() {
+        // 24 lifetimes between 10 and 33 ms and one droplet that took 5 s
+        let mut values: Vec<f64> = (0..24).map(|i| 10.0 + i as f64).collect();
+        values.push(5000.0);
+        let s = colour_scale(&values);
+        assert_eq!((s.low, s.high, s.above, s.below), (10.0, 33.0, 1, 0));
+        // an even spread keeps its full range
+        let even: Vec<f64> = (0..25).map(|i| 10.0 + 40.0 * i as f64).collect();
+        let s = colour_scale(&even);
+        assert_eq!((s.low, s.high, s.above, s.below), (10.0, 970.0, 0, 0));
+        // a small map keeps its full range; a flat map gets a visible span
+        assert_eq!(colour_scale(&[1.0, 2.0, 100.0]).high, 100.0);
+        let flat = colour_scale(&[5.0; 10]);
+        assert!(flat.low < 5.0 && flat.high > 5.0);
+    }
+
+    #[test]
     fn tick_decimals_follow_the_step() {
         assert_eq!(tick_decimals((0.0, 2.4), 10), 1);
         assert_eq!(tick_decimals((0.0, 100.0), 10), 0);

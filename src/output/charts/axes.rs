@@ -105,8 +105,19 @@ pub(super) fn log_range(p: &Panel) -> (f64, f64) {
     if !lo.is_finite() {
         return (0.0, 1.0);
     }
-    let (lo, hi) = ((lo - 0.05).floor(), (hi + 0.05).ceil());
-    if hi - lo < 1.0 { (lo, lo + 1.0) } else { (lo, hi) }
+    // stop at the nearest 1-2-5 value beyond a 5 % margin, not at the next whole decade (101 kPa ends at 200)
+    let margin = 1.05f64.log10();
+    let (lo, hi) = (nice_log(lo - margin, false), nice_log(hi + margin, true));
+    if hi - lo < 1.0 { (hi - 1.0, hi) } else { (lo, hi) }
+}
+
+/// log10 of the nearest value of the 1-2-5 series at or below (`up` false) or at or above (`up` true) 10^v.
+pub(super) fn nice_log(v: f64, up: bool) -> f64 {
+    let k = v.floor();
+    let mantissa = 10f64.powf(v - k);
+    let steps = [1.0, 2.0, 5.0, 10.0];
+    let pick = if up { steps.iter().copied().find(|m| *m >= mantissa * (1.0 - 1e-12)).unwrap_or(10.0) } else { steps.iter().rev().copied().find(|m| *m <= mantissa * (1.0 + 1e-12)).unwrap_or(1.0) };
+    k + pick.log10()
 }
 
 /// Tick label of a log axis at log10 value `v`: the value itself at whole decades, nothing between.

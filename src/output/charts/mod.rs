@@ -260,6 +260,26 @@ mod tests {
     use super::*;
 
     #[test]
+    fn log_axes_end_at_the_next_one_two_five_value() {
+        let panel = |values: &[f64]| Panel { y_log: true, series: vec![Series { name: "p".into(), points: values.iter().enumerate().map(|(i, v)| (i as f64, Some(*v))).collect(), color: TEXT, stroke: Stroke::Solid }], ..Default::default() };
+        let range = |values: &[f64]| {
+            let (lo, hi) = log_range(&panel(values));
+            (10f64.powf(lo), 10f64.powf(hi))
+        };
+        // vapour pressure 0.03 to 101 kPa: the axis ends at 200 kPa, not 1000
+        let (lo, hi) = range(&[0.03, 1.0, 101.0]);
+        assert!((hi - 200.0).abs() < 1e-9 && (lo - 0.02).abs() < 1e-12, "{lo} {hi}");
+        // a value just above a decade keeps a margin; exact 1-2-5 values get their 5 % margin too
+        let (_, hi) = range(&[1.0, 95.0]);
+        assert!((hi - 100.0).abs() < 1e-9);
+        let (_, hi) = range(&[1.0, 100.0]);
+        assert!((hi - 200.0).abs() < 1e-9);
+        // a narrow span still shows a whole decade, so at least one labelled tick
+        let (lo, hi) = range(&[60.0, 90.0]);
+        assert!((hi / lo - 10.0).abs() < 1e-9 && lo < 100.0 && hi >= 100.0);
+    }
+
+    #[test]
     fn one_outlier_does_not_swamp_the_colour_scale() {
         // 24 lifetimes between 10 and 33 ms and one droplet that took 5 s
         let mut values: Vec<f64> = (0..24).map(|i| 10.0 + i as f64).collect();
@@ -303,7 +323,9 @@ mod tests {
         assert_eq!(decade_label(-2.0), "0.01");
         assert_eq!(decade_label(0.5), "");
         let p = Panel { y_log: true, series: vec![Series { name: "p".into(), points: vec![(300.0, Some(0.2)), (400.0, Some(-1.0)), (500.0, Some(350.0))], color: PALETTE[0], stroke: Stroke::Solid }], ..Default::default() };
-        assert_eq!(log_range(&p), (-1.0, 3.0));
+        let (lo, hi) = log_range(&p);
+        assert_eq!(lo, -1.0);
+        assert!((hi - 500f64.log10()).abs() < 1e-12, "{hi}");
     }
 
     #[test]

@@ -18,6 +18,7 @@ use super::read::{CsvData, SavedRun};
 mod axes;
 mod figure;
 mod heatmap;
+mod profiles;
 mod runs;
 mod table_charts;
 mod text;
@@ -26,6 +27,7 @@ pub use axes::*;
 pub use figure::*;
 pub use heatmap::*;
 pub use text::*;
+pub use profiles::*;
 pub use runs::*;
 pub use table_charts::*;
 
@@ -227,7 +229,11 @@ pub fn write_run_charts(run: &SavedRun) -> Result<Vec<ChartFiles>, OutputError> 
             charts.push(c);
         }
     }
-    remove_stale(&run.dir, RUN_CHARTS[4], charts.len() < 5);
+    let has_residue = charts.len() == 5;
+    remove_stale(&run.dir, RUN_CHARTS[4], !has_residue);
+    let profiles = radial_profile_chart(run, PROFILE_CHART, &sub)?;
+    remove_stale(&run.dir, PROFILE_CHART, profiles.is_none());
+    charts.extend(profiles);
     charts.iter().map(|c| write_chart(&run.dir, c)).collect()
 }
 

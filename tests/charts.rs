@@ -351,3 +351,28 @@ fn micrometres_are_spelled_one_way_in_chart_text() {
         assert!(!shown.contains("0um") && !shown.contains("2um") && !shown.contains(" m]"), "chart text '{shown}'");
     }
 }
+
+/// A resolved-liquid run gets a chart of its radial temperature and composition profiles (one panel per
+/// component for a two-component fuel, one curve per saved snapshot); a well-mixed run in the same folder
+/// removes the stale chart, and `plot` redraws it from profiles.csv alone.
+#[test]
+fn resolved_runs_get_a_radial_profile_chart() {
+    let dir = scratch("radial");
+    ok(&["simulate", "test-heptane-decane", "--diameter", "10um", "--liquid-mixing", "diffusion", "--liquid-heat", "conduction", "--out", p(&dir)]);
+    assert!(dir.join("profiles.csv").is_file());
+    let svg = check_svg(&dir.join("chart_radial_profiles.svg"), &["Inside the droplet", "n-heptane", "n-decane", "radius / surface radius", "% evaporated"]);
+    check_png(&dir.join("chart_radial_profiles.png"));
+    let page = std::fs::read_to_string(dir.join("index.html")).unwrap();
+    assert!(page.contains("chart_radial_profiles.png"));
+    // one legend line per snapshot in profiles.csv
+    let profiles = std::fs::read_to_string(dir.join("profiles.csv")).unwrap();
+    let mut times: Vec<&str> = profiles.lines().filter(|l| !l.starts_with('#')).skip(1).map(|l| l.split(',').next().unwrap()).collect();
+    times.dedup();
+    assert_eq!(svg.matches("% evaporated (").count(), times.len(), "legend entries vs snapshots");
+    let before = std::fs::read(dir.join("chart_radial_profiles.svg")).unwrap();
+    std::fs::remove_file(dir.join("chart_radial_profiles.svg")).unwrap();
+    ok(&["plot", p(&dir)]);
+    assert_eq!(std::fs::read(dir.join("chart_radial_profiles.svg")).unwrap(), before);
+    ok(&["simulate", "test-heptane-decane", "--diameter", "10um", "--out", p(&dir)]);
+    assert!(!dir.join("profiles.csv").exists() && !dir.join("chart_radial_profiles.svg").exists() && !dir.join("chart_radial_profiles.png").exists());
+}

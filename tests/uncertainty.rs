@@ -232,6 +232,26 @@ fn two_fuels_say_whether_their_bands_overlap() {
     assert!(dir.join("chart_band_d2.svg").is_file());
     let overlap = std::fs::read_to_string(dir.join("overlap.csv")).unwrap();
     assert!(overlap.contains("n-heptane,n-decane,lifetime_s,"));
+    // `plot` redraws every band chart and index.html from the saved files alone, byte for byte
+    let drawn: Vec<PathBuf> = ["", "n-heptane", "n-decane"]
+        .iter()
+        .flat_map(|sub| ["chart_band_d2.png", "chart_band_d2.svg", "chart_band_surface_temperature.svg", "chart_band_residue.svg"].map(|f| dir.join(sub).join(f)))
+        .chain([dir.join("index.html")])
+        .collect();
+    let before: Vec<Vec<u8>> = drawn.iter().map(|f| std::fs::read(f).unwrap()).collect();
+    for f in &drawn {
+        std::fs::remove_file(f).unwrap();
+    }
+    let said = ok(&["plot", p(&dir)]);
+    assert!(said.contains("band chart"), "{said}");
+    for (f, b) in drawn.iter().zip(&before) {
+        assert!(std::fs::read(f).unwrap() == *b, "{} differs after redrawing", f.display());
+    }
+    // the report names inputs as a reader says them, and residue temperatures are drawn in °C
+    let page = std::fs::read_to_string(dir.join("index.html")).unwrap();
+    assert!(page.contains("ambient temperature (") && !page.contains("ambient-temperature ("), "ranking labels");
+    let residue = std::fs::read_to_string(dir.join("chart_band_residue.svg")).unwrap();
+    assert!(residue.contains("flash point  [°C]") || residue.contains("flash point [°C]"));
 }
 
 /// Bad input: exit 2 and one line naming the option, file or field and the value.

@@ -46,8 +46,16 @@ pub enum Command {
     Compare(CompareArgs),
     /// Redraw the charts and index.html of a result folder from its saved data, without recomputing.
     Plot {
-        /// A run folder (history.csv, summary.json) or a demo/compare folder with one sub-folder per run.
+        /// A run folder (history.csv, summary.json), a demo/compare folder with one sub-folder per run, a sweep
+        /// output folder (summary.csv), a property-table folder or an uncertainty folder.
         dir: PathBuf,
+        /// Sweep maps: the two swept inputs that span each map, as X,Y (e.g. ambient-temperature,diameter).
+        #[arg(long, value_name = "X,Y")]
+        map_axes: Option<String>,
+        /// Sweep maps: hold another swept input at one of its swept values, as KEY=VALUE with units
+        /// (e.g. pressure=10bar); repeat for several. Inputs not named are held at their first value.
+        #[arg(long, value_name = "KEY=VALUE")]
+        map_hold: Vec<String>,
     },
     /// Run a sweep of fuels × conditions from a TOML spec on all cores, or print its Slurm batch script.
     Sweep(SweepArgs),

@@ -29,7 +29,7 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
         Command::Simulate(args) => simulate(&lib, &args),
         Command::Demo { out, no_plots } => demo(&lib, &out, no_plots),
         Command::Compare(args) => plot::compare(&lib, &args),
-        Command::Plot { dir } => plot::plot(&lib, &dir),
+        Command::Plot { dir, map_axes, map_hold } => plot::plot(&lib, &dir, map_axes.as_deref(), &map_hold),
         Command::Sweep(args) => super::sweep::sweep(&lib, &args, cli.components.as_deref()),
         Command::Merge(args) => super::sweep::merge(&lib, &args),
         Command::Validate { out } => validate(&out),

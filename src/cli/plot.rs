@@ -94,16 +94,30 @@ pub(super) fn finish_study(lib: &Library, dir: &Path, study: &Study, plots: bool
 }
 
 /// `dropcut plot DIR`: redraw charts and pages from saved data, without recomputing.
-pub(super) fn plot(lib: &Library, dir: &Path) -> Result<(), CliError> {
+pub(super) fn plot(lib: &Library, dir: &Path, map_axes: Option<&str>, map_hold: &[String]) -> Result<(), CliError> {
     if !dir.is_dir() {
         return Err(CliError::input(format!("{}: no such folder", dir.display())));
+    }
+    let mut choice = crate::output::sweep_maps::MapChoice::default();
+    if let Some(text) = map_axes {
+        choice.axes = Some(crate::output::sweep_maps::MapChoice::parse_axes(text).map_err(|m| CliError::input(format!("--map-axes: {m}")))?);
+    }
+    for text in map_hold {
+        choice.hold.push(crate::output::sweep_maps::MapChoice::parse_hold(text).map_err(|m| CliError::input(format!("--map-hold: {m}")))?);
+    }
+    let is_sweep = dir.join("summary.csv").is_file() && !SavedRun::is_run_folder(dir);
+    if choice != Default::default() && !is_sweep {
+        return Err(CliError::input(format!("--map-axes/--map-hold: {} is not a sweep output folder (no summary.csv)", dir.display())));
     }
     if dir.join("mixture.csv").is_file() {
         let n = draw_table_charts(dir)?;
         return stdout_write(&format!("drew {n} property-table chart(s) in {}\n", dir.display()));
     }
-    if dir.join("summary.csv").is_file() && !SavedRun::is_run_folder(dir) {
-        let maps = crate::output::sweep_maps::sweep_maps(dir)?;
+    if let Some(n) = redraw_uncertainty(dir)? {
+        return stdout_write(&format!("drew {n} band chart(s) and index.html in {}\n", dir.display()));
+    }
+    if is_sweep {
+        let maps = crate::output::sweep_maps::sweep_maps_with(dir, &choice)?;
         return stdout_write(&format!("drew {} sweep map(s) in {}\n", maps.len(), dir.display()));
     }
     if SavedRun::is_run_folder(dir) {
@@ -132,6 +146,67 @@ pub(super) fn plot(lib: &Library, dir: &Path) -> Result<(), CliError> {
     };
     let (_, n) = finish_study(lib, dir, &study, true)?;
     stdout_write(&format!("drew {n} charts and the index.html pages in {}\n", dir.display()))
+}
+
+/// Redraw the band charts and index.html of an uncertainty folder (one fuel, or one sub-folder per fuel with
+/// overlap.csv on top) from its saved files. None when `dir` is not an uncertainty folder.
+fn redraw_uncertainty(dir: &Path) -> Result<Option<usize>, CliError> {
+    use crate::output::uncertainty::{self as out, LabelledBands};
+    let read = |d: &Path| -> Result<LabelledBands, CliError> {
+        let mut b = LabelledBands::read(d, "")?;
+        b.label = b.fuel.clone();
+        Ok(b)
+    };
+    let mut sections = vec![];
+    let mut count = 0;
+    let mut labels = vec![];
+    if out::is_band_folder(dir) {
+        let bands = read(dir)?;
+        let charts = out::write_band_charts(dir, std::slice::from_ref(&bands))?;
+        count += charts.len();
+        labels.push(bands.label.clone());
+        sections.push(output::html::UncertaintySection { heading: bands.label.clone(), prefix: String::new(), charts, files: out::FILES.iter().map(|f| f.to_string()).collect() });
+    } else if dir.join("overlap.csv").is_file() {
+        // the fuels in their command-line order, as overlap.csv lists the pairs (first, later)
+        let overlap = crate::output::read::CsvData::read(&dir.join("overlap.csv"))?;
+        let (Some(a), Some(b)) = (overlap.index("fuel_a"), overlap.index("fuel_b")) else {
+            return Err(CliError::input(format!("{}: no fuel_a/fuel_b columns", dir.join("overlap.csv").display())));
+        };
+        let mut order: Vec<String> = vec![];
+        for row in &overlap.rows {
+            for label in [&row[a], &row[b]] {
+                if !order.contains(label) {
+                    order.push(label.clone());
+                }
+            }
+        }
+        let subdirs: Vec<(String, std::path::PathBuf)> = order.iter().map(|l| (l.clone(), dir.join(safe_name(l)))).collect();
+        if let Some((_, missing)) = subdirs.iter().find(|(_, d)| !out::is_band_folder(d)) {
+            return Err(CliError::input(format!("{}: named in overlap.csv but does not hold the band files ({})", missing.display(), out::FILES.join(", "))));
+        }
+        let mut all = vec![];
+        for (label, sub) in &subdirs {
+            let mut bands = read(sub)?;
+            let folder = sub.file_name().unwrap_or_default().to_string_lossy().into_owned();
+            bands.label = label.clone();
+            let charts = out::write_band_charts(sub, std::slice::from_ref(&bands))?;
+            count += charts.len();
+            labels.push(bands.label.clone());
+            sections.push(output::html::UncertaintySection { heading: bands.label.clone(), prefix: format!("{folder}/"), charts, files: out::FILES.iter().map(|f| f.to_string()).collect() });
+            all.push(bands);
+        }
+        let charts = out::write_band_charts(dir, &all)?;
+        count += charts.len();
+        sections.insert(0, output::html::UncertaintySection { heading: "all fuels".into(), prefix: String::new(), charts, files: vec!["overlap.csv".into()] });
+    } else {
+        return Ok(None);
+    }
+    let report = match std::fs::read_to_string(dir.join(out::REPORT_FILE)) {
+        Ok(text) => text,
+        Err(_) => format!("(no {} in this folder: written by an earlier version; the charts were redrawn from the band files)\n", out::REPORT_FILE),
+    };
+    output::html::write_uncertainty_page(dir, &format!("dropcut uncertainty: {}", labels.join(", ")), &report, &sections)?;
+    Ok(Some(count))
 }
 
 /// Parsed `--vary OPTION=V1,V2,...`.

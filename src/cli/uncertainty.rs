@@ -93,7 +93,7 @@ fn report(label: &str, run: &UncertaintyRun) -> String {
             .iter()
             .filter(|r| r.output == o && r.above_noise == Some(true))
             .take(3)
-            .filter_map(|r| r.r2.map(|v| format!("{} ({:.0} %{})", r.input, 100.0 * v, r.spearman.map(|s| format!(", ρ {s:+.2}")).unwrap_or_default())))
+            .filter_map(|r| r.r2.map(|v| format!("{} ({:.0} %{})", out::readable_input(&r.input), 100.0 * v, r.spearman.map(|s| format!(", ρ {s:+.2}")).unwrap_or_default())))
             .collect();
         if top.is_empty() {
             s.push_str(&format!("  drives the spread of the {desc}: no input stands out from the sampling noise\n"));
@@ -176,13 +176,13 @@ pub(super) fn uncertainty(lib: &Library, args: &UncertaintyArgs) -> Result<(), C
     for (label, run) in &runs {
         let dir = if single { args.out.clone() } else { args.out.join(safe_name(label)) };
         out::write_run(&dir, run)?;
-        let charts = if args.no_plots { vec![] } else { out::write_band_charts(&dir, &[LabelledBands { label, run }])? };
+        let charts = if args.no_plots { vec![] } else { out::write_band_charts(&dir, &[LabelledBands::of(label, run)])? };
         text.push_str(&report(label, run));
         let prefix = if single { String::new() } else { format!("{}/", safe_name(label)) };
         sections.push(output::html::UncertaintySection { heading: label.clone(), prefix, charts, files: out::FILES.iter().map(|f| f.to_string()).collect() });
     }
     if !single {
-        let labelled: Vec<LabelledBands> = runs.iter().map(|(l, r)| LabelledBands { label: l, run: r }).collect();
+        let labelled: Vec<LabelledBands> = runs.iter().map(|(l, r)| LabelledBands::of(l, r)).collect();
         if !args.no_plots {
             let charts = out::write_band_charts(&args.out, &labelled)?;
             sections.insert(0, output::html::UncertaintySection { heading: "all fuels".into(), prefix: String::new(), charts, files: vec!["overlap.csv".into()] });
@@ -201,10 +201,11 @@ pub(super) fn uncertainty(lib: &Library, args: &UncertaintyArgs) -> Result<(), C
         out::overlap_table(&pairs)?.write(&args.out.join("overlap.csv"))?;
     }
     let labels: Vec<&str> = runs.iter().map(|(l, _)| l.as_str()).collect();
+    output::write_atomic(&args.out.join(out::REPORT_FILE), text.as_bytes())?;
     output::html::write_uncertainty_page(&args.out, &format!("dropcut uncertainty: {}", labels.join(", ")), &text, &sections)?;
     stdout_write(&text)?;
     let what = if args.no_plots { ", index.html" } else { ", index.html and band charts" };
     let where_ = if single { format!("{}", args.out.display()) } else { format!("{} (one folder per fuel; overlap.csv and overlaid charts on top)", args.out.display()) };
-    stdout_write(&format!("wrote {}{what} in {where_}\n", out::FILES.join(", ")))?;
+    stdout_write(&format!("wrote {}, {}{what} in {where_}\n", out::FILES.join(", "), out::REPORT_FILE))?;
     Ok(())
 }

@@ -127,6 +127,8 @@ pub struct SavedRun {
     pub residue: Option<CsvData>,
     /// Component ids in history order, with their hydrocarbon class ("" when unknown).
     pub components: Vec<(String, String)>,
+    /// profiles.csv (radial profiles of a resolved-liquid run), when the run wrote one.
+    pub profiles: Option<CsvData>,
 }
 
 impl SavedRun {
@@ -172,7 +174,9 @@ impl SavedRun {
                 (id, class)
             })
             .collect();
-        Ok(SavedRun { dir: dir.to_path_buf(), history, summary, residue, components })
+        let profiles_path = dir.join("profiles.csv");
+        let profiles = if profiles_path.is_file() { Some(CsvData::read(&profiles_path)?) } else { None };
+        Ok(SavedRun { dir: dir.to_path_buf(), history, summary, residue, components, profiles })
     }
 
     /// A number from summary.json (top level), if present and finite.

@@ -5,15 +5,20 @@ use std::path::Path;
 
 use serde::Serialize;
 
-use crate::uncertainty::run::{HistoryBands, RANKED_RESIDUE_FRACTION};
+use crate::uncertainty::run::{HistoryBands, ResidueBands, RANKED_RESIDUE_FRACTION};
 use crate::uncertainty::{FactorKind, Overlap, SampleStatus, Statistics, UncertaintyRun, PERCENTILES, RANKED_OUTPUTS, RESIDUE_KEYS};
 
 use super::charts::{lighter, run_color, time_scale, write_chart, Band, Chart, ChartFiles, LegendEntry, Panel, Series, Stroke};
 use super::history::InputEcho;
+use super::read::CsvData;
 use super::{Cell, CsvTable, OutputError, TOOL_VERSION};
 
 /// File names written into the output folder of one fuel.
 pub const FILES: [&str; 5] = ["bands_history.csv", "bands_residue.csv", "sensitivity.csv", "samples.csv", "summary.json"];
+
+/// The text report (as printed on stdout), written at the top of the output folder so `plot` can redraw the
+/// page.
+pub const REPORT_FILE: &str = "report.txt";
 
 /// Chart stems of one fuel (the residue chart only when a residue band exists).
 pub const CHARTS: [&str; 3] = ["chart_band_d2", "chart_band_surface_temperature", "chart_band_residue"];
@@ -314,13 +319,110 @@ pub fn write_run(dir: &Path, run: &UncertaintyRun) -> Result<(), OutputError> {
     super::write_json(&dir.join(FILES[4]), &UncertaintySummary::of(run))
 }
 
-/// One fuel's bands in a chart, with its legend label.
-#[derive(Debug, Clone, Copy)]
-pub struct LabelledBands<'a> {
-    /// Legend label (fuel name).
-    pub label: &'a str,
-    /// The run.
-    pub run: &'a UncertaintyRun,
+/// One fuel's bands as the charts need them, with its legend label: taken from a finished run
+/// ([`LabelledBands::of`]) or read back from the files of an uncertainty folder ([`LabelledBands::read`]).
+#[derive(Debug, Clone)]
+pub struct LabelledBands {
+    /// Legend label (fuel name, or the label given on the command line).
+    pub label: String,
+    /// Fuel name.
+    pub fuel: String,
+    /// Nominal condition and design in one line (without the fuel).
+    pub setting: String,
+    /// Bands of the droplet history.
+    pub history: HistoryBands,
+    /// Bands of the residue indicators.
+    pub residue: ResidueBands,
+}
+
+impl LabelledBands {
+    /// The bands of a finished run.
+    pub fn of(label: &str, run: &UncertaintyRun) -> Self {
+        LabelledBands { label: label.into(), fuel: run.nominal.fuel.name.clone(), setting: subtitle(run, false), history: run.history.clone(), residue: run.residue.clone() }
+    }
+
+    /// Read the bands back from bands_history.csv, bands_residue.csv and summary.json of a folder written by
+    /// [`write_run`], so the charts can be redrawn without sampling again.
+    pub fn read(dir: &Path, label: &str) -> Result<Self, OutputError> {
+        let summary_path = dir.join(FILES[4]);
+        let text = std::fs::read_to_string(&summary_path).map_err(|e| read_err(&summary_path, e.to_string()))?;
+        let json: serde_json::Value = serde_json::from_str(&text).map_err(|e| read_err(&summary_path, e.to_string()))?;
+        let number = |path: &[&str]| -> Result<f64, OutputError> {
+            let mut v = &json;
+            for k in path {
+                v = &v[*k];
+            }
+            v.as_f64().ok_or_else(|| read_err(&summary_path, format!("missing number {}", path.join("."))))
+        };
+        let word = |key: &str| json[key].as_str().map(str::to_string).ok_or_else(|| read_err(&summary_path, format!("missing text {key}")));
+        let fuel = json["input"]["fuel"].as_str().unwrap_or(label).to_string();
+        let setting = setting_line(
+            number(&["input", "ambient_temperature_K"])?,
+            number(&["input", "pressure_Pa"])?,
+            number(&["input", "initial_diameter_m"])?,
+            number(&["input", "droplet_temperature_K"])?,
+            number(&["samples"])? as usize,
+            &word("method")?,
+            number(&["seed"])? as u64,
+        );
+        let h = CsvData::read(&dir.join(FILES[0]))?;
+        let triple = |data: &CsvData, base: &str, unit: &str| -> Result<Vec<[Option<f64>; 3]>, OutputError> {
+            let cols: Vec<Vec<Option<f64>>> = PERCENTILES.iter().map(|q| data.numbers(&format!("{base}_{}{unit}", pct(*q)))).collect::<Result<_, _>>()?;
+            Ok((0..data.rows.len()).map(|j| [cols[0][j], cols[1][j], cols[2][j]]).collect())
+        };
+        let history = HistoryBands {
+            time: h.required_numbers("time_s")?,
+            normalised_time: h.required_numbers("time_over_lifetime")?,
+            d2: triple(&h, "d2_ratio", "")?,
+            d2_deterministic: h.numbers("d2_ratio_deterministic")?,
+            surface_temperature: triple(&h, "surface_temperature", "_K")?,
+            surface_temperature_deterministic: h.numbers("surface_temperature_deterministic_K")?,
+            present_fraction: h.required_numbers("present_fraction")?,
+        };
+        let r = CsvData::read(&dir.join(FILES[1]))?;
+        let fractions = r.required_numbers("evaporated_fraction")?;
+        let n = fractions.len();
+        let mut residue = ResidueBands { fractions, bands: vec![[[None; 3]; 6]; n], deterministic: vec![[None; 6]; n], counts: vec![[0; 6]; n] };
+        for (m, (key, _)) in RESIDUE_KEYS.iter().enumerate() {
+            let (base, unit) = split_unit(key);
+            let bands = triple(&r, base, unit)?;
+            let det = r.numbers(&format!("{base}_deterministic{unit}"))?;
+            let counts = r.required_numbers(&format!("{base}_samples"))?;
+            for j in 0..n {
+                residue.bands[j][m] = bands[j];
+                residue.deterministic[j][m] = det[j];
+                if !(counts[j] >= 0.0 && counts[j].fract() == 0.0) {
+                    return Err(read_err(&r.path, format!("{base}_samples: {} is not a sample count (data row {})", counts[j], j + 1)));
+                }
+                residue.counts[j][m] = counts[j] as usize;
+            }
+        }
+        Ok(LabelledBands { label: label.into(), fuel, setting, history, residue })
+    }
+}
+
+/// A sensitivity input as a reader says it: `property:vapor-pressure` → "vapour pressure (all components)",
+/// `composition:aromatics` → "aromatics share", `ambient-temperature` → "ambient temperature".
+pub fn readable_input(name: &str) -> String {
+    let words = |s: &str| s.replace('-', " ").replace('_', " ").replace("vapor", "vapour");
+    if let Some(p) = name.strip_prefix("property:") {
+        format!("{} (all components)", words(p))
+    } else if let Some(c) = name.strip_prefix("composition:") {
+        format!("{c} share")
+    } else if let Some((p, c)) = name.split_once(':') {
+        format!("{} of {c}", words(p))
+    } else {
+        words(name)
+    }
+}
+
+fn read_err(path: &Path, message: impl Into<String>) -> OutputError {
+    OutputError::Read { path: path.display().to_string(), message: message.into() }
+}
+
+/// True when `dir` holds the files of one fuel's uncertainty run.
+pub fn is_band_folder(dir: &Path) -> bool {
+    FILES.iter().all(|f| dir.join(f).is_file())
 }
 
 fn legend(runs: &[LabelledBands]) -> Vec<LegendEntry> {
@@ -345,13 +447,13 @@ fn history_panel(runs: &[LabelledBands], f: f64, pick: impl Fn(&HistoryBands, us
     let mut bands = vec![];
     let mut series = vec![];
     for (i, r) in runs.iter().enumerate() {
-        let h = &r.run.history;
+        let h = &r.history;
         let c = run_color(i);
         let rows: Vec<(f64, [Option<f64>; 3], Option<f64>)> = (0..h.time.len()).map(|j| {
             let (b, d) = pick(h, j);
             (h.time[j] * f, b, d)
         }).collect();
-        bands.push(Band { name: r.label.into(), points: rows.iter().map(|(x, b, _)| (*x, b[0].zip(b[2]))).collect(), color: c });
+        bands.push(Band { name: r.label.clone(), points: rows.iter().map(|(x, b, _)| (*x, b[0].zip(b[2]))).collect(), color: c });
         series.push(Series { name: format!("{} median", r.label), points: rows.iter().map(|(x, b, _)| (*x, b[1])).collect(), color: c, stroke: Stroke::Solid });
         series.push(Series { name: format!("{} deterministic", r.label), points: rows.iter().map(|(x, _, d)| (*x, *d)).collect(), color: c, stroke: Stroke::Dashed });
     }
@@ -360,7 +462,7 @@ fn history_panel(runs: &[LabelledBands], f: f64, pick: impl Fn(&HistoryBands, us
 
 /// Band chart of (d/d0)² against time.
 pub fn d2_band_chart(runs: &[LabelledBands], subtitle: &str) -> Chart {
-    let t_max = runs.iter().filter_map(|r| r.run.history.time.last().copied()).fold(0.0, f64::max);
+    let t_max = runs.iter().filter_map(|r| r.history.time.last().copied()).fold(0.0, f64::max);
     let (f, unit) = time_scale(t_max);
     let (bands, series) = history_panel(runs, f, |h, j| (h.d2[j], h.d2_deterministic[j]));
     let panel = Panel { x_label: format!("time  [{unit}]"), y_label: "(d/d0)²  [-]".into(), series, bands, y_range: Some((0.0, 1.08)), ..Default::default() };
@@ -369,36 +471,37 @@ pub fn d2_band_chart(runs: &[LabelledBands], subtitle: &str) -> Chart {
 
 /// Band chart of the surface temperature against time.
 pub fn surface_temperature_band_chart(runs: &[LabelledBands], subtitle: &str) -> Chart {
-    let t_max = runs.iter().filter_map(|r| r.run.history.time.last().copied()).fold(0.0, f64::max);
+    let t_max = runs.iter().filter_map(|r| r.history.time.last().copied()).fold(0.0, f64::max);
     let (f, unit) = time_scale(t_max);
     let (bands, series) = history_panel(runs, f, |h, j| (h.surface_temperature[j], h.surface_temperature_deterministic[j]));
     let panel = Panel { x_label: format!("time  [{unit}]"), y_label: "surface temperature  [K]".into(), series, bands, celsius_axis: true, ..Default::default() };
     band_chart(CHARTS[1], "Surface temperature with its uncertainty band", subtitle, runs, vec![panel], 1, (1000, 620))
 }
 
-/// Residue indicator panels: (indicator position in RESIDUE_KEYS, title, y label, scale).
-const RESIDUE_PANELS: [(usize, &str, &str, f64); 6] = [
-    (0, "Bubble point (1 atm)", "bubble point  [K]", 1.0),
-    (1, "T50 of the simulated distillation", "T50  [K]", 1.0),
-    (2, "Flash point (estimate)", "flash point  [K]", 1.0),
-    (3, "Viscosity at −20 °C", "kinematic viscosity  [mm²/s]", 1e6),
-    (4, "Density at 15 °C", "density  [kg/m³]", 1.0),
-    (5, "Derived cetane number", "DCN  [-]", 1.0),
+/// Residue indicator panels: (indicator position in RESIDUE_KEYS, title, y label, scale, offset); temperatures
+/// in °C as in the residue charts of a single run.
+const RESIDUE_PANELS: [(usize, &str, &str, f64, f64); 6] = [
+    (0, "Bubble point (1 atm)", "bubble point  [°C]", 1.0, -273.15),
+    (1, "T50 of the simulated distillation", "T50  [°C]", 1.0, -273.15),
+    (2, "Flash point (estimate)", "flash point  [°C]", 1.0, -273.15),
+    (3, "Viscosity at −20 °C", "kinematic viscosity  [mm²/s]", 1e6, 0.0),
+    (4, "Density at 15 °C", "density  [kg/m³]", 1.0, 0.0),
+    (5, "Derived cetane number", "DCN  [-]", 1.0, 0.0),
 ];
 
 /// Band chart of the residue indicators against evaporated fraction (None when no indicator has a band).
 pub fn residue_band_chart(runs: &[LabelledBands], subtitle: &str) -> Option<Chart> {
     let mut panels = vec![];
-    for (m, title, ylabel, scale) in RESIDUE_PANELS {
+    for (m, title, ylabel, scale, offset) in RESIDUE_PANELS {
         let mut bands = vec![];
         let mut series = vec![];
         for (i, r) in runs.iter().enumerate() {
-            let rb = &r.run.residue;
+            let rb = &r.residue;
             let c = run_color(i);
             let x: Vec<f64> = rb.fractions.iter().map(|f| 100.0 * f).collect();
-            bands.push(Band { name: r.label.into(), points: x.iter().zip(&rb.bands).map(|(x, b)| (*x, b[m][0].zip(b[m][2]).map(|(lo, hi)| (lo * scale, hi * scale)))).collect(), color: c });
-            series.push(Series { name: format!("{} median", r.label), points: x.iter().zip(&rb.bands).map(|(x, b)| (*x, b[m][1].map(|v| v * scale))).collect(), color: c, stroke: Stroke::Solid });
-            series.push(Series { name: format!("{} deterministic", r.label), points: x.iter().zip(&rb.deterministic).map(|(x, d)| (*x, d[m].map(|v| v * scale))).collect(), color: c, stroke: Stroke::Dashed });
+            bands.push(Band { name: r.label.clone(), points: x.iter().zip(&rb.bands).map(|(x, b)| (*x, b[m][0].zip(b[m][2]).map(|(lo, hi)| (lo * scale + offset, hi * scale + offset)))).collect(), color: c });
+            series.push(Series { name: format!("{} median", r.label), points: x.iter().zip(&rb.bands).map(|(x, b)| (*x, b[m][1].map(|v| v * scale + offset))).collect(), color: c, stroke: Stroke::Solid });
+            series.push(Series { name: format!("{} deterministic", r.label), points: x.iter().zip(&rb.deterministic).map(|(x, d)| (*x, d[m].map(|v| v * scale + offset))).collect(), color: c, stroke: Stroke::Dashed });
         }
         if series.iter().all(|s| s.points.iter().all(|p| p.1.is_none())) {
             continue;
@@ -414,15 +517,19 @@ pub fn residue_band_chart(runs: &[LabelledBands], subtitle: &str) -> Option<Char
 /// One-line description of the nominal condition and the design.
 pub fn subtitle(run: &UncertaintyRun, with_fuel: bool) -> String {
     let inp = &run.nominal;
-    let mut parts = vec![];
-    if with_fuel {
-        parts.push(inp.fuel.name.clone());
-    }
-    parts.push(format!("gas {:.0} K, {} bar", inp.ambient_temperature, format_sig(inp.pressure / 1e5)));
-    parts.push(format!("d0 = {} µm", format_sig(inp.initial_diameter * 1e6)));
-    parts.push(format!("T0 = {:.0} K", inp.initial_temperature));
-    parts.push(format!("{} samples ({}, seed {})", run.settings.samples, run.settings.method.as_str(), run.settings.seed));
-    parts.join(" · ")
+    let s = &run.settings;
+    let setting = setting_line(inp.ambient_temperature, inp.pressure, inp.initial_diameter, inp.initial_temperature, s.samples, s.method.as_str(), s.seed);
+    if with_fuel { format!("{} · {setting}", inp.fuel.name) } else { setting }
+}
+
+fn setting_line(ambient_temperature: f64, pressure: f64, diameter: f64, droplet_temperature: f64, samples: usize, method: &str, seed: u64) -> String {
+    [
+        format!("gas {:.0} K, {} bar", ambient_temperature, format_sig(pressure / 1e5)),
+        format!("d0 = {} µm", format_sig(diameter * 1e6)),
+        format!("T0 = {:.0} K", droplet_temperature),
+        format!("{samples} samples ({method}, seed {seed})"),
+    ]
+    .join(" · ")
 }
 
 fn format_sig(v: f64) -> String {
@@ -434,7 +541,7 @@ fn format_sig(v: f64) -> String {
 /// Draw the band charts of one or several fuels into `dir`.
 pub fn write_band_charts(dir: &Path, runs: &[LabelledBands]) -> Result<Vec<ChartFiles>, OutputError> {
     let Some(first) = runs.first() else { return Ok(vec![]) };
-    let sub = subtitle(first.run, runs.len() == 1);
+    let sub = if runs.len() == 1 { format!("{} · {}", first.fuel, first.setting) } else { first.setting.clone() };
     let mut charts = vec![d2_band_chart(runs, &sub), surface_temperature_band_chart(runs, &sub)];
     if let Some(c) = residue_band_chart(runs, &sub) {
         charts.push(c);

@@ -835,6 +835,36 @@ CN_EXTRA = {
 }
 
 
+# Measurement method of compilation cetane values, from the ECRL fuel-property database (Kessler et al.,
+# repository ecrl/ecnet, file databases/properties_master.csv, commit d9bfc444905d8786cdc3457a6494eef25ea2faab;
+# columns cetane_number value / method / source), read for these rows only. Used only where the value equals
+# the one our compilation gives: the kind becomes DCN when the method is the Ignition Quality Tester (a
+# constant-volume combustion chamber, ASTM D6890). CAS -> (value, method as printed, original source as printed).
+CN_METHOD = {
+    "142-82-5": (52.8, "IQT", "Marquardt (2015)"),
+    "108-87-2": (24.4, "IQT", "Marquardt (2015)"),
+    "108-38-3": (7.0, "IQT", "NREL (2014)"),
+    "95-63-6": (8.9, "IQT", "NREL (2014)"),  # listed there under CAS 95-36-3 with PubChem CID 7247 (1,2,4-trimethylbenzene)
+    "108-67-8": (8.0, "80% Blend, IQT", "NREL (2014)"),
+    "103-65-1": (16.0, "80% Blend, IQT", "NREL (2014)"),
+    "493-02-7": (37.4, "IQT", "Heyne (2009)"),
+    "104-51-8": (12.0, "IQT", "NREL (2014)"),
+}
+
+
+def cetane_kind(cas, value, note):
+    """(kind, note) for a compilation cetane value: DCN when CN_METHOD names the IQT for the same value."""
+    m = CN_METHOD.get(cas)
+    if not m:
+        return "CN", note
+    v, method, orig = m
+    if abs(v - value) > 1e-9:
+        return "CN", note + f"; the ECRL fuel-property database lists {v} ({method}, {orig}) instead, so the kind stays unresolved"
+    blend = "Blend" in method
+    return "DCN", (note.split(";")[0] + f"; measurement method from the ECRL fuel-property database (ecrl-properties-master): "
+                   f"{method}, {orig}" + (" - measured in a blend and back-calculated to the neat compound" if blend else ""))
+
+
 def constants(comp, vp_sec, lh_sec):
     cid, name, aliases, cas, cls, (C, H, O), groups, nring = comp
     out = {}
@@ -979,13 +1009,13 @@ def constants(comp, vp_sec, lh_sec):
     else:
         v = first(T["cnvl"], cas, "CETANE")
         if v is not None:
-            out["cetane-number"] = {"value": v, "kind": "CN", "source": "vom-lehn-2021",
-                                    "note": "compilation value; the compilation does not separate engine CN from derived CN"}
+            kind, note = cetane_kind(cas, v, "compilation value; the compilation does not separate engine CN from derived CN")
+            out["cetane-number"] = {"value": v, "kind": kind, "source": "vom-lehn-2021", "note": note}
         else:
             v = first(T["cnkess"], cas, "CETANE")
             if v is not None:
-                out["cetane-number"] = {"value": v, "kind": "CN", "source": "combustdb-kessler",
-                                        "note": "compilation value (CombustDB, drawn largely from the NREL cetane compendium); kind not separated"}
+                kind, note = cetane_kind(cas, v, "compilation value (CombustDB, drawn largely from the NREL cetane compendium); kind not separated")
+                out["cetane-number"] = {"value": v, "kind": kind, "source": "combustdb-kessler", "note": note}
             else:
                 raise SystemExit(f"no cetane number for {cid}")
 

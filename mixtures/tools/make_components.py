@@ -803,13 +803,13 @@ CN_EXTRA = {
     "4390-04-9": (15.0, "CN", "astm-d613", "secondary low reference fuel, CN = 15 by definition"),
     "90-12-0": (0.0, "CN", "astm-d613", "former low reference fuel, CN = 0 by definition"),
     # recalled values / trend values (not confirmed against a compendium in this session)
-    "111-65-9": (64.0, "CN", "from-memory", "recalled compendium-level value for n-octane; not re-confirmed"),
+    "111-65-9": (64.0, "CN", "from-memory", "recalled compendium-level value for n-octane; not re-confirmed; not in the vom Lehn 2021, CombustDB or ECRL compilations (checked), and the NREL compendium (Yanowitz et al. 2017, NREL/TP-5400-67585) was readable here only as its title pages"),
     "111-84-2": (72.0, "estimate", "estimated:class-trend", "n-alkane trend between the neighbouring n-alkanes; not a measurement"),
-    "124-18-5": (77.0, "CN", "from-memory", "recalled compendium-level value (CN 76-77; IQT DCN is lower, about 66)"),
+    "124-18-5": (77.0, "CN", "from-memory", "recalled compendium-level value (CN 76-77; IQT DCN is lower, about 66); not in the vom Lehn 2021, CombustDB or ECRL compilations (checked), and the NREL compendium (Yanowitz et al. 2017, NREL/TP-5400-67585) was readable here only as its title pages"),
     "1120-21-4": (80.0, "estimate", "estimated:class-trend", "n-alkane trend between the neighbouring n-alkanes; not a measurement"),
-    "112-40-3": (82.0, "CN", "from-memory", "recalled compendium-level value (about 80-87); IQT DCN is lower, about 74"),
+    "112-40-3": (82.0, "CN", "from-memory", "recalled compendium-level value (about 80-87); IQT DCN is lower, about 74; not in the vom Lehn 2021, CombustDB or ECRL compilations (checked), and the NREL compendium (Yanowitz et al. 2017, NREL/TP-5400-67585) was readable here only as its title pages"),
     "629-59-4": (95.0, "estimate", "estimated:class-trend", "n-alkane trend between n-tridecane (90) and n-pentadecane (96, CombustDB); not a measurement"),
-    "3891-98-3": (58.0, "DCN", "from-memory", "recalled DCN of farnesane (about 58-59)"),
+    "3891-98-3": (58.0, "DCN", "from-memory", "recalled DCN of farnesane (about 58-59); not in the vom Lehn 2021, CombustDB or ECRL compilations (checked), and the NREL compendium (Yanowitz et al. 2017, NREL/TP-5400-67585) was readable here only as its title pages"),
     "871-83-0": (66.0, "estimate", "estimated:class-trend", "trend value for a 2-methyl alkane slightly below the n-alkane of the same carbon number; not a measurement"),
     "13151-34-3": (68.0, "estimate", "estimated:class-trend", "trend value; not a measurement"),
     "7045-71-8": (72.0, "estimate", "estimated:class-trend", "trend value; not a measurement"),
@@ -829,9 +829,9 @@ CN_EXTRA = {
     "1127-76-0": (5.0, "estimate", "estimated:class-trend", "alkylnaphthalene trend (1-methylnaphthalene 0 by definition); not a measurement"),
     "575-41-7": (5.0, "estimate", "estimated:class-trend", "alkylnaphthalene trend (1-methylnaphthalene 0 by definition); not a measurement"),
     "575-43-9": (5.0, "estimate", "estimated:class-trend", "alkylnaphthalene trend (1-methylnaphthalene 0 by definition); not a measurement"),
-    "493-01-6": (42.0, "CN", "from-memory", "recalled (cis-decalin about 41-46)"),
+    "493-01-6": (42.0, "CN", "from-memory", "recalled (cis-decalin about 41-46); not in the vom Lehn 2021, CombustDB or ECRL compilations (checked), and the NREL compendium (Yanowitz et al. 2017, NREL/TP-5400-67585) was readable here only as its title pages"),
     "91-20-3": (0.0, "estimate", "estimated:class-trend", "naphthalene: no usable measurement (solid); assigned the 1-methylnaphthalene low-reference value"),
-    "64-17-5": (8.0, "CN", "from-memory", "recalled (ethanol CN about 5-8)"),
+    "64-17-5": (8.0, "CN", "from-memory", "recalled (ethanol CN about 5-8); not in the vom Lehn 2021, CombustDB or ECRL compilations (checked), and the NREL compendium (Yanowitz et al. 2017, NREL/TP-5400-67585) was readable here only as its title pages"),
 }
 
 

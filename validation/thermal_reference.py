@@ -17,6 +17,8 @@ Rows (id, property, temperature, value in J/mol or J/mol/K, source id, asserted,
     reported otherwise.
   * latent heat at 298.15 K, Gharagheizi et al. (2011) data appendix (the compiled experimental set their
     group method was fitted to), reported (asserted = 0): its origin overlaps the CRC values.
+  * for components whose latent heat is still the Riedel-Watson estimate: the Alibakhshi value at Tb and the
+    Gharagheizi value at 298.15 K, reported only, to show how far the estimate is from what is published.
   * liquid heat capacity at 298.15 K, Poling, Prausnitz & O'Connell 5th ed. Appendix A (Cp liquid at
     298.15 K), where the coefficients came from the CRC Handbook or Zabransky; asserted within 2 %. Both
     compilations draw on the same calorimetric literature, so this row checks the transcription chain more
@@ -89,6 +91,16 @@ def main():
                         rows.append((cid, "latent-heat", t, round(Alibakhshi(t, tc, num(r[0]["C"])), 1), "alibakhshi-2017",
                                      0 if independent_crc else 1, 0.10,
                                      f"Alibakhshi, Fluid Phase Equilib. 432 (2017) 62, one-coefficient equation, C = {r[0]['C']} J/mol/K (chemicals 1.5.2 data file), Tc of the component file"))
+            r = gha.get(cas)
+            if r and num(r[0]["Hvap298"]):
+                rows.append((cid, "latent-heat", 298.15, num(r[0]["Hvap298"]), "gharagheizi-2011", 0, 0.03,
+                             "Gharagheizi et al. 2011 data appendix, enthalpy of vaporization at 298.15 K (chemicals 1.5.2 data file)"))
+        if lh_src.startswith("estimated:"):
+            # the estimate (Riedel + Watson) against what is published, reported only (asserted = 0)
+            r = ali.get(cas)
+            if r and num(r[0]["C"]) is not None and tb < 0.8 * tc:
+                rows.append((cid, "latent-heat", tb, round(Alibakhshi(tb, tc, num(r[0]["C"])), 1), "alibakhshi-2017", 0, 0.10,
+                             f"Alibakhshi, Fluid Phase Equilib. 432 (2017) 62, one-coefficient equation, C = {r[0]['C']} J/mol/K (chemicals 1.5.2 data file), Tc of the component file"))
             r = gha.get(cas)
             if r and num(r[0]["Hvap298"]):
                 rows.append((cid, "latent-heat", 298.15, num(r[0]["Hvap298"]), "gharagheizi-2011", 0, 0.03,

@@ -849,6 +849,8 @@ CN_METHOD = {
     "103-65-1": (16.0, "80% Blend, IQT", "NREL (2014)"),
     "493-02-7": (37.4, "IQT", "Heyne (2009)"),
     "104-51-8": (12.0, "IQT", "NREL (2014)"),
+    "540-84-1": (18.0, "IQT", "NREL (2014)"),
+    "538-68-1": (18.0, "Blend", "NREL (2014)"),
 }
 
 
@@ -860,6 +862,8 @@ def cetane_kind(cas, value, note):
     v, method, orig = m
     if abs(v - value) > 1e-9:
         return "CN", note + f"; the ECRL fuel-property database lists {v} ({method}, {orig}) instead, so the kind stays unresolved"
+    if "IQT" not in method:
+        return "CN", note + f"; the ECRL fuel-property database gives the method as '{method}' ({orig}), not a constant-volume chamber"
     blend = "Blend" in method
     return "DCN", (note.split(";")[0] + f"; measurement method from the ECRL fuel-property database (ecrl-properties-master): "
                    f"{method}, {orig}" + (" - measured in a blend and back-calculated to the neat compound" if blend else ""))

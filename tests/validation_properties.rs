@@ -1,6 +1,6 @@
 //! Validation of the component library and the mixture rules against the outside world: reference
 //! equations of state (CoolProp 8.0.0), handbook constants, hand calculations and Cantera 3.2.0.
-//! The check definitions, expected values and their sources live in src/checks/properties.rs (the same code
+//! The check definitions, expected values and their sources live in src/checks/properties/ (the same code
 //! writes the `dropcut validate` report); validation/README.md describes the reference tables.
 
 use dropcut::checks::properties::{self, is_known_failure, KNOWN_FAILURES};
@@ -59,6 +59,32 @@ fn density_and_viscosity_against_measured_data() {
     for id in ["2-2-4-6-6-pentamethylheptane", "n-butylcyclohexane", "n-propylcyclohexane", "1-methylnaphthalene", "ethylcyclohexane", "methylcyclohexane"] {
         assert!(results.iter().any(|r| r.check.starts_with(&format!("{id} handbook liquid density"))), "no handbook density check for {id}");
     }
+}
+
+/// Latent heat and liquid cp of the branched, cyclic and aromatic components that rest on one compilation
+/// (VDI Heat Atlas PPDS, CRC Handbook 95th ed., Zabransky et al. 1996) against another one
+/// (validation/handbook/thermal.csv: CRC Handbook 3 %, Alibakhshi 2017 at Tb 6 %, Poling et al. Appendix A
+/// 2 %); the row that fed the coefficients is never judged.
+#[test]
+fn latent_heat_and_liquid_cp_against_measured_data() {
+    let results = properties::thermal_anchor_checks();
+    let judged = results.iter().filter(|r| r.tolerance != "reported").count();
+    assert!(results.iter().filter(|r| r.tolerance == "reported").count() <= 1, "reported comparisons must be gathered in one line");
+    assert!(judged >= 20, "only {judged} judged checks ran");
+    assert_passed_except_known(&results);
+    for id in ["n-propylcyclohexane", "n-butylcyclohexane", "1-methylnaphthalene", "2-methylheptane", "trans-decalin", "cis-decalin"] {
+        assert!(results.iter().any(|r| r.check.starts_with(id) && r.tolerance != "reported"), "no judged thermal check for {id}");
+    }
+}
+
+/// Hold-out of the latent-heat and liquid-cp anchoring methods on the components with full Perry data:
+/// Watson one-value anchor 8 % to Tb, two-value anchor 5 % to 0.85 Tc, Rowlinson–Bondi one-value anchor 7 %
+/// (tolerances set from the measured hold-out: they record the methods' error and catch a regression).
+#[test]
+fn thermal_anchor_methods_hold_out() {
+    let results = properties::thermal_holdout_checks();
+    assert_eq!(results.len(), 3);
+    assert_passed_except_known(&results);
 }
 
 /// Raoult bubble points and surface equilibrium (hand calculations with CoolProp pure-fluid vapour

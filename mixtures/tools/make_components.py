@@ -328,6 +328,8 @@ def tables():
     L("vdirho", "Density/VDI PPDS Density of Saturated Liquids.tsv")
     L("vdimu", "Viscosity/VDI PPDS Dynamic viscosity of saturated liquids polynomials.tsv")
     L("cascc", "Misc/common_chemistry_data.tsv")
+    L("vdihvap", "Phase Change/VDI PPDS Enthalpies of vaporization.tsv")
+    L("zab", "Heat Capacity/Zabransky.tsv")
 
 
 def webbook(cas, key):
@@ -340,7 +342,9 @@ def webbook(cas, key):
 def ev(sec, T_, M):
     m = sec["model"]
     c = sec.get("coefficients", [])
-    if m == "dippr101":
+    if m == "constant":
+        y = c[0]
+    elif m == "dippr101":
         A, B, C, D, E = (list(c) + [0, 0, 0])[:5]
         y = math.exp(A + B / T_ + C * math.log(T_) + D * T_ ** E)
     elif m == "dippr100":
@@ -525,6 +529,105 @@ def latent_heat(cas):
     return cs("riedel-watson")
 
 
+def ppds12(T_, Tc, A, B, C, D, E):
+    """VDI Heat Atlas PPDS equation 12 for the enthalpy of vaporization [J/mol]:
+    R Tc (A tau^(1/3) + B tau^(2/3) + C tau + D tau^2 + E tau^6), tau = 1 - T/Tc."""
+    tau = 1.0 - T_ / Tc
+    return R * Tc * (A * tau ** (1 / 3) + B * tau ** (2 / 3) + C * tau + D * tau ** 2 + E * tau ** 6)
+
+
+def dippr106_fit(ts, hs, tc, nterms):
+    """Least-squares fit of DIPPR 106, ln H = ln A + (B + C Tr + D Tr^2 + ...) ln(1 - Tr), linear in the
+    unknowns; returns [A, B, C, ...] (A in the unit of hs)."""
+    import numpy as np
+    tr = np.array(ts) / tc
+    lx = np.log(1.0 - tr)
+    cols = [np.ones_like(tr)] + [lx * tr ** i for i in range(nterms - 1)]
+    sol, *_ = np.linalg.lstsq(np.vstack(cols).T, np.log(np.array(hs)), rcond=None)
+    return [float(math.exp(sol[0]))] + [float(x) for x in sol[1:]]
+
+
+def measured_latent_heat(cas, k):
+    """Latent heat where Perry Table 2-150 has no correlation: (1) the VDI Heat Atlas PPDS equation 12,
+    refitted exactly enough into the DIPPR 106 form the loader reads; (2) the two CRC Handbook measurements
+    (at 298.15 K and at Tb) through a two-parameter DIPPR 106 (Watson-type) form; (3) one CRC measurement
+    with the Watson exponent 0.38. Outside t-min..t-max the loader continues the value with the
+    Riedel-Watson shape anchored at the edge. None when no published value exists."""
+    M, Tc, Tm, Tb = k["M"], k["Tc"], k["Tm"], k["Tb"]
+    r = first(T["vdihvap"], cas, "Tc", "A", "B", "C", "D", "E")
+    if r:
+        tcv, A, B, C, D, E = r
+        lo, hi = max(Tm, 0.35 * tcv), 0.95 * tcv
+        ts = [lo + (hi - lo) * i / 199 for i in range(200)]
+        hs = [ppds12(t, tcv, A, B, C, D, E) for t in ts]
+        c = dippr106_fit(ts, hs, tcv, 5)
+        c = [float(f"{c[0] * 1000:.8g}")] + [float(f"{x:.8g}") for x in c[1:]]
+        sec_ = sec("dippr106", c, "J/kmol", lo, hi, "vdi-heat-atlas-ppds", tc=tcv)
+        dev = max(abs(ev(sec_, t, M) * M / h - 1) for t, h in zip(ts, hs))
+        sec_["note"] = (f"VDI Heat Atlas PPDS equation 12 (A = {A}, B = {B}, C = {C}, D = {D}, E = {E}, Tc = {tcv} K) "
+                        f"refitted by least squares into DIPPR 106 over {lo:.1f}-{hi:.1f} K (largest deviation from the "
+                        f"PPDS equation {100 * dev:.3f} %); tc is the VDI critical temperature")
+        return sec_
+    r = T["crchvap"].get(cas)
+    if r:
+        hb, h298, tbc = num(r[0].get("HvapTb")), num(r[0].get("Hvap298")), num(r[0].get("Tb"))
+        tb_ = tbc or Tb
+        if hb and h298 and tb_ > 320.0:
+            lx1, lx2 = math.log(1 - 298.15 / Tc), math.log(1 - tb_ / Tc)
+            B = math.log(h298 / hb) / (lx1 - lx2)
+            A = h298 / math.exp(B * lx1)
+            if 0.2 < B < 0.6:
+                return sec("dippr106", [float(f"{A * 1000:.8g}"), float(f"{B:.6g}")], "J/kmol", 298.15, tb_,
+                           "crc95-heat-of-vaporization", tc=Tc,
+                           note=f"two-parameter DIPPR 106 (A (1 - Tr)^B) through the CRC Handbook values {h298:.0f} J/mol at "
+                                f"298.15 K and {hb:.0f} J/mol at {tb_} K; exponent B = {B:.4f} (Watson 0.38); tc is the "
+                                f"critical temperature of this file; outside the two points the Riedel-Watson shape is "
+                                f"anchored at the nearer point (hold-out error in validation/README.md)")
+        for t0, h0 in ((298.15, h298), (tb_, hb)):
+            if h0:
+                A = h0 / (1 - t0 / Tc) ** 0.38
+                return sec("dippr106", [float(f"{A * 1000:.8g}"), 0.38], "J/kmol", t0 - 0.05, t0 + 0.05,
+                           "crc95-heat-of-vaporization", tc=Tc,
+                           note=f"one CRC Handbook value, {h0:.0f} J/mol at {t0} K, with the Watson exponent 0.38; the "
+                                f"loader continues it with the Riedel-Watson shape anchored at this point")
+    return None
+
+
+def one_point(value, unit, T0, source, note):
+    """A single published measurement at T0 as a constant over T0 +- 0.05 K: the loader continues it outside
+    that band with its estimation method's shape anchored at the measured point (docs/property-methods.md)."""
+    return sec("constant", [value], unit, round(T0 - 0.05, 2), round(T0 + 0.05, 2), source, note=note)
+
+
+def measured_liquid_cp(cas):
+    """Liquid heat capacity where Perry Table 2-153 has no correlation: Zabransky et al. (1996) recommended
+    values (one cubic spline segment, converted exactly to DIPPR 100; or a single recommended value), else the
+    CRC Handbook value at 298.15 K; both single values anchor the Rowlinson-Bondi shape. None otherwise."""
+    rows = T["zab"].get(cas) or T["zab"].get(cas + " ")
+    if rows and len(rows) == 1:
+        r = rows[0]
+        a = [num(r["A1-spline"]), num(r["A2-spline"]), num(r["A3-spline"]), num(r["A4-spline"])]
+        tmin, tmax = num(r["Tmin"]), num(r["Tmax"])
+        if all(x is not None for x in a) and tmin and tmax:
+            if tmax - tmin > 1.0:
+                c = [R * a[0], R * a[1] / 1e2, R * a[2] / 1e4, R * a[3] / 1e6]
+                while len(c) > 1 and c[-1] == 0:
+                    c.pop()
+                return sec("dippr100", [float(f"{x:.8g}") for x in c], "J/mol/K", tmin, tmax, "zabransky-1996",
+                           note=f"Zabransky et al. (1996) recommended cubic spline Cp/R = {a[0]} + {a[1]} (T/100) + {a[2]} (T/100)^2 + "
+                                f"{a[3]} (T/100)^3 (data type {r['Data Type']}, uncertainty class {r['Uncertainty']}), "
+                                f"rewritten exactly as a polynomial in T in J/mol/K")
+            return one_point(float(f"{R * a[0]:.6g}"), "J/mol/K", tmin, "zabransky-1996",
+                             f"Zabransky et al. (1996) recommended value Cp/R = {a[0]} at {tmin} K (uncertainty class "
+                             f"{r['Uncertainty']}); Rowlinson-Bondi shape anchored at it outside {tmin} +- 0.05 K")
+    v = first(T["crcstd"], cas, "Cpl")
+    if v:
+        return one_point(v, "J/mol/K", 298.15, "crc95-standard-thermo",
+                         f"CRC Handbook liquid heat capacity {v} J/mol/K at 298.15 K; Rowlinson-Bondi shape anchored at it "
+                         f"outside 298.15 +- 0.05 K (hold-out error in validation/README.md)")
+    return None
+
+
 def liquid_cp(cas, Tc):
     p = perry("p153a", cas, 5)
     if p:
@@ -700,13 +803,13 @@ CN_EXTRA = {
     "4390-04-9": (15.0, "CN", "astm-d613", "secondary low reference fuel, CN = 15 by definition"),
     "90-12-0": (0.0, "CN", "astm-d613", "former low reference fuel, CN = 0 by definition"),
     # recalled values / trend values (not confirmed against a compendium in this session)
-    "111-65-9": (64.0, "CN", "from-memory", "recalled compendium-level value for n-octane; not re-confirmed"),
+    "111-65-9": (64.0, "CN", "from-memory", "recalled compendium-level value for n-octane; not re-confirmed; not in the vom Lehn 2021, CombustDB or ECRL compilations (checked), and the NREL compendium (Yanowitz et al. 2017, NREL/TP-5400-67585) was readable here only as its title pages"),
     "111-84-2": (72.0, "estimate", "estimated:class-trend", "n-alkane trend between the neighbouring n-alkanes; not a measurement"),
-    "124-18-5": (77.0, "CN", "from-memory", "recalled compendium-level value (CN 76-77; IQT DCN is lower, about 66)"),
+    "124-18-5": (77.0, "CN", "from-memory", "recalled compendium-level value (CN 76-77; IQT DCN is lower, about 66); not in the vom Lehn 2021, CombustDB or ECRL compilations (checked), and the NREL compendium (Yanowitz et al. 2017, NREL/TP-5400-67585) was readable here only as its title pages"),
     "1120-21-4": (80.0, "estimate", "estimated:class-trend", "n-alkane trend between the neighbouring n-alkanes; not a measurement"),
-    "112-40-3": (82.0, "CN", "from-memory", "recalled compendium-level value (about 80-87); IQT DCN is lower, about 74"),
+    "112-40-3": (82.0, "CN", "from-memory", "recalled compendium-level value (about 80-87); IQT DCN is lower, about 74; not in the vom Lehn 2021, CombustDB or ECRL compilations (checked), and the NREL compendium (Yanowitz et al. 2017, NREL/TP-5400-67585) was readable here only as its title pages"),
     "629-59-4": (95.0, "estimate", "estimated:class-trend", "n-alkane trend between n-tridecane (90) and n-pentadecane (96, CombustDB); not a measurement"),
-    "3891-98-3": (58.0, "DCN", "from-memory", "recalled DCN of farnesane (about 58-59)"),
+    "3891-98-3": (58.0, "DCN", "from-memory", "recalled DCN of farnesane (about 58-59); not in the vom Lehn 2021, CombustDB or ECRL compilations (checked), and the NREL compendium (Yanowitz et al. 2017, NREL/TP-5400-67585) was readable here only as its title pages"),
     "871-83-0": (66.0, "estimate", "estimated:class-trend", "trend value for a 2-methyl alkane slightly below the n-alkane of the same carbon number; not a measurement"),
     "13151-34-3": (68.0, "estimate", "estimated:class-trend", "trend value; not a measurement"),
     "7045-71-8": (72.0, "estimate", "estimated:class-trend", "trend value; not a measurement"),
@@ -726,10 +829,44 @@ CN_EXTRA = {
     "1127-76-0": (5.0, "estimate", "estimated:class-trend", "alkylnaphthalene trend (1-methylnaphthalene 0 by definition); not a measurement"),
     "575-41-7": (5.0, "estimate", "estimated:class-trend", "alkylnaphthalene trend (1-methylnaphthalene 0 by definition); not a measurement"),
     "575-43-9": (5.0, "estimate", "estimated:class-trend", "alkylnaphthalene trend (1-methylnaphthalene 0 by definition); not a measurement"),
-    "493-01-6": (42.0, "CN", "from-memory", "recalled (cis-decalin about 41-46)"),
+    "493-01-6": (42.0, "CN", "from-memory", "recalled (cis-decalin about 41-46); not in the vom Lehn 2021, CombustDB or ECRL compilations (checked), and the NREL compendium (Yanowitz et al. 2017, NREL/TP-5400-67585) was readable here only as its title pages"),
     "91-20-3": (0.0, "estimate", "estimated:class-trend", "naphthalene: no usable measurement (solid); assigned the 1-methylnaphthalene low-reference value"),
-    "64-17-5": (8.0, "CN", "from-memory", "recalled (ethanol CN about 5-8)"),
+    "64-17-5": (8.0, "CN", "from-memory", "recalled (ethanol CN about 5-8); not in the vom Lehn 2021, CombustDB or ECRL compilations (checked), and the NREL compendium (Yanowitz et al. 2017, NREL/TP-5400-67585) was readable here only as its title pages"),
 }
+
+
+# Measurement method of compilation cetane values, from the ECRL fuel-property database (Kessler et al.,
+# repository ecrl/ecnet, file databases/properties_master.csv, commit d9bfc444905d8786cdc3457a6494eef25ea2faab;
+# columns cetane_number value / method / source), read for these rows only. Used only where the value equals
+# the one our compilation gives: the kind becomes DCN when the method is the Ignition Quality Tester (a
+# constant-volume combustion chamber, ASTM D6890). CAS -> (value, method as printed, original source as printed).
+CN_METHOD = {
+    "142-82-5": (52.8, "IQT", "Marquardt (2015)"),
+    "108-87-2": (24.4, "IQT", "Marquardt (2015)"),
+    "108-38-3": (7.0, "IQT", "NREL (2014)"),
+    "95-63-6": (8.9, "IQT", "NREL (2014)"),  # listed there under CAS 95-36-3 with PubChem CID 7247 (1,2,4-trimethylbenzene)
+    "108-67-8": (8.0, "80% Blend, IQT", "NREL (2014)"),
+    "103-65-1": (16.0, "80% Blend, IQT", "NREL (2014)"),
+    "493-02-7": (37.4, "IQT", "Heyne (2009)"),
+    "104-51-8": (12.0, "IQT", "NREL (2014)"),
+    "540-84-1": (18.0, "IQT", "NREL (2014)"),
+    "538-68-1": (18.0, "Blend", "NREL (2014)"),
+}
+
+
+def cetane_kind(cas, value, note):
+    """(kind, note) for a compilation cetane value: DCN when CN_METHOD names the IQT for the same value."""
+    m = CN_METHOD.get(cas)
+    if not m:
+        return "CN", note
+    v, method, orig = m
+    if abs(v - value) > 1e-9:
+        return "CN", note + f"; the ECRL fuel-property database lists {v} ({method}, {orig}) instead, so the kind stays unresolved"
+    if "IQT" not in method:
+        return "CN", note + f"; the ECRL fuel-property database gives the method as '{method}' ({orig}), not a constant-volume chamber"
+    blend = "Blend" in method
+    return "DCN", (note.split(";")[0] + f"; measurement method from the ECRL fuel-property database (ecrl-properties-master): "
+                   f"{method}, {orig}" + (" - measured in a blend and back-calculated to the neat compound" if blend else ""))
 
 
 def constants(comp, vp_sec, lh_sec):
@@ -876,13 +1013,13 @@ def constants(comp, vp_sec, lh_sec):
     else:
         v = first(T["cnvl"], cas, "CETANE")
         if v is not None:
-            out["cetane-number"] = {"value": v, "kind": "CN", "source": "vom-lehn-2021",
-                                    "note": "compilation value; the compilation does not separate engine CN from derived CN"}
+            kind, note = cetane_kind(cas, v, "compilation value; the compilation does not separate engine CN from derived CN")
+            out["cetane-number"] = {"value": v, "kind": kind, "source": "vom-lehn-2021", "note": note}
         else:
             v = first(T["cnkess"], cas, "CETANE")
             if v is not None:
-                out["cetane-number"] = {"value": v, "kind": "CN", "source": "combustdb-kessler",
-                                        "note": "compilation value (CombustDB, drawn largely from the NREL cetane compendium); kind not separated"}
+                kind, note = cetane_kind(cas, v, "compilation value (CombustDB, drawn largely from the NREL cetane compendium); kind not separated")
+                out["cetane-number"] = {"value": v, "kind": kind, "source": "combustdb-kessler", "note": note}
             else:
                 raise SystemExit(f"no cetane number for {cid}")
 
@@ -1051,11 +1188,16 @@ def main():
         lh = latent_heat(cas)
         vp = vapor_pressure(cas)
         consts, k = constants(comp, vp, lh)
+        if lh["model"] == "corresponding-states":
+            lh = measured_latent_heat(cas, k) or lh
+        cpl = liquid_cp(cas, k["Tc"])
+        if cpl["model"] == "corresponding-states":
+            cpl = measured_liquid_cp(cas) or cpl
         secs = {
             "vapor-pressure": vp,
             "liquid-density": liquid_density(cas, k),
             "latent-heat": lh,
-            "liquid-heat-capacity": liquid_cp(cas, k["Tc"]),
+            "liquid-heat-capacity": cpl,
             "liquid-viscosity": liquid_viscosity(cas, comp, k),
             "liquid-conductivity": liquid_conductivity(cas, k["Tm"], k["Tb"]),
             "surface-tension": surface_tension(cas),

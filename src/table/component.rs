@@ -192,4 +192,26 @@ mod tests {
         // n-heptane boils at 371.6 K at 1 atm: 380 and 390 K are superheated
         assert_eq!(t.rows.iter().filter(|r| r.validity == Validity::AboveBubblePoint).count(), 2);
     }
+
+    /// Vapour cp past the published polynomial (n-dodecane: Poling Appendix A, 200–1000 K) is the Wilhoit
+    /// continuation the droplet model uses: it keeps rising up to 1500 K without a flag, and rows above the
+    /// valid range (1500 K) name the ideal-gas cp.
+    #[test]
+    fn vapor_cp_keeps_its_temperature_dependence() {
+        let lib = Library::embedded().unwrap();
+        let fuel = Fuel::resolve("n-dodecane", &lib).unwrap();
+        let gas = AmbientGas::air(&lib).unwrap();
+        let c = &fuel.components[0];
+        let vapor: Vec<f64> = (0..=36).map(|i| 250.0 + 50.0 * f64::from(i)).collect();
+        let t = component_table(c, &[300.0], &vapor, &gas, 101_325.0, &Solvent::of(&fuel));
+        let cp: Vec<(f64, f64)> = t.rows.iter().map(|r| (r.temperature, r.vapor[0])).collect();
+        for w in cp.windows(2) {
+            assert!(w[1].1 > w[0].1, "{w:?}");
+        }
+        for r in &t.rows {
+            assert_eq!(r.vapor[0], c.ideal_gas_heat_capacity(r.temperature));
+            let flagged = r.extrapolated_properties.contains(&"ideal-gas-heat-capacity");
+            assert_eq!(flagged, r.temperature > 1500.0, "{}", r.temperature);
+        }
+    }
 }

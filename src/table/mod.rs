@@ -88,7 +88,6 @@ fn input(option: &'static str, value: String, message: impl Into<String>) -> Tab
     TableError::Input { option, value, message: message.into() }
 }
 
-/// Validity flag of a table row.
 // ---------------------------------------------------------------------------------------------------------
 // Fits
 // ---------------------------------------------------------------------------------------------------------

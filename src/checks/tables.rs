@@ -18,6 +18,7 @@ const GROUP_SURROGATE: &str = "property tables: single-component surrogate";
 
 const DODECANE_LIQUID: &str = include_str!("../../validation/coolprop/n-dodecane.csv");
 const DODECANE_VAPOR: &str = include_str!("../../validation/coolprop/n-dodecane_vapor.csv");
+const DODECANE_ENTHALPY: &str = include_str!("../../validation/coolprop/n-dodecane_enthalpy.csv");
 
 /// Pressure of the checked n-dodecane table: 10 bar, so that the liquid rows (265 K up to the 10-bar
 /// bubble point, 614 K) cover the whole CoolProp grid (410–590 K) [Pa].
@@ -180,7 +181,42 @@ pub fn coolprop_checks(lib: &Library) -> Vec<CheckResult> {
     for p in &VAPOR_PAIRS {
         out.push(compare(c, "component table, vapour columns", &comp_header, &comp_rows, DODECANE_VAPOR, p, (300.0, 1000.0), source));
     }
+    out.extend(enthalpy_checks(&mix_header, &mix_rows));
     out
+}
+
+/// The enthalpy columns of the n-dodecane table at 10 bar against CoolProp's saturated-liquid and saturated-vapour
+/// enthalpies relative to the saturated liquid at 298.15 K (validation/coolprop/n-dodecane_enthalpy.csv,
+/// 300–590 K). The liquid enthalpy is the integral of the cp column, so it is held to the liquid-cp tolerance;
+/// the vapour enthalpy adds the latent heat, so it is held to the larger of the cp and latent-heat tolerances.
+fn enthalpy_checks(header: &[&str], rows: &[Vec<Option<f64>>]) -> Vec<CheckResult> {
+    let source = "CoolProp 8.0.0 reference EOS of n-dodecane, Lemmon & Huber 2004 (validation/coolprop/n-dodecane_enthalpy.csv)";
+    let (ref_header, ref_rows) = parse_csv(DODECANE_ENTHALPY);
+    let pairs = [("liquid_enthalpy_J_kg", "liquid enthalpy", TOL_LIQUID_CP), ("vapor_enthalpy_J_kg", "vapour enthalpy", TOL_LIQUID_CP.max(TOL_LATENT_HEAT))];
+    pairs
+        .iter()
+        .map(|(name, label, tol)| {
+            let (Some(rt), Some(rv), Some(tv)) = (column(&ref_header, "temperature_K"), column(&ref_header, name), header.iter().position(|h| h == name)) else {
+                return failed(GROUP_COOLPROP, format!("n-dodecane {label}: column {name}"), source, "missing".into());
+            };
+            let (mut worst, mut at, mut n) = (0.0f64, f64::NAN, 0usize);
+            for r in &ref_rows {
+                let (Some(t), Some(reference)) = (r.get(rt).copied().flatten(), r.get(rv).copied().flatten()) else { continue };
+                let Some(value) = rows.iter().find(|row| row.first().copied().flatten().is_some_and(|tt| (tt - t).abs() < 1e-6)).and_then(|row| row.get(tv).copied().flatten()) else { continue };
+                let e = if reference != 0.0 { (value / reference - 1.0).abs() } else { f64::INFINITY };
+                n += 1;
+                if n == 1 || e > worst {
+                    worst = e;
+                    at = t;
+                }
+            }
+            if n == 0 {
+                return failed(GROUP_COOLPROP, format!("n-dodecane {label}: no table row on the reference grid"), source, "nothing to judge".into());
+            }
+            let check = format!("n-dodecane {label} from the liquid at 298.15 K (mixture table at 10 bar), {n} rows 300–590 K, max at {at:.0} K");
+            CheckResult::relative(GROUP_COOLPROP, check, source, worst, *tol)
+        })
+        .collect()
 }
 
 /// Lifetime of one droplet run, straight through the droplet model (no table code) [s].

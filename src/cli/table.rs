@@ -165,6 +165,10 @@ pub fn table(lib: &Library, args: &TableArgs) -> Result<(), CliError> {
             let _ = writeln!(std::io::stderr(), "note: {n}");
         }
     }
+    let pieces: Vec<&table::fit::PolyFit> = set.fits.iter().flat_map(|f| f.fits.iter()).collect();
+    let flagged = pieces.iter().filter(|f| f.max_relative_error > table::fit::MAX_FIT_ERROR).count();
+    let shares = m.rows.iter().filter(|r| r.validity != table::Validity::Ok).count();
+    s.push_str(&format!("validity: {} of {} mixture rows ok; fits: {} pieces, {} above 1 % (column flag of the fits file)\n", m.rows.len() - shares, m.rows.len(), pieces.len(), flagged));
     s.push_str(&format!("wrote {} files into {}\n", written.len(), args.out.display()));
     let mut out = std::io::stdout().lock();
     match out.write_all(s.as_bytes()).and_then(|_| out.flush()) {

@@ -10,7 +10,10 @@ use crate::data::{Component, Correlation, Form, SourceRegistry};
 use crate::fuel::Fuel;
 use crate::table::fit::PolyFit;
 use crate::table::surrogate::{ConditionComparison, Surrogate, SOURCE as SURROGATE_SOURCE};
-use crate::table::{describe_excursions, range_excursions, Column, ComponentTable, MixtureTable, TableFits, TableSet, COMPONENT_COLUMNS, LIQUID_KEYS, MIXTURE_COLUMNS, VAPOR_KEYS};
+use crate::table::enthalpy::REFERENCE_TEMPERATURE;
+use crate::table::fit::{MAX_FIT_ERROR, MIN_PIECE_POINTS};
+use crate::table::validity::VALIDITY_TEXT;
+use crate::table::{describe_excursions, range_excursions, Column, ComponentTable, MixtureTable, TableFits, TableSet, COMPONENT_COLUMNS, LIQUID_KEYS, MIXTURE_COLUMNS, SHARE_COLUMNS, VAPOR_KEYS};
 
 use super::{fmt_f64, write_atomic, Cell, CsvTable, OutputError, TOOL_VERSION};
 
@@ -127,7 +130,17 @@ fn g(v: f64) -> String {
 // Metadata
 // ---------------------------------------------------------------------------------------------------------
 
-const VALIDITY_TEXT: &str = "ok = every property inside its valid range (its published correlation, or a published extension method inside the range it was stated or checked for; docs/property-methods.md, Ranges); extrapolated = some property outside its valid range (see extrapolated_properties and properties_outside_valid_range); above-bubble-point = liquid superheated at the table pressure; near-critical = above 0.9 Tc of a component with mole fraction > 1 % (component tables: of the component); vapor-only = component tables, outside the liquid range (liquid cells empty); the most severe applies (near-critical > above-bubble-point > extrapolated > ok)";
+/// Metadata line of the enthalpy columns.
+fn enthalpy_text() -> String {
+    format!(
+        "reference state: the liquid at {} K has zero specific enthalpy (every component; ideal solution, no heat of mixing); liquid_enthalpy_J_kg = ∫ cp_J_kgK dT from {} K (five-point Gauss–Legendre, panels of at most 5 K); vapor_enthalpy_J_kg = liquid_enthalpy_J_kg + latent_heat_J_kg, so vapor_enthalpy_J_kg − liquid_enthalpy_J_kg equals latent_heat_J_kg on every row (docs/tables.md, Enthalpies)",
+        g(REFERENCE_TEMPERATURE),
+        g(REFERENCE_TEMPERATURE)
+    )
+}
+
+/// Metadata line on the vapour properties past their fitted ranges.
+const VAPOR_EXTENSION_TEXT: &str = "vapour properties keep their temperature dependence past the published fit ranges: ideal-gas cp continues as the Wilhoit (1975) form fitted to the published polynomial (valid 50–1500 K), vapour viscosity and conductivity as the Chung et al. shape anchored at the published range end (valid from T* = 0.3 to 1500 K); rows beyond those valid ranges list the property in extrapolated_properties (docs/property-methods.md, Ranges)";
 
 fn common(title: &str, fuel: &Fuel, set: &TableSet, date: &Option<String>) -> Vec<(String, String)> {
     let mut m = vec![
@@ -186,6 +199,7 @@ fn columns_with_flags(columns: &[Column]) -> Vec<(String, String)> {
     let mut out: Vec<(String, String)> = columns.iter().map(|c| (c.name.to_string(), c.description.to_string())).collect();
     out.push(("validity".into(), "validity flag".into()));
     out.push(("extrapolated_properties".into(), "properties outside their valid range".into()));
+    out.extend(SHARE_COLUMNS.iter().map(|c| (c.name.to_string(), c.description.to_string())));
     out
 }
 
@@ -247,7 +261,30 @@ fn mixture_doc(t: &MixtureTable, set: &TableSet, sources: &SourceRegistry, date:
             format!("the table pressure is at or above the liquid's pseudo-critical pressure ({} Pa, Kay's rule): there is no bubble point; saturated-liquid correlations and Raoult's law are outside their assumptions", g(p_pc)),
         ));
     }
+    m.push(("pseudo_critical_temperature_K".into(), format!("{} (Kay's rule, Σ x_i T_c,i)", g(t.limits.pseudo_critical_temperature))));
     m.push(("lowest_major_critical_temperature_K".into(), format!("{} ({})", g(t.limits.critical_temperature), t.limits.critical_component)));
+    let x = t.fuel.mole_fractions();
+    let past: Vec<String> = t
+        .fuel
+        .components
+        .iter()
+        .zip(&x)
+        .filter(|(c, x)| **x > 0.0 && c.critical_temperature() < grid.to)
+        .map(|(c, x)| format!("{} (Tc {} K, mole fraction {})", c.id, g(c.critical_temperature()), g(*x)))
+        .collect();
+    m.push((
+        "components_past_critical_in_range".into(),
+        if past.is_empty() { "none".into() } else { format!("{}: graded by supercritical_share, they do not end the table", past.join("; ")) },
+    ));
+    m.push(("enthalpy".into(), enthalpy_text()));
+    m.push((
+        "enthalpy_ideal_gas_gap".into(),
+        format!(
+            "{}: largest |(vapor_enthalpy_J_kg − its first-row value) − ∫ cp_ig dT| over the rows, relative to latent_heat_J_kg, with cp_ig = Σ w_i cp_ig,i of the liquid's composition as a vapour: how far the published latent-heat and heat-capacity correlations are from Kirchhoff's relation",
+            g(t.ideal_gas_enthalpy_gap)
+        ),
+    ));
+    m.push(("vapor_extension".into(), VAPOR_EXTENSION_TEXT.into()));
     m.push((
         "vapor_columns".into(),
         match set.options.activity {
@@ -260,6 +297,7 @@ fn mixture_doc(t: &MixtureTable, set: &TableSet, sources: &SourceRegistry, date:
     m.extend(column_lines(&MIXTURE_COLUMNS));
     m.push(("column validity".into(), VALIDITY_TEXT.into()));
     m.push(("column extrapolated_properties".into(), "property keys (component-file sections) evaluated outside their valid range for some component, separated by ';'".into()));
+    m.extend(column_lines(&SHARE_COLUMNS));
     let keys: Vec<&str> = LIQUID_KEYS.iter().chain(VAPOR_KEYS.iter()).copied().collect();
     let excursions = match (t.rows.first(), t.rows.last()) {
         (Some(a), Some(b)) => range_excursions(&t.fuel.components, &t.fuel.mass_fractions, a.liquid.temperature_K, b.liquid.temperature_K, &keys),
@@ -277,6 +315,7 @@ fn mixture_doc(t: &MixtureTable, set: &TableSet, sources: &SourceRegistry, date:
             let mut cells: Vec<Cell> = r.numbers().iter().map(|v| Cell::Num(*v)).collect();
             cells.push(Cell::Text(r.validity.as_str().into()));
             cells.push(Cell::Text(r.extrapolated_properties.join(";")));
+            cells.extend(r.shares.iter().map(|v| Cell::Num(*v)));
             cells
         })
         .collect();
@@ -415,6 +454,9 @@ fn component_doc(t: &ComponentTable, fuel: &Fuel, set: &TableSet, sources: &Sour
     m.extend(column_lines(&COMPONENT_COLUMNS));
     m.push(("column validity".into(), VALIDITY_TEXT.into()));
     m.push(("column extrapolated_properties".into(), "property keys evaluated outside their valid range, separated by ';'".into()));
+    m.extend(column_lines(&SHARE_COLUMNS));
+    m.push(("enthalpy".into(), enthalpy_text()));
+    m.push(("vapor_extension".into(), VAPOR_EXTENSION_TEXT.into()));
     let one = std::slice::from_ref(c);
     let mut excursions = match t.liquid_range {
         Some((a, b)) => range_excursions(one, &[1.0], a, b, &LIQUID_KEYS),
@@ -435,6 +477,7 @@ fn component_doc(t: &ComponentTable, fuel: &Fuel, set: &TableSet, sources: &Sour
             let mut cells: Vec<Cell> = r.cells().iter().map(|v| Cell::Opt(*v)).collect();
             cells.push(Cell::Text(r.validity.as_str().into()));
             cells.push(Cell::Text(r.extrapolated_properties.join(";")));
+            cells.extend(r.shares.iter().map(|v| Cell::Num(*v)));
             cells
         })
         .collect();
@@ -472,6 +515,13 @@ fn condition_text(c: &ConditionComparison) -> String {
     )
 }
 
+/// The surrogate's latent-heat scaling columns, after the share columns (name, description).
+pub const SURROGATE_SCALING_COLUMNS: [(&str, &str); 3] = [
+    ("latent_heat_factor", "the fitted latent-heat factor g, constant; liquid rows only [-]"),
+    ("unscaled_latent_heat_J_kg", "latent_heat_J_kg / latent_heat_factor: the DIPPR-106 fit of the mixture's mass-weighted latent heat; liquid rows only"),
+    ("latent_heat_scaling_excess_J_kg", "latent_heat_J_kg − unscaled_latent_heat_J_kg: the heat per kilogram evaporated that the scaling adds to the mixture's latent heat; liquid rows only"),
+];
+
 /// The method text of the surrogate (metadata and docs).
 pub const SURROGATE_METHOD: &str = "one pseudo-component: liquid density, cp, viscosity, conductivity and surface tension = the fuel's initial liquid (mixture rules, least-squares fits over the liquid range); vapour cp, viscosity, conductivity and Fuller volume = the initial composition as a vapour; molar mass = mean of the initial liquid, critical constants by Kay's rule; vapour pressure = volatility_factor × (fit of the initial liquid's bubble pressure, ln p = A + B/T + C ln T + D T^E); latent heat = latent_heat_factor × (DIPPR-106 fit of the mass-weighted latent heat); latent_heat_factor chosen so the droplet lifetime equals the mixture's at the reference condition, volatility_factor so the time to 10 % evaporated (t10) matches as well (nested bracketing root finds, well-mixed droplet model)";
 
@@ -502,10 +552,24 @@ fn surrogate_doc(s: &Surrogate, t: &ComponentTable, fuel: &Fuel, set: &TableSet,
     for n in &s.notes {
         m.push(("note".into(), n.clone()));
     }
+    m.push((
+        "latent_heat_scaling".into(),
+        format!(
+            "the latent heat of this table includes the fitted latent_heat_factor {}: latent_heat_J_kg = latent_heat_factor × unscaled_latent_heat_J_kg (the DIPPR-106 fit of the mixture's mass-weighted latent heat); vapor_enthalpy_J_kg − liquid_enthalpy_J_kg equals the scaled latent_heat_J_kg, so the surrogate is energy-consistent in itself; its effect: per kilogram evaporated the surrogate takes latent_heat_scaling_excess_J_kg = (latent_heat_factor − 1) × unscaled_latent_heat_J_kg more heat than the mixture's latent heat, which stands in for the heat-up and composition effects a single component cannot carry",
+            g(s.parameters.latent_heat_factor)
+        ),
+    ));
     // insert the surrogate lines after the common block (before "component")
     let at = d.metadata.iter().position(|(k, _)| k == "component").unwrap_or(d.metadata.len());
     for (i, line) in m.into_iter().enumerate() {
         d.metadata.insert(at + i, line);
+    }
+    for (name, description) in SURROGATE_SCALING_COLUMNS {
+        d.columns.push((name.to_string(), description.to_string()));
+        d.metadata.push((format!("column {name}"), description.to_string()));
+    }
+    for (row, r) in d.rows.iter_mut().zip(&t.rows) {
+        row.extend(s.scaling_cells(r.liquid.map(|l| l[7])).iter().map(|v| Cell::Opt(*v)));
     }
     d.extra.insert("surrogate_method".into(), json!(SURROGATE_METHOD));
     d.extra.insert("parameters".into(), json!(s.parameters));
@@ -525,8 +589,27 @@ fn surrogate_doc(s: &Surrogate, t: &ComponentTable, fuel: &Fuel, set: &TableSet,
 // ---------------------------------------------------------------------------------------------------------
 
 /// Columns of fits.csv.
-pub const FIT_COLUMNS: [&str; 16] =
-    ["table", "property", "form", "variable", "center", "half_width", "degree", "c0", "c1", "c2", "c3", "c4", "t_min_K", "t_max_K", "points", "max_relative_error"];
+pub const FIT_COLUMNS: [&str; 19] = [
+    "table",
+    "property",
+    "form",
+    "variable",
+    "center",
+    "half_width",
+    "degree",
+    "c0",
+    "c1",
+    "c2",
+    "c3",
+    "c4",
+    "t_min_K",
+    "t_max_K",
+    "points",
+    "max_relative_error",
+    "piece",
+    "pieces",
+    "flag",
+];
 
 fn fit_cells(table: &str, f: &PolyFit) -> Vec<Cell> {
     let mut cells = vec![
@@ -545,6 +628,9 @@ fn fit_cells(table: &str, f: &PolyFit) -> Vec<Cell> {
     cells.push(Cell::Num(f.t_max));
     cells.push(Cell::Num(f.points as f64));
     cells.push(Cell::Num(f.max_relative_error));
+    cells.push(Cell::Num(f.piece as f64));
+    cells.push(Cell::Num(f.pieces as f64));
+    cells.push(Cell::Text(f.flag().into()));
     cells
 }
 
@@ -560,6 +646,19 @@ fn fits_doc(fits: &[TableFits], fuel: &Fuel, set: &TableSet, date: &Option<Strin
             g(crate::table::fit::TARGET_RELATIVE_ERROR)
         ),
     ));
+    m.push((
+        "pieces".into(),
+        format!(
+            "where one polynomial misses {} maximum relative error, the rows are halved at their middle row (shared by both halves) and each half fitted the same way, down to {} rows a piece; each piece is one line (piece = 1..pieces in ascending temperature, t_min_K..t_max_K its range); flag = ok, or max-error-above-1-percent for a piece that still misses it",
+            g(MAX_FIT_ERROR),
+            MIN_PIECE_POINTS
+        ),
+    ));
+    let flagged: Vec<String> = fits
+        .iter()
+        .flat_map(|tf| tf.fits.iter().filter(|f| f.max_relative_error > MAX_FIT_ERROR).map(move |f| format!("{} {} piece {} ({:.2} %)", tf.table, f.property, f.piece, 100.0 * f.max_relative_error)))
+        .collect();
+    m.push(("flagged_pieces".into(), if flagged.is_empty() { "none: every piece meets 1 %".into() } else { flagged.join("; ") }));
     let columns = FIT_COLUMNS.iter().map(|c| (c.to_string(), String::new())).collect();
     let rows = fits.iter().flat_map(|tf| tf.fits.iter().map(move |f| fit_cells(&tf.table, f))).collect();
     Doc { metadata: m, columns, rows, extra: Map::new() }

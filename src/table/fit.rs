@@ -6,6 +6,11 @@
 //! viscosity, whose logarithms are nearly linear in 1/T). The degree is the lowest that reproduces every table
 //! point within [`TARGET_RELATIVE_ERROR`], or [`MAX_DEGREE`]; the maximum relative error on the table points is
 //! measured and reported with the coefficients.
+//!
+//! Where one polynomial cannot meet [`MAX_FIT_ERROR`] (1 %) over a table's range, [`fit_piecewise`] splits the
+//! rows in two halves sharing their middle row and fits each, recursively, down to [`MIN_PIECE_POINTS`] rows a
+//! piece; every piece is reported with its range, coefficients and measured error, and a piece still above
+//! 1 % is flagged ([`PolyFit::flag`]).
 
 use serde::Serialize;
 
@@ -14,6 +19,12 @@ pub const MAX_DEGREE: usize = 4;
 
 /// Relative error on the table points at which a lower degree is accepted [-].
 pub const TARGET_RELATIVE_ERROR: f64 = 1e-4;
+
+/// Largest maximum relative error of an unflagged fit piece [-].
+pub const MAX_FIT_ERROR: f64 = 0.01;
+
+/// Fewest table rows in one piece of a piecewise fit.
+pub const MIN_PIECE_POINTS: usize = 6;
 
 /// Whether the polynomial gives the property or its natural logarithm.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -88,9 +99,22 @@ pub struct PolyFit {
     pub points: usize,
     /// Largest |fit/table − 1| over the table points [-].
     pub max_relative_error: f64,
+    /// Index of this piece, 1-based, in ascending temperature.
+    pub piece: usize,
+    /// Number of pieces of the property's fit.
+    pub pieces: usize,
 }
 
 impl PolyFit {
+    /// `ok` when the piece meets [`MAX_FIT_ERROR`], else `max-error-above-1-percent`.
+    pub fn flag(&self) -> &'static str {
+        if self.max_relative_error <= MAX_FIT_ERROR {
+            "ok"
+        } else {
+            "max-error-above-1-percent"
+        }
+    }
+
     /// Degree of the polynomial.
     pub fn degree(&self) -> usize {
         self.coefficients.len().saturating_sub(1)
@@ -237,6 +261,8 @@ pub fn fit_property(property: &str, temperatures: &[f64], values: &[f64], form: 
             t_max,
             points: n,
             max_relative_error: 0.0,
+            piece: 1,
+            pieces: 1,
         };
         fit.max_relative_error = temperatures.iter().zip(values).map(|(t, v)| relative_error(fit.eval(*t), *v)).fold(0.0, f64::max);
         let done = fit.max_relative_error <= TARGET_RELATIVE_ERROR;
@@ -246,6 +272,41 @@ pub fn fit_property(property: &str, temperatures: &[f64], values: &[f64], form: 
         }
     }
     best.filter(|f| f.max_relative_error.is_finite())
+}
+
+/// [`fit_property`] over the whole range, split into pieces where one polynomial misses [`MAX_FIT_ERROR`]:
+/// the rows (ascending temperatures) are halved at their middle row, which both halves share, and each half is
+/// fitted the same way, as long as every piece keeps at least [`MIN_PIECE_POINTS`] rows. Pieces in ascending
+/// temperature, numbered; empty when the rows cannot be fitted at all.
+pub fn fit_piecewise(property: &str, temperatures: &[f64], values: &[f64], form: FitForm, variable: FitVariable) -> Vec<PolyFit> {
+    let mut pieces = vec![];
+    split_fit(property, temperatures, values, form, variable, &mut pieces);
+    let n = pieces.len();
+    for (k, p) in pieces.iter_mut().enumerate() {
+        p.piece = k + 1;
+        p.pieces = n;
+    }
+    pieces
+}
+
+fn split_fit(property: &str, ts: &[f64], ys: &[f64], form: FitForm, variable: FitVariable, out: &mut Vec<PolyFit>) {
+    let Some(whole) = fit_property(property, ts, ys, form, variable) else { return };
+    let n = ts.len();
+    if whole.max_relative_error <= MAX_FIT_ERROR || n < 2 * MIN_PIECE_POINTS - 1 {
+        out.push(whole);
+        return;
+    }
+    let mid = n / 2;
+    let mut left = vec![];
+    let mut right = vec![];
+    split_fit(property, &ts[..=mid], &ys[..=mid], form, variable, &mut left);
+    split_fit(property, &ts[mid..], &ys[mid..], form, variable, &mut right);
+    if left.is_empty() || right.is_empty() {
+        out.push(whole);
+    } else {
+        out.extend(left);
+        out.extend(right);
+    }
 }
 
 /// |a/b − 1|, with 0 for a = b = 0 and +∞ when b = 0 ≠ a.
@@ -285,6 +346,35 @@ mod tests {
         for t in &ts {
             assert!(relative_error(f.eval(*t), (23.0 - 5200.0 / t).exp()) <= f.max_relative_error * (1.0 + 1e-9) + 1e-15);
         }
+    }
+
+    /// A latent heat vanishing at a critical temperature inside the range, L = 3e5 (1 − T/600)^0.38 clamped at zero
+    /// above 600 K (the Watson shape of a component passing its Tc), cannot be met by one quartic: the pieces meet
+    /// 1 % except the one that ends at the cusp, which is flagged.
+    #[test]
+    fn piecewise_fit_splits_where_one_polynomial_fails() {
+        let ts: Vec<f64> = (0..120).map(|i| 250.0 + 3.0 * f64::from(i)).collect();
+        let ys: Vec<f64> = ts.iter().map(|t| 2e5 + 3e5 * (1.0 - t / 600.0).max(0.0).powf(0.38)).collect();
+        let one = fit_property("latent_heat_J_kg", &ts, &ys, FitForm::Linear, FitVariable::Temperature).unwrap();
+        let pieces = fit_piecewise("latent_heat_J_kg", &ts, &ys, FitForm::Linear, FitVariable::Temperature);
+        assert!(pieces.len() > 1, "{}", one.max_relative_error);
+        for (k, p) in pieces.iter().enumerate() {
+            assert_eq!((p.piece, p.pieces), (k + 1, pieces.len()));
+            assert!(p.points >= MIN_PIECE_POINTS);
+            for (t, y) in ts.iter().zip(&ys).filter(|(t, _)| **t >= p.t_min && **t <= p.t_max) {
+                assert!(relative_error(p.eval(*t), *y) <= p.max_relative_error * (1.0 + 1e-9) + 1e-15);
+            }
+            assert_eq!(p.flag() == "ok", p.max_relative_error <= MAX_FIT_ERROR);
+            if k > 0 {
+                assert_eq!(p.t_min, pieces[k - 1].t_max, "pieces share their boundary row");
+            }
+        }
+        assert_eq!((pieces[0].t_min, pieces.last().unwrap().t_max), (250.0, ts[119]));
+        let worst = pieces.iter().map(|p| p.max_relative_error).fold(0.0, f64::max);
+        assert!(worst < one.max_relative_error, "{worst} {}", one.max_relative_error);
+        // a smooth curve stays one piece
+        let smooth: Vec<f64> = ts.iter().map(|t| 900.0 - 0.7 * t).collect();
+        assert_eq!(fit_piecewise("density_kg_m3", &ts, &smooth, FitForm::Linear, FitVariable::Temperature).len(), 1);
     }
 
     #[test]

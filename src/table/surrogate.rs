@@ -417,6 +417,18 @@ pub struct Surrogate {
     pub notes: Vec<String>,
 }
 
+impl Surrogate {
+    /// The latent-heat scaling cells of a surrogate-table row with latent heat `latent_heat` (None outside the
+    /// liquid range): the factor g, the unscaled latent heat L/g and the excess L − L/g [-, J/kg, J/kg].
+    pub fn scaling_cells(&self, latent_heat: Option<f64>) -> [Option<f64>; 3] {
+        let g = self.parameters.latent_heat_factor;
+        match latent_heat {
+            Some(l) => [Some(g), Some(l / g), Some(l - l / g)],
+            None => [None, None, None],
+        }
+    }
+}
+
 /// A point of the outer problem: (ln f, t10 residual, inner solution).
 type Point = (f64, f64, Trial);
 

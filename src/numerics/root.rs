@@ -5,8 +5,10 @@
 //!
 //! Termination is explicit ([`Tolerance`]): the bracket around the returned point is narrower than
 //! `x_abs + x_rel |x|` (plus 4 ulp of x), or |f(x)| ≤ `f_abs`, or `max_iterations` evaluations were spent
-//! (an error carrying the best point). A non-finite function value or bracket end is an error, never a NaN
-//! result; so is a bracket whose ends do not have opposite signs.
+//! (an error carrying the best point). A NaN function value or a non-finite bracket end is an error, never a
+//! NaN result; so is a bracket whose ends do not have opposite signs. An infinite value (ln 0 = −∞ at a cold
+//! end, say) counts by its sign, and the steps are bisections while one is held; a root estimate whose value
+//! is itself infinite (a pole with a sign change) is an error.
 
 use std::fmt;
 
@@ -75,7 +77,7 @@ pub enum RootError {
         /// f(hi).
         f_hi: f64,
     },
-    /// f returned NaN or an infinity at x.
+    /// f returned NaN at x, or the root estimate's value is infinite (a pole).
     NonFinite {
         /// Where.
         x: f64,
@@ -122,7 +124,7 @@ pub fn brent(mut f: impl FnMut(f64) -> f64, lo: f64, hi: f64, tol: Tolerance) ->
         return Err(RootError::NoBracket { lo, hi, f_lo: f64::NAN, f_hi: f64::NAN });
     }
     let f_lo = f(lo);
-    if !f_lo.is_finite() {
+    if f_lo.is_nan() {
         return Err(RootError::NonFinite { x: lo, f: f_lo });
     }
     let f_hi = f(hi);
@@ -137,7 +139,7 @@ pub fn brent_from(mut f: impl FnMut(f64) -> f64, lo: (f64, f64), hi: (f64, f64),
         return Err(RootError::NoBracket { lo: a, hi: b, f_lo: fa, f_hi: fb });
     }
     for (x, fx) in [lo, hi] {
-        if !fx.is_finite() {
+        if fx.is_nan() {
             return Err(RootError::NonFinite { x, f: fx });
         }
     }
@@ -173,12 +175,15 @@ pub fn brent_from(mut f: impl FnMut(f64) -> f64, lo: (f64, f64), hi: (f64, f64),
         let tol1 = (2.0 * f64::EPSILON * b.abs() + 0.5 * (tol.x_abs + tol.x_rel * b.abs())).max(f64::MIN_POSITIVE);
         let m = 0.5 * (c - b);
         if m.abs() <= tol1 || fb == 0.0 || fb.abs() <= tol.f_abs {
+            if fb.is_infinite() {
+                return Err(RootError::NonFinite { x: b, f: fb });
+            }
             return Ok(Root { x: b, f: fb, iterations });
         }
         if iterations >= tol.max_iterations {
             return Err(RootError::MaxIterations { x: b, f: fb, width: (c - b).abs() });
         }
-        if e.abs() >= tol1 && fa.abs() > fb.abs() {
+        if e.abs() >= tol1 && fa.abs() > fb.abs() && fa.is_finite() && fb.is_finite() && fc.is_finite() {
             // interpolation: secant when only two distinct points are known, else inverse quadratic
             let s = fb / fa;
             let (mut p, mut q);
@@ -213,7 +218,7 @@ pub fn brent_from(mut f: impl FnMut(f64) -> f64, lo: (f64, f64), hi: (f64, f64),
         b += if d.abs() > tol1 { d } else { tol1.copysign(m) };
         fb = f(b);
         iterations += 1;
-        if !fb.is_finite() {
+        if fb.is_nan() {
             return Err(RootError::NonFinite { x: b, f: fb });
         }
     }
@@ -312,6 +317,11 @@ mod tests {
         let e = brent(|x| if x.abs() < 0.4 { f64::NAN } else { x }, -1.0, 2.0, Tolerance::absolute(1e-9)).unwrap_err();
         assert!(matches!(e, RootError::NonFinite { .. }), "{e:?}");
         assert_eq!(e.best(), None);
+        // −∞ at the cold end (ln of an underflowed vapour pressure) counts as negative
+        let r = brent(|t: f64| (-(3000.0 / t).powi(3)).exp().ln() + 1.0, 1.0, 6000.0, Tolerance::absolute(1e-9)).unwrap();
+        assert!((r.x - 3000.0).abs() < 1e-6, "{r:?}");
+        let r = brent(|t: f64| if t < 100.0 { f64::NEG_INFINITY } else { (t / 300.0).ln() }, 20.0, 900.0, Tolerance::absolute(1e-9)).unwrap();
+        assert!((r.x - 300.0).abs() < 1e-9, "{r:?}");
         // a pole inside the bracket: a sign change without a root; the iteration still ends (at the pole, with a
         // huge |f|) and never returns NaN
         let r = brent(|x| 1.0 / (x - 0.5), 0.0, 1.0, Tolerance::absolute(1e-12));

@@ -8,6 +8,7 @@
 //! simulated distillation, which lives in a higher layer; the caller passes it in as a [`CurveSimulator`].
 
 pub mod classes;
+pub mod curve;
 pub mod distillation;
 pub mod estimate;
 pub mod petroleum;

@@ -17,6 +17,7 @@
 //! - Won (1986) n-paraffin melting point: L (recalled; checked here against library n-alkanes).
 //! - Edmister (1958), Lee–Kesler (1975) Zc: M.
 
+use crate::numerics::interp::{self, Extrapolation};
 use crate::data::GAS_CONSTANT;
 
 /// Density of water at 60 °F used to turn a 15 °C density into a specific gravity [kg/m³].
@@ -113,17 +114,9 @@ pub fn tbp_to_d86(percent: f64, tbp: f64) -> f64 {
     (tbp / a).powf(1.0 / b)
 }
 
+/// Linear interpolation in sorted (x, y) points, held flat beyond the ends (0 for no points).
 fn interp_held(points: &[(f64, f64)], x: f64) -> f64 {
-    if x <= points[0].0 {
-        return points[0].1;
-    }
-    let last = points[points.len() - 1];
-    if x >= last.0 {
-        return last.1;
-    }
-    let i = points.iter().position(|p| p.0 >= x).unwrap_or(points.len() - 1).max(1);
-    let ((x0, y0), (x1, y1)) = (points[i - 1], points[i]);
-    y0 + (y1 - y0) * (x - x0) / (x1 - x0)
+    interp::linear(points, x, Extrapolation::Hold).unwrap_or(0.0)
 }
 
 /// Differences (percent, TBP − D86 [K]) at the tabulated percentages inside the curve's range: the curve

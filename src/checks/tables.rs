@@ -41,9 +41,9 @@ pub fn all(lib: &Library) -> Vec<CheckResult> {
 
 /// A `#`-commented CSV with a header: (columns, numeric rows; non-numeric cells as None).
 pub fn parse_csv(text: &str) -> (Vec<String>, Vec<Vec<Option<f64>>>) {
-    let mut lines = text.lines().filter(|l| !l.starts_with('#') && !l.trim().is_empty());
-    let header: Vec<String> = lines.next().map(|h| h.split(',').map(|s| s.trim().to_string()).collect()).unwrap_or_default();
-    let rows = lines.map(|l| l.split(',').map(|s| s.trim().parse::<f64>().ok().filter(|v| v.is_finite())).collect()).collect();
+    let mut reader = csv::ReaderBuilder::new().has_headers(true).comment(Some(b'#')).flexible(true).trim(csv::Trim::All).from_reader(text.as_bytes());
+    let header: Vec<String> = reader.headers().map(|h| h.iter().map(str::to_string).collect()).unwrap_or_default();
+    let rows = reader.records().filter_map(Result::ok).map(|r| r.iter().map(|s| s.parse::<f64>().ok().filter(|v| v.is_finite())).collect()).collect();
     (header, rows)
 }
 

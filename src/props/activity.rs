@@ -18,6 +18,7 @@ use std::sync::Arc;
 
 use crate::data::unifac_groups::{tables, Subgroup};
 use crate::data::Component;
+use crate::numerics::linalg;
 
 /// Liquid-phase activity model.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, serde::Serialize, serde::Deserialize)]
@@ -294,50 +295,17 @@ impl Activity {
                     jac[a * m + b] = (lg_h[a] - lg[a]) / h + if a == b { 1.0 } else { 0.0 };
                 }
             }
-            if !solve_dense(&mut jac, &mut rhs, m) {
+            // Newton step J z = rhs by LU with partial pivoting (nalgebra)
+            let Some(step) = linalg::solve(&jac, &rhs, m) else {
                 return f64::NAN;
-            }
+            };
+            rhs.copy_from_slice(&step);
             for (a, &i) in active.iter().enumerate() {
                 u[i] += rhs[a].clamp(-2.0, 2.0);
             }
         }
         active.iter().map(|&i| u[i].exp()).sum()
     }
-}
-
-/// Solve the dense system `a` z = `b` (row-major m×m) in place by Gaussian elimination with partial pivoting;
-/// the solution replaces `b`. False when singular.
-fn solve_dense(a: &mut [f64], b: &mut [f64], m: usize) -> bool {
-    for col in 0..m {
-        let pivot = (col..m).max_by(|&r, &s| a[r * m + col].abs().total_cmp(&a[s * m + col].abs())).unwrap_or(col);
-        let pivot_value = a[pivot * m + col].abs();
-        if pivot_value.is_nan() || pivot_value <= 1e-300 {
-            return false;
-        }
-        if pivot != col {
-            for k in 0..m {
-                a.swap(pivot * m + k, col * m + k);
-            }
-            b.swap(pivot, col);
-        }
-        for r in col + 1..m {
-            let f = a[r * m + col] / a[col * m + col];
-            if f != 0.0 {
-                for k in col..m {
-                    a[r * m + k] -= f * a[col * m + k];
-                }
-                b[r] -= f * b[col];
-            }
-        }
-    }
-    for col in (0..m).rev() {
-        let mut v = b[col];
-        for k in col + 1..m {
-            v -= a[col * m + k] * b[k];
-        }
-        b[col] = v / a[col * m + col];
-    }
-    true
 }
 
 impl Unifac {

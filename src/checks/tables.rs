@@ -20,7 +20,7 @@ const DODECANE_LIQUID: &str = include_str!("../../validation/coolprop/n-dodecane
 const DODECANE_VAPOR: &str = include_str!("../../validation/coolprop/n-dodecane_vapor.csv");
 
 /// Pressure of the checked n-dodecane table: 10 bar, so that the liquid rows (265 K up to the 10-bar
-/// bubble point, 614 K) cover the whole CoolProp grid (410–590 K) [Pa].
+/// bubble point, 614 K) cover the whole CoolProp grid (410–590 K) \[Pa\].
 pub const CHECK_PRESSURE: f64 = 1e6;
 
 /// Lifetime tolerance of the surrogate at its reference condition (issue): 1 %.
@@ -183,7 +183,7 @@ pub fn coolprop_checks(lib: &Library) -> Vec<CheckResult> {
     out
 }
 
-/// Lifetime of one droplet run, straight through the droplet model (no table code) [s].
+/// Lifetime of one droplet run, straight through the droplet model (no table code) \[s\].
 pub fn lifetime(fuel: &Fuel, gas: &AmbientGas, cond: &ReferenceCondition) -> Option<f64> {
     let mut inp = DropletInputs::new(fuel.clone(), gas.clone(), cond.ambient_temperature, cond.pressure, cond.diameter, cond.droplet_temperature);
     inp.motion = Motion::Fixed { velocity: cond.velocity };

@@ -57,7 +57,7 @@ pub enum DataError {
     },
 }
 
-/// Largest input file read (fuel, component, spec, limits, spreads, class tables) [bytes]: anything bigger is
+/// Largest input file read (fuel, component, spec, limits, spreads, class tables) \[bytes\]: anything bigger is
 /// not one of dropcut's input files.
 pub const MAX_INPUT_BYTES: u64 = 64 * 1024 * 1024;
 

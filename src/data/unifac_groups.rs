@@ -1,5 +1,5 @@
 //! The original-UNIFAC parameter tables (data): subgroup volumes R_k and areas Q_k with their main groups, and
-//! the main-group interaction parameters a_mn [K]. Parameter set: original UNIFAC (Fredenslund, Jones &
+//! the main-group interaction parameters a_mn \[K\]. Parameter set: original UNIFAC (Fredenslund, Jones &
 //! Prausnitz 1975) with the published DDBST matrix = Hansen et al. (1991), Ind. Eng. Chem. Res. 30:2352, revised
 //! by Wittig, Lohmann & Gmehling (2003), Ind. Eng. Chem. Res. 42:183. The tables are the committed files
 //! `mixtures/unifac/*.csv`, written by `mixtures/tools/make_unifac_tables.py` (provenance in their headers);
@@ -92,7 +92,7 @@ pub fn subgroup(name: &str) -> Option<&'static Subgroup> {
 }
 
 impl UnifacTables {
-    /// Interaction parameter a_mn [K] between main groups m and n (0 for m = n); None where none is published.
+    /// Interaction parameter a_mn \[K\] between main groups m and n (0 for m = n); None where none is published.
     pub fn interaction(&self, m: u32, n: u32) -> Option<f64> {
         if m == n {
             return Some(0.0);

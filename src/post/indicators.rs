@@ -36,19 +36,19 @@ pub use super::mixture_rules::{blend_cetane, butler_flash_point, cetane_basis, c
 use super::rayleigh::{self, PathMode};
 use super::{normalised, PostError};
 
-/// Standard atmosphere [Pa].
+/// Standard atmosphere \[Pa\].
 pub const STANDARD_PRESSURE: f64 = 101_325.0;
-/// 15 °C [K].
+/// 15 °C \[K\].
 pub const T_15C: f64 = 288.15;
-/// 20 °C [K].
+/// 20 °C \[K\].
 pub const T_20C: f64 = 293.15;
-/// 38 °C [K] (100 °F, the vapour-pressure and flash-point reference temperature).
+/// 38 °C \[K\] (100 °F, the vapour-pressure and flash-point reference temperature).
 pub const T_38C: f64 = 311.15;
-/// 40 °C [K].
+/// 40 °C \[K\].
 pub const T_40C: f64 = 313.15;
-/// −20 °C [K].
+/// −20 °C \[K\].
 pub const T_MINUS_20C: f64 = 253.15;
-/// −40 °C [K].
+/// −40 °C \[K\].
 pub const T_MINUS_40C: f64 = 233.15;
 /// Default evaporated fraction that defines the final boiling point of the simulated curve [-].
 pub const DEFAULT_FINAL_FRACTION: f64 = 0.995;
@@ -125,7 +125,7 @@ impl CetaneRule {
 /// Options of [`indicators`].
 #[derive(Debug, Clone, PartialEq)]
 pub struct IndicatorOptions {
-    /// Pressure of the bubble point and the simulated distillation [Pa].
+    /// Pressure of the bubble point and the simulated distillation \[Pa\].
     pub pressure: f64,
     /// Basis of the distillation recovered fraction.
     pub recovery_basis: RecoveryBasis,
@@ -190,23 +190,23 @@ pub const INDICATOR_KEYS: [(&str, &str); 24] = [
 pub struct Indicators {
     /// Evaporated fraction of the parent liquid this composition is the residue of [-] (set by callers).
     pub evaporated_fraction: Option<f64>,
-    /// Bubble point at the distillation pressure (1 atm by default) [K].
+    /// Bubble point at the distillation pressure (1 atm by default) \[K\].
     pub bubble_point_K: Option<f64>,
-    /// Initial boiling point of the simulated distillation (= bubble point) [K].
+    /// Initial boiling point of the simulated distillation (= bubble point) \[K\].
     pub initial_boiling_point_K: Option<f64>,
-    /// Temperature at 10 % evaporated [K].
+    /// Temperature at 10 % evaporated \[K\].
     pub t10_K: Option<f64>,
-    /// Temperature at 20 % evaporated [K].
+    /// Temperature at 20 % evaporated \[K\].
     pub t20_K: Option<f64>,
-    /// Temperature at 50 % evaporated [K].
+    /// Temperature at 50 % evaporated \[K\].
     pub t50_K: Option<f64>,
-    /// Temperature at 90 % evaporated [K].
+    /// Temperature at 90 % evaporated \[K\].
     pub t90_K: Option<f64>,
-    /// Final boiling point: temperature at `final_fraction` evaporated (99.5 % by default) [K].
+    /// Final boiling point: temperature at `final_fraction` evaporated (99.5 % by default) \[K\].
     pub final_boiling_point_K: Option<f64>,
-    /// True vapour pressure at 38 °C (Raoult; not a Reid vapour pressure) [Pa].
+    /// True vapour pressure at 38 °C (Raoult; not a Reid vapour pressure) \[Pa\].
     pub vapor_pressure_38C_Pa: Option<f64>,
-    /// Closed-cup flash point estimate [K].
+    /// Closed-cup flash point estimate \[K\].
     pub flash_point_K: Option<f64>,
     /// Density at 15 °C [kg/m³].
     pub density_15C_kg_m3: Option<f64>,
@@ -235,9 +235,9 @@ pub struct Indicators {
     pub aromatics_volume_fraction: Option<f64>,
     /// Mean molar mass [kg/mol].
     pub molar_mass_kg_mol: Option<f64>,
-    /// Freezing point estimate (last crystal to disappear) [K].
+    /// Freezing point estimate (last crystal to disappear) \[K\].
     pub freezing_point_K: Option<f64>,
-    /// Pressure of the bubble point and distillation [Pa].
+    /// Pressure of the bubble point and distillation \[Pa\].
     pub distillation_pressure_Pa: f64,
     /// Basis of the distillation recovered fraction.
     pub distillation_basis: RecoveryBasis,
@@ -383,7 +383,7 @@ impl Indicators {
 }
 
 /// Temperatures of the simulated batch (Rayleigh) distillation at `pressure` at each evaporated fraction of
-/// `fractions` (ascending, in [0, 1)) on `basis` [K]. `mole_fractions` may contain zeros.
+/// `fractions` (ascending, in [0, 1)) on `basis` \[K\]. `mole_fractions` may contain zeros.
 pub fn distillation_temperatures(
     components: &[Arc<Component>],
     mole_fractions: &[f64],

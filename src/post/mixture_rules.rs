@@ -1,4 +1,4 @@
-//! Mixture rules behind the fuel-quality indicators of [`super::indicators`]: the pure-component and mixture
+//! Mixture rules behind the fuel-quality indicators of [`indicators`](mod@super::indicators): the pure-component and mixture
 //! flash points (Butler et al. 1956 estimate; Liaw et al. 2002 mixture rule), the blend cetane number and
 //! where it comes from, and the freezing point (the first solid of an ideal solution).
 //!
@@ -22,7 +22,7 @@ pub enum FlashPointOrigin {
     EstimatedButler,
 }
 
-/// Flash point estimated from the normal boiling point, T_fp = 0.683 T_b + 14.84 [K].
+/// Flash point estimated from the normal boiling point, T_fp = 0.683 T_b + 14.84 \[K\].
 ///
 /// Butler et al. (1956), Ind. Eng. Chem. 48, 808, as the °F form T_fp = 0.683 T_b − 119 °F (recalled
 /// from memory, not read in the original), converted exactly to kelvin. Checked in
@@ -31,7 +31,7 @@ pub fn butler_flash_point(normal_boiling_point: f64) -> f64 {
     0.683 * normal_boiling_point + (-119.0 + 459.67 - 0.683 * 459.67) / 1.8
 }
 
-/// A component's closed-cup flash point [K]: the file's value, else the Butler estimate.
+/// A component's closed-cup flash point \[K\]: the file's value, else the Butler estimate.
 pub fn component_flash_point(c: &Component) -> (f64, FlashPointOrigin) {
     match &c.constants.flash_point {
         Some(f) => (f.value, FlashPointOrigin::Published),
@@ -39,7 +39,7 @@ pub fn component_flash_point(c: &Component) -> (f64, FlashPointOrigin) {
     }
 }
 
-/// Liaw et al. (2002) flash point of a liquid mixture [K]: the T that solves
+/// Liaw et al. (2002) flash point of a liquid mixture \[K\]: the T that solves
 /// Σ x_i γ_i p_sat,i(T) / p_sat,i(T_fp,i) = 1 (Le Chatelier's rule with the modified Raoult's law; γ = 1 for the
 /// ideal model, UNIFAC γ_i(x, T) for the non-ideal one, as in Liaw et al.'s non-ideal form), given each
 /// component's closed-cup flash point `pure_flash_points[i]`. Components with x_i = 0 are ignored. `None` when

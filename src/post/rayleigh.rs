@@ -32,9 +32,9 @@ use super::PostError;
 /// Which state variable is held fixed along the path.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum PathMode {
-    /// Constant pressure [Pa]: the liquid is at its bubble point (simulated distillation).
+    /// Constant pressure \[Pa\]: the liquid is at its bubble point (simulated distillation).
     Isobaric(f64),
-    /// Constant temperature [K]: vapour composition ∝ x_i p_sat,i(T) (weathering).
+    /// Constant temperature \[K\]: vapour composition ∝ x_i p_sat,i(T) (weathering).
     Isothermal(f64),
 }
 
@@ -157,7 +157,7 @@ impl<'a> Evaluator<'a> {
 pub struct PathPoint {
     /// Evaporated fraction on the path's basis [-].
     pub evaporated_fraction: f64,
-    /// Liquid temperature [K] (bubble point, or the fixed temperature).
+    /// Liquid temperature \[K\] (bubble point, or the fixed temperature).
     pub temperature: f64,
     /// Liquid mole fractions [-].
     pub mole_fractions: Vec<f64>,

@@ -41,7 +41,7 @@ pub struct ResidueRow {
     pub indicators: Indicators,
 }
 
-/// Residues of open-vessel evaporation at `temperature` [K] at each evaporated mass fraction of
+/// Residues of open-vessel evaporation at `temperature` \[K\] at each evaporated mass fraction of
 /// `evaporated_fractions` (ascending, each in [0, 1)).
 pub fn weathering_residues(
     components: &[Arc<Component>],

@@ -39,7 +39,7 @@ pub struct DistillationCurve {
     pub description: String,
     /// Curve kind.
     pub kind: CurveKind,
-    /// (volume % recovered, temperature [K]), increasing.
+    /// (volume % recovered, temperature \[K\]), increasing.
     pub points: Vec<(f64, f64)>,
     /// 15 °C density given in the file [kg/m³].
     pub density_15c: Option<f64>,

@@ -107,7 +107,7 @@ pub const DEFAULT_PSEUDO_COMPONENTS: usize = 12;
 pub const PSEUDO_RANGE: std::ops::RangeInclusive<usize> = 3..=60;
 /// Calibration points lie between these percentages recovered [%].
 pub const CALIBRATION_RANGE: (f64, f64) = (5.0, 95.0);
-/// Calibration stops when every residual is below this [K].
+/// Calibration stops when every residual is below this \[K\].
 pub const CALIBRATION_TOLERANCE: f64 = 0.05;
 /// Most calibration iterations.
 pub const CALIBRATION_ITERATIONS: usize = 30;
@@ -122,17 +122,17 @@ pub struct CutRow {
     pub from_percent: f64,
     /// Cut end [% recovered].
     pub to_percent: f64,
-    /// Volume-average TBP of the cut before calibration [K].
+    /// Volume-average TBP of the cut before calibration \[K\].
     pub tbp_K: f64,
-    /// Boiling point used [K].
+    /// Boiling point used \[K\].
     pub boiling_point_K: f64,
     /// Specific gravity 60/60 °F [-].
     pub specific_gravity: f64,
     /// Molar mass [kg/mol].
     pub molar_mass_kg_mol: f64,
-    /// Critical temperature [K].
+    /// Critical temperature \[K\].
     pub critical_temperature_K: f64,
-    /// Critical pressure [Pa].
+    /// Critical pressure \[Pa\].
     pub critical_pressure_Pa: f64,
     /// Acentric factor [-].
     pub acentric_factor: f64,
@@ -152,13 +152,13 @@ pub struct CutRow {
 pub struct CurvePoint {
     /// Volume % recovered.
     pub percent: f64,
-    /// Input temperature [K] (as given: D86 or TBP).
+    /// Input temperature \[K\] (as given: D86 or TBP).
     pub input_K: f64,
-    /// Input on the D86 scale [K] (a TBP input converted by the inverse Riazi–Daubert 1986 law).
+    /// Input on the D86 scale \[K\] (a TBP input converted by the inverse Riazi–Daubert 1986 law).
     pub input_d86_K: f64,
-    /// Simulated single-stage distillation of the built fuel [K].
+    /// Simulated single-stage distillation of the built fuel \[K\].
     pub simulated_K: f64,
-    /// simulated − input on the D86 scale [K].
+    /// simulated − input on the D86 scale \[K\].
     pub error_K: f64,
 }
 

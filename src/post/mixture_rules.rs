@@ -85,7 +85,7 @@ pub fn liaw_flash_point(components: &[Arc<Component>], mole_fractions: &[f64], p
     // lowest and ≥ x_i at the highest); widen slightly for round-off. With activity coefficients above 1 the
     // mixture can flash below its lowest component: search from 100 K below.
     let lo = if ideal { lo - 0.5 } else { (lo - 100.0).max(100.0) };
-    brent(g, lo, hi + 0.5, Tolerance::absolute(1e-7)).ok().map(|r| r.x)
+    brent(g, lo, hi + 0.5, Tolerance::absolute(1e-10)).ok().map(|r| r.x)
 }
 
 /// True when a component's cetane value is a measured derived cetane number: kind "DCN" from a published

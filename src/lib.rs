@@ -1,7 +1,7 @@
 //! dropcut: heating and evaporation of multicomponent liquid-fuel droplets, and how the residual liquid drifts.
 //!
 //! Layers, each depending only on those above it in this list:
-//! [`units`] → [`data`] → [`props`] → [`fuel`] → [`model`] → [`post`] → [`table`] → [`uncertainty`] → [`output`] →
+//! [`numerics`] → [`units`] → [`data`] → [`props`] → [`fuel`] → [`model`] → [`post`] → [`table`] → [`uncertainty`] → [`output`] →
 //! [`sweep`] → [`cli`].
 #![warn(missing_docs)]
 #![allow(non_snake_case)] // SI-unit suffixes in names: temperature_K, pressure_Pa
@@ -11,6 +11,7 @@ pub mod cli;
 pub mod data;
 pub mod fuel;
 pub mod model;
+pub mod numerics;
 pub mod output;
 pub mod post;
 pub mod props;

@@ -1,11 +1,11 @@
 //! The layers of DEVELOPERS.md depend in one direction only: a module never imports one listed after it
-//! (units → data → props → fuel → model → post → table → uncertainty → output → sweep → checks → cli).
+//! (numerics → units → data → props → fuel → model → post → table → uncertainty → output → sweep → checks → cli).
 //! Reads the whole of every source file as text; comments and the bodies of `#[cfg(test)]` modules are
 //! skipped (code after a test module is still read).
 
 use std::path::{Path, PathBuf};
 
-const ORDER: [&str; 12] = ["units", "data", "props", "fuel", "model", "post", "table", "uncertainty", "output", "sweep", "checks", "cli"];
+const ORDER: [&str; 13] = ["numerics", "units", "data", "props", "fuel", "model", "post", "table", "uncertainty", "output", "sweep", "checks", "cli"];
 
 fn rust_files(dir: &Path, out: &mut Vec<PathBuf>) {
     for entry in std::fs::read_dir(dir).unwrap() {
@@ -71,8 +71,8 @@ fn upward_imports(text: &str, rank: usize, name: &str) -> Vec<String> {
 #[test]
 fn the_scan_reads_past_test_modules() {
     let text = "use crate::units::Quantity;\n#[cfg(test)]\nmod tests {\n    use crate::cli::run;\n    fn f() { if true { } }\n}\nuse crate::cli::run;\n";
-    let found = upward_imports(text, 2, "x.rs");
-    assert_eq!(found, vec!["x.rs:7: props imports cli (rank 11)".to_string()], "{found:?}");
+    let found = upward_imports(text, 3, "x.rs");
+    assert_eq!(found, vec!["x.rs:7: props imports cli (rank 12)".to_string()], "{found:?}");
 }
 
 #[test]

@@ -34,8 +34,9 @@ fn thermo_library() -> String {
 pub fn thermo_checks(lib: &Library) -> Vec<CheckResult> {
     let source = format!("{} UNIFAC (version 0, original; same published parameter set), validation/thermo/unifac_gammas.csv", thermo_library());
     let mut groups: Vec<(String, f64, f64, usize)> = vec![]; // (system, T, max error, rows)
-    for line in THERMO_GAMMAS.lines().filter(|l| !l.starts_with('#')).skip(1) {
-        let f: Vec<&str> = line.split(',').collect();
+    let mut reader = csv::ReaderBuilder::new().has_headers(true).comment(Some(b'#')).flexible(true).from_reader(THERMO_GAMMAS.as_bytes());
+    for record in reader.records() {
+        let Ok(f) = record else { continue };
         if f.len() != 4 {
             continue;
         }

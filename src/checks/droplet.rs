@@ -53,7 +53,7 @@ pub enum Quantity {
         /// (d/d0)² at which the time is read [-] (0 = end of life).
         at_d2_ratio: f64,
     },
-    /// Droplet temperature when (d/d0)² has fallen to `at_d2_ratio` (the quasi-steady plateau) [K];
+    /// Droplet temperature when (d/d0)² has fallen to `at_d2_ratio` (the quasi-steady plateau) \[K\];
     /// absolute tolerance in K.
     PlateauTemperature {
         /// (d/d0)² at which the temperature is read [-].
@@ -70,13 +70,13 @@ pub struct ExperimentCase {
     pub fuel: &'static [(&'static str, f64)],
     /// Ambient gas as accepted by `AmbientGas::parse` ("air", "n2", ...).
     pub gas: &'static str,
-    /// Ambient temperature [K].
+    /// Ambient temperature \[K\].
     pub ambient_temperature: f64,
-    /// Ambient pressure [Pa].
+    /// Ambient pressure \[Pa\].
     pub pressure: f64,
-    /// Initial diameter [m].
+    /// Initial diameter \[m\].
     pub initial_diameter: f64,
-    /// Initial droplet temperature [K].
+    /// Initial droplet temperature \[K\].
     pub initial_temperature: f64,
     /// Constant gas velocity relative to the (suspended) droplet [m/s].
     pub velocity: f64,
@@ -210,7 +210,7 @@ pub fn evaporation_constant(rows: &[HistoryRow], upper: f64, lower: f64) -> Opti
     k.is_finite().then_some(k)
 }
 
-/// Droplet temperature at the first row where (d/d0)² ≤ `at_d2_ratio`, interpolated linearly in (d/d0)² [K].
+/// Droplet temperature at the first row where (d/d0)² ≤ `at_d2_ratio`, interpolated linearly in (d/d0)² \[K\].
 pub fn temperature_at(rows: &[HistoryRow], at_d2_ratio: f64) -> Option<f64> {
     let i = rows.iter().position(|r| r.d2_ratio <= at_d2_ratio)?;
     if i == 0 {

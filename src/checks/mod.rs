@@ -56,6 +56,42 @@ impl CheckResult {
     }
 }
 
+impl CheckResult {
+    /// A check that could not be carried out (a step failed: broken input, a run that stopped, no root):
+    /// recorded as failed, with the reason in place of the achieved error.
+    pub fn failed(group: &str, check: String, source: &str, reason: String) -> Self {
+        CheckResult { group: group.into(), check, source: source.into(), tolerance: "–".into(), achieved: format!("not computed: {reason}"), passed: false }
+    }
+}
+
+/// A check's result, or [`CheckResult::failed`] with the reason when a step of it failed.
+pub fn or_failed(group: &str, check: &str, source: &str, result: Result<CheckResult, String>) -> CheckResult {
+    result.unwrap_or_else(|reason| CheckResult::failed(group, check.into(), source, reason))
+}
+
+/// Checks' results, or one [`CheckResult::failed`] with the reason when a step they share failed.
+pub fn or_failed_all(group: &str, check: &str, source: &str, result: Result<Vec<CheckResult>, String>) -> Vec<CheckResult> {
+    result.unwrap_or_else(|reason| vec![CheckResult::failed(group, check.into(), source, reason)])
+}
+
+/// Turns a failed step of a check into a reason ("what: error"), for `?` inside checks (no panics).
+pub trait Reason<T> {
+    /// The value, or the reason naming the step `what`.
+    fn or_reason(self, what: &str) -> Result<T, String>;
+}
+
+impl<T, E: std::fmt::Display> Reason<T> for Result<T, E> {
+    fn or_reason(self, what: &str) -> Result<T, String> {
+        self.map_err(|e| format!("{what}: {e}"))
+    }
+}
+
+impl<T> Reason<T> for Option<T> {
+    fn or_reason(self, what: &str) -> Result<T, String> {
+        self.ok_or_else(|| format!("{what}: not available"))
+    }
+}
+
 /// Three significant digits, in exponent form below 1e-3.
 pub fn compact(v: f64) -> String {
     if !v.is_finite() {
@@ -117,4 +153,37 @@ pub fn all() -> Vec<CheckResult> {
         v.extend(tables::all(&lib));
     }
     v
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// A check whose input is broken (here: a library without its fuel files and gases, so the demo fuel and
+    /// air cannot be resolved) is recorded as a failed check with the reason, not a panic of `validate`.
+    #[test]
+    fn a_check_with_broken_input_is_recorded_as_failed_not_a_panic() {
+        let mut lib = crate::data::Library::embedded().unwrap();
+        lib.fuels.clear();
+        lib.gases.clear();
+        let mut results = vec![model::mass_conservation(&lib), model::convergence(&lib)];
+        results.extend(model::resolved_limit_checks(&lib));
+        results.extend(residue::weathering_drift(&lib));
+        assert_eq!(results.len(), 4);
+        for r in &results {
+            assert!(!r.passed, "{r:?}");
+            assert!(r.achieved.starts_with("not computed: demo-wide"), "{r:?}");
+        }
+        let table = markdown_table(&results);
+        assert!(table.contains("FAIL") && !table.contains("pass |"));
+    }
+
+    #[test]
+    fn reasons_name_the_failed_step() {
+        let r: Result<f64, String> = Err("no root".into());
+        assert_eq!(r.or_reason("wet-bulb").unwrap_err(), "wet-bulb: no root");
+        assert_eq!(None::<f64>.or_reason("profile").unwrap_err(), "profile: not available");
+        let failed = or_failed("g", "c", "s", Err("x: y".into()));
+        assert!(!failed.passed && failed.achieved == "not computed: x: y");
+    }
 }

@@ -16,33 +16,38 @@ use crate::post::indicators::{
 use crate::post::weathering::{default_fractions, weathering_residues, weathering_table};
 use crate::props::liquid;
 
-use super::CheckResult;
+use super::{or_failed, or_failed_all, CheckResult, Reason};
+use crate::numerics::root::{brent, Tolerance};
 
 const GROUP: &str = "residual-liquid indicators";
 
-fn component(lib: &Library, id: &str) -> Arc<Component> {
-    lib.component(id).unwrap_or_else(|| panic!("component '{id}' missing from the library")).clone()
+fn component(lib: &Library, id: &str) -> Result<Arc<Component>, String> {
+    lib.component(id).cloned().ok_or_else(|| format!("component '{id}' missing from the library"))
 }
 
 /// ASTM D613 cetane scale: n-hexadecane (100) / HMN (15) blends by volume give CN = vol% C16 + 0.15 vol% HMN.
 pub fn cetane_scale(lib: &Library) -> Vec<CheckResult> {
-    let c16 = component(lib, "n-hexadecane");
-    let hmn = component(lib, "2-2-4-4-6-8-8-heptamethylnonane");
+    or_failed_all(GROUP, "cetane number of n-hexadecane/HMN blends (volume-linear rule)", "ASTM D613 cetane scale definition (n-hexadecane 100, HMN 15)", cetane_scale_checked(lib))
+}
+
+fn cetane_scale_checked(lib: &Library) -> Result<Vec<CheckResult>, String> {
+    let c16 = component(lib, "n-hexadecane")?;
+    let hmn = component(lib, "2-2-4-4-6-8-8-heptamethylnonane")?;
     let mut worst: f64 = 0.0;
     for v in [0.0, 0.25, 0.5, 0.75, 1.0] {
-        let fuel = Fuel::from_fractions("prf", vec![c16.clone(), hmn.clone()], &[v, 1.0 - v], Basis::Volume).expect("blend");
-        let ind = indicators(&fuel.components, &fuel.mass_fractions, &IndicatorOptions::default()).expect("indicators");
+        let fuel = Fuel::from_fractions("prf", vec![c16.clone(), hmn.clone()], &[v, 1.0 - v], Basis::Volume).or_reason("blend")?;
+        let ind = indicators(&fuel.components, &fuel.mass_fractions, &IndicatorOptions::default()).or_reason("indicators")?;
         let expected = 100.0 * v + 0.15 * 100.0 * (1.0 - v);
         worst = worst.max((ind.dcn.unwrap_or(f64::NAN) - expected).abs());
     }
-    vec![CheckResult::absolute(
+    Ok(vec![CheckResult::absolute(
         GROUP,
         "cetane number of n-hexadecane/HMN blends at 0/25/50/75/100 vol % C16 = vol% C16 + 0.15 vol% HMN (volume-linear rule)".into(),
         "ASTM D613 cetane scale definition (n-hexadecane 100, HMN 15)",
         worst,
         1e-9,
         "CN",
-    )]
+    )])
 }
 
 /// Pure-component closed-cup flash points used by the model (library values from IEC 60079-20-1:2010)
@@ -70,17 +75,21 @@ pub fn pure_flash_points(lib: &Library) -> Vec<CheckResult> {
     table
         .iter()
         .map(|(id, reference, source)| {
-            let c = component(lib, id);
-            let ind = indicators(std::slice::from_ref(&c), &[1.0], &IndicatorOptions::default()).expect("indicators");
-            let input = c.constants.flash_point.as_ref().map(|f| f.source.clone()).unwrap_or_default();
-            CheckResult::absolute(
-                GROUP,
-                format!("flash point of pure {id} (model input from {input}) against an independent compilation"),
-                &format!("{source}, via chemicals 1.5.2"),
-                (ind.flash_point_K.unwrap_or(f64::NAN) - reference).abs(),
-                5.0,
-                "K",
-            )
+            let source = format!("{source}, via chemicals 1.5.2");
+            let result = (|| -> Result<CheckResult, String> {
+                let c = component(lib, id)?;
+                let ind = indicators(std::slice::from_ref(&c), &[1.0], &IndicatorOptions::default()).or_reason("indicators")?;
+                let input = c.constants.flash_point.as_ref().map(|f| f.source.clone()).unwrap_or_default();
+                Ok(CheckResult::absolute(
+                    GROUP,
+                    format!("flash point of pure {id} (model input from {input}) against an independent compilation"),
+                    &source,
+                    (ind.flash_point_K.unwrap_or(f64::NAN) - reference).abs(),
+                    5.0,
+                    "K",
+                ))
+            })();
+            or_failed(GROUP, &format!("flash point of pure {id} against an independent compilation"), &source, result)
         })
         .collect()
 }
@@ -131,13 +140,17 @@ pub fn flash_point_estimator(lib: &Library) -> Vec<CheckResult> {
 /// model evaluated with reference-EOS vapour pressures (CoolProp 8.0). A computed check of the method and of
 /// our vapour-pressure correlations, not experimental data.
 pub fn binary_flash_point(lib: &Library) -> Vec<CheckResult> {
-    let comps = vec![component(lib, "n-decane"), component(lib, "n-dodecane")];
+    or_failed_all(GROUP, "flash point of n-decane/n-dodecane blends", "Liaw et al. (2002) mixture flash point", binary_flash_point_checked(lib))
+}
+
+fn binary_flash_point_checked(lib: &Library) -> Result<Vec<CheckResult>, String> {
+    let comps = vec![component(lib, "n-decane")?, component(lib, "n-dodecane")?];
     let pure = [319.15, 347.15];
     // (x decane, reference [K]) computed with CoolProp 8.0.0 PropsSI('P','T',T,'Q',0,...) for n-Decane and
     // n-Dodecane and bisection on Σ x_i p_i(T)/p_i(T_fp,i) = 1; the equimolar value, 328.32 K (55.17 °C),
     // reproduces the 55.2 °C worked value of the project physics notes (C.1).
     let cases = [(0.25, 335.633), (0.5, 328.322), (0.75, 323.124)];
-    cases
+    Ok(cases
         .iter()
         .map(|(x1, reference)| {
             let t = liaw_flash_point(&comps, &[*x1, 1.0 - x1], &pure, Default::default()).unwrap_or(f64::NAN);
@@ -150,7 +163,7 @@ pub fn binary_flash_point(lib: &Library) -> Vec<CheckResult> {
                 "K",
             )
         })
-        .collect()
+        .collect())
 }
 
 /// Composite Simpson rule of `f` over [a, b] with `panels` (even) intervals.
@@ -167,26 +180,30 @@ fn simpson(f: &mut impl FnMut(f64) -> f64, a: f64, b: f64, panels: usize) -> f64
 /// integral ln(n/n0) = ∫ dx/(y − x) evaluated by quadrature; shape of the binary curve; the
 /// constant-temperature path against the closed Rayleigh equation with constant relative volatility.
 pub fn distillation(lib: &Library) -> Vec<CheckResult> {
+    or_failed_all(GROUP, "simulated distillation: pure n-decane and the n-heptane/n-decane binary", "analytical: Rayleigh equation and pure-component limits", distillation_checked(lib))
+}
+
+fn distillation_checked(lib: &Library) -> Result<Vec<CheckResult>, String> {
     let p = 101_325.0;
     let mut out = vec![];
     // pure component: flat
-    let c10 = component(lib, "n-decane");
+    let c10 = component(lib, "n-decane")?;
     let fr: Vec<f64> = (0..=199).map(|i| f64::from(i) * 0.005).collect(); // 0, 0.5, …, 99.5 %
-    let t = distillation_temperatures(std::slice::from_ref(&c10), &[1.0], p, RecoveryBasis::Volume, &fr, DEFAULT_MAX_STEP, Default::default()).expect("curve");
+    let t = distillation_temperatures(std::slice::from_ref(&c10), &[1.0], p, RecoveryBasis::Volume, &fr, DEFAULT_MAX_STEP, Default::default()).or_reason("curve")?;
     let spread = t.iter().cloned().fold(f64::NEG_INFINITY, f64::max) - t.iter().cloned().fold(f64::INFINITY, f64::min);
     out.push(CheckResult::absolute(GROUP, "simulated distillation of pure n-decane at 1 atm is flat (spread over 0–99.5 %)".into(), "analytical (a pure liquid boils at one temperature)", spread, 0.01, "K"));
 
     // binary n-heptane/n-decane, equimolar, mole basis
-    let comps = vec![component(lib, "n-heptane"), c10.clone()];
+    let comps = vec![component(lib, "n-heptane")?, c10.clone()];
     let x0 = [0.5, 0.5];
-    let curve = distillation_temperatures(&comps, &x0, p, RecoveryBasis::Mole, &fr, DEFAULT_MAX_STEP, Default::default()).expect("curve");
-    let bubble = |x1: f64| liquid::bubble_point(&comps, &[x1, 1.0 - x1], p).expect("bubble point");
-    let t_bubble0 = bubble(0.5);
+    let curve = distillation_temperatures(&comps, &x0, p, RecoveryBasis::Mole, &fr, DEFAULT_MAX_STEP, Default::default()).or_reason("curve")?;
+    let bubble = |x1: f64| liquid::bubble_point(&comps, &[x1, 1.0 - x1], p).or_reason("bubble point");
+    let t_bubble0 = bubble(0.5)?;
     out.push(CheckResult::absolute(
         GROUP,
         "binary n-heptane/n-decane (equimolar) curve starts at the bubble point of the feed".into(),
         "bubble point by the props layer (bracketed search), independent of the path integrator",
-        (curve[0] - t_bubble0).abs(),
+        (curve.first().or_reason("distillation curve")? - t_bubble0).abs(),
         1e-6,
         "K",
     ));
@@ -199,40 +216,33 @@ pub fn distillation(lib: &Library) -> Vec<CheckResult> {
         achieved: format!("smallest step {min_rise:.3e} K"),
         passed: min_rise > -1e-6,
     });
-    let t_heavy = liquid::bubble_point(std::slice::from_ref(&c10), &[1.0], p).expect("bubble point");
+    let t_heavy = liquid::bubble_point(std::slice::from_ref(&c10), &[1.0], p).or_reason("bubble point")?;
     out.push(CheckResult::absolute(
         GROUP,
         "binary n-heptane/n-decane curve ends (99.5 % evaporated, mole basis) at the heavy component's boiling point".into(),
         "analytical limit; n-decane boiling point from its own vapour-pressure correlation",
-        (curve[curve.len() - 1] - t_heavy).abs(),
+        (curve.last().or_reason("distillation curve")? - t_heavy).abs(),
         0.05,
         "K",
     ));
     // Rayleigh integral with u = ln x1: ln(n/n0) = ∫ du / (K1(T(x1)) − 1)
-    let k1 = |u: f64| {
-        let x1 = u.exp();
-        let t = bubble(x1);
-        comps[0].vapor_pressure(t) / p - 1.0
+    let k1 = |u: f64| match bubble(u.exp()) {
+        Ok(t) => comps[0].vapor_pressure(t) / p - 1.0,
+        Err(_) => f64::NAN, // ends the root search below with a reason
     };
     let u0 = 0.5f64.ln();
     let targets = [0.1, 0.3, 0.5, 0.7, 0.9];
-    let ours = distillation_temperatures(&comps, &x0, p, RecoveryBasis::Mole, &targets, DEFAULT_MAX_STEP, Default::default()).expect("curve");
+    let ours = distillation_temperatures(&comps, &x0, p, RecoveryBasis::Mole, &targets, DEFAULT_MAX_STEP, Default::default()).or_reason("curve")?;
     let mut worst: f64 = 0.0;
     for (f, t_ours) in targets.iter().zip(&ours) {
         let ln_r = (1.0 - f).ln();
-        // bisection on u_end in [ln 1e-12, u0]: I(u_end) = ∫_{u0}^{u_end} du/(K1−1) decreases as u_end falls
-        let (mut lo, mut hi) = (1e-12f64.ln(), u0);
-        for _ in 0..50 {
-            let mid = 0.5 * (lo + hi);
+        // root of I(u_end) − ln r on [ln 1e-12, u0]: I(u_end) = ∫_{u0}^{u_end} du/(K1−1) decreases as u_end falls
+        let excess = |u_end: f64| {
             let mut g = |u: f64| 1.0 / k1(u);
-            let integral = simpson(&mut g, u0, mid, 200);
-            if integral > ln_r {
-                hi = mid;
-            } else {
-                lo = mid;
-            }
-        }
-        let t_ref = bubble((0.5 * (lo + hi)).exp());
+            simpson(&mut g, u0, u_end, 200) - ln_r
+        };
+        let u_end = brent(excess, 1e-12f64.ln(), u0, Tolerance::absolute(1e-13)).or_reason("Rayleigh integral root")?.x;
+        let t_ref = bubble(u_end.exp())?;
         worst = worst.max((t_ours - t_ref).abs());
     }
     out.push(CheckResult::absolute(
@@ -248,7 +258,7 @@ pub fn distillation(lib: &Library) -> Vec<CheckResult> {
     let alpha = comps[0].vapor_pressure(t_w) / comps[1].vapor_pressure(t_w);
     let w0 = liquid::mole_to_mass(&comps, &x0);
     let fr_w = [0.1, 0.3, 0.5, 0.7, 0.9, 0.99];
-    let res = weathering_residues(&comps, &w0, t_w, &fr_w, Default::default()).expect("weathering");
+    let res = weathering_residues(&comps, &w0, t_w, &fr_w, Default::default()).or_reason("weathering")?;
     let m0 = liquid::molar_mass(&comps, &x0);
     let mut worst: f64 = 0.0;
     for r in &res {
@@ -265,12 +275,16 @@ pub fn distillation(lib: &Library) -> Vec<CheckResult> {
         1e-9,
         "(relative to α)",
     ));
-    out
+    Ok(out)
 }
 
 /// Refutas viscosity blending: the published equations evaluated by hand, and the indicator pipeline
 /// against the same equations written out here.
 pub fn refutas(lib: &Library) -> Vec<CheckResult> {
+    or_failed_all(GROUP, "Refutas kinematic viscosity at 40 °C through the indicators", "hand calculation with the Refutas equations on the component viscosities", refutas_checked(lib))
+}
+
+fn refutas_checked(lib: &Library) -> Result<Vec<CheckResult>, String> {
     let mut out = vec![];
     // Hand calculation with the Refutas equations (Maples 2000): VBN = 14.534 ln(ln(ν + 0.8)) + 10.975.
     // Equal masses of 2 and 10 mm²/s: VBN(2) = 11.39924, VBN(10) = 23.57467, mean 17.48695,
@@ -278,7 +292,7 @@ pub fn refutas(lib: &Library) -> Vec<CheckResult> {
     let nu = liquid::refutas_viscosity(0.5 * liquid::refutas_blending_number(2.0) + 0.5 * liquid::refutas_blending_number(10.0));
     out.push(CheckResult::absolute(GROUP, "Refutas blend of equal masses of 2 and 10 mm²/s oils".into(), "hand calculation with the Refutas equations (Maples 2000; ASTM D7152 practice): 3.98390 mm²/s", (nu - 3.98390).abs(), 1e-4, "mm²/s"));
     // Pipeline: 30 % n-decane / 70 % n-hexadecane by mass at 40 °C.
-    let comps = vec![component(lib, "n-decane"), component(lib, "n-hexadecane")];
+    let comps = vec![component(lib, "n-decane")?, component(lib, "n-hexadecane")?];
     let w = [0.3, 0.7];
     let t = 313.15;
     let vbn: f64 = comps
@@ -290,7 +304,7 @@ pub fn refutas(lib: &Library) -> Vec<CheckResult> {
         })
         .sum();
     let hand = (((vbn - 10.975) / 14.534).exp().exp() - 0.8) * 1e-6;
-    let ind = indicators(&comps, &w, &IndicatorOptions { viscosity_rule: ViscosityRule::Refutas, ..Default::default() }).expect("indicators");
+    let ind = indicators(&comps, &w, &IndicatorOptions { viscosity_rule: ViscosityRule::Refutas, ..Default::default() }).or_reason("indicators")?;
     let got = ind.kinematic_viscosity_40C_m2_s.unwrap_or(f64::NAN);
     out.push(CheckResult::absolute(
         GROUP,
@@ -300,7 +314,7 @@ pub fn refutas(lib: &Library) -> Vec<CheckResult> {
         1e-9,
         "mm²/s",
     ));
-    out
+    Ok(out)
 }
 
 /// Weathering residues of the demo wide-cut fuel at 400 K drift the way a heavier liquid must.
@@ -312,9 +326,13 @@ pub fn refutas(lib: &Library) -> Vec<CheckResult> {
 /// corresponding-states viscosity of 1-methylnaphthalene is implausibly high (≈ 3.8 Pa·s at −20 °C), and
 /// that component boils off in the last residues.
 pub fn weathering_drift(lib: &Library) -> Vec<CheckResult> {
-    let fuel = Fuel::resolve("demo-wide", lib).expect("demo-wide");
+    or_failed_all(GROUP, "demo-wide weathered at 400 K: residue indicators rise with evaporated mass fraction", "physical expectation (residues of an ideal liquid are heavier)", weathering_drift_checked(lib))
+}
+
+fn weathering_drift_checked(lib: &Library) -> Result<Vec<CheckResult>, String> {
+    let fuel = Fuel::resolve("demo-wide", lib).or_reason("demo-wide")?;
     let fr = default_fractions();
-    let rows = weathering_table(&fuel.components, &fuel.mass_fractions, 400.0, &fr, &IndicatorOptions::default()).expect("table");
+    let rows = weathering_table(&fuel.components, &fuel.mass_fractions, 400.0, &fr, &IndicatorOptions::default()).or_reason("table")?;
     let rising = |key: &str, upto: f64| -> CheckResult {
         let vals: Vec<(f64, Option<f64>)> = rows.iter().filter(|r| r.evaporated_fraction <= upto + 1e-12).map(|r| (r.evaporated_fraction, r.indicators.get(key).flatten())).collect();
         let mut min_rise = f64::INFINITY;
@@ -338,13 +356,13 @@ pub fn weathering_drift(lib: &Library) -> Vec<CheckResult> {
             passed: min_rise > 0.0,
         }
     };
-    vec![
+    Ok(vec![
         rising("bubble_point_K", 0.95),
         rising("t10_K", 0.95),
         rising("flash_point_K", 0.95),
         rising("density_15C_kg_m3", 0.5),
         rising("kinematic_viscosity_minus20C_m2_s", 0.85),
-    ]
+    ])
 }
 
 /// Every check of this module.

@@ -21,7 +21,7 @@ const DODECANE_VAPOR: &str = include_str!("../../validation/coolprop/n-dodecane_
 const DODECANE_ENTHALPY: &str = include_str!("../../validation/coolprop/n-dodecane_enthalpy.csv");
 
 /// Pressure of the checked n-dodecane table: 10 bar, so that the liquid rows (265 K up to the 10-bar
-/// bubble point, 614 K) cover the whole CoolProp grid (410–590 K) [Pa].
+/// bubble point, 614 K) cover the whole CoolProp grid (410–590 K) \[Pa\].
 pub const CHECK_PRESSURE: f64 = 1e6;
 
 /// Lifetime tolerance of the surrogate at its reference condition (issue): 1 %.
@@ -42,9 +42,9 @@ pub fn all(lib: &Library) -> Vec<CheckResult> {
 
 /// A `#`-commented CSV with a header: (columns, numeric rows; non-numeric cells as None).
 pub fn parse_csv(text: &str) -> (Vec<String>, Vec<Vec<Option<f64>>>) {
-    let mut lines = text.lines().filter(|l| !l.starts_with('#') && !l.trim().is_empty());
-    let header: Vec<String> = lines.next().map(|h| h.split(',').map(|s| s.trim().to_string()).collect()).unwrap_or_default();
-    let rows = lines.map(|l| l.split(',').map(|s| s.trim().parse::<f64>().ok().filter(|v| v.is_finite())).collect()).collect();
+    let mut reader = csv::ReaderBuilder::new().has_headers(true).comment(Some(b'#')).flexible(true).trim(csv::Trim::All).from_reader(text.as_bytes());
+    let header: Vec<String> = reader.headers().map(|h| h.iter().map(str::to_string).collect()).unwrap_or_default();
+    let rows = reader.records().filter_map(Result::ok).map(|r| r.iter().map(|s| s.parse::<f64>().ok().filter(|v| v.is_finite())).collect()).collect();
     (header, rows)
 }
 
@@ -219,7 +219,7 @@ fn enthalpy_checks(header: &[&str], rows: &[Vec<Option<f64>>]) -> Vec<CheckResul
         .collect()
 }
 
-/// Lifetime of one droplet run, straight through the droplet model (no table code) [s].
+/// Lifetime of one droplet run, straight through the droplet model (no table code) \[s\].
 pub fn lifetime(fuel: &Fuel, gas: &AmbientGas, cond: &ReferenceCondition) -> Option<f64> {
     let mut inp = DropletInputs::new(fuel.clone(), gas.clone(), cond.ambient_temperature, cond.pressure, cond.diameter, cond.droplet_temperature);
     inp.motion = Motion::Fixed { velocity: cond.velocity };

@@ -169,17 +169,17 @@ struct RawComponent {
 pub struct Constants {
     /// Molar mass [kg/mol].
     pub molar_mass: Sourced,
-    /// Normal boiling point [K].
+    /// Normal boiling point \[K\].
     pub normal_boiling_point: Sourced,
-    /// Critical temperature [K].
+    /// Critical temperature \[K\].
     pub critical_temperature: Sourced,
-    /// Critical pressure [Pa].
+    /// Critical pressure \[Pa\].
     pub critical_pressure: Sourced,
     /// Critical molar volume [m³/mol].
     pub critical_volume: Sourced,
     /// Acentric factor [-].
     pub acentric_factor: Sourced,
-    /// Melting point [K].
+    /// Melting point \[K\].
     pub melting_point: Sourced,
     /// Enthalpy of fusion [J/mol].
     pub enthalpy_of_fusion: Option<Sourced>,
@@ -189,15 +189,15 @@ pub struct Constants {
     pub lower_heating_value: Sourced,
     /// Cetane number or derived cetane number [-] (`kind` says which).
     pub cetane_number: Sourced,
-    /// Closed-cup flash point [K].
+    /// Closed-cup flash point \[K\].
     pub flash_point: Option<Sourced>,
     /// Spencer–Danner Rackett parameter [-].
     pub rackett_z: Option<Sourced>,
     /// Fuller diffusion-volume sum [-].
     pub diffusion_volume: Option<Sourced>,
-    /// Lennard-Jones collision diameter [m].
+    /// Lennard-Jones collision diameter \[m\].
     pub lennard_jones_sigma: Option<Sourced>,
-    /// Lennard-Jones well depth over Boltzmann constant [K].
+    /// Lennard-Jones well depth over Boltzmann constant \[K\].
     pub lennard_jones_epsilon_over_k: Option<Sourced>,
 }
 
@@ -222,7 +222,7 @@ pub struct Component {
     pub unifac_groups: Vec<(&'static super::unifac_groups::Subgroup, u32)>,
     /// Scalar constants.
     pub constants: Constants,
-    /// Vapour pressure [Pa].
+    /// Vapour pressure \[Pa\].
     pub vapor_pressure: Correlation,
     /// Saturated liquid density [kg/m³].
     pub liquid_density: Correlation,
@@ -256,15 +256,15 @@ pub struct Component {
 /// to the published correlations themselves by `crate::props::pure::fit_extensions`.
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct Extensions {
-    /// Hildebrand fluidity law 1/μ = a·V + b above the takeover temperature: (takeover [K], a [1/(Pa·s)/(m³/mol)],
+    /// Hildebrand fluidity law 1/μ = a·V + b above the takeover temperature: (takeover \[K\], a [1/(Pa·s)/(m³/mol)],
     /// b [1/(Pa·s)]); None when the liquid viscosity has no published coefficients or the fit failed.
     pub fluidity: Option<(f64, f64, f64)>,
-    /// Wilhoit ideal-gas cp above the published range: (B [K], a0, a1, a2, cp at 0 K [J/(mol·K)], classical
+    /// Wilhoit ideal-gas cp above the published range: (B \[K\], a0, a1, a2, cp at 0 K [J/(mol·K)], classical
     /// limit [J/(mol·K)]); None when the ideal-gas cp is not a polynomial with a finite range.
     pub wilhoit: Option<WilhoitCoefficients>,
 }
 
-/// Wilhoit ideal-gas cp coefficients: (B [K], [a0, a1, a2], cp at 0 K [J/(mol·K)], classical limit [J/(mol·K)]).
+/// Wilhoit ideal-gas cp coefficients: (B \[K\], [a0, a1, a2], cp at 0 K [J/(mol·K)], classical limit [J/(mol·K)]).
 pub type WilhoitCoefficients = (f64, [f64; 3], f64, f64);
 
 /// Default relative uncertainties (published coefficients, estimated) per property; docs/property-methods.md.
@@ -687,19 +687,19 @@ impl Component {
         self.constants.molar_mass.value
     }
 
-    /// Critical temperature [K].
+    /// Critical temperature \[K\].
     #[inline]
     pub fn critical_temperature(&self) -> f64 {
         self.constants.critical_temperature.value
     }
 
-    /// Critical pressure [Pa].
+    /// Critical pressure \[Pa\].
     #[inline]
     pub fn critical_pressure(&self) -> f64 {
         self.constants.critical_pressure.value
     }
 
-    /// Normal boiling point [K].
+    /// Normal boiling point \[K\].
     #[inline]
     pub fn normal_boiling_point(&self) -> f64 {
         self.constants.normal_boiling_point.value

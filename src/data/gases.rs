@@ -37,9 +37,9 @@ pub struct GasSpecies {
     pub molar_mass: Sourced,
     /// Fuller diffusion volume [-].
     pub diffusion_volume: Sourced,
-    /// Lennard-Jones diameter [m].
+    /// Lennard-Jones diameter \[m\].
     pub lennard_jones_sigma: Option<Sourced>,
-    /// Lennard-Jones well depth / k [K].
+    /// Lennard-Jones well depth / k \[K\].
     pub lennard_jones_epsilon_over_k: Option<Sourced>,
     /// Ideal-gas heat capacity [J/(kg·K)].
     pub ideal_gas_heat_capacity: Correlation,

@@ -57,7 +57,7 @@ pub enum DataError {
     },
 }
 
-/// Largest input file read (fuel, component, spec, limits, spreads, class tables) [bytes]: anything bigger is
+/// Largest input file read (fuel, component, spec, limits, spreads, class tables) \[bytes\]: anything bigger is
 /// not one of dropcut's input files.
 pub const MAX_INPUT_BYTES: u64 = 64 * 1024 * 1024;
 
@@ -115,14 +115,14 @@ pub fn toml_error_at(e: &toml::de::Error, text: &str) -> String {
     }
 }
 
-/// Closest id in `candidates` to `id` (for "did you mean" hints), by edit distance.
+/// Closest id in `candidates` to `id` (for "did you mean" hints), by Levenshtein distance (`strsim`).
 pub fn suggest<'a>(id: &str, candidates: impl Iterator<Item = &'a str>) -> String {
     if id.len() > 100 {
         return String::new(); // no id is that long, and the distance would cost O(len) per candidate
     }
     let mut best: Option<(usize, &str)> = None;
     for c in candidates {
-        let d = edit_distance(id, c);
+        let d = strsim::levenshtein(id, c);
         if best.is_none_or(|(bd, _)| d < bd) {
             best = Some((d, c));
         }
@@ -131,20 +131,4 @@ pub fn suggest<'a>(id: &str, candidates: impl Iterator<Item = &'a str>) -> Strin
         Some((d, c)) if d <= 3.max(id.len() / 3) => format!(" (did you mean '{c}'?)"),
         _ => String::new(),
     }
-}
-
-fn edit_distance(a: &str, b: &str) -> usize {
-    let a: Vec<char> = a.chars().collect();
-    let b: Vec<char> = b.chars().collect();
-    let mut prev: Vec<usize> = (0..=b.len()).collect();
-    let mut cur = vec![0; b.len() + 1];
-    for i in 1..=a.len() {
-        cur[0] = i;
-        for j in 1..=b.len() {
-            let cost = usize::from(a[i - 1] != b[j - 1]);
-            cur[j] = (prev[j] + 1).min(cur[j - 1] + 1).min(prev[j - 1] + cost);
-        }
-        std::mem::swap(&mut prev, &mut cur);
-    }
-    prev[b.len()]
 }

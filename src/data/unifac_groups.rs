@@ -1,5 +1,5 @@
 //! The original-UNIFAC parameter tables (data): subgroup volumes R_k and areas Q_k with their main groups, and
-//! the main-group interaction parameters a_mn [K]. Parameter set: original UNIFAC (Fredenslund, Jones &
+//! the main-group interaction parameters a_mn \[K\]. Parameter set: original UNIFAC (Fredenslund, Jones &
 //! Prausnitz 1975) with the published DDBST matrix = Hansen et al. (1991), Ind. Eng. Chem. Res. 30:2352, revised
 //! by Wittig, Lohmann & Gmehling (2003), Ind. Eng. Chem. Res. 42:183. The tables are the committed files
 //! `mixtures/unifac/*.csv`, written by `mixtures/tools/make_unifac_tables.py` (provenance in their headers);
@@ -39,24 +39,43 @@ pub const PARAMETER_SET: &str = "original UNIFAC (Fredenslund, Jones & Prausnitz
 const SUBGROUPS_CSV: &str = include_str!("../../mixtures/unifac/original-unifac-subgroups.csv");
 const INTERACTIONS_CSV: &str = include_str!("../../mixtures/unifac/original-unifac-interactions.csv");
 
-fn data_lines(text: &str) -> impl Iterator<Item = Vec<&str>> {
-    text.lines().filter(|l| !l.starts_with('#') && !l.trim().is_empty()).skip(1).map(|l| l.split(',').collect())
+/// Rows of a committed `#`-commented CSV table with a header (csv crate), each with its line in the file.
+fn data_rows(text: &str, file: &str) -> Vec<(u64, csv::StringRecord)> {
+    let mut reader = csv::ReaderBuilder::new().has_headers(true).comment(Some(b'#')).trim(csv::Trim::All).from_reader(text.as_bytes());
+    reader
+        .records()
+        .map(|r| {
+            let r = r.unwrap_or_else(|e| panic!("{file}: {e}"));
+            (r.position().map_or(0, |p| p.line()), r)
+        })
+        .collect()
+}
+
+/// Field `i` (named `name`) of a committed table row, parsed; a malformed table is a build defect, named by
+/// file, line and field.
+fn field<T: std::str::FromStr>(file: &str, line: u64, row: &csv::StringRecord, i: usize, name: &str) -> T {
+    let text = row.get(i).unwrap_or_else(|| panic!("{file}: line {line}: no field {name} (column {})", i + 1));
+    text.parse().unwrap_or_else(|_| panic!("{file}: line {line}: field {name} '{text}' is not valid"))
 }
 
 fn parse() -> UnifacTables {
     // The committed tables are checked by the unit tests below; a malformed table is a build defect.
-    let subgroups = data_lines(SUBGROUPS_CSV)
-        .map(|f| Subgroup {
-            name: f[0].to_string(),
-            number: f[1].parse().expect("subgroup number"),
-            main_group: f[2].parse().expect("main-group number"),
-            main_group_name: f[3].to_string(),
-            volume: f[4].parse().expect("R_k"),
-            area: f[5].parse().expect("Q_k"),
+    let sub_file = "mixtures/unifac/original-unifac-subgroups.csv";
+    let subgroups = data_rows(SUBGROUPS_CSV, sub_file)
+        .iter()
+        .map(|(line, f)| Subgroup {
+            name: field(sub_file, *line, f, 0, "name"),
+            number: field(sub_file, *line, f, 1, "subgroup number"),
+            main_group: field(sub_file, *line, f, 2, "main-group number"),
+            main_group_name: field(sub_file, *line, f, 3, "main-group name"),
+            volume: field(sub_file, *line, f, 4, "R_k"),
+            area: field(sub_file, *line, f, 5, "Q_k"),
         })
         .collect();
-    let interactions = data_lines(INTERACTIONS_CSV)
-        .map(|f| ((f[0].parse().expect("main group m"), f[1].parse().expect("main group n")), f[2].parse().expect("a_mn")))
+    let int_file = "mixtures/unifac/original-unifac-interactions.csv";
+    let interactions = data_rows(INTERACTIONS_CSV, int_file)
+        .iter()
+        .map(|(line, f)| ((field(int_file, *line, f, 0, "main group m"), field(int_file, *line, f, 1, "main group n")), field(int_file, *line, f, 2, "a_mn")))
         .collect();
     UnifacTables { subgroups, interactions }
 }
@@ -73,7 +92,7 @@ pub fn subgroup(name: &str) -> Option<&'static Subgroup> {
 }
 
 impl UnifacTables {
-    /// Interaction parameter a_mn [K] between main groups m and n (0 for m = n); None where none is published.
+    /// Interaction parameter a_mn \[K\] between main groups m and n (0 for m = n); None where none is published.
     pub fn interaction(&self, m: u32, n: u32) -> Option<f64> {
         if m == n {
             return Some(0.0);

@@ -346,7 +346,7 @@ impl Fuel {
             }
         }
         let total: f64 = masses.iter().sum();
-        if !(total > 0.0) {
+        if total.is_nan() || total <= 0.0 {
             return Err(FuelError::Composition { context: format!("{file}: [{section}]"), message: "all fractions are zero".into() });
         }
         // Drop exact zeros: a component with no mass plays no part.

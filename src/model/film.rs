@@ -4,6 +4,7 @@
 use std::sync::Arc;
 
 use crate::data::{Component, GAS_CONSTANT};
+use crate::numerics::root::{brent_from, Tolerance};
 use crate::props::activity::Activity;
 use crate::props::gas::{wilke_phi, AmbientGas};
 use crate::props::{liquid, PropertyError};
@@ -364,7 +365,7 @@ impl Film {
         // β = (3 Pr_g τ_d / 2)(ṁ/m_d), τ_d = ρ_L d²/(18 μ_g). Applied to the total fuel mole fraction, each
         // component scaled alike. ṁ depends on X_s,neq, so the relation is solved implicitly for X_s,neq:
         // h(X) = X − X_eq + (2 L_K/d) β(ṁ(X)) rises monotonically from h(0) ≤ 0 to h(X_eq) ≥ 0 (ṁ rises with X;
-        // β uses max(ṁ, 0)), a bracketed root found by the Illinois variant of regula falsi.
+        // β uses max(ṁ, 0)), a bracketed root found by Brent's method (crate::numerics::root).
         self.surface_mole_eq.copy_from_slice(&self.surface_mole);
         let mut lo = (0.0, 0.0);
         let mut hi = (sum_x, 0.0);
@@ -376,17 +377,24 @@ impl Film {
         if lo.1 >= 0.0 {
             return self.non_equilibrium_at(x, t_s, d, speed, latent, sum_x, 0.0, &mut lo.1);
         }
-        illinois(
-            lo,
-            hi,
-            100,
+        let mut last = hi.0;
+        let root = brent_from(
             |xm| {
                 let mut hm = 0.0;
                 r = self.non_equilibrium_at(x, t_s, d, speed, latent, sum_x, xm, &mut hm);
+                last = xm;
                 hm
             },
-            |_, hm, lo, hi| hm.abs() <= 1e-12 * sum_x || hi - lo <= 1e-13 * sum_x,
+            lo,
+            hi,
+            Tolerance::absolute(1e-13 * sum_x).with_f_abs(1e-12 * sum_x).with_max_iterations(100),
         );
+        let x_neq = root.map(|root| root.x).unwrap_or_else(|e| e.best().unwrap_or(hi.0));
+        if x_neq != last {
+            // Brent's estimate is not always its last trial: evaluate the film there
+            let mut hm = 0.0;
+            r = self.non_equilibrium_at(x, t_s, d, speed, latent, sum_x, x_neq, &mut hm);
+        }
         r
     }
 
@@ -526,7 +534,7 @@ impl Film {
                     hi_l *= 2.0;
                     hi = (hi_l, resid(hi_l));
                 }
-                illinois(lo, hi, 200, resid, |lam, rm, lo_l, hi_l| rm.abs() <= 1e-13 * (q_extra.abs() + g_of(lam) * l_eff * lam) || hi_l - lo_l <= 1e-15 * hi_l)
+                brent_from(resid, lo, hi, Tolerance::relative(1e-14)).map(|root| root.x).unwrap_or_else(|e| e.best().unwrap_or(hi.0))
             };
             let b_t = lam.exp_m1().min(1e300);
             let g_t = g_of(lam);
@@ -623,42 +631,6 @@ impl Film {
             heat_extra: 0.0,
         }
     }
-}
-
-/// Root of `f` bracketed by `lo` = (x, f(x) < 0) and `hi` = (x, f(x) > 0) by the Illinois variant of regula
-/// falsi (Dowell & Jarratt 1971): at most `max_iterations` evaluations, stopping when `done(x, f(x), lo, hi)`
-/// holds for the new point and the bracket it was taken from. Returns the last point evaluated (`hi.0` if none).
-fn illinois(
-    mut lo: (f64, f64),
-    mut hi: (f64, f64),
-    max_iterations: usize,
-    mut f: impl FnMut(f64) -> f64,
-    mut done: impl FnMut(f64, f64, f64, f64) -> bool,
-) -> f64 {
-    let mut side = 0i32;
-    let mut x = hi.0;
-    for _ in 0..max_iterations {
-        let xm = (lo.0 * hi.1 - hi.0 * lo.1) / (hi.1 - lo.1);
-        x = if xm.is_finite() && xm > lo.0 && xm < hi.0 { xm } else { 0.5 * (lo.0 + hi.0) };
-        let fx = f(x);
-        if done(x, fx, lo.0, hi.0) {
-            break;
-        }
-        if fx < 0.0 {
-            lo = (x, fx);
-            if side == -1 {
-                hi.1 *= 0.5;
-            }
-            side = -1;
-        } else {
-            hi = (x, fx);
-            if side == 1 {
-                lo.1 *= 0.5;
-            }
-            side = 1;
-        }
-    }
-    x
 }
 
 #[cfg(test)]

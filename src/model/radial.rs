@@ -9,6 +9,8 @@
 //! η_f ṁ is the mass crossing a fixed-η face as the surface recedes (ṁ > 0 evaporating; upwind u). At the
 //! surface the outward conductive flux equals −q_in(u_s), with q_in linear in the surface value u_s.
 
+use crate::numerics::root::{brent, Tolerance};
+
 /// Faces and centres of a radial grid in η, clustered at the surface.
 #[derive(Debug, Clone)]
 pub struct RadialGrid {
@@ -238,17 +240,10 @@ pub fn crank_roots(l: f64, count: usize) -> Vec<f64> {
     let f = |b: f64| b * b.cos() / b.sin() + l - 1.0;
     let mut roots = Vec::with_capacity(count);
     for n in 0..count {
-        let (mut lo, mut hi) = (n as f64 * std::f64::consts::PI + 1e-12, (n as f64 + 1.0) * std::f64::consts::PI - 1e-12);
-        // f decreases from +∞ to −∞ on each branch
-        for _ in 0..200 {
-            let mid = 0.5 * (lo + hi);
-            if f(mid) > 0.0 {
-                lo = mid;
-            } else {
-                hi = mid;
-            }
-        }
-        roots.push(0.5 * (lo + hi));
+        let (lo, hi) = (n as f64 * std::f64::consts::PI + 1e-12, (n as f64 + 1.0) * std::f64::consts::PI - 1e-12);
+        // f decreases from +∞ to −∞ on each branch: one root per branch, to full precision
+        let root = brent(f, lo, hi, Tolerance::absolute(0.0)).map(|r| r.x);
+        roots.push(root.unwrap_or_else(|e| e.best().unwrap_or(0.5 * (lo + hi))));
     }
     roots
 }

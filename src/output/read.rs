@@ -3,6 +3,7 @@
 
 use std::path::{Path, PathBuf};
 
+use crate::numerics::interp;
 use super::OutputError;
 
 fn read_err(path: &Path, message: impl Into<String>) -> OutputError {
@@ -224,7 +225,7 @@ pub fn interpolate_at(x: &[Option<f64>], y: &[Option<f64>], at: f64) -> Option<f
             if (x1 - x0).abs() < f64::MIN_POSITIVE {
                 return Some(y0);
             }
-            return Some(y0 + (y1 - y0) * (at - x0) / (x1 - x0));
+            return Some(interp::lerp(x0, y0, x1, y1, at));
         }
     }
     if pts.len() == 1 && (pts[0].0 - at).abs() < 1e-12 {

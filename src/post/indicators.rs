@@ -28,26 +28,27 @@ use std::sync::Arc;
 
 use serde::{Deserialize, Serialize};
 
-use crate::data::{Component, GAS_CONSTANT};
+use crate::data::Component;
 use crate::props::activity::{Activity, ActivityModel};
 use crate::props::liquid;
 
+pub use super::mixture_rules::{blend_cetane, butler_flash_point, cetane_basis, component_flash_point, freezing_point, is_measured_dcn, liaw_flash_point, FlashPointOrigin};
 use super::rayleigh::{self, PathMode};
 use super::{normalised, PostError};
 
-/// Standard atmosphere [Pa].
+/// Standard atmosphere \[Pa\].
 pub const STANDARD_PRESSURE: f64 = 101_325.0;
-/// 15 °C [K].
+/// 15 °C \[K\].
 pub const T_15C: f64 = 288.15;
-/// 20 °C [K].
+/// 20 °C \[K\].
 pub const T_20C: f64 = 293.15;
-/// 38 °C [K] (100 °F, the vapour-pressure and flash-point reference temperature).
+/// 38 °C \[K\] (100 °F, the vapour-pressure and flash-point reference temperature).
 pub const T_38C: f64 = 311.15;
-/// 40 °C [K].
+/// 40 °C \[K\].
 pub const T_40C: f64 = 313.15;
-/// −20 °C [K].
+/// −20 °C \[K\].
 pub const T_MINUS_20C: f64 = 253.15;
-/// −40 °C [K].
+/// −40 °C \[K\].
 pub const T_MINUS_40C: f64 = 233.15;
 /// Default evaporated fraction that defines the final boiling point of the simulated curve [-].
 pub const DEFAULT_FINAL_FRACTION: f64 = 0.995;
@@ -124,7 +125,7 @@ impl CetaneRule {
 /// Options of [`indicators`].
 #[derive(Debug, Clone, PartialEq)]
 pub struct IndicatorOptions {
-    /// Pressure of the bubble point and the simulated distillation [Pa].
+    /// Pressure of the bubble point and the simulated distillation \[Pa\].
     pub pressure: f64,
     /// Basis of the distillation recovered fraction.
     pub recovery_basis: RecoveryBasis,
@@ -189,23 +190,23 @@ pub const INDICATOR_KEYS: [(&str, &str); 24] = [
 pub struct Indicators {
     /// Evaporated fraction of the parent liquid this composition is the residue of [-] (set by callers).
     pub evaporated_fraction: Option<f64>,
-    /// Bubble point at the distillation pressure (1 atm by default) [K].
+    /// Bubble point at the distillation pressure (1 atm by default) \[K\].
     pub bubble_point_K: Option<f64>,
-    /// Initial boiling point of the simulated distillation (= bubble point) [K].
+    /// Initial boiling point of the simulated distillation (= bubble point) \[K\].
     pub initial_boiling_point_K: Option<f64>,
-    /// Temperature at 10 % evaporated [K].
+    /// Temperature at 10 % evaporated \[K\].
     pub t10_K: Option<f64>,
-    /// Temperature at 20 % evaporated [K].
+    /// Temperature at 20 % evaporated \[K\].
     pub t20_K: Option<f64>,
-    /// Temperature at 50 % evaporated [K].
+    /// Temperature at 50 % evaporated \[K\].
     pub t50_K: Option<f64>,
-    /// Temperature at 90 % evaporated [K].
+    /// Temperature at 90 % evaporated \[K\].
     pub t90_K: Option<f64>,
-    /// Final boiling point: temperature at `final_fraction` evaporated (99.5 % by default) [K].
+    /// Final boiling point: temperature at `final_fraction` evaporated (99.5 % by default) \[K\].
     pub final_boiling_point_K: Option<f64>,
-    /// True vapour pressure at 38 °C (Raoult; not a Reid vapour pressure) [Pa].
+    /// True vapour pressure at 38 °C (Raoult; not a Reid vapour pressure) \[Pa\].
     pub vapor_pressure_38C_Pa: Option<f64>,
-    /// Closed-cup flash point estimate [K].
+    /// Closed-cup flash point estimate \[K\].
     pub flash_point_K: Option<f64>,
     /// Density at 15 °C [kg/m³].
     pub density_15C_kg_m3: Option<f64>,
@@ -234,9 +235,9 @@ pub struct Indicators {
     pub aromatics_volume_fraction: Option<f64>,
     /// Mean molar mass [kg/mol].
     pub molar_mass_kg_mol: Option<f64>,
-    /// Freezing point estimate (last crystal to disappear) [K].
+    /// Freezing point estimate (last crystal to disappear) \[K\].
     pub freezing_point_K: Option<f64>,
-    /// Pressure of the bubble point and distillation [Pa].
+    /// Pressure of the bubble point and distillation \[Pa\].
     pub distillation_pressure_Pa: f64,
     /// Basis of the distillation recovered fraction.
     pub distillation_basis: RecoveryBasis,
@@ -381,199 +382,8 @@ impl Indicators {
     }
 }
 
-/// Where a component's pure flash point comes from.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub enum FlashPointOrigin {
-    /// The component file's published closed-cup value.
-    Published,
-    /// Estimated from the normal boiling point by [`butler_flash_point`].
-    EstimatedButler,
-}
-
-/// Flash point estimated from the normal boiling point, T_fp = 0.683 T_b + 14.84 [K].
-///
-/// Butler et al. (1956), Ind. Eng. Chem. 48, 808, as the °F form T_fp = 0.683 T_b − 119 °F (recalled
-/// from memory, not read in the original), converted exactly to kelvin. Checked in
-/// `checks::residue` against the published flash points of the component library's hydrocarbons.
-pub fn butler_flash_point(normal_boiling_point: f64) -> f64 {
-    0.683 * normal_boiling_point + (-119.0 + 459.67 - 0.683 * 459.67) / 1.8
-}
-
-/// A component's closed-cup flash point [K]: the file's value, else the Butler estimate.
-pub fn component_flash_point(c: &Component) -> (f64, FlashPointOrigin) {
-    match &c.constants.flash_point {
-        Some(f) => (f.value, FlashPointOrigin::Published),
-        None => (butler_flash_point(c.normal_boiling_point()), FlashPointOrigin::EstimatedButler),
-    }
-}
-
-/// Solve an increasing `f(T) = 0` bracketed by [lo, hi] (Illinois regula falsi, tolerance in K).
-pub(crate) fn solve_increasing(mut f: impl FnMut(f64) -> f64, mut lo: f64, mut hi: f64, tol: f64) -> Option<f64> {
-    let mut flo = f(lo);
-    let mut fhi = f(hi);
-    if !(flo.is_finite() && fhi.is_finite()) || flo > 0.0 || fhi < 0.0 {
-        return None;
-    }
-    if flo == 0.0 {
-        return Some(lo);
-    }
-    if fhi == 0.0 {
-        return Some(hi);
-    }
-    let mut side = 0i8;
-    for _ in 0..200 {
-        let t = (lo * fhi - hi * flo) / (fhi - flo);
-        let t = if t > lo && t < hi { t } else { 0.5 * (lo + hi) };
-        let ft = f(t);
-        if !ft.is_finite() {
-            return None;
-        }
-        if ft.abs() < 1e-14 || hi - lo < tol {
-            return Some(t);
-        }
-        if ft < 0.0 {
-            lo = t;
-            flo = ft;
-            if side == -1 {
-                fhi *= 0.5;
-            }
-            side = -1;
-        } else {
-            hi = t;
-            fhi = ft;
-            if side == 1 {
-                flo *= 0.5;
-            }
-            side = 1;
-        }
-        if hi - lo < tol {
-            return Some(0.5 * (lo + hi));
-        }
-    }
-    Some(0.5 * (lo + hi))
-}
-
-/// Liaw et al. (2002) flash point of a liquid mixture [K]: the T that solves
-/// Σ x_i γ_i p_sat,i(T) / p_sat,i(T_fp,i) = 1 (Le Chatelier's rule with the modified Raoult's law; γ = 1 for the
-/// ideal model, UNIFAC γ_i(x, T) for the non-ideal one, as in Liaw et al.'s non-ideal form), given each
-/// component's closed-cup flash point `pure_flash_points[i]`. Components with x_i = 0 are ignored. `None` when
-/// no solution is bracketed or the activity model cannot be prepared.
-pub fn liaw_flash_point(components: &[Arc<Component>], mole_fractions: &[f64], pure_flash_points: &[f64], activity: ActivityModel) -> Option<f64> {
-    let mut act = Activity::new(activity, components).ok()?;
-    let mut lo = f64::INFINITY;
-    let mut hi = f64::NEG_INFINITY;
-    let mut terms: Vec<(&Component, f64, f64)> = Vec::with_capacity(components.len());
-    for ((c, &x), &tf) in components.iter().zip(mole_fractions).zip(pure_flash_points) {
-        if x > 0.0 {
-            let p_fp = c.vapor_pressure(tf);
-            if !(p_fp.is_finite() && p_fp > 0.0) {
-                return None;
-            }
-            terms.push((c.as_ref(), x, p_fp));
-            lo = lo.min(tf);
-            hi = hi.max(tf);
-        }
-    }
-    if terms.is_empty() {
-        return None;
-    }
-    let ideal = act.is_ideal();
-    let g = |t: f64| {
-        if ideal {
-            terms.iter().map(|(c, x, p_fp)| x * c.vapor_pressure(t) / p_fp).sum::<f64>().ln()
-        } else {
-            let gamma = act.gammas(mole_fractions, t);
-            let mut s = 0.0;
-            let mut k = 0;
-            for (i, &x) in mole_fractions.iter().enumerate() {
-                if x > 0.0 {
-                    let (c, x, p_fp) = terms[k];
-                    s += x * gamma[i] * c.vapor_pressure(t) / p_fp;
-                    k += 1;
-                }
-            }
-            s.ln()
-        }
-    };
-    // Ideal: the root lies between the lowest and the highest pure flash point (each term is ≤ x_i at the
-    // lowest and ≥ x_i at the highest); widen slightly for round-off. With activity coefficients above 1 the
-    // mixture can flash below its lowest component: search from 100 K below.
-    let lo = if ideal { lo - 0.5 } else { (lo - 100.0).max(100.0) };
-    solve_increasing(g, lo, hi + 0.5, 1e-7)
-}
-
-/// True when a component's cetane value is a measured derived cetane number: kind "DCN" from a published
-/// source (not `from-memory`, `common-practice` or `estimated:`).
-pub fn is_measured_dcn(c: &Component) -> bool {
-    let v = &c.constants.cetane_number;
-    v.kind.as_deref() == Some("DCN") && !(v.source == "from-memory" || v.source == "common-practice" || v.source.starts_with("estimated"))
-}
-
-/// Share of the blend weights `f` carried by components without a measured DCN, and a short breakdown
-/// ("engine CN 40.0 %, estimate 10.0 %, from memory 5.0 %").
-pub fn cetane_basis(components: &[Arc<Component>], f: &[f64]) -> (f64, String) {
-    let total: f64 = f.iter().filter(|v| **v > 0.0).sum();
-    if total <= 0.0 {
-        return (0.0, String::new());
-    }
-    let (mut cn, mut est, mut memory) = (0.0, 0.0, 0.0);
-    for (c, f) in components.iter().zip(f) {
-        if *f <= 0.0 || is_measured_dcn(c) {
-            continue;
-        }
-        let v = &c.constants.cetane_number;
-        if v.source == "from-memory" || v.source == "common-practice" {
-            memory += f;
-        } else if v.kind.as_deref() == Some("estimate") || v.source.starts_with("estimated") {
-            est += f;
-        } else {
-            cn += f;
-        }
-    }
-    let parts: Vec<String> = [("engine CN", cn), ("estimate", est), ("recalled from memory", memory)]
-        .iter()
-        .filter(|(_, v)| *v > 0.0)
-        .map(|(n, v)| format!("{n} {:.1} %", 100.0 * v / total))
-        .collect();
-    ((cn + est + memory) / total, parts.join(", "))
-}
-
-/// Blend of component cetane numbers by `rule`; `w` mass fractions, `x` mole fractions, `v` volume fractions.
-pub fn blend_cetane(components: &[Arc<Component>], w: &[f64], x: &[f64], v: &[f64], rule: CetaneRule) -> f64 {
-    let f = match rule {
-        CetaneRule::VolumeLinear => v,
-        CetaneRule::MoleLinear => x,
-        CetaneRule::MassLinear => w,
-    };
-    components.iter().zip(f).map(|(c, f)| f * c.constants.cetane_number.value).sum()
-}
-
-/// Ideal solid–liquid solubility (Schröder–van Laar, ΔCp neglected): the saturation temperature of each
-/// component with an enthalpy of fusion, T_i = 1 / (1/T_m,i − R ln x_i / ΔH_fus,i); the freezing point is
-/// the highest. Returns the value (None if no component qualifies), the controlling component, and the
-/// ids of components skipped for lack of an enthalpy of fusion.
-pub fn freezing_point(components: &[Arc<Component>], mole_fractions: &[f64]) -> (Option<f64>, Option<String>, Vec<String>) {
-    let mut best: Option<(f64, &str)> = None;
-    let mut skipped = vec![];
-    for (c, &x) in components.iter().zip(mole_fractions) {
-        if x <= 0.0 {
-            continue;
-        }
-        let Some(h) = c.constants.enthalpy_of_fusion.as_ref() else {
-            skipped.push(c.id.clone());
-            continue;
-        };
-        let tm = c.constants.melting_point.value;
-        let t = 1.0 / (1.0 / tm - GAS_CONSTANT * x.ln() / h.value);
-        if best.is_none_or(|(b, _)| t > b) {
-            best = Some((t, c.id.as_str()));
-        }
-    }
-    (best.map(|b| b.0), best.map(|b| b.1.to_string()), skipped)
-}
-
 /// Temperatures of the simulated batch (Rayleigh) distillation at `pressure` at each evaporated fraction of
-/// `fractions` (ascending, in [0, 1)) on `basis` [K]. `mole_fractions` may contain zeros.
+/// `fractions` (ascending, in [0, 1)) on `basis` \[K\]. `mole_fractions` may contain zeros.
 pub fn distillation_temperatures(
     components: &[Arc<Component>],
     mole_fractions: &[f64],

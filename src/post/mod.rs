@@ -8,6 +8,7 @@
 pub mod droplet;
 pub mod indicators;
 pub mod limits;
+pub mod mixture_rules;
 pub mod rayleigh;
 pub mod weathering;
 

@@ -17,13 +17,14 @@
 //!
 //! At constant temperature the K-values are constant and the path has the closed form
 //! `n_i(s) = n_i0 exp(−k_i s)` (`k_i = p_sat,i(T)/max_j p_sat,j(T)`); each requested fraction is reached by
-//! solving `F(s) = F_target` with a safeguarded Newton iteration, so weathering residues are exact to
+//! solving `F(s) = F_target` by Brent's method (crate::numerics::root), so weathering residues are exact to
 //! round-off.
 
 use std::sync::Arc;
 
 use crate::data::Component;
 use crate::props::activity::{Activity, ActivityModel};
+use crate::numerics::root::{brent, Tolerance};
 use crate::props::liquid;
 
 use super::PostError;
@@ -31,9 +32,9 @@ use super::PostError;
 /// Which state variable is held fixed along the path.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum PathMode {
-    /// Constant pressure [Pa]: the liquid is at its bubble point (simulated distillation).
+    /// Constant pressure \[Pa\]: the liquid is at its bubble point (simulated distillation).
     Isobaric(f64),
-    /// Constant temperature [K]: vapour composition ∝ x_i p_sat,i(T) (weathering).
+    /// Constant temperature \[K\]: vapour composition ∝ x_i p_sat,i(T) (weathering).
     Isothermal(f64),
 }
 
@@ -156,7 +157,7 @@ impl<'a> Evaluator<'a> {
 pub struct PathPoint {
     /// Evaporated fraction on the path's basis [-].
     pub evaporated_fraction: f64,
-    /// Liquid temperature [K] (bubble point, or the fixed temperature).
+    /// Liquid temperature \[K\] (bubble point, or the fixed temperature).
     pub temperature: f64,
     /// Liquid mole fractions [-].
     pub mole_fractions: Vec<f64>,
@@ -290,45 +291,25 @@ fn isothermal(p_sat: &[f64], x0: &[f64], total: f64, weights: &[f64], fractions:
     let k: Vec<f64> = p_sat.iter().map(|p| p / p_max).collect();
     let n0: Vec<f64> = x0.iter().map(|x| x / total).collect();
     let w0: f64 = n0.iter().zip(weights).map(|(n, w)| n * w).sum();
-    // remaining basis fraction R(s) = Σ w_i n_i0 e^(−k_i s) / W0 and its derivative
-    let remaining = |s: f64| -> (f64, f64) {
-        let mut r = 0.0;
-        let mut d = 0.0;
-        for ((n, w), k) in n0.iter().zip(weights).zip(&k) {
-            let e = w * n * (-k * s).exp();
-            r += e;
-            d -= k * e;
-        }
-        (r / w0, d / w0)
-    };
+    // remaining basis fraction R(s) = Σ w_i n_i0 e^(−k_i s) / W0
+    let remaining = |s: f64| -> f64 { n0.iter().zip(weights).zip(&k).map(|((n, w), k)| w * n * (-k * s).exp()).sum::<f64>() / w0 };
     let mut out = Vec::with_capacity(fractions.len());
     let mut s_lo = 0.0;
     for &f in fractions {
         let target = 1.0 - f;
         let mut lo = s_lo;
         let mut hi = (lo + 1.0) * 2.0;
-        while remaining(hi).0 > target {
+        while remaining(hi) > target {
             lo = hi;
             hi *= 2.0;
         }
-        // safeguarded Newton on R(s) − target (R decreasing and convex in s)
-        let mut s = if f == 0.0 { 0.0 } else { 0.5 * (lo + hi) };
-        if f > 0.0 {
-            for _ in 0..200 {
-                let (r, d) = remaining(s);
-                let g = r - target;
-                if g > 0.0 {
-                    lo = s;
-                } else {
-                    hi = s;
-                }
-                if g.abs() <= 1e-15 * target || hi - lo <= 1e-15 * hi {
-                    break;
-                }
-                let next = s - g / d;
-                s = if next > lo && next < hi && d < 0.0 { next } else { 0.5 * (lo + hi) };
-            }
-        }
+        // R(s) − target decreases from ≥ 0 at lo to ≤ 0 at hi: Brent's method to 1e-15 relative in s
+        let s = if f == 0.0 {
+            0.0
+        } else {
+            let tol = Tolerance::relative(1e-15).with_f_abs(1e-15 * target);
+            brent(|s| remaining(s) - target, lo, hi, tol).map(|r| r.x).unwrap_or_else(|e| e.best().unwrap_or(0.5 * (lo + hi)))
+        };
         s_lo = s;
         let mut x: Vec<f64> = n0.iter().zip(&k).map(|(n, k)| n * (-k * s).exp()).collect();
         let sx: f64 = x.iter().sum();

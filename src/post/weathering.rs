@@ -41,7 +41,7 @@ pub struct ResidueRow {
     pub indicators: Indicators,
 }
 
-/// Residues of open-vessel evaporation at `temperature` [K] at each evaporated mass fraction of
+/// Residues of open-vessel evaporation at `temperature` \[K\] at each evaporated mass fraction of
 /// `evaporated_fractions` (ascending, each in [0, 1)).
 pub fn weathering_residues(
     components: &[Arc<Component>],
@@ -99,7 +99,7 @@ mod tests {
     use crate::data::Library;
     use crate::fuel::Fuel;
 
-    /// Against an independent evaluation of n_i(s) = n_i0 exp(−p_sat,i s) (unscaled rates, bisection on s).
+    /// Against an independent evaluation of n_i(s) = n_i0 exp(−p_sat,i s) (unscaled rates, Brent's method on s).
     #[test]
     fn matches_closed_form() {
         let l = Library::embedded().unwrap();
@@ -113,20 +113,12 @@ mod tests {
         let mass0: f64 = x0.iter().zip(&m).map(|(x, m)| x * m).sum();
         let remaining = |s: f64| x0.iter().zip(&p).zip(&m).map(|((x, p), m)| x * m * (-p * s).exp()).sum::<f64>() / mass0;
         for r in &res {
-            // bisection on s for remaining(s) = 1 − F
-            let (mut lo, mut hi) = (0.0, 1.0);
+            // root of remaining(s) = 1 − F, bracketed by doubling
+            let mut hi = 1.0;
             while remaining(hi) > 1.0 - r.evaporated_fraction {
                 hi *= 2.0;
             }
-            for _ in 0..200 {
-                let mid = 0.5 * (lo + hi);
-                if remaining(mid) > 1.0 - r.evaporated_fraction {
-                    lo = mid;
-                } else {
-                    hi = mid;
-                }
-            }
-            let s = 0.5 * (lo + hi);
+            let s = crate::numerics::root::brent(|s| remaining(s) - (1.0 - r.evaporated_fraction), 0.0, hi, crate::numerics::root::Tolerance::relative(1e-15)).unwrap().x;
             let n: Vec<f64> = x0.iter().zip(&p).zip(&m).map(|((x, p), m)| x * m * (-p * s).exp()).collect();
             let tot: f64 = n.iter().sum();
             for (a, b) in r.mass_fractions.iter().zip(&n) {

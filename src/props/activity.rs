@@ -18,6 +18,7 @@ use std::sync::Arc;
 
 use crate::data::unifac_groups::{tables, Subgroup};
 use crate::data::Component;
+use crate::numerics::linalg;
 
 /// Liquid-phase activity model.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, serde::Serialize, serde::Deserialize)]
@@ -212,6 +213,33 @@ impl Activity {
         components.iter().zip(x).zip(g).map(|((c, x), g)| x * g * c.vapor_pressure(t)).sum()
     }
 
+    /// Equilibrium vapour over the liquid `x` at `t` (modified Raoult's law): the partial pressures
+    /// p_i = x_i γ_i p_sat,i(T) written to `partial` [Pa]; returns their sum, the bubble pressure [Pa]. The vapour
+    /// mole fractions at total pressure p are p_i/p (at the bubble point p_i/Σ p_i). No allocation.
+    pub fn equilibrium_partial_pressures(&mut self, components: &[Arc<Component>], x: &[f64], t: f64, partial: &mut [f64]) -> f64 {
+        let g = self.gammas(x, t);
+        let mut sum = 0.0;
+        for (((p_i, c), x), g) in partial.iter_mut().zip(components).zip(x).zip(g) {
+            *p_i = x * g * c.vapor_pressure(t);
+            sum += *p_i;
+        }
+        sum
+    }
+
+    /// Mass fractions of the equilibrium vapour over the liquid `x` at `t` (modified Raoult's law): ∝ x_i γ_i
+    /// p_sat,i(T) M_i, written to `out` (all 0 when no component has a vapour pressure). No allocation.
+    pub fn equilibrium_vapor_mass_fractions(&mut self, components: &[Arc<Component>], x: &[f64], t: f64, out: &mut [f64]) {
+        self.equilibrium_partial_pressures(components, x, t, out);
+        let mut sum = 0.0;
+        for (o, c) in out.iter_mut().zip(components) {
+            *o *= c.molar_mass();
+            sum += *o;
+        }
+        for o in out.iter_mut() {
+            *o = if sum > 0.0 { *o / sum } else { 0.0 };
+        }
+    }
+
     /// Dew-point function at `t`: Σ_i y_i p/(γ_i p_sat,i(T)) with γ at the liquid in equilibrium with `y`
     /// (1 at the dew point). The equilibrium liquid solves u_i + ln γ_i(x(u)) = ln(y_i p/p_sat,i) for
     /// u_i = ln(x_i S), x = e^u/Σ e^u, by Newton's method with a finite-difference Jacobian (this allocates: it is
@@ -267,50 +295,17 @@ impl Activity {
                     jac[a * m + b] = (lg_h[a] - lg[a]) / h + if a == b { 1.0 } else { 0.0 };
                 }
             }
-            if !solve_dense(&mut jac, &mut rhs, m) {
+            // Newton step J z = rhs by LU with partial pivoting (nalgebra)
+            let Some(step) = linalg::solve(&jac, &rhs, m) else {
                 return f64::NAN;
-            }
+            };
+            rhs.copy_from_slice(&step);
             for (a, &i) in active.iter().enumerate() {
                 u[i] += rhs[a].clamp(-2.0, 2.0);
             }
         }
         active.iter().map(|&i| u[i].exp()).sum()
     }
-}
-
-/// Solve the dense system `a` z = `b` (row-major m×m) in place by Gaussian elimination with partial pivoting;
-/// the solution replaces `b`. False when singular.
-fn solve_dense(a: &mut [f64], b: &mut [f64], m: usize) -> bool {
-    for col in 0..m {
-        let pivot = (col..m).max_by(|&r, &s| a[r * m + col].abs().total_cmp(&a[s * m + col].abs())).unwrap_or(col);
-        let pivot_value = a[pivot * m + col].abs();
-        if pivot_value.is_nan() || pivot_value <= 1e-300 {
-            return false;
-        }
-        if pivot != col {
-            for k in 0..m {
-                a.swap(pivot * m + k, col * m + k);
-            }
-            b.swap(pivot, col);
-        }
-        for r in col + 1..m {
-            let f = a[r * m + col] / a[col * m + col];
-            if f != 0.0 {
-                for k in col..m {
-                    a[r * m + k] -= f * a[col * m + k];
-                }
-                b[r] -= f * b[col];
-            }
-        }
-    }
-    for col in (0..m).rev() {
-        let mut v = b[col];
-        for k in col + 1..m {
-            v -= a[col * m + k] * b[k];
-        }
-        b[col] = v / a[col * m + col];
-    }
-    true
 }
 
 impl Unifac {
@@ -486,5 +481,35 @@ mod tests {
         let y: Vec<f64> = (0..3).map(|i| x[i] * g[i] * c[i].vapor_pressure(t) / p).collect();
         let s = a.dew_sum(&c, &y, p, t);
         assert!((s - 1.0).abs() < 1e-8, "{s}");
+    }
+
+    /// The one equilibrium-vapour function gives the same numbers, bit for bit, as the three hand-written copies
+    /// it replaces (x γ p_sat / p in the film, x γ p_sat M normalised in the boiling latent heat and the tables).
+    #[test]
+    fn equilibrium_vapour_matches_the_written_out_formula() {
+        let c = comps(&["ethanol", "n-heptane", "toluene"]);
+        for model in [ActivityModel::Ideal, ActivityModel::Unifac] {
+            let mut a = Activity::new(model, &c).unwrap();
+            let x = [0.2, 0.5, 0.3];
+            let t = 340.0;
+            let mut partial = [0.0; 3];
+            let total = a.equilibrium_partial_pressures(&c, &x, t, &mut partial);
+            let g = a.gammas(&x, t).to_vec();
+            let mut sum = 0.0;
+            for i in 0..3 {
+                let p_i = x[i] * g[i] * c[i].vapor_pressure(t);
+                assert_eq!(partial[i], p_i);
+                sum += p_i;
+            }
+            assert_eq!(total, sum);
+            assert_eq!(total, a.bubble_pressure(&c, &x, t));
+            let mut w = [0.0; 3];
+            a.equilibrium_vapor_mass_fractions(&c, &x, t, &mut w);
+            let y: Vec<f64> = (0..3).map(|i| x[i] * g[i] * c[i].vapor_pressure(t) * c[i].molar_mass()).collect();
+            let s: f64 = y.iter().sum();
+            for i in 0..3 {
+                assert_eq!(w[i], y[i] / s);
+            }
+        }
     }
 }

@@ -4,6 +4,7 @@
 use std::sync::Arc;
 
 use crate::data::Component;
+use crate::numerics::root::{brent, Tolerance};
 
 use super::activity::Activity;
 
@@ -117,46 +118,8 @@ fn search_ceiling(components: &[Arc<Component>]) -> f64 {
     components.iter().map(|c| c.critical_temperature()).fold(0.0, f64::max) * 1.5
 }
 
-/// Solve a monotone increasing `f(T) = 0` on [lo, hi] by bisection refined with secant steps.
-fn solve_increasing(mut f: impl FnMut(f64) -> f64, mut lo: f64, mut hi: f64, tol: f64) -> Option<f64> {
-    let mut flo = f(lo);
-    let mut fhi = f(hi);
-    if !(flo <= 0.0 && fhi >= 0.0) {
-        return None;
-    }
-    for _ in 0..200 {
-        // Regula falsi (Illinois-free; guarded by bisection every other step)
-        let mut t = lo - flo * (hi - lo) / (fhi - flo);
-        if !(t > lo && t < hi) || (hi - lo) > 50.0 {
-            t = 0.5 * (lo + hi);
-        }
-        let ft = f(t);
-        if ft.abs() < 1e-14 || (hi - lo) < tol {
-            return Some(t);
-        }
-        if ft < 0.0 {
-            lo = t;
-            flo = ft;
-        } else {
-            hi = t;
-            fhi = ft;
-        }
-        // keep shrinking even when secant is one-sided
-        let mid = 0.5 * (lo + hi);
-        let fm = f(mid);
-        if fm < 0.0 {
-            lo = mid;
-            flo = fm;
-        } else {
-            hi = mid;
-            fhi = fm;
-        }
-        if hi - lo < tol {
-            return Some(0.5 * (lo + hi));
-        }
-    }
-    Some(0.5 * (lo + hi))
-}
+/// Temperature tolerance of the bubble- and dew-point searches (Brent's method on [20 K, 1.5 max T_c]).
+const POINT_TOLERANCE: Tolerance = Tolerance::absolute(1e-9);
 
 /// Bubble-point temperature at pressure `p` (Raoult's law) [K].
 pub fn bubble_point(components: &[Arc<Component>], x: &[f64], p: f64) -> Result<f64, PropertyError> {
@@ -164,8 +127,9 @@ pub fn bubble_point(components: &[Arc<Component>], x: &[f64], p: f64) -> Result<
         return Err(PropertyError::Invalid { what: "pressure", value: p });
     }
     let hi = search_ceiling(components);
-    solve_increasing(|t| (bubble_pressure(components, x, t) / p).ln(), 20.0, hi, 1e-9)
-        .ok_or(PropertyError::NoSolution { what: "bubble point", pressure: p })
+    brent(|t| (bubble_pressure(components, x, t) / p).ln(), 20.0, hi, POINT_TOLERANCE)
+        .map(|r| r.x)
+        .map_err(|_| PropertyError::NoSolution { what: "bubble point", pressure: p })
 }
 
 /// Dew-point temperature at pressure `p` for vapour mole fractions `y` (Raoult's law) [K].
@@ -175,13 +139,9 @@ pub fn dew_point(components: &[Arc<Component>], y: &[f64], p: f64) -> Result<f64
     }
     let hi = search_ceiling(components);
     // Σ y_i p / p_sat,i(T) = 1, decreasing in T: solve -ln(Σ...) increasing.
-    solve_increasing(
-        |t| -(components.iter().zip(y).map(|(c, y)| y * p / c.vapor_pressure(t)).sum::<f64>()).ln(),
-        20.0,
-        hi,
-        1e-9,
-    )
-    .ok_or(PropertyError::NoSolution { what: "dew point", pressure: p })
+    brent(|t| -(components.iter().zip(y).map(|(c, y)| y * p / c.vapor_pressure(t)).sum::<f64>()).ln(), 20.0, hi, POINT_TOLERANCE)
+        .map(|r| r.x)
+        .map_err(|_| PropertyError::NoSolution { what: "dew point", pressure: p })
 }
 
 /// Bubble-point temperature at pressure `p` with activity coefficients: Σ x_i γ_i(x, T) p_sat,i(T) = p [K]
@@ -194,8 +154,9 @@ pub fn bubble_point_with(components: &[Arc<Component>], activity: &mut Activity,
         return Err(PropertyError::Invalid { what: "pressure", value: p });
     }
     let hi = search_ceiling(components);
-    solve_increasing(|t| (activity.bubble_pressure(components, x, t) / p).ln(), 20.0, hi, 1e-9)
-        .ok_or(PropertyError::NoSolution { what: "bubble point", pressure: p })
+    brent(|t| (activity.bubble_pressure(components, x, t) / p).ln(), 20.0, hi, POINT_TOLERANCE)
+        .map(|r| r.x)
+        .map_err(|_| PropertyError::NoSolution { what: "bubble point", pressure: p })
 }
 
 /// Dew-point temperature at pressure `p` for vapour mole fractions `y` with activity coefficients of the
@@ -208,8 +169,9 @@ pub fn dew_point_with(components: &[Arc<Component>], activity: &mut Activity, y:
         return Err(PropertyError::Invalid { what: "pressure", value: p });
     }
     let hi = search_ceiling(components);
-    solve_increasing(|t| -activity.dew_sum(components, y, p, t).ln(), 20.0, hi, 1e-9)
-        .ok_or(PropertyError::NoSolution { what: "dew point", pressure: p })
+    brent(|t| -activity.dew_sum(components, y, p, t).ln(), 20.0, hi, POINT_TOLERANCE)
+        .map(|r| r.x)
+        .map_err(|_| PropertyError::NoSolution { what: "dew point", pressure: p })
 }
 
 /// Mixture pseudo-critical temperature by Kay's rule Σ x_i T_c,i [K].

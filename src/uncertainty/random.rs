@@ -1,6 +1,8 @@
 //! Small self-contained random numbers: SplitMix64 mixing as a counter-based generator (one uniform per
 //! (seed, factor, sample) triple, whatever thread computes it), xoshiro256** for the Latin-hypercube
-//! permutations, and the inverse normal distribution function for truncated normal draws.
+//! permutations, and truncated normal draws (the normal distribution and quantile: crate::numerics::special).
+
+use crate::numerics::special::{normal_cdf, normal_quantile};
 
 /// SplitMix64 finaliser (Steele, Lea & Flood 2014): a bijective 64-bit mix with good avalanche.
 #[inline]
@@ -89,50 +91,6 @@ impl Xoshiro256 {
             p.swap(i, j);
         }
         p
-    }
-}
-
-/// Standard normal distribution function Φ(x) [-], from the complementary error function below.
-pub fn normal_cdf(x: f64) -> f64 {
-    0.5 * erfc(-x / std::f64::consts::SQRT_2)
-}
-
-/// Complementary error function, Chebyshev fit with relative error below 1.2e-7 everywhere (Press et al.,
-/// Numerical Recipes, 2nd ed., §6.2, `erfcc`); used for the truncation bounds and in tests.
-fn erfc(x: f64) -> f64 {
-    let z = x.abs();
-    let t = 1.0 / (1.0 + 0.5 * z);
-    let r = t * (-z * z - 1.265_512_23
-        + t * (1.000_023_68
-            + t * (0.374_091_96
-                + t * (0.096_784_18 + t * (-0.186_288_06 + t * (0.278_868_07 + t * (-1.135_203_98 + t * (1.488_515_87 + t * (-0.822_152_23 + t * 0.170_872_77)))))))))
-        .exp();
-    if x >= 0.0 {
-        r
-    } else {
-        2.0 - r
-    }
-}
-
-/// Inverse of the standard normal distribution function for p in (0, 1): Acklam's rational approximation
-/// (relative error below 1.2e-9; Acklam 2003, published on the author's web page).
-pub fn normal_quantile(p: f64) -> f64 {
-    const A: [f64; 6] = [-3.969_683_028_665_376e1, 2.209_460_984_245_205e2, -2.759_285_104_469_687e2, 1.383_577_518_672_69e2, -3.066_479_806_614_716e1, 2.506_628_277_459_239];
-    const B: [f64; 5] = [-5.447_609_879_822_406e1, 1.615_858_368_580_409e2, -1.556_989_798_598_866e2, 6.680_131_188_771_972e1, -1.328_068_155_288_572e1];
-    const C: [f64; 6] = [-7.784_894_002_430_293e-3, -3.223_964_580_411_365e-1, -2.400_758_277_161_838, -2.549_732_539_343_734, 4.374_664_141_464_968, 2.938_163_982_698_783];
-    const D: [f64; 4] = [7.784_695_709_041_462e-3, 3.224_671_290_700_398e-1, 2.445_134_137_142_996, 3.754_408_661_907_416];
-    let p = p.clamp(1e-300, 1.0 - 1e-16);
-    let p_low = 0.024_25;
-    if p < p_low {
-        let q = (-2.0 * p.ln()).sqrt();
-        (((((C[0] * q + C[1]) * q + C[2]) * q + C[3]) * q + C[4]) * q + C[5]) / ((((D[0] * q + D[1]) * q + D[2]) * q + D[3]) * q + 1.0)
-    } else if p <= 1.0 - p_low {
-        let q = p - 0.5;
-        let r = q * q;
-        (((((A[0] * r + A[1]) * r + A[2]) * r + A[3]) * r + A[4]) * r + A[5]) * q / (((((B[0] * r + B[1]) * r + B[2]) * r + B[3]) * r + B[4]) * r + 1.0)
-    } else {
-        let q = (-2.0 * (1.0 - p).ln()).sqrt();
-        -(((((C[0] * q + C[1]) * q + C[2]) * q + C[3]) * q + C[4]) * q + C[5]) / ((((D[0] * q + D[1]) * q + D[2]) * q + D[3]) * q + 1.0)
     }
 }
 

@@ -129,15 +129,15 @@ pub struct SampleRecord {
     pub z: Vec<f64>,
     /// How the run ended.
     pub status: SampleStatus,
-    /// Lifetime [s].
+    /// Lifetime \[s\].
     pub lifetime: Option<f64>,
-    /// Time at 50 % evaporated [s].
+    /// Time at 50 % evaporated \[s\].
     pub t50: Option<f64>,
-    /// Highest surface temperature [K].
+    /// Highest surface temperature \[K\].
     pub max_surface_temperature: Option<f64>,
     /// (d/d0)² on the time grid (0 after the droplet is gone) [-].
     pub d2: Vec<Option<f64>>,
-    /// Surface temperature on the time grid (none after the droplet is gone) [K].
+    /// Surface temperature on the time grid (none after the droplet is gone) \[K\].
     pub surface_temperature: Vec<Option<f64>>,
     /// Residue indicators ([`RESIDUE_KEYS`]) at each residue fraction (SI).
     pub residue: Vec<[Option<f64>; 6]>,
@@ -157,7 +157,7 @@ impl SampleRecord {
 /// Percentile bands of the droplet history on the common time grid.
 #[derive(Debug, Clone, Serialize)]
 pub struct HistoryBands {
-    /// Grid times [s].
+    /// Grid times \[s\].
     pub time: Vec<f64>,
     /// Grid times over the deterministic lifetime [-].
     pub normalised_time: Vec<f64>,
@@ -165,9 +165,9 @@ pub struct HistoryBands {
     pub d2: Vec<[Option<f64>; 3]>,
     /// Deterministic (d/d0)² [-].
     pub d2_deterministic: Vec<Option<f64>>,
-    /// Surface-temperature percentiles 5/50/95 over the droplets still present, where at least half are [K].
+    /// Surface-temperature percentiles 5/50/95 over the droplets still present, where at least half are \[K\].
     pub surface_temperature: Vec<[Option<f64>; 3]>,
-    /// Deterministic surface temperature [K].
+    /// Deterministic surface temperature \[K\].
     pub surface_temperature_deterministic: Vec<Option<f64>>,
     /// Fraction of the successful samples whose droplet is still present [-].
     pub present_fraction: Vec<f64>,
@@ -237,7 +237,7 @@ pub struct UncertaintyRun {
     pub notices: Vec<String>,
     /// The deterministic run.
     pub deterministic: SampleRecord,
-    /// Time that normalises the grid: the deterministic lifetime, else its end time [s].
+    /// Time that normalises the grid: the deterministic lifetime, else its end time \[s\].
     pub reference_time: f64,
     /// Every sample, in sample order.
     pub samples: Vec<SampleRecord>,
@@ -249,11 +249,11 @@ pub struct UncertaintyRun {
     pub sensitivity_inputs: Vec<SensitivityInput>,
     /// Rankings of every output in [`RANKED_OUTPUTS`], strongest first.
     pub sensitivity: Vec<SensitivityRow>,
-    /// Statistics of the lifetime [s].
+    /// Statistics of the lifetime \[s\].
     pub lifetime: Statistics,
-    /// Statistics of t50 [s].
+    /// Statistics of t50 \[s\].
     pub t50: Statistics,
-    /// Statistics of the highest surface temperature [K].
+    /// Statistics of the highest surface temperature \[K\].
     pub max_surface_temperature: Statistics,
     /// Statistics of each residue indicator at 50 % evaporated (when 50 % is one of the fractions).
     pub residue50: Option<[Statistics; 6]>,
@@ -632,7 +632,7 @@ pub fn overlaps(a: &UncertaintyRun, b: &UncertaintyRun) -> Vec<Overlap> {
         .collect()
 }
 
-/// Sorted finite values of the lifetimes of the successful samples [s] (for convergence checks).
+/// Sorted finite values of the lifetimes of the successful samples \[s\] (for convergence checks).
 pub fn lifetimes(run: &UncertaintyRun) -> Vec<f64> {
     sorted_finite(run.samples.iter().map(|s| s.lifetime))
 }

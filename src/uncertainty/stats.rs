@@ -2,6 +2,8 @@
 //! deviation, ranks with ties averaged, and Spearman's rank correlation. Missing values (`None`) are skipped;
 //! nothing here returns NaN.
 
+use crate::numerics::linalg;
+
 use serde::Serialize;
 
 /// The percentiles every band reports [%].
@@ -143,39 +145,19 @@ pub fn rank_r2(x: &[Vec<f64>], y: &[Option<f64>]) -> Option<f64> {
     if syy <= 0.0 {
         return None;
     }
-    // normal equations (XᵀX) b = Xᵀy, solved by Cholesky
-    let mut a = vec![vec![0.0; m]; m];
+    // normal equations (XᵀX) b = Xᵀy, XᵀX = L Lᵀ by Cholesky (nalgebra); a pivot at or below 1e-12 of its
+    // diagonal entry means a column with no variance, or collinear columns
+    let mut a = vec![0.0; m * m];
     let mut b = vec![0.0; m];
     for j in 0..m {
         b[j] = cols[j].iter().zip(&ry).map(|(p, q)| p * q).sum();
         for k in 0..=j {
-            let v: f64 = cols[j].iter().zip(&cols[k]).map(|(p, q)| p * q).sum();
-            a[j][k] = v;
-            a[k][j] = v;
+            a[j * m + k] = cols[j].iter().zip(&cols[k]).map(|(p, q)| p * q).sum();
         }
     }
-    let mut l = vec![vec![0.0; m]; m];
-    for j in 0..m {
-        let d = a[j][j] - l[j][..j].iter().map(|v| v * v).sum::<f64>();
-        if d <= 1e-12 * a[j][j].max(1e-300) {
-            return None; // a column with no variance, or collinear columns
-        }
-        let d = d.sqrt();
-        l[j][j] = d;
-        for i in j + 1..m {
-            let v = a[i][j] - l[i][..j].iter().zip(&l[j][..j]).map(|(p, q)| p * q).sum::<f64>();
-            l[i][j] = v / d;
-        }
-    }
+    let l = linalg::cholesky(&a, m, 1e-12)?;
     // solve L w = Xᵀy; then R² = |w|² / yᵀy (since bᵀXᵀy = wᵀw)
-    let mut w = vec![0.0; m];
-    for i in 0..m {
-        let mut v = b[i];
-        for k in 0..i {
-            v -= l[i][k] * w[k];
-        }
-        w[i] = v / l[i][i];
-    }
+    let w = linalg::solve_lower(&l, &b)?;
     let r2 = (w.iter().map(|v| v * v).sum::<f64>() / syy).clamp(0.0, 1.0);
     let adjusted = 1.0 - (1.0 - r2) * (n - 1) as f64 / (n - m - 1) as f64;
     adjusted.is_finite().then_some(adjusted.clamp(0.0, 1.0))
@@ -259,5 +241,63 @@ mod tests {
         let mean: Vec<f64> = (0..n).map(|i| 0.5 * (a[i] + b[i])).collect();
         assert!(rank_r2(&[mean], &y2).unwrap() < 0.05);
         assert!(rank_r2(&[a, b], &y2).unwrap() > 0.97);
+    }
+
+    /// The hand-written Cholesky solve this module used before nalgebra: |w|² for L w = Xᵀy, XᵀX = L Lᵀ.
+    fn old_explained(cols: &[Vec<f64>], ry: &[f64]) -> Option<f64> {
+        let m = cols.len();
+        let mut a = vec![vec![0.0; m]; m];
+        let mut b = vec![0.0; m];
+        for j in 0..m {
+            b[j] = cols[j].iter().zip(ry).map(|(p, q)| p * q).sum();
+            for k in 0..=j {
+                let v: f64 = cols[j].iter().zip(&cols[k]).map(|(p, q)| p * q).sum();
+                a[j][k] = v;
+                a[k][j] = v;
+            }
+        }
+        let mut l = vec![vec![0.0; m]; m];
+        for j in 0..m {
+            let d = a[j][j] - l[j][..j].iter().map(|v| v * v).sum::<f64>();
+            if d <= 1e-12 * a[j][j].max(1e-300) {
+                return None;
+            }
+            let d = d.sqrt();
+            l[j][j] = d;
+            for i in j + 1..m {
+                let v = a[i][j] - l[i][..j].iter().zip(&l[j][..j]).map(|(p, q)| p * q).sum::<f64>();
+                l[i][j] = v / d;
+            }
+        }
+        let mut w = vec![0.0; m];
+        for i in 0..m {
+            let mut v = b[i];
+            for k in 0..i {
+                v -= l[i][k] * w[k];
+            }
+            w[i] = v / l[i][i];
+        }
+        Some(w.iter().map(|v| v * v).sum())
+    }
+
+    #[test]
+    fn rank_regression_through_nalgebra_matches_the_old_cholesky() {
+        let n = 300;
+        let centred = |v: Vec<f64>| -> Vec<f64> { ranks(&v).into_iter().map(|q| q - (n as f64 + 1.0) / 2.0).collect() };
+        let cols: Vec<Vec<f64>> = (0..4).map(|k| (0..n).map(|i| ((i * (7919 + 104 * k) + 31 * k) % n) as f64 + 0.1 * (i as f64 * (k as f64 + 1.0)).sin()).collect()).collect();
+        let y: Vec<Option<f64>> = (0..n).map(|i| Some(cols[0][i] + 0.5 * cols[1][i] - 0.2 * cols[3][i] + ((i * 37) % 11) as f64)).collect();
+        let ry = centred(y.iter().map(|v| v.unwrap()).collect());
+        let syy: f64 = ry.iter().map(|v| v * v).sum();
+        for m in 1..=4 {
+            let rc: Vec<Vec<f64>> = cols[..m].iter().map(|c| centred(c.clone())).collect();
+            let r2_old = (old_explained(&rc, &ry).unwrap() / syy).clamp(0.0, 1.0);
+            let adjusted_old = (1.0 - (1.0 - r2_old) * (n - 1) as f64 / (n - m - 1) as f64).clamp(0.0, 1.0);
+            let new = rank_r2(&cols[..m], &y).unwrap();
+            assert!((new - adjusted_old).abs() < 1e-12, "m = {m}: {new} vs {adjusted_old}");
+        }
+        // collinear columns: both refuse
+        let twin = vec![cols[0].clone(), cols[0].clone()];
+        assert!(rank_r2(&twin, &y).is_none());
+        assert!(old_explained(&[centred(cols[0].clone()), centred(cols[0].clone())], &ry).is_none());
     }
 }

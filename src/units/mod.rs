@@ -25,17 +25,17 @@ pub enum UnitError {
 /// Kind of physical quantity, used to choose the accepted units.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Quantity {
-    /// Absolute temperature [K].
+    /// Absolute temperature \[K\].
     Temperature,
-    /// Temperature difference [K].
+    /// Temperature difference \[K\].
     TemperatureDifference,
-    /// Pressure [Pa].
+    /// Pressure \[Pa\].
     Pressure,
-    /// Length [m].
+    /// Length \[m\].
     Length,
     /// Velocity [m/s].
     Velocity,
-    /// Time [s].
+    /// Time \[s\].
     Time,
     /// Dimensionless number.
     Dimensionless,

@@ -339,7 +339,7 @@ pub struct CellRow {
     pub mass_percent: f64,
     /// Component id used.
     pub component: String,
-    /// "library", "library (map)" or "estimated (<method>)".
+    /// `"library"`, `"library (map)"` or `"estimated (<method>)"`.
     pub how: String,
     /// Structural distance of a library component to the representative (0 = same groups).
     pub structure_distance: Option<u32>,

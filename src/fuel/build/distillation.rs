@@ -21,225 +21,16 @@
 //!    points between 5 and 95 %; the cut boiling points are shifted by the interpolated residual and steps
 //!    3–4 repeated until the residual is below 0.05 K. The shift is reported per cut.
 
-use std::path::Path;
+use crate::numerics::interp::{self, Extrapolation};
+use crate::data::{HydrocarbonClass, Library, GAS_CONSTANT};
 
-use crate::data::{suggest, HydrocarbonClass, Library, GAS_CONSTANT};
-use crate::units::{self, Quantity};
-
+pub use super::curve::{check_density, CurveKind, DistillationCurve};
 use super::petroleum::{self as pet, CutConstants};
 /// Largest relative difference between a pseudo-component's molar mass and its formula's mass: below the 10 %
 /// the component loader accepts for petroleum fractions, so every built fuel loads.
 const FORMULA_MASS_TOLERANCE: f64 = 0.08;
 
 use super::{formula_molar_mass, fuel_file_text, input_error, read_back, BuildError, BuiltFuel, ComponentSpec, CompositionLine, CpPolynomial, CurveSimulator, Value};
-
-/// Kind of distillation curve.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
-#[serde(rename_all = "kebab-case")]
-pub enum CurveKind {
-    /// ASTM D86 (single-stage batch distillation, thermometer in the vapour).
-    D86,
-    /// True boiling point (ASTM D2892 or simulated distillation by GC, ASTM D2887).
-    Tbp,
-}
-
-impl CurveKind {
-    /// Name as written in files.
-    pub fn as_str(self) -> &'static str {
-        match self {
-            CurveKind::D86 => "d86",
-            CurveKind::Tbp => "tbp",
-        }
-    }
-}
-
-/// A measured distillation curve.
-#[derive(Debug, Clone, PartialEq)]
-pub struct DistillationCurve {
-    /// Fuel name.
-    pub name: String,
-    /// Description.
-    pub description: String,
-    /// Curve kind.
-    pub kind: CurveKind,
-    /// (volume % recovered, temperature [K]), increasing.
-    pub points: Vec<(f64, f64)>,
-    /// 15 °C density given in the file [kg/m³].
-    pub density_15c: Option<f64>,
-    /// Where the curve came from.
-    pub origin: String,
-}
-
-fn parse_kind(text: &str, context: &str) -> Result<CurveKind, BuildError> {
-    match text.trim().to_ascii_lowercase().as_str() {
-        "d86" | "astm-d86" => Ok(CurveKind::D86),
-        "tbp" | "true-boiling-point" | "d2887" | "d2892" => Ok(CurveKind::Tbp),
-        other => Err(input_error(context, format!("curve '{other}' is not d86 or tbp{}", suggest(other, ["d86", "tbp"].into_iter())))),
-    }
-}
-
-fn parse_percent(key: &str, context: &str) -> Result<f64, BuildError> {
-    let k = key.trim();
-    let p = match k.to_ascii_uppercase().as_str() {
-        "IBP" => 0.0,
-        "FBP" | "EP" => 100.0,
-        _ => k.trim_end_matches('%').trim().parse::<f64>().map_err(|_| input_error(context, format!("'{k}' is not a percentage recovered (a number 0–100, IBP or FBP)")))?,
-    };
-    if !(p.is_finite() && (0.0..=100.0).contains(&p)) {
-        return Err(input_error(context, format!("percentage recovered {p} is outside 0–100")));
-    }
-    Ok(p)
-}
-
-fn temperature_unit(text: &str, context: &str) -> Result<String, BuildError> {
-    match text.trim() {
-        "K" => Ok("K".into()),
-        "degC" | "C" | "°C" => Ok("degC".into()),
-        "degF" | "F" | "°F" => Ok("degF".into()),
-        other => Err(input_error(context, format!("temperature unit '{other}' is not K, degC or degF"))),
-    }
-}
-
-fn parse_density(text: &str, context: &str) -> Result<f64, BuildError> {
-    let rho = units::parse(text, Quantity::Density).map_err(|e| input_error(context, e.to_string()))?;
-    check_density(rho, context)
-}
-
-/// Check a 15 °C density is a plausible liquid-fuel density [kg/m³].
-pub fn check_density(rho: f64, context: &str) -> Result<f64, BuildError> {
-    if !(rho.is_finite() && (550.0..=1100.0).contains(&rho)) {
-        return Err(input_error(context, format!("density {rho} kg/m³ is outside 550–1100 kg/m³")));
-    }
-    Ok(rho)
-}
-
-impl DistillationCurve {
-    /// Read a curve: `.csv` as CSV, anything else as TOML (docs/fuel-from-lab-data.md).
-    pub fn read(path: &Path) -> Result<Self, BuildError> {
-        super::read_csv_or_toml(path, Self::parse_csv, Self::parse_toml)
-    }
-
-    /// Parse the TOML form: `curve = "d86" | "tbp"`, `temperature-unit`, optional `name`, `description`,
-    /// `density-15C = "799 kg/m3"` or `specific-gravity = 0.8`, and `[points]` with `IBP = 155`, `10 = 171`, ...
-    /// (values are numbers in `temperature-unit` or strings with a unit such as "171 degC").
-    pub fn parse_toml(text: &str, file: &str, default_name: &str) -> Result<Self, BuildError> {
-        let root: toml::Table = toml::from_str(text).map_err(|e| input_error(file, crate::data::toml_error_at(&e, text)))?;
-        let mut curve = DistillationCurve { name: default_name.into(), description: String::new(), kind: CurveKind::D86, points: vec![], density_15c: None, origin: file.into() };
-        let mut kind = None;
-        let mut unit = None;
-        let mut raw_points = None;
-        for (key, value) in &root {
-            let ctx = format!("{file}: {key}");
-            let text_of = |v: &toml::Value| v.as_str().map(str::to_string).ok_or_else(|| input_error(&ctx, "must be a string"));
-            match key.as_str() {
-                "name" => curve.name = text_of(value)?,
-                "description" => curve.description = text_of(value)?,
-                "curve" => kind = Some(parse_kind(&text_of(value)?, &ctx)?),
-                "temperature-unit" => unit = Some(temperature_unit(&text_of(value)?, &ctx)?),
-                "density-15C" => curve.density_15c = Some(parse_density(&text_of(value)?, &ctx)?),
-                "specific-gravity" => {
-                    let sg = value.as_float().ok_or_else(|| input_error(&ctx, "must be a number"))?;
-                    curve.density_15c = Some(check_density(sg * pet::WATER_DENSITY_60F, &ctx)?);
-                }
-                "points" => raw_points = Some(value.as_table().ok_or_else(|| input_error(&ctx, "must be a table of percent = temperature"))?.clone()),
-                other => {
-                    let known = ["name", "description", "curve", "temperature-unit", "density-15C", "specific-gravity", "points"];
-                    return Err(input_error(ctx, format!("unknown key '{other}'{}", suggest(other, known.into_iter()))));
-                }
-            }
-        }
-        curve.kind = kind.ok_or_else(|| input_error(file, "missing key 'curve' (\"d86\" or \"tbp\")"))?;
-        let raw_points = raw_points.ok_or_else(|| input_error(file, "missing [points] (percent recovered = temperature)"))?;
-        for (key, value) in &raw_points {
-            let ctx = format!("{file}: points.{key}");
-            let p = parse_percent(key, &ctx)?;
-            let t = match value {
-                toml::Value::String(s) => units::parse(s, Quantity::Temperature).map_err(|e| input_error(&ctx, e.to_string()))?,
-                v => {
-                    let x = v.as_float().or_else(|| v.as_integer().map(|i| i as f64)).ok_or_else(|| input_error(&ctx, format!("{v} is not a temperature")))?;
-                    let u = unit.as_deref().ok_or_else(|| input_error(&ctx, "plain numbers need temperature-unit = \"K\", \"degC\" or \"degF\""))?;
-                    units::parse(&format!("{x}{u}"), Quantity::Temperature).map_err(|e| input_error(&ctx, e.to_string()))?
-                }
-            };
-            curve.points.push((p, t));
-        }
-        curve.finish()?;
-        Ok(curve)
-    }
-
-    /// Parse the CSV form: `#` metadata lines (`# curve: d86`, `# name:`, `# description:`,
-    /// `# density-15C: 799 kg/m3`), a header `percent_recovered,temperature_<K|degC|degF>` and one row per point
-    /// (percent may be IBP or FBP).
-    pub fn parse_csv(text: &str, file: &str, default_name: &str) -> Result<Self, BuildError> {
-        let mut curve = DistillationCurve { name: default_name.into(), description: String::new(), kind: CurveKind::D86, points: vec![], density_15c: None, origin: file.into() };
-        let mut kind = None;
-        let mut unit: Option<String> = None;
-        for (i, line) in text.lines().enumerate() {
-            let ctx = format!("{file}: line {}", i + 1);
-            let line = line.trim();
-            if line.is_empty() {
-                continue;
-            }
-            if let Some(meta) = line.strip_prefix('#') {
-                if let Some((key, value)) = meta.split_once(':') {
-                    match key.trim().to_ascii_lowercase().as_str() {
-                        "name" => curve.name = value.trim().into(),
-                        "description" => curve.description = value.trim().into(),
-                        "curve" => kind = Some(parse_kind(value, &ctx)?),
-                        "density-15c" => curve.density_15c = Some(parse_density(value.trim(), &ctx)?),
-                        _ => {}
-                    }
-                }
-                continue;
-            }
-            let cells: Vec<&str> = line.split(',').map(str::trim).collect();
-            if cells.len() != 2 {
-                return Err(input_error(ctx, format!("expected 2 columns (percent, temperature), found {}", cells.len())));
-            }
-            if unit.is_none() {
-                let u = cells[1].strip_prefix("temperature_").ok_or_else(|| input_error(&ctx, format!("header '{}' must be temperature_K, temperature_degC or temperature_degF", cells[1])))?;
-                unit = Some(temperature_unit(u, &ctx)?);
-                continue;
-            }
-            let p = parse_percent(cells[0], &ctx)?;
-            let u = unit.as_deref().unwrap_or("K");
-            let x: f64 = cells[1].parse().map_err(|_| input_error(&ctx, format!("'{}' is not a number", cells[1])))?;
-            let t = units::parse(&format!("{x}{u}"), Quantity::Temperature).map_err(|e| input_error(&ctx, e.to_string()))?;
-            curve.points.push((p, t));
-        }
-        curve.kind = kind.ok_or_else(|| input_error(file, "missing metadata line '# curve: d86' (or tbp)"))?;
-        curve.finish()?;
-        Ok(curve)
-    }
-
-    /// Sort and check: at least three points, distinct percentages, temperatures 150–1000 K and strictly
-    /// increasing with the percentage recovered.
-    fn finish(&mut self) -> Result<(), BuildError> {
-        let f = self.origin.clone();
-        self.points.sort_by(|a, b| a.0.total_cmp(&b.0));
-        if self.points.len() < 3 {
-            return Err(input_error(f, format!("{} points: a distillation curve needs at least 3", self.points.len())));
-        }
-        for (p, t) in &self.points {
-            if !(t.is_finite() && (150.0..=1000.0).contains(t)) {
-                return Err(input_error(&f, format!("temperature at {p} % is {t:.2} K, outside 150–1000 K")));
-            }
-        }
-        for w in self.points.windows(2) {
-            let ((p0, t0), (p1, t1)) = (w[0], w[1]);
-            if (p1 - p0).abs() < 1e-9 {
-                return Err(input_error(&f, format!("percentage {p0} is given twice")));
-            }
-            if t1 <= t0 {
-                return Err(input_error(
-                    &f,
-                    format!("temperatures must increase with % recovered: {:.2} °C at {p1} % is not above {:.2} °C at {p0} %", t1 - 273.15, t0 - 273.15),
-                ));
-            }
-        }
-        Ok(())
-    }
-}
 
 /// Critical-constant correlation.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
@@ -316,7 +107,7 @@ pub const DEFAULT_PSEUDO_COMPONENTS: usize = 12;
 pub const PSEUDO_RANGE: std::ops::RangeInclusive<usize> = 3..=60;
 /// Calibration points lie between these percentages recovered [%].
 pub const CALIBRATION_RANGE: (f64, f64) = (5.0, 95.0);
-/// Calibration stops when every residual is below this [K].
+/// Calibration stops when every residual is below this \[K\].
 pub const CALIBRATION_TOLERANCE: f64 = 0.05;
 /// Most calibration iterations.
 pub const CALIBRATION_ITERATIONS: usize = 30;
@@ -331,17 +122,17 @@ pub struct CutRow {
     pub from_percent: f64,
     /// Cut end [% recovered].
     pub to_percent: f64,
-    /// Volume-average TBP of the cut before calibration [K].
+    /// Volume-average TBP of the cut before calibration \[K\].
     pub tbp_K: f64,
-    /// Boiling point used [K].
+    /// Boiling point used \[K\].
     pub boiling_point_K: f64,
     /// Specific gravity 60/60 °F [-].
     pub specific_gravity: f64,
     /// Molar mass [kg/mol].
     pub molar_mass_kg_mol: f64,
-    /// Critical temperature [K].
+    /// Critical temperature \[K\].
     pub critical_temperature_K: f64,
-    /// Critical pressure [Pa].
+    /// Critical pressure \[Pa\].
     pub critical_pressure_Pa: f64,
     /// Acentric factor [-].
     pub acentric_factor: f64,
@@ -361,13 +152,13 @@ pub struct CutRow {
 pub struct CurvePoint {
     /// Volume % recovered.
     pub percent: f64,
-    /// Input temperature [K] (as given: D86 or TBP).
+    /// Input temperature \[K\] (as given: D86 or TBP).
     pub input_K: f64,
-    /// Input on the D86 scale [K] (a TBP input converted by the inverse Riazi–Daubert 1986 law).
+    /// Input on the D86 scale \[K\] (a TBP input converted by the inverse Riazi–Daubert 1986 law).
     pub input_d86_K: f64,
-    /// Simulated single-stage distillation of the built fuel [K].
+    /// Simulated single-stage distillation of the built fuel \[K\].
     pub simulated_K: f64,
-    /// simulated − input on the D86 scale [K].
+    /// simulated − input on the D86 scale \[K\].
     pub error_K: f64,
 }
 
@@ -397,25 +188,12 @@ pub struct DistillationReport {
 
 /// Linear interpolation in a sorted (x, y) table with linear extrapolation from the end segments.
 fn interp_extrap(points: &[(f64, f64)], x: f64) -> f64 {
-    let n = points.len();
-    let i = match points.iter().position(|p| p.0 >= x) {
-        Some(0) => 1,
-        Some(i) => i,
-        None => n - 1,
-    };
-    let ((x0, y0), (x1, y1)) = (points[i - 1], points[i]);
-    y0 + (y1 - y0) * (x - x0) / (x1 - x0)
+    interp::linear(points, x, Extrapolation::Linear).unwrap_or(0.0)
 }
 
 /// Linear interpolation held flat beyond the ends.
 fn interp_flat(points: &[(f64, f64)], x: f64) -> f64 {
-    if x <= points[0].0 {
-        return points[0].1;
-    }
-    if x >= points[points.len() - 1].0 {
-        return points[points.len() - 1].1;
-    }
-    interp_extrap(points, x)
+    interp::linear(points, x, Extrapolation::Hold).unwrap_or(0.0)
 }
 
 /// Volume-average of a piecewise-linear curve over [a, b] (exact for the linear pieces: the breakpoints are

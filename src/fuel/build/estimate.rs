@@ -46,7 +46,7 @@ const CG_GROUPS: [(&str, f64, f64, f64, f64); 4] = [
     ("C", 0.2878, 4.8823, -0.010404, -0.00034),
 ];
 
-/// Constantinou–Gani first-order estimates (Tb [K], Tc [K], pc [Pa], Vc [m³/mol]) for groups among
+/// Constantinou–Gani first-order estimates (Tb \[K\], Tc \[K\], pc \[Pa\], Vc [m³/mol]) for groups among
 /// CH3 CH2 CH C; None when another group is present.
 pub fn constantinou_gani(groups: &joback::Groups) -> Option<(f64, f64, f64, f64)> {
     let mut s = [0.0; 4];
@@ -262,7 +262,7 @@ pub fn class_trend_cetane(lib: &Library, class: HydrocarbonClass, n: u32) -> (f6
 pub struct EstimateOptions {
     /// Method for Tb, Tc, pc, Vc.
     pub method: GroupMethod,
-    /// A measured normal boiling point to use instead of the estimate [K] (Joback Tc then uses it).
+    /// A measured normal boiling point to use instead of the estimate \[K\] (Joback Tc then uses it).
     pub boiling_point: Option<f64>,
     /// Class to write (inferred from the groups when None).
     pub class: Option<HydrocarbonClass>,

@@ -8,6 +8,7 @@
 //! simulated distillation, which lives in a higher layer; the caller passes it in as a [`CurveSimulator`].
 
 pub mod classes;
+pub mod curve;
 pub mod distillation;
 pub mod estimate;
 pub mod petroleum;
@@ -65,7 +66,7 @@ pub(crate) fn input_error(context: impl Into<String>, message: impl Into<String>
 }
 
 /// Simulated distillation used to calibrate distillation cuts: (fuel, evaporated volume fractions in 0..1)
-/// → temperatures [K] at 1 atm. The CLI and the checks pass `post::indicators::distillation_temperatures`.
+/// → temperatures \[K\] at 1 atm. The CLI and the checks pass `post::indicators::distillation_temperatures`.
 pub type CurveSimulator<'a> = dyn Fn(&Fuel, &[f64]) -> Result<Vec<f64>, String> + 'a;
 
 /// A number with its source, as written into a component file.
@@ -96,9 +97,9 @@ impl Value {
 pub struct CpPolynomial {
     /// Coefficients c0..c3 [J/(mol·K), T in K].
     pub coefficients: Vec<f64>,
-    /// Lowest temperature of use [K].
+    /// Lowest temperature of use \[K\].
     pub t_min: f64,
-    /// Highest temperature of use; held constant above [K].
+    /// Highest temperature of use; held constant above \[K\].
     pub t_max: f64,
     /// Source marker.
     pub source: String,

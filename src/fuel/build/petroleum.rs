@@ -17,6 +17,7 @@
 //! - Won (1986) n-paraffin melting point: L (recalled; checked here against library n-alkanes).
 //! - Edmister (1958), Lee–Kesler (1975) Zc: M.
 
+use crate::numerics::interp::{self, Extrapolation};
 use crate::data::GAS_CONSTANT;
 
 /// Density of water at 60 °F used to turn a 15 °C density into a specific gravity [kg/m³].
@@ -32,7 +33,7 @@ pub fn watson_k(tb: f64, sg: f64) -> f64 {
     (1.8 * tb).cbrt() / sg
 }
 
-/// Specific gravity of a cut with boiling point `tb` [K] at a given Watson factor [-].
+/// Specific gravity of a cut with boiling point `tb` \[K\] at a given Watson factor [-].
 pub fn sg_from_watson(tb: f64, k_w: f64) -> f64 {
     (1.8 * tb).cbrt() / k_w
 }
@@ -40,16 +41,16 @@ pub fn sg_from_watson(tb: f64, k_w: f64) -> f64 {
 /// Critical constants and molar mass of a cut.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct CutConstants {
-    /// Critical temperature [K].
+    /// Critical temperature \[K\].
     pub critical_temperature: f64,
-    /// Critical pressure [Pa].
+    /// Critical pressure \[Pa\].
     pub critical_pressure: f64,
     /// Molar mass [kg/mol].
     pub molar_mass: f64,
 }
 
 /// Riazi & Daubert (1980), Hydrocarbon Processing 59(3) 115: θ = a Tb^b SG^c with Tb in K;
-/// Tc [K], pc [bar], W [g/mol]. Returned in SI.
+/// Tc \[K\], pc \[bar\], W [g/mol]. Returned in SI.
 pub fn riazi_daubert_1980(tb: f64, sg: f64) -> CutConstants {
     let tc = 19.06232 * tb.powf(0.58848) * sg.powf(0.3596);
     let pc_bar = 5.53027e7 * tb.powf(-2.3125) * sg.powf(2.3201);
@@ -58,7 +59,7 @@ pub fn riazi_daubert_1980(tb: f64, sg: f64) -> CutConstants {
 }
 
 /// Riazi & Daubert (1987), Ind. Eng. Chem. Res. 26, 755: θ = a exp(b Tb + c SG + d Tb SG) Tb^e SG^f with Tb
-/// in K; W [g/mol], Tc [K], pc [bar]. Returned in SI.
+/// in K; W [g/mol], Tc \[K\], pc \[bar\]. Returned in SI.
 pub fn riazi_daubert_1987(tb: f64, sg: f64) -> CutConstants {
     let f = |a: f64, b: f64, c: f64, d: f64, e: f64, g: f64| a * (b * tb + c * sg + d * tb * sg).exp() * tb.powf(e) * sg.powf(g);
     let w = f(42.965, 2.097e-4, -7.78712, 2.08476e-3, 1.26007, 4.98308);
@@ -100,30 +101,22 @@ pub fn d86_tbp_coefficients(percent: f64) -> (f64, f64, bool) {
     (D86_TBP_A[j - 1] + s * (D86_TBP_A[j] - D86_TBP_A[j - 1]), D86_TBP_B[j - 1] + s * (D86_TBP_B[j] - D86_TBP_B[j - 1]), false)
 }
 
-/// True-boiling-point temperature [K] from an ASTM D86 temperature [K] at `percent` recovered
+/// True-boiling-point temperature \[K\] from an ASTM D86 temperature \[K\] at `percent` recovered
 /// (Riazi & Daubert 1986: TBP = a D86^b, temperatures in K).
 pub fn d86_to_tbp(percent: f64, d86: f64) -> f64 {
     let (a, b, _) = d86_tbp_coefficients(percent);
     a * d86.powf(b)
 }
 
-/// Inverse of [`d86_to_tbp`]: the D86 temperature [K] that converts to `tbp` [K] at `percent` recovered.
+/// Inverse of [`d86_to_tbp`]: the D86 temperature \[K\] that converts to `tbp` \[K\] at `percent` recovered.
 pub fn tbp_to_d86(percent: f64, tbp: f64) -> f64 {
     let (a, b, _) = d86_tbp_coefficients(percent);
     (tbp / a).powf(1.0 / b)
 }
 
+/// Linear interpolation in sorted (x, y) points, held flat beyond the ends (0 for no points).
 fn interp_held(points: &[(f64, f64)], x: f64) -> f64 {
-    if x <= points[0].0 {
-        return points[0].1;
-    }
-    let last = points[points.len() - 1];
-    if x >= last.0 {
-        return last.1;
-    }
-    let i = points.iter().position(|p| p.0 >= x).unwrap_or(points.len() - 1).max(1);
-    let ((x0, y0), (x1, y1)) = (points[i - 1], points[i]);
-    y0 + (y1 - y0) * (x - x0) / (x1 - x0)
+    interp::linear(points, x, Extrapolation::Hold).unwrap_or(0.0)
 }
 
 /// Differences (percent, TBP − D86 [K]) at the tabulated percentages inside the curve's range: the curve
@@ -154,7 +147,7 @@ fn tabulated_differences(points: &[(f64, f64)], forward: bool) -> Vec<(f64, f64)
     d
 }
 
-/// Convert a D86 curve (sorted (percent, T [K]) points) to a TBP curve at the same percentages: the
+/// Convert a D86 curve (sorted (percent, T \[K\]) points) to a TBP curve at the same percentages: the
 /// Riazi–Daubert (1986) law at the tabulated percentages (0, 10, 30, 50, 70, 90, 95 %) within the curve's range,
 /// and in between the difference TBP − D86 interpolated linearly in percent (held beyond the outermost
 /// tabulated point, e.g. at 100 %). Exact at tabulated percentages.
@@ -177,7 +170,7 @@ pub fn riazi_carbon_hydrogen_ratio(tb: f64, sg: f64) -> f64 {
 
 /// Kesler & Lee (1976) ideal-gas heat capacity of a petroleum fraction, SI form (Riazi 2005): coefficients
 /// (p0, p1, p2) of cp = p0 + p1 T + p2 T² in J/(mol·K) with T in K, and the temperature above which the
-/// parabola turns down (cp must be held constant there) [K].
+/// parabola turns down (cp must be held constant there) \[K\].
 pub fn kesler_lee_cp_coefficients(k_w: f64, omega: f64, molar_mass: f64) -> ([f64; 3], f64) {
     let a0 = -1.41779 + 0.11828 * k_w;
     let a1 = -(6.99724 - 8.69326 * k_w + 0.27715 * k_w * k_w) * 1e-4;
@@ -206,7 +199,7 @@ pub fn lhv_from_hhv(hhv: f64, hydrogen_mass_fraction: f64) -> f64 {
 }
 
 /// ASTM D976 calculated cetane index (two-variable, SI form) from the 15 °C density [kg/m³] and the
-/// mid-boiling temperature [K]: CCI = 454.74 − 1641.416 D + 774.74 D² − 0.554 B + 97.803 (log10 B)²,
+/// mid-boiling temperature \[K\]: CCI = 454.74 − 1641.416 D + 774.74 D² − 0.554 B + 97.803 (log10 B)²,
 /// D in g/mL, B in °C. Intended for distillate fuels (about 30–60 CN); outside that, an extrapolation.
 pub fn astm_d976_cetane_index(density_15c: f64, mid_boiling_point: f64) -> f64 {
     let d = density_15c / 1e3;
@@ -215,7 +208,7 @@ pub fn astm_d976_cetane_index(density_15c: f64, mid_boiling_point: f64) -> f64 {
 }
 
 /// Won (1986) melting point of the n-paraffin of molar mass `molar_mass` [kg/mol]:
-/// Tm = 374.5 + 0.02617 W − 20172/W (W in g/mol) [K].
+/// Tm = 374.5 + 0.02617 W − 20172/W (W in g/mol) \[K\].
 pub fn won_n_paraffin_melting_point(molar_mass: f64) -> f64 {
     let w = molar_mass * 1e3;
     374.5 + 0.02617 * w - 20172.0 / w

@@ -159,63 +159,8 @@ fn binomial(n: usize, k: usize) -> f64 {
     (0..k).fold(1.0, |acc, i| acc * (n - i) as f64 / (i + 1) as f64)
 }
 
-/// Solve the linear least-squares problem min ‖A c − b‖ by Householder QR with column equilibration.
-/// `rows` holds the rows of A. None when the problem is rank-deficient or has fewer rows than columns.
-pub fn least_squares(rows: &[Vec<f64>], rhs: &[f64]) -> Option<Vec<f64>> {
-    let m = rows.len();
-    let n = rows.first()?.len();
-    if n == 0 || m < n || rhs.len() != m || rows.iter().any(|r| r.len() != n) {
-        return None;
-    }
-    // column scaling
-    let mut scale = vec![0.0f64; n];
-    for r in rows {
-        for (s, v) in scale.iter_mut().zip(r) {
-            *s = s.max(v.abs());
-        }
-    }
-    if scale.iter().any(|s| !(s.is_finite() && *s > 0.0)) {
-        return None;
-    }
-    // column-major copy of the scaled matrix
-    let mut a: Vec<Vec<f64>> = (0..n).map(|j| rows.iter().map(|r| r[j] / scale[j]).collect()).collect();
-    let mut b = rhs.to_vec();
-    for k in 0..n {
-        let norm = a[k][k..].iter().map(|v| v * v).sum::<f64>().sqrt();
-        if norm.is_nan() || norm <= 1e-13 {
-            return None;
-        }
-        let alpha = if a[k][k] > 0.0 { -norm } else { norm };
-        let mut v: Vec<f64> = a[k][k..].to_vec();
-        v[0] -= alpha;
-        let vnorm2: f64 = v.iter().map(|x| x * x).sum();
-        if vnorm2 > 0.0 {
-            for col in a.iter_mut().skip(k) {
-                let dot: f64 = v.iter().zip(&col[k..]).map(|(x, y)| x * y).sum();
-                let f = 2.0 * dot / vnorm2;
-                for (c, x) in col[k..].iter_mut().zip(&v) {
-                    *c -= f * x;
-                }
-            }
-            let dot: f64 = v.iter().zip(&b[k..]).map(|(x, y)| x * y).sum();
-            let f = 2.0 * dot / vnorm2;
-            for (c, x) in b[k..].iter_mut().zip(&v) {
-                *c -= f * x;
-            }
-        }
-    }
-    // back substitution on R (upper triangle of a, column-major)
-    let mut c = vec![0.0; n];
-    for i in (0..n).rev() {
-        let mut s = b[i];
-        for j in i + 1..n {
-            s -= a[j][i] * c[j];
-        }
-        c[i] = s / a[i][i];
-    }
-    let out: Vec<f64> = c.iter().zip(&scale).map(|(c, s)| c / s).collect();
-    out.iter().all(|v| v.is_finite()).then_some(out)
-}
+/// Linear least squares (the one implementation, in `numerics`), re-exported for the fits.
+pub use crate::numerics::linalg::least_squares;
 
 /// Fit `values` at `temperatures` with the given form and variable; the lowest degree (0..=4, and below the
 /// number of points) that meets [`TARGET_RELATIVE_ERROR`], else the highest. Linear forms are fitted with

@@ -38,10 +38,9 @@ pub struct VaporState {
 /// Equilibrium vapour of a liquid at `t` (modified Raoult's law): mole fractions ∝ x_i γ_i p_sat,i(T), as mass
 /// fractions (γ from `activity`; 1 for the ideal liquid).
 pub fn equilibrium_vapor_mass_fractions(components: &[Arc<Component>], activity: &mut Activity, mole_fractions: &[f64], t: f64) -> Vec<f64> {
-    let gamma = activity.gammas(mole_fractions, t);
-    let y: Vec<f64> = components.iter().zip(mole_fractions).zip(gamma).map(|((c, x), g)| x * g * c.vapor_pressure(t) * c.molar_mass()).collect();
-    let s: f64 = y.iter().sum();
-    y.iter().map(|v| if s > 0.0 { v / s } else { 0.0 }).collect()
+    let mut out = vec![0.0; components.len()];
+    activity.equilibrium_vapor_mass_fractions(components, mole_fractions, t, &mut out);
+    out
 }
 
 /// Vapour of mass fractions `vapor_mass_fractions` (summing to 1) at `t` and `p` in `gas`.

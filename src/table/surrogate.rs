@@ -14,8 +14,8 @@
 //!
 //! At the reference condition `g` is found for each `f` so that the surrogate's droplet lifetime equals the
 //! mixture's (inner root find on ln g), and `f` so that the time to 10 % evaporated (t10, the heat-up measure)
-//! matches as well (outer root find on ln f). Both root finds bracket first and then use the Illinois
-//! variant of regula falsi, so they cannot diverge. When t10 cannot be matched within the bracket the
+//! matches as well (outer root find on ln f). Both root finds bracket first and then use Brent's method
+//! (`numerics::root`), so they cannot diverge. When t10 cannot be matched within the bracket the
 //! lifetime is still matched and the t10 error is reported. The fit uses the well-mixed (rapid-mixing,
 //! uniform-temperature) droplet model.
 
@@ -32,6 +32,7 @@ use crate::props::gas::AmbientGas;
 use crate::props::liquid;
 
 use super::fit::{fit_property, least_squares, relative_error, FitForm, FitVariable};
+use crate::numerics::root::{brent_from, Tolerance};
 use super::{range_limits, vapor_state, TableError};
 
 /// Source marker of every surrogate value.
@@ -243,24 +244,9 @@ fn surrogate_id(name: &str) -> String {
     }
 }
 
-/// Bisection for an increasing function on [lo, hi]; None without a sign change.
-fn bisect(mut f: impl FnMut(f64) -> f64, mut lo: f64, mut hi: f64) -> Option<f64> {
-    let (flo, fhi) = (f(lo), f(hi));
-    if !(flo <= 0.0 && fhi >= 0.0) {
-        return None;
-    }
-    for _ in 0..200 {
-        let mid = 0.5 * (lo + hi);
-        if f(mid) < 0.0 {
-            lo = mid;
-        } else {
-            hi = mid;
-        }
-        if hi - lo <= 1e-12 * hi.abs().max(1.0) {
-            break;
-        }
-    }
-    Some(0.5 * (lo + hi))
+/// Root of an increasing function on [lo, hi] (Brent's method, `numerics`); None without a sign change.
+fn increasing_root(f: impl FnMut(f64) -> f64, lo: f64, hi: f64) -> Option<f64> {
+    crate::numerics::root::brent(f, lo, hi, Tolerance::relative(1e-12)).ok().map(|r| r.x)
 }
 
 impl SurrogateBasis {
@@ -304,13 +290,13 @@ impl SurrogateBasis {
         let kv = fit("vapor-conductivity", fit_dippr100(&vts, &col(&|t| vapor(t).conductivity, &vts), "vapour conductivity"))?;
         // Fuller volume whose coefficient equals the mass-weighted mean of the components' coefficients.
         let target: f64 = comps.iter().zip(w).map(|(c, w)| w * gas.fuller_coefficient_of(c.molar_mass(), c.diffusion_volume())).sum();
-        let diffusion_volume = bisect(|v| target - gas.fuller_coefficient_of(molar_mass, v), 1.0, 1e5)
+        let diffusion_volume = increasing_root(|v| target - gas.fuller_coefficient_of(molar_mass, v), 1.0, 1e5)
             .ok_or_else(|| TableError::Fit("surrogate: no Fuller diffusion volume matches the mixture".into()))?;
         let limits = range_limits(comps, w, 101_325.0, crate::props::activity::ActivityModel::Ideal);
         let melting = limits.freezing_point.unwrap_or_else(|| kay(&|c| c.constants.melting_point.value));
         let (lr, vr) = (liquid_range, vapor_range);
         let vapor_pressure = correlation(Form::Dippr101(p), lr);
-        let tb = bisect(|t| vapor_pressure.eval(t).ln() - 101_325f64.ln(), 50.0, 2.0 * tc).unwrap_or_else(|| kay(&|c| c.normal_boiling_point()));
+        let tb = increasing_root(|t| vapor_pressure.eval(t).ln() - 101_325f64.ln(), 50.0, 2.0 * tc).unwrap_or_else(|| kay(&|c| c.normal_boiling_point()));
         let main = w.iter().enumerate().max_by(|a, b| a.1.total_cmp(b.1)).map(|(i, _)| i).unwrap_or(0);
         let atoms = |f: &dyn Fn(&Formula) -> u32| -> u32 { kay(&|c| f64::from(f(&c.formula))).round().max(0.0) as u32 };
         let base = Component {
@@ -366,7 +352,7 @@ impl SurrogateBasis {
         if let Form::Dippr106 { ref mut c, .. } = c.latent_heat.form {
             c[0] *= params.latent_heat_factor;
         }
-        let tb = bisect(|t| c.vapor_pressure.eval(t).ln() - 101_325f64.ln(), 50.0, 2.0 * c.critical_temperature());
+        let tb = increasing_root(|t| c.vapor_pressure.eval(t).ln() - 101_325f64.ln(), 50.0, 2.0 * c.critical_temperature());
         if let Some(tb) = tb {
             c.constants.normal_boiling_point.value = tb;
         }
@@ -500,36 +486,35 @@ impl Fitter<'_> {
                 self.target_life
             )));
         }
-        // Illinois regula falsi in ln g
-        let (mut lo, mut hi) = if a.residual < 0.0 { (a, b) } else { (b, a) };
+        // Brent's method in ln g from the bracket, keeping the best trial
+        let (lo, hi) = if a.residual < 0.0 { (a, b) } else { (b, a) };
         let mut best = if lo.residual.abs() < hi.residual.abs() { lo } else { hi };
-        let mut side = 0i8;
-        for _ in 0..60 {
-            let (x0, x1) = (lo.g.ln(), hi.g.ln());
-            let (mut r0, mut r1) = (lo.residual, hi.residual);
-            if side == -1 {
-                r1 *= 0.5;
-            } else if side == 1 {
-                r0 *= 0.5;
-            }
-            let mut x = x0 - r0 * (x1 - x0) / (r1 - r0);
-            if !(x.is_finite() && x > x0.min(x1) && x < x0.max(x1)) {
-                x = 0.5 * (x0 + x1);
-            }
-            let t = eval(self, x.exp())?;
-            if t.residual.abs() < best.residual.abs() {
-                best = t;
-            }
-            if t.residual.abs() <= LIFETIME_TOLERANCE || (x1 - x0).abs() < 1e-12 {
-                return Ok(best);
-            }
-            if t.residual < 0.0 {
-                lo = t;
-                side = if side == -1 { 0 } else { -1 };
-            } else {
-                hi = t;
-                side = if side == 1 { 0 } else { 1 };
-            }
+        let mut failure: Option<TableError> = None;
+        let tolerance = Tolerance::absolute(1e-12).with_f_abs(LIFETIME_TOLERANCE).with_max_iterations(60);
+        let _ = brent_from(
+            |x| {
+                if failure.is_some() {
+                    return f64::NAN;
+                }
+                match eval(self, x.exp()) {
+                    Ok(t) => {
+                        if t.residual.abs() < best.residual.abs() {
+                            best = t;
+                        }
+                        t.residual
+                    }
+                    Err(e) => {
+                        failure = Some(e);
+                        f64::NAN
+                    }
+                }
+            },
+            (lo.g.ln(), lo.residual),
+            (hi.g.ln(), hi.residual),
+            tolerance,
+        );
+        if let Some(e) = failure {
+            return Err(e);
         }
         Ok(best)
     }
@@ -602,30 +587,29 @@ pub fn fit_surrogate(fuel: &Fuel, gas: &AmbientGas, liquid_grid: &super::Tempera
             ta = t;
             step *= 1.5;
         }
-        if let Some((mut p, mut q)) = bracket {
-            let mut side = 0i8;
-            for _ in 0..40 {
-                let (mut rp, mut rq) = (p.1, q.1);
-                if side == -1 {
-                    rq *= 0.5;
-                } else if side == 1 {
-                    rp *= 0.5;
-                }
-                let mut u = p.0 - rp * (q.0 - p.0) / (rq - rp);
-                if !(u.is_finite() && u > p.0.min(q.0) && u < p.0.max(q.0)) {
-                    u = 0.5 * (p.0 + q.0);
-                }
-                let (t, r) = evaluate(&mut fitter, u, &mut g, &mut evals)?;
-                if r.abs() <= T10_TOLERANCE || (q.0 - p.0).abs() < 1e-10 {
-                    break;
-                }
-                if (r > 0.0) == (p.1 > 0.0) {
-                    p = (u, r, t);
-                    side = if side == 1 { 0 } else { 1 };
-                } else {
-                    q = (u, r, t);
-                    side = if side == -1 { 0 } else { -1 };
-                }
+        if let Some((p, q)) = bracket {
+            // Brent's method in ln f; every evaluation is kept in `evals` and the best one is chosen below
+            let mut failure: Option<TableError> = None;
+            let tolerance = Tolerance::absolute(1e-10).with_f_abs(T10_TOLERANCE).with_max_iterations(40);
+            let _ = brent_from(
+                |u| {
+                    if failure.is_some() {
+                        return f64::NAN;
+                    }
+                    match evaluate(&mut fitter, u, &mut g, &mut evals) {
+                        Ok((_, r)) => r,
+                        Err(e) => {
+                            failure = Some(e);
+                            f64::NAN
+                        }
+                    }
+                },
+                (p.0, p.1),
+                (q.0, q.1),
+                tolerance,
+            );
+            if let Some(e) = failure {
+                return Err(e);
             }
         }
         // the best evaluated point (all have the lifetime matched)

@@ -33,9 +33,12 @@ fn every_entry_reaches_every_front_end() {
         let help = long_help(cli.find_subcommand_mut(sub).unwrap());
         for c in CONDITIONS.iter() {
             assert!(help.contains(&format!("--{}", c.key)), "{sub} --help lacks --{}", c.key);
-            if c.kind != Kind::Flag {
-                assert!(help.contains(&format!("[default: {}]", c.default)), "{sub} --help lacks the default of --{}", c.key);
-            }
+            let default = match (c.kind, c.default) {
+                (Kind::Flag, _) => "default: off".to_string(),
+                (_, "") => "default: none".to_string(),
+                (_, d) => format!("[default: {d}]"),
+            };
+            assert!(help.contains(&default), "{sub} --help lacks the default of --{}", c.key);
             if !c.unit.is_empty() {
                 assert!(help.contains(c.unit), "{sub} --help lacks the unit {} of --{}", c.unit, c.key);
             }
@@ -125,7 +128,7 @@ fn a_new_condition_needs_only_a_registry_entry() {
     assert!(SweepSpec::parse(spec, "spec.toml", Path::new(""), &lib).unwrap_err().to_string().contains("unknown condition 'film-reference-weight'"));
 
     // uncertainty spreads: from a file and from the command line; the factor perturbs the new field
-    let u = UncertaintySpec::parse_with("[conditions]\nfilm-reference-weight = \"10%\"\n", "u.toml", &lib, registry).unwrap();
+    let u = UncertaintySpec::parse_with("properties = false\n[conditions]\nfilm-reference-weight = \"10%\"\n", "u.toml", &lib, registry).unwrap();
     let key = ConditionKey::parse_in(registry, "film-reference-weight").unwrap();
     assert!(u.conditions.contains_key(&key));
     let nominal = dropcut::conditions::build_inputs(registry, fuel, &lib, &[]).unwrap();

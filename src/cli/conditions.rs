@@ -91,7 +91,7 @@ pub fn condition_args(mut cmd: clap::Command, registry: &[Condition]) -> clap::C
                     .value_name(c.key.to_ascii_uppercase().replace('-', "_"))
                     .allow_hyphen_values(numeric)
                     .default_value(c.default)
-                    .help(format!("{} [{}]", c.help, c.value_help()))
+                    .help(format!("{} [{}{}]", c.help, c.value_help(), if c.default.is_empty() { "; default: none" } else { "" }))
             }
         };
         if c.long_help_only {

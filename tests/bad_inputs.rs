@@ -380,7 +380,7 @@ const CASES: &[Case] = &[
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--diameter", "50", "um"], ["--diameter", "50um"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--pressure", "10", "bar"], ["--pressure", "10bar"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--radiation", "hot"], ["radiation", "hot"]),
-    case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--radiation", "0K"], ["--radiation", "between 0 K and 5000 K"]),
+    case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--radiation", "0K"], ["--radiation = 0 K", "must be positive"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--radiation", "9000K"], ["--radiation", "5000 K"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--radiation", "ambient", "--absorption-efficiency", "1.5"], ["--absorption-efficiency", "1.5"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--radiation", "ambient", "--absorption-efficiency", "0"], ["--absorption-efficiency", "(0, 1]"]),

@@ -34,10 +34,11 @@ fn reference_of(inp: &DropletInputs) -> ReferenceCondition {
     ReferenceCondition { ambient_temperature: inp.ambient_temperature, pressure: inp.pressure, diameter: inp.initial_diameter, velocity, droplet_temperature: inp.initial_temperature }
 }
 
-/// True when condition `c` at `value` survives the trip through a reference condition (the fit uses it).
+/// True when condition `c` at `value` takes effect on the inputs and survives the trip through a reference
+/// condition (the fit uses it).
 fn carried(c: &Condition, base: &DropletInputs, value: &crate::conditions::Value, fuel: &Fuel, gas: &AmbientGas) -> bool {
     let mut inp = base.clone();
-    c.apply(&mut inp, value).is_ok() && (c.get)(&inp) == (c.get)(&surrogate_inputs(fuel, gas, &reference_of(&inp)))
+    c.apply(&mut inp, value).is_ok() && (c.get)(&inp).as_ref() == Some(value) && (c.get)(&inp) == (c.get)(&surrogate_inputs(fuel, gas, &reference_of(&inp)))
 }
 
 /// The condition keys `--reference` can set: those the surrogate fit carries (found by trying each entry's example).

@@ -477,7 +477,7 @@ pub static CONDITIONS: [Condition; 24] = [
         set: |i, v| {
             let name = word(v)?;
             let model = ActivityModel::parse(name).ok_or_else(|| unknown_word(name, &ACTIVITY_MODELS))?;
-            Activity::new(model, &i.fuel.components).map_err(|e| e.to_string())?;
+            Activity::new(model, &i.fuel.components).map_err(|e| format!("fuel {}: {e}", i.fuel.origin))?;
             i.liquid.activity = model;
             Ok(())
         },

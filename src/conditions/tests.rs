@@ -14,7 +14,7 @@ fn keys_and_columns_are_unique_and_defaults_parse() {
     for (i, c) in CONDITIONS.iter().enumerate() {
         assert!(CONDITIONS[..i].iter().all(|o| o.key != c.key && o.column != c.column), "{} repeated", c.key);
         c.default_value(&lib).unwrap_or_else(|e| panic!("default of {}: {e}", c.key));
-        assert!(!c.help.is_empty() && c.help.ends_with('.') || c.help.ends_with(')'), "help of {}", c.key);
+        assert!(c.help.ends_with('.') || c.help.ends_with(')'), "help of {}", c.key);
         assert_ne!(c.example, c.default, "example of {} must differ from its default", c.key);
     }
 }
@@ -105,4 +105,16 @@ fn ambient_vapor_resolves_against_the_fuel() {
     assert!(vapor_fractions(&lib, &fuel, "foo=0.1").unwrap_err().contains("unknown component 'foo'"));
     assert!(vapor_fractions(&lib, &fuel, "n-decane=0.6").unwrap_err().contains("[0, 0.5)"));
     assert!(vapor_fractions(&lib, &fuel, "").unwrap().is_empty());
+}
+
+#[test]
+fn inputs_from_texts_reads_units_and_words() {
+    let lib = lib();
+    let mut texts: Vec<Option<&str>> = vec![None; CONDITIONS.len()];
+    texts[1] = Some("10bar");
+    texts[7] = Some("ranz-marshall");
+    let inp = inputs_from_texts(&CONDITIONS, decane(&lib), &lib, &texts).unwrap();
+    assert_eq!((inp.pressure, inp.correlation), (1e6, crate::model::TransferCorrelation::RanzMarshall));
+    texts[7] = Some("ranz");
+    assert_eq!(inputs_from_texts(&CONDITIONS, decane(&lib), &lib, &texts).unwrap_err().key, "correlation");
 }

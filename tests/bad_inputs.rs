@@ -444,7 +444,7 @@ const CASES: &[Case] = &[
     case!(["table", "n-decane", "--no-surrogate", "--out", "{out}", "--format", "xlsx"], ["--format", "xlsx"]),
     case!(["compare", "n-decane", "--no-plots", "--out", "{out}", "--vary", "foo=1"], ["--vary", "cannot vary 'foo'"]),
     case!(["compare", "n-decane", "--no-plots", "--out", "{out}", "--vary", "diameter="], ["--vary 'diameter='", "no values"]),
-    case!(["compare", "n-decane", "--no-plots", "--out", "{out}", "--vary", "drag=yuen-chen,stokes"], ["--vary drag", "'stokes'", "yuen-chen or blowing"]),
+    case!(["compare", "n-decane", "--no-plots", "--out", "{out}", "--vary", "drag=yuen-chen,stokes"], ["--vary", "--drag", "'stokes'", "yuen-chen or blowing"]),
     case!(["table", "n-decane", "--out", "{out}", "--reference", "gas=n2"], ["--reference gas=n2", "does not vary 'gas'", "ambient-temperature"]),
     case!(["compare", "n-decane", "--no-plots", "--out", "{out}"], ["two or more fuels"]),
     case!(["compare", "n-decane", "n-dodecane", "--no-plots", "--out", "{out}", "--pressure", "1e9"], ["pressure = 1000000000 Pa"]),

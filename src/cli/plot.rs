@@ -148,7 +148,7 @@ fn parse_vary(text: &str, registry: &[Condition]) -> Result<Vary, CliError> {
 /// The conditions with `option` at `value` (read by the registry now, so a bad value stops before any run).
 fn apply_vary(lib: &Library, c: &ConditionArgs, option: &str, value: &str) -> Result<ConditionArgs, CliError> {
     let condition = conditions::find(c.registry(), option).ok_or_else(|| CliError::input(format!("--vary: cannot vary '{option}'")))?;
-    condition.parse_text(value, lib).map_err(|e| CliError::input(format!("--vary {e}")))?;
+    condition.parse_text(value, lib).map_err(|e| CliError::input(format!("--vary: --{e}")))?;
     let mut c = c.clone();
     c.set(option, value)?;
     Ok(c)

@@ -299,6 +299,23 @@ pub(super) fn compare(lib: &Library, args: &CompareArgs) -> Result<(), CliError>
     stdout_write(&format!("wrote {} (comparison.csv, comparison.txt, index.html and one folder per run)\n", args.out.display()))
 }
 
+/// Charts of a property-table folder: the mixture table and each residue table against temperature.
+pub(super) fn draw_table_charts(dir: &Path) -> Result<usize, CliError> {
+    let mut files: Vec<std::path::PathBuf> = std::fs::read_dir(dir)
+        .map_err(|e| CliError::input(format!("{}: {e}", dir.display())))?
+        .filter_map(|e| e.ok())
+        .map(|e| e.path())
+        .filter(|p| p.extension().is_some_and(|x| x == "csv") && p.file_name().is_some_and(|n| n.to_string_lossy().starts_with("mixture")))
+        .collect();
+    files.sort();
+    for f in &files {
+        let stem = format!("chart_{}", f.file_stem().unwrap_or_default().to_string_lossy());
+        let title = if stem.contains("residue") { "Residue liquid properties against temperature" } else { "Liquid and vapour properties against temperature" };
+        crate::output::charts::table_vs_temperature(f, dir, &stem, title)?;
+    }
+    Ok(files.len())
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -344,21 +361,4 @@ mod tests {
         assert_eq!(unique("a".into(), &mut taken), "a-2");
         assert_eq!(unique("a".into(), &mut taken), "a-3");
     }
-}
-
-/// Charts of a property-table folder: the mixture table and each residue table against temperature.
-pub(super) fn draw_table_charts(dir: &Path) -> Result<usize, CliError> {
-    let mut files: Vec<std::path::PathBuf> = std::fs::read_dir(dir)
-        .map_err(|e| CliError::input(format!("{}: {e}", dir.display())))?
-        .filter_map(|e| e.ok())
-        .map(|e| e.path())
-        .filter(|p| p.extension().is_some_and(|x| x == "csv") && p.file_name().is_some_and(|n| n.to_string_lossy().starts_with("mixture")))
-        .collect();
-    files.sort();
-    for f in &files {
-        let stem = format!("chart_{}", f.file_stem().unwrap_or_default().to_string_lossy());
-        let title = if stem.contains("residue") { "Residue liquid properties against temperature" } else { "Liquid and vapour properties against temperature" };
-        crate::output::charts::table_vs_temperature(f, dir, &stem, title)?;
-    }
-    Ok(files.len())
 }

@@ -1,11 +1,12 @@
 //! The layers of DEVELOPERS.md depend in one direction only: a module never imports one listed after it
-//! (numerics → units → data → props → fuel → model → post → table → uncertainty → output → sweep → checks → cli).
+//! (numerics → units → data → props → fuel → model → conditions → post → table → uncertainty → output → sweep → checks
+//! → cli), and no two files of `src/cli/` import each other (shared helpers live in `cli/common.rs`).
 //! Reads the whole of every source file as text; comments and the bodies of `#[cfg(test)]` modules are
 //! skipped (code after a test module is still read).
 
 use std::path::{Path, PathBuf};
 
-const ORDER: [&str; 13] = ["numerics", "units", "data", "props", "fuel", "model", "post", "table", "uncertainty", "output", "sweep", "checks", "cli"];
+const ORDER: [&str; 14] = ["numerics", "units", "data", "props", "fuel", "model", "conditions", "post", "table", "uncertainty", "output", "sweep", "checks", "cli"];
 
 fn rust_files(dir: &Path, out: &mut Vec<PathBuf>) {
     for entry in std::fs::read_dir(dir).unwrap() {
@@ -72,7 +73,7 @@ fn upward_imports(text: &str, rank: usize, name: &str) -> Vec<String> {
 fn the_scan_reads_past_test_modules() {
     let text = "use crate::units::Quantity;\n#[cfg(test)]\nmod tests {\n    use crate::cli::run;\n    fn f() { if true { } }\n}\nuse crate::cli::run;\n";
     let found = upward_imports(text, 3, "x.rs");
-    assert_eq!(found, vec!["x.rs:7: props imports cli (rank 12)".to_string()], "{found:?}");
+    assert_eq!(found, vec!["x.rs:7: props imports cli (rank 13)".to_string()], "{found:?}");
 }
 
 #[test]
@@ -96,4 +97,73 @@ fn no_layer_imports_a_higher_one() {
         }
     }
     assert!(offences.is_empty(), "upward imports:\n{}", offences.join("\n"));
+}
+
+/// The sibling modules of `src/cli/` that `text` (a file of that folder) names through `super::NAME`.
+fn cli_siblings(text: &str, siblings: &[String]) -> Vec<String> {
+    let mut found = vec![];
+    for (_, line) in non_test_lines(text) {
+        let code = line.split("//").next().unwrap_or("");
+        let mut rest = code;
+        while let Some(at) = rest.find("super::") {
+            rest = &rest[at + "super::".len()..];
+            let names: Vec<&str> = if let Some(group) = rest.strip_prefix('{') {
+                group.split('}').next().unwrap_or("").split(',').map(|n| n.trim().split("::").next().unwrap_or("").trim()).collect()
+            } else {
+                vec![rest.split(|c: char| !(c.is_alphanumeric() || c == '_')).next().unwrap_or("")]
+            };
+            for n in names {
+                if siblings.iter().any(|s| s == n) && !found.iter().any(|f: &String| f == n) {
+                    found.push(n.to_string());
+                }
+            }
+        }
+    }
+    found
+}
+
+#[test]
+fn the_cli_sibling_scan_sees_groups_and_paths() {
+    let siblings: Vec<String> = ["args", "common", "plot"].iter().map(|s| s.to_string()).collect();
+    let text = "use super::common::{notice};\nuse super::{args, CliError};\nfn f() { super::plot::draw(); }\n#[cfg(test)]\nmod tests {\n    use super::super::args::Cli;\n}\n";
+    assert_eq!(cli_siblings(text, &siblings), ["common", "args", "plot"]);
+}
+
+#[test]
+fn no_two_cli_files_import_each_other() {
+    let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("src").join("cli");
+    let mut files = vec![];
+    rust_files(&dir, &mut files);
+    let name = |p: &Path| p.file_stem().unwrap().to_string_lossy().into_owned();
+    let siblings: Vec<String> = files.iter().map(|p| name(p)).filter(|n| n != "mod").collect();
+    let mut edges: Vec<(String, Vec<String>)> = vec![];
+    for f in &files {
+        if name(f) == "mod" {
+            continue;
+        }
+        let text = std::fs::read_to_string(f).unwrap();
+        edges.push((name(f), cli_siblings(&text, &siblings).into_iter().filter(|s| *s != name(f)).collect()));
+    }
+    // any cycle (not only pairs): depth-first search over the import graph
+    fn visit(node: &str, edges: &[(String, Vec<String>)], path: &mut Vec<String>, done: &mut Vec<String>, cycles: &mut Vec<String>) {
+        if let Some(at) = path.iter().position(|p| p == node) {
+            cycles.push(format!("{} -> {node}", path[at..].join(" -> ")));
+            return;
+        }
+        if done.iter().any(|d| d == node) {
+            return;
+        }
+        path.push(node.to_string());
+        for next in edges.iter().find(|(n, _)| n == node).map(|(_, e)| e.clone()).unwrap_or_default() {
+            visit(&next, edges, path, done, cycles);
+        }
+        path.pop();
+        done.push(node.to_string());
+    }
+    let mut cycles = vec![];
+    let mut done = vec![];
+    for (n, _) in &edges {
+        visit(n, &edges, &mut vec![], &mut done, &mut cycles);
+    }
+    assert!(cycles.is_empty(), "src/cli files import each other: {cycles:?}");
 }

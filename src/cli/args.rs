@@ -4,6 +4,8 @@ use std::path::PathBuf;
 
 use clap::{Args, Parser, Subcommand, ValueEnum};
 
+use super::conditions::ConditionArgs;
+
 /// Heating and evaporation of multicomponent fuel droplets, and how the residual liquid drifts.
 #[derive(Debug, Parser)]
 #[command(name = "dropcut", version, about, long_about = None)]
@@ -220,101 +222,6 @@ pub enum MethodArg {
     ConstantinouGani,
 }
 
-/// Nusselt/Sherwood correlation choice.
-#[derive(Debug, Clone, Copy, ValueEnum)]
-pub enum CorrelationArg {
-    /// Clift, Grace & Weber (1978).
-    Clift,
-    /// Ranz & Marshall (1952).
-    RanzMarshall,
-}
-
-/// Drag law of an injected droplet.
-#[derive(Debug, Clone, Copy, ValueEnum)]
-pub enum DragArg {
-    /// Yuen & Chen (1976): standard drag, Reynolds number on free-stream density and film viscosity, no blowing factor.
-    YuenChen,
-    /// Eisenklam, Arunachalam & Weston (1967): standard drag on free-stream properties divided by (1 + B).
-    Blowing,
-}
-
-/// Options shared by every droplet run.
-#[derive(Debug, Clone, Args)]
-pub struct ConditionArgs {
-    /// Ambient gas temperature.
-    #[arg(long, allow_hyphen_values = true, default_value = "800K")]
-    pub ambient_temperature: String,
-    /// Ambient pressure.
-    #[arg(long, allow_hyphen_values = true, default_value = "1atm")]
-    pub pressure: String,
-    /// Ambient gas: air, n2, or mole fractions like o2=0.15,n2=0.75,co2=0.05,h2o=0.05.
-    #[arg(long, default_value = "air")]
-    pub gas: String,
-    /// Initial droplet diameter.
-    #[arg(long, allow_hyphen_values = true, default_value = "50um")]
-    pub diameter: String,
-    /// Initial droplet temperature.
-    #[arg(long, allow_hyphen_values = true, default_value = "300K")]
-    pub droplet_temperature: String,
-    /// Relative velocity between droplet and gas (kept constant unless --injected).
-    #[arg(long, allow_hyphen_values = true, default_value = "0")]
-    pub velocity: String,
-    /// The droplet is injected at --velocity into gas at rest and slows down by drag.
-    #[arg(long)]
-    pub injected: bool,
-    /// Far-field fuel vapour, as component=mass-fraction pairs (e.g. n-decane=0.01).
-    #[arg(long, default_value = "")]
-    pub ambient_vapor: String,
-    /// Nusselt/Sherwood correlation of the non-evaporating sphere.
-    #[arg(long, value_enum, default_value = "clift")]
-    pub correlation: CorrelationArg,
-    /// Drag law of an --injected droplet (the vapour film's effect is counted once in either).
-    #[arg(long, value_enum, default_value = "yuen-chen")]
-    pub drag: DragArg,
-    /// Relative tolerance of the time integration.
-    #[arg(long, allow_hyphen_values = true, default_value = "1e-6")]
-    pub rtol: String,
-    /// Give up after this simulated time.
-    #[arg(long, allow_hyphen_values = true, default_value = "30s")]
-    pub max_time: String,
-    /// Species inside the droplet: well-mixed (rapid mixing) or diffusion (effective diffusivity).
-    #[arg(long, value_enum, default_value = "well-mixed")]
-    pub liquid_mixing: MixingArg,
-    /// Heat inside the droplet: uniform (infinite conductivity) or conduction (effective conductivity).
-    #[arg(long, value_enum, default_value = "uniform")]
-    pub liquid_heat: HeatArg,
-    /// Radial cells of the resolved liquid models.
-    #[arg(long, allow_hyphen_values = true, default_value = "40")]
-    pub nodes: String,
-    /// Langmuir–Knudsen non-equilibrium surface vapour (Miller, Harstad & Bellan 1998).
-    #[arg(long)]
-    pub non_equilibrium: bool,
-    /// Multiply the liquid diffusivity (limit studies).
-    #[arg(long, allow_hyphen_values = true, default_value = "1", hide_short_help = true)]
-    pub liquid_diffusivity_factor: String,
-    /// Multiply the liquid conductivity (limit studies).
-    #[arg(long, allow_hyphen_values = true, default_value = "1", hide_short_help = true)]
-    pub liquid_conductivity_factor: String,
-    /// Radiation from black surroundings: off, ambient (at the gas temperature) or a temperature (e.g. 900K).
-    #[arg(long, allow_hyphen_values = true, default_value = "off")]
-    pub radiation: String,
-    /// Absorption efficiency (= emissivity) of the droplet for --radiation, 0–1.
-    #[arg(long, allow_hyphen_values = true, default_value = "1")]
-    pub absorption_efficiency: String,
-    /// Diameter of a fibre suspending the droplet (heat conducted in along it); none by default.
-    #[arg(long, allow_hyphen_values = true, default_value = "none")]
-    pub fibre_diameter: String,
-    /// Thermal conductivity of the fibre in W/(m·K) (default 1.4: fused silica near room temperature).
-    #[arg(long, allow_hyphen_values = true, default_value = "1.4")]
-    pub fibre_conductivity: String,
-    /// Fibre stems leaving the droplet: 1 (fibre ends inside) or 2 (fibre passes through).
-    #[arg(long, allow_hyphen_values = true, default_value = "1")]
-    pub fibre_stems: String,
-    /// Liquid activity coefficients at the surface: ideal (Raoult's law) or unifac (original UNIFAC).
-    #[arg(long, value_enum, default_value = "ideal")]
-    pub activity: ActivityArg,
-}
-
 /// Liquid activity model.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
 pub enum ActivityArg {
@@ -332,24 +239,6 @@ impl ActivityArg {
             ActivityArg::Unifac => crate::props::activity::ActivityModel::Unifac,
         }
     }
-}
-
-/// Liquid species mixing.
-#[derive(Debug, Clone, Copy, ValueEnum)]
-pub enum MixingArg {
-    /// Uniform composition.
-    WellMixed,
-    /// Transient diffusion.
-    Diffusion,
-}
-
-/// Liquid heat transport.
-#[derive(Debug, Clone, Copy, ValueEnum)]
-pub enum HeatArg {
-    /// Uniform temperature.
-    Uniform,
-    /// Transient conduction.
-    Conduction,
 }
 
 /// `simulate` arguments.
@@ -470,8 +359,8 @@ pub struct TableArgs {
     /// Temperature of the open-vessel weathering that makes the residues.
     #[arg(long, allow_hyphen_values = true, default_value = "350K")]
     pub residue_temperature: String,
-    /// Surrogate fit condition as key=value pairs (ambient-temperature, pressure, diameter, velocity,
-    /// droplet-temperature); keys not given keep their defaults.
+    /// Surrogate fit condition as key=value pairs of the condition options the fit varies (ambient-temperature,
+    /// pressure, diameter, velocity, droplet-temperature); keys not given keep their defaults.
     #[arg(long, default_value = "ambient-temperature=800K,pressure=1atm,diameter=50um,velocity=0,droplet-temperature=300K")]
     pub reference: String,
     /// Skip the single-component surrogate (no droplet runs).
@@ -501,9 +390,8 @@ pub struct CompareArgs {
     /// Conditions shared by every run.
     #[command(flatten)]
     pub condition: ConditionArgs,
-    /// Run at several values of one condition option, e.g. ambient-temperature=500K,800K
-    /// (ambient-temperature, pressure, diameter, droplet-temperature, velocity, correlation, max-time,
-    /// liquid-mixing, liquid-heat, nodes, activity; gas=air;n2 with ';' between gases).
+    /// Run at several values of one condition option, e.g. ambient-temperature=500K,800K (any condition option
+    /// above; gas=air;n2 and ambient-vapor with ';' between values).
     #[arg(long, value_name = "OPTION=V1,V2,...")]
     pub vary: Option<String>,
     /// Output folder.

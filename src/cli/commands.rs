@@ -1,16 +1,17 @@
 //! Command handlers (second stage: validate text, convert to SI config, call the library, write outputs).
 
-use std::io::{IsTerminal, Write};
 use std::path::Path;
 
 use serde::Serialize;
 
-use super::args::{Cli, Command, ConditionArgs, CorrelationArg, DragArg, FuelAction, HeatArg, MixingArg, ResidueArgs, SimulateArgs};
+use super::args::{Cli, Command, FuelAction, ResidueArgs, SimulateArgs};
+use super::common::{notice, out_dir, out_file, parse_q, progress, stdout_write, write_droplet_residue};
+use super::conditions::{droplet_inputs, ConditionArgs};
 use super::plot;
 use super::CliError;
 use crate::data::Library;
 use crate::fuel::Fuel;
-use crate::model::{self, DropletInputs, Motion, TransferCorrelation};
+use crate::model;
 use crate::output;
 use crate::props::gas::AmbientGas;
 use crate::props::liquid;
@@ -39,28 +40,9 @@ pub fn dispatch(cli: Cli) -> Result<(), CliError> {
     }
 }
 
-pub(super) fn stdout_write(text: &str) -> Result<(), CliError> {
-    let mut out = std::io::stdout().lock();
-    match out.write_all(text.as_bytes()).and_then(|_| out.flush()) {
-        Ok(()) => Ok(()),
-        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
-        Err(e) => Err(CliError::runtime(format!("stdout: {e}"))),
-    }
-}
 
-pub(super) fn progress(msg: &str) {
-    if std::io::stderr().is_terminal() {
-        let _ = writeln!(std::io::stderr(), "{msg}");
-    }
-}
 
-pub(super) fn notice(msg: &str) {
-    let _ = writeln!(std::io::stderr(), "note: {msg}");
-}
 
-pub(super) fn parse_q(option: &str, text: &str, q: Quantity) -> Result<f64, CliError> {
-    units::parse(text, q).map_err(|e| CliError::input(format!("--{option}: {e}")))
-}
 
 #[derive(Serialize)]
 struct ComponentRow {
@@ -225,86 +207,6 @@ fn fuel_show(lib: &Library, spec: &str, temperature: &str, pressure: &str, activ
     stdout_write(&s)
 }
 
-/// Second stage: turn condition options into SI droplet inputs.
-pub fn droplet_inputs(lib: &Library, fuel: Fuel, c: &ConditionArgs) -> Result<DropletInputs, CliError> {
-    let t_inf = parse_q("ambient-temperature", &c.ambient_temperature, Quantity::Temperature)?;
-    let p = parse_q("pressure", &c.pressure, Quantity::Pressure)?;
-    let d0 = parse_q("diameter", &c.diameter, Quantity::Length)?;
-    let t0 = parse_q("droplet-temperature", &c.droplet_temperature, Quantity::Temperature)?;
-    let v = parse_q("velocity", &c.velocity, Quantity::Velocity)?;
-    let rtol = parse_q("rtol", &c.rtol, Quantity::Dimensionless)?;
-    let max_time = parse_q("max-time", &c.max_time, Quantity::Time)?;
-    let gas = AmbientGas::parse(lib, &c.gas).map_err(|e| CliError::input(format!("--gas: {e}")))?;
-    let ambient_vapor = crate::sweep::spec::vapor_fractions(lib, &fuel, &c.ambient_vapor).map_err(|e| CliError::input(format!("--ambient-vapor: {e}")))?;
-    let mut inp = DropletInputs::new(fuel, gas, t_inf, p, d0, t0);
-    inp.motion = if c.injected { Motion::Injected { velocity: v } } else { Motion::Fixed { velocity: v } };
-    inp.correlation = match c.correlation {
-        CorrelationArg::Clift => TransferCorrelation::Clift,
-        CorrelationArg::RanzMarshall => TransferCorrelation::RanzMarshall,
-    };
-    inp.drag = match c.drag {
-        DragArg::YuenChen => model::film::DragLaw::YuenChen,
-        DragArg::Blowing => model::film::DragLaw::Blowing,
-    };
-    inp.rtol = rtol;
-    inp.max_time = max_time;
-    inp.ambient_vapor = ambient_vapor;
-    let nodes: usize = c.nodes.trim().parse().map_err(|_| CliError::input(format!("--nodes: '{}' is not a whole number", c.nodes)))?;
-    if !(4..=400).contains(&nodes) {
-        return Err(CliError::input(format!("--nodes: {nodes} must lie between 4 and 400")));
-    }
-    let factor = |name: &str, text: &str| -> Result<f64, CliError> {
-        let v = parse_q(name, text, Quantity::Dimensionless)?;
-        if !(v > 0.0 && v <= 1e8) {
-            return Err(CliError::input(format!("--{name}: {v} must be a positive factor up to 1e8")));
-        }
-        if v < crate::sweep::spec::MIN_LIQUID_FACTOR {
-            return Err(CliError::input(format!(
-                "--{name}: {} is below {}: the liquid layers would grow thinner than the radial grid can follow and the run stalls or fails",
-                crate::output::fmt_f64(v).unwrap_or_default(),
-                crate::sweep::spec::MIN_LIQUID_FACTOR
-            )));
-        }
-        Ok(v)
-    };
-    inp.liquid = model::droplet::LiquidOptions {
-        mixing: match c.liquid_mixing {
-            MixingArg::WellMixed => model::droplet::LiquidMixing::WellMixed,
-            MixingArg::Diffusion => model::droplet::LiquidMixing::Diffusion,
-        },
-        heat: match c.liquid_heat {
-            HeatArg::Uniform => model::droplet::LiquidHeat::Uniform,
-            HeatArg::Conduction => model::droplet::LiquidHeat::Conduction,
-        },
-        nodes,
-        non_equilibrium: c.non_equilibrium,
-        diffusivity_factor: factor("liquid-diffusivity-factor", &c.liquid_diffusivity_factor)?,
-        conductivity_factor: factor("liquid-conductivity-factor", &c.liquid_conductivity_factor)?,
-        activity: c.activity.model(),
-    };
-    inp.extra_heat = extra_heat(c)?;
-    Ok(inp)
-}
-
-/// Radiation and fibre options into [`model::film::ExtraHeat`] (ranges are checked by the model).
-fn extra_heat(c: &ConditionArgs) -> Result<model::film::ExtraHeat, CliError> {
-    let mut extra = model::film::ExtraHeat::default();
-    let rad = c.radiation.trim();
-    if !rad.eq_ignore_ascii_case("off") {
-        let temperature = if rad.eq_ignore_ascii_case("ambient") { None } else { Some(parse_q("radiation", rad, Quantity::Temperature)?) };
-        let absorption_efficiency = parse_q("absorption-efficiency", &c.absorption_efficiency, Quantity::Dimensionless)?;
-        extra.radiation = Some(model::film::Radiation { temperature, absorption_efficiency });
-    }
-    let fib = c.fibre_diameter.trim();
-    if !fib.eq_ignore_ascii_case("none") {
-        let diameter = parse_q("fibre-diameter", fib, Quantity::Length)?;
-        let conductivity = parse_q("fibre-conductivity", &c.fibre_conductivity, Quantity::Dimensionless)?;
-        let stems: u32 = c.fibre_stems.trim().parse().ok().filter(|s| (1..=4).contains(s)).ok_or_else(|| CliError::input(format!("--fibre-stems: '{}' must be a whole number from 1 to 4", c.fibre_stems.trim())))?;
-        extra.fibre = Some(model::film::SupportFibre { diameter, conductivity, stems });
-    }
-    Ok(extra)
-}
-
 fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
     let fuel = Fuel::resolve(&args.fuel, lib)?;
     for n in &fuel.notices {
@@ -389,32 +291,10 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
         for fuel_id in DEMO_FUELS {
             progress(&format!("demo: {fuel_id} at the {name} condition ..."));
             let fuel = Fuel::resolve(fuel_id, lib)?;
-            let cond = ConditionArgs {
-                ambient_temperature: t.into(),
-                pressure: p.into(),
-                gas: "air".into(),
-                diameter: d.into(),
-                droplet_temperature: t0.into(),
-                velocity: v.into(),
-                injected: name == "combustor",
-                ambient_vapor: String::new(),
-                correlation: CorrelationArg::Clift,
-                drag: DragArg::YuenChen,
-                rtol: "1e-6".into(),
-                max_time: tmax.into(),
-                liquid_mixing: MixingArg::WellMixed,
-                liquid_heat: HeatArg::Uniform,
-                nodes: "40".into(),
-                non_equilibrium: false,
-                liquid_diffusivity_factor: "1".into(),
-                liquid_conductivity_factor: "1".into(),
-                radiation: "off".into(),
-                absorption_efficiency: "1".into(),
-                fibre_diameter: "none".into(),
-                fibre_conductivity: "1.4".into(),
-                fibre_stems: "1".into(),
-                activity: super::args::ActivityArg::Ideal,
-            };
+            let mut cond = ConditionArgs::default();
+            for (key, text) in [("ambient-temperature", t), ("pressure", p), ("diameter", d), ("droplet-temperature", t0), ("velocity", v), ("max-time", tmax), ("injected", if name == "combustor" { "true" } else { "false" })] {
+                cond.set(key, text)?;
+            }
             let inp = droplet_inputs(lib, fuel, &cond)?;
             let mut rec = model::guard::RowsOnly;
             let run = model::simulate(&inp, &mut rec)?;
@@ -448,33 +328,8 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
     stdout_write(&format!("wrote {} (open index.html)\n", out.display()))
 }
 
-/// Worker threads for `--threads N`: 0 = every core; more than the cores this process may use is capped to
-/// them with a note (the results do not depend on the thread count; thousands of threads only cost time and
-/// memory).
-pub(super) fn worker_threads(requested: usize) -> usize {
-    let cores = std::thread::available_parallelism().map(|n| n.get()).unwrap_or(1);
-    if requested > cores {
-        notice(&format!("--threads {requested}: this machine lets dropcut use {cores} cores; running {cores} threads"));
-        return cores;
-    }
-    requested
-}
 
-/// Refuse an existing `--out` that is not a folder (a file, device, FIFO) before any work is done.
-pub(super) fn out_dir(out: &Path) -> Result<(), CliError> {
-    match output::refuse_dir_target(out) {
-        Some(m) => Err(CliError::input(format!("--out {}: {m}", out.display()))),
-        None => Ok(()),
-    }
-}
 
-/// Refuse an existing `--out` file that is not a regular file (device, FIFO, symbolic link, folder).
-pub(super) fn out_file(out: &Path) -> Result<(), CliError> {
-    match output::refuse_file_target(out) {
-        Some(m) => Err(CliError::input(format!("--out {}: {m}", out.display()))),
-        None => Ok(()),
-    }
-}
 
 fn validate(out: &Path) -> Result<(), CliError> {
     out_file(out)?;
@@ -505,25 +360,6 @@ fn load_limits(spec: Option<&str>) -> Result<Option<crate::post::Limits>, CliErr
     }
 }
 
-/// Residual-liquid indicators along a droplet history (mean liquid, and the surface layer of a resolved
-/// droplet) written to residue.csv.
-pub(super) fn write_droplet_residue(dir: &Path, inp: &DropletInputs, run: &model::RunResult, limits: Option<&crate::post::Limits>) -> Result<(), CliError> {
-    use crate::post::droplet::{residues_along_history, Layer};
-    let fractions = crate::post::weathering::default_fractions();
-    let opts = crate::post::IndicatorOptions { activity: inp.liquid.activity, ..Default::default() };
-    let comps = &inp.fuel.components;
-    let mean = residues_along_history(&run.history, &fractions, Layer::Mean);
-    let mean_rows = crate::post::residue_table(comps, &mean, &opts).map_err(|e| CliError::runtime(e.to_string()))?;
-    let mut sets = vec![output::residue::ResidueSet { label: "mean", rows: &mean_rows }];
-    let surface_rows;
-    if inp.liquid.mixing == model::droplet::LiquidMixing::Diffusion {
-        let surface = residues_along_history(&run.history, &fractions, Layer::Surface);
-        surface_rows = crate::post::residue_table(comps, &surface, &opts).map_err(|e| CliError::runtime(e.to_string()))?;
-        sets.push(output::residue::ResidueSet { label: "surface", rows: &surface_rows });
-    }
-    output::residue::write_residue(&dir.join("residue.csv"), &format!("residual liquid along the droplet history of {}", inp.fuel.name), &sets, limits)?;
-    Ok(())
-}
 
 fn residue(lib: &Library, args: &ResidueArgs) -> Result<(), CliError> {
     let t = parse_q("temperature", &args.temperature, Quantity::Temperature)?;

@@ -5,7 +5,7 @@
 use std::path::Path;
 
 use super::args::{AcentricArg, BuildArgs, CriticalArg, FitArg, MethodArg};
-use super::commands::{notice, parse_q, stdout_write};
+use super::common::{notice, parse_q, stdout_write};
 use super::CliError;
 use crate::data::Library;
 use crate::fuel::build::classes::{build_from_classes, ClassBuildOptions, ClassTable};
@@ -53,7 +53,7 @@ fn check_out(out: &Path, input: Option<&Path>) -> Result<(), CliError> {
     if out.as_os_str().is_empty() || out.is_dir() {
         return Err(CliError::input(format!("--out {}: give a file name", out.display())));
     }
-    super::commands::out_file(out)?;
+    super::common::out_file(out)?;
     if let Some(inp) = input {
         let same = match (out.canonicalize(), inp.canonicalize()) {
             (Ok(a), Ok(b)) => a == b,

@@ -3,6 +3,8 @@
 
 mod args;
 mod commands;
+mod common;
+mod conditions;
 mod fuelbuild;
 mod sweep;
 mod table;
@@ -15,6 +17,7 @@ use std::io::Write;
 use clap::Parser;
 
 pub use args::Cli;
+pub use conditions::{condition_args, droplet_inputs, ConditionArgs};
 
 /// A CLI failure with its exit code: 2 for bad input or usage, 1 for runtime failures.
 #[derive(Debug)]

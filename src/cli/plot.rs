@@ -4,10 +4,10 @@
 use std::collections::BTreeMap;
 use std::path::Path;
 
-use clap::ValueEnum;
-
-use super::args::{ActivityArg, CompareArgs, ConditionArgs, CorrelationArg, DragArg, HeatArg, MixingArg};
-use super::commands::{droplet_inputs, notice, progress, stdout_write, write_droplet_residue};
+use super::args::CompareArgs;
+use super::common::{notice, progress, stdout_write, write_droplet_residue};
+use super::conditions::{droplet_inputs, ConditionArgs};
+use crate::conditions::{self, Condition, Kind};
 use super::CliError;
 use crate::data::Library;
 use crate::fuel::Fuel;
@@ -16,23 +16,6 @@ use crate::output::charts::{self, LabelledRun};
 use crate::output::compare::{comparison_csv, safe_name, ComparisonTable, Study, StudyGroup, StudyRun, STUDY_FILE};
 use crate::output::read::SavedRun;
 use crate::output::{self, html};
-
-/// Condition options `--vary` accepts, with how their values are separated.
-const VARIABLE_OPTIONS: [&str; 13] = [
-    "ambient-temperature",
-    "pressure",
-    "diameter",
-    "droplet-temperature",
-    "velocity",
-    "gas",
-    "correlation",
-    "max-time",
-    "liquid-mixing",
-    "liquid-heat",
-    "nodes",
-    "drag",
-    "activity",
-];
 
 fn fill_classes(lib: &Library, run: &mut SavedRun) {
     for (id, class) in run.components.iter_mut() {
@@ -216,14 +199,15 @@ struct Vary {
     values: Vec<String>,
 }
 
-fn parse_vary(text: &str) -> Result<Vary, CliError> {
-    let usage = "use OPTION=V1,V2,... (e.g. ambient-temperature=500K,800K; for gas separate values with ';')";
+fn parse_vary(text: &str, registry: &[Condition]) -> Result<Vary, CliError> {
+    let usage = "use OPTION=V1,V2,... (e.g. ambient-temperature=500K,800K; for gas and ambient-vapor separate values with ';')";
     let (option, values) = text.split_once('=').ok_or_else(|| CliError::input(format!("--vary '{text}': {usage}")))?;
     let option = option.trim().trim_start_matches("--").to_string();
-    if !VARIABLE_OPTIONS.contains(&option.as_str()) {
-        return Err(CliError::input(format!("--vary: cannot vary '{option}'; one of {}", VARIABLE_OPTIONS.join(", "))));
-    }
-    let sep: &[char] = if option == "gas" { &[';'] } else { &[',', ';'] };
+    let Some(condition) = conditions::find(registry, &option) else {
+        return Err(CliError::input(format!("--vary: cannot vary '{option}'; one of {}", registry.iter().map(|c| c.key).collect::<Vec<_>>().join(", "))));
+    };
+    // values that hold commas themselves are separated by ';' only
+    let sep: &[char] = if matches!(condition.kind, Kind::Gas | Kind::AmbientVapor) { &[';'] } else { &[',', ';'] };
     let values: Vec<String> = values.split(sep).map(|v| v.trim().to_string()).filter(|v| !v.is_empty()).collect();
     if values.is_empty() {
         return Err(CliError::input(format!("--vary '{text}': no values; {usage}")));
@@ -236,34 +220,12 @@ fn parse_vary(text: &str) -> Result<Vary, CliError> {
     Ok(Vary { option, values })
 }
 
-fn apply_vary(c: &ConditionArgs, option: &str, value: &str) -> Result<ConditionArgs, CliError> {
+/// The conditions with `option` at `value` (read by the registry now, so a bad value stops before any run).
+fn apply_vary(lib: &Library, c: &ConditionArgs, option: &str, value: &str) -> Result<ConditionArgs, CliError> {
+    let condition = conditions::find(c.registry(), option).ok_or_else(|| CliError::input(format!("--vary: cannot vary '{option}'")))?;
+    condition.parse_text(value, lib).map_err(|e| CliError::input(format!("--vary: --{e}")))?;
     let mut c = c.clone();
-    match option {
-        "ambient-temperature" => c.ambient_temperature = value.into(),
-        "pressure" => c.pressure = value.into(),
-        "diameter" => c.diameter = value.into(),
-        "droplet-temperature" => c.droplet_temperature = value.into(),
-        "velocity" => c.velocity = value.into(),
-        "gas" => c.gas = value.into(),
-        "max-time" => c.max_time = value.into(),
-        "nodes" => c.nodes = value.into(),
-        "liquid-mixing" => {
-            c.liquid_mixing = MixingArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary liquid-mixing: '{value}' is not one of well-mixed, diffusion")))?;
-        }
-        "liquid-heat" => {
-            c.liquid_heat = HeatArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary liquid-heat: '{value}' is not one of {}", HeatArg::value_variants().iter().filter_map(|v| v.to_possible_value()).map(|p| p.get_name().to_string()).collect::<Vec<_>>().join(", "))))?;
-        }
-        "drag" => {
-            c.drag = DragArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary drag: '{value}' is not one of yuen-chen, blowing")))?;
-        }
-        "activity" => {
-            c.activity = ActivityArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary activity: '{value}' is not one of ideal, unifac")))?;
-        }
-        "correlation" => {
-            c.correlation = CorrelationArg::from_str(value, true).map_err(|_| CliError::input(format!("--vary correlation: '{value}' is not one of clift, ranz-marshall")))?;
-        }
-        other => return Err(CliError::input(format!("--vary: cannot vary '{other}'"))),
-    }
+    c.set(option, value)?;
     Ok(c)
 }
 
@@ -271,23 +233,23 @@ fn describe_condition(c: &ConditionArgs, varied: Option<&str>) -> String {
     let is = |name: &str| varied == Some(name);
     let mut parts = vec![match (is("gas"), is("ambient-temperature")) {
         (true, true) => "gas".to_string(),
-        (true, false) => format!("gas at {}", c.ambient_temperature),
-        (false, true) => c.gas.clone(),
-        (false, false) => format!("{} at {}", c.gas, c.ambient_temperature),
+        (true, false) => format!("gas at {}", c.get("ambient-temperature")),
+        (false, true) => c.get("gas").to_string(),
+        (false, false) => format!("{} at {}", c.get("gas"), c.get("ambient-temperature")),
     }];
     if !is("pressure") {
-        parts.push(c.pressure.clone());
+        parts.push(c.get("pressure").to_string());
     }
     if !is("diameter") {
-        parts.push(format!("d0 = {}", c.diameter));
+        parts.push(format!("d0 = {}", c.get("diameter")));
     }
     if !is("droplet-temperature") {
-        parts.push(format!("T0 = {}", c.droplet_temperature));
+        parts.push(format!("T0 = {}", c.get("droplet-temperature")));
     }
     if !is("velocity") {
-        parts.push(format!("{} {} m/s", if c.injected { "injected at" } else { "slip" }, c.velocity.trim_end_matches("m/s")));
+        parts.push(format!("{} {} m/s", if c.get("injected") == "true" { "injected at" } else { "slip" }, c.get("velocity").trim_end_matches("m/s")));
     }
-    if !is("activity") && c.activity == ActivityArg::Unifac {
+    if !is("activity") && c.get("activity") == "unifac" {
         parts.push("UNIFAC liquid".into());
     }
     let mut s = parts.join(", ");
@@ -321,7 +283,7 @@ fn unique(label: String, taken: &mut Vec<String>) -> String {
 
 /// `dropcut compare FUEL... [--vary OPTION=V1,V2,...]`.
 pub(super) fn compare(lib: &Library, args: &CompareArgs) -> Result<(), CliError> {
-    let vary = args.vary.as_deref().map(parse_vary).transpose()?;
+    let vary = args.vary.as_deref().map(|v| parse_vary(v, args.condition.registry())).transpose()?;
     let runs_per_fuel = vary.as_ref().map(|v| v.values.len()).unwrap_or(1);
     if args.fuels.len() * runs_per_fuel < 2 {
         return Err(CliError::input("compare needs two or more fuels, or one fuel with --vary OPTION=V1,V2,..."));
@@ -340,7 +302,7 @@ pub(super) fn compare(lib: &Library, args: &CompareArgs) -> Result<(), CliError>
     let mut dirs_taken = vec![];
     let conditions: Vec<(Option<String>, ConditionArgs)> = match &vary {
         None => vec![(None, args.condition.clone())],
-        Some(v) => v.values.iter().map(|val| Ok((Some(val.clone()), apply_vary(&args.condition, &v.option, val)?))).collect::<Result<_, CliError>>()?,
+        Some(v) => v.values.iter().map(|val| Ok((Some(val.clone()), apply_vary(lib, &args.condition, &v.option, val)?))).collect::<Result<_, CliError>>()?,
     };
     let one_group = vary.is_none() || fuels.len() == 1;
     if one_group {
@@ -412,47 +374,6 @@ pub(super) fn compare(lib: &Library, args: &CompareArgs) -> Result<(), CliError>
     stdout_write(&format!("wrote {} (comparison.csv, comparison.txt, index.html and one folder per run)\n", args.out.display()))
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn vary_parsing() {
-        let v = parse_vary("ambient-temperature=500K, 800K").unwrap();
-        assert_eq!(v.option, "ambient-temperature");
-        assert_eq!(v.values, vec!["500K", "800K"]);
-        let g = parse_vary("gas=air;o2=0.15,n2=0.85").unwrap();
-        assert_eq!(g.values, vec!["air", "o2=0.15,n2=0.85"]);
-        assert!(parse_vary("colour=red").is_err());
-        assert!(parse_vary("pressure").is_err());
-        assert!(parse_vary("pressure=").is_err());
-        assert!(parse_vary("pressure=1bar,1bar").is_err());
-    }
-
-    #[test]
-    fn vary_applies_to_the_condition() {
-        use clap::Parser;
-        let cli = super::super::Cli::try_parse_from(["dropcut", "simulate", "test-decane"]).unwrap();
-        let super::super::args::Command::Simulate(args) = cli.command else { panic!("simulate") };
-        let c = apply_vary(&args.condition, "liquid-mixing", "diffusion").unwrap();
-        assert!(matches!(c.liquid_mixing, MixingArg::Diffusion));
-        assert_eq!(apply_vary(&args.condition, "ambient-temperature", "500K").unwrap().ambient_temperature, "500K");
-        assert_eq!(apply_vary(&args.condition, "gas", "n2").unwrap().gas, "n2");
-        assert!(apply_vary(&args.condition, "liquid-heat", "warm").is_err());
-        assert_eq!(apply_vary(&args.condition, "activity", "unifac").unwrap().activity, ActivityArg::Unifac);
-        assert!(apply_vary(&args.condition, "activity", "raoult").is_err());
-        assert!(apply_vary(&args.condition, "correlation", "ranz-marshall").is_ok());
-    }
-
-    #[test]
-    fn unique_labels() {
-        let mut taken = vec![];
-        assert_eq!(unique("a".into(), &mut taken), "a");
-        assert_eq!(unique("a".into(), &mut taken), "a-2");
-        assert_eq!(unique("a".into(), &mut taken), "a-3");
-    }
-}
-
 /// Charts of a property-table folder: the mixture table and each residue table against temperature.
 pub(super) fn draw_table_charts(dir: &Path) -> Result<usize, CliError> {
     let mut files: Vec<std::path::PathBuf> = std::fs::read_dir(dir)
@@ -468,4 +389,51 @@ pub(super) fn draw_table_charts(dir: &Path) -> Result<usize, CliError> {
         crate::output::charts::table_vs_temperature(f, dir, &stem, title)?;
     }
     Ok(files.len())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn vary_parsing() {
+        let reg = &crate::conditions::CONDITIONS;
+        let v = parse_vary("ambient-temperature=500K, 800K", reg).unwrap();
+        assert_eq!(v.option, "ambient-temperature");
+        assert_eq!(v.values, vec!["500K", "800K"]);
+        let g = parse_vary("gas=air;o2=0.15,n2=0.85", reg).unwrap();
+        assert_eq!(g.values, vec!["air", "o2=0.15,n2=0.85"]);
+        let a = parse_vary("ambient-vapor=n-decane=0.01;n-decane=0.02", reg).unwrap();
+        assert_eq!(a.values, vec!["n-decane=0.01", "n-decane=0.02"]);
+        assert!(parse_vary("colour=red", reg).is_err());
+        assert!(parse_vary("pressure", reg).is_err());
+        assert!(parse_vary("pressure=", reg).is_err());
+        assert!(parse_vary("pressure=1bar,1bar", reg).is_err());
+        // every registry entry can be varied
+        for c in reg.iter() {
+            assert!(parse_vary(&format!("{}={}", c.key, c.example), reg).is_ok(), "{}", c.key);
+        }
+    }
+
+    #[test]
+    fn vary_applies_to_the_condition() {
+        let lib = Library::embedded().unwrap();
+        let c = ConditionArgs::default();
+        assert_eq!(apply_vary(&lib, &c, "liquid-mixing", "diffusion").unwrap().get("liquid-mixing"), "diffusion");
+        assert_eq!(apply_vary(&lib, &c, "ambient-temperature", "500K").unwrap().get("ambient-temperature"), "500K");
+        assert_eq!(apply_vary(&lib, &c, "gas", "n2").unwrap().get("gas"), "n2");
+        assert!(apply_vary(&lib, &c, "liquid-heat", "warm").unwrap_err().message.contains("'warm'"));
+        assert_eq!(apply_vary(&lib, &c, "activity", "unifac").unwrap().get("activity"), "unifac");
+        assert!(apply_vary(&lib, &c, "activity", "raoult").is_err());
+        assert!(apply_vary(&lib, &c, "correlation", "ranz-marshall").is_ok());
+        assert!(apply_vary(&lib, &c, "pressure", "3 parsec").is_err());
+    }
+
+    #[test]
+    fn unique_labels() {
+        let mut taken = vec![];
+        assert_eq!(unique("a".into(), &mut taken), "a");
+        assert_eq!(unique("a".into(), &mut taken), "a-2");
+        assert_eq!(unique("a".into(), &mut taken), "a-3");
+    }
 }

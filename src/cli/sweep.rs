@@ -7,7 +7,7 @@ use std::time::{Duration, Instant};
 use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
 
 use super::args::{MergeArgs, SweepArgs};
-use super::commands::{notice, stdout_write};
+use super::common::{notice, stdout_write};
 use super::CliError;
 use crate::data::Library;
 use crate::sweep::{self, slurm, Progress, RunOptions, Shard, SweepSpec};
@@ -97,7 +97,7 @@ pub fn sweep(lib: &Library, args: &SweepArgs, components: Option<&Path>) -> Resu
             notice(n);
         }
     }
-    super::commands::out_dir(&args.out)?;
+    super::common::out_dir(&args.out)?;
     if args.slurm_script {
         return slurm_script(&spec, args, components);
     }
@@ -112,7 +112,7 @@ pub fn sweep(lib: &Library, args: &SweepArgs, components: Option<&Path>) -> Resu
         },
     };
     let opts = RunOptions {
-        threads: super::commands::worker_threads(args.threads),
+        threads: super::common::worker_threads(args.threads),
         shard,
         histories: args.histories,
         resume: args.resume,
@@ -182,7 +182,7 @@ fn slurm_script(spec: &SweepSpec, args: &SweepArgs, components: Option<&Path>) -
 
 /// `dropcut merge DIR... --out DIR`
 pub fn merge(lib: &Library, args: &MergeArgs) -> Result<(), CliError> {
-    super::commands::out_dir(&args.out)?;
+    super::common::out_dir(&args.out)?;
     let spec = match &args.spec {
         Some(path) => Some(SweepSpec::load(path, lib)?),
         None => None,
@@ -201,29 +201,31 @@ mod tests {
     use clap::CommandFactory;
 
     use super::super::args::Cli;
-    use crate::sweep::spec::Kind;
-    use crate::sweep::VARIABLES;
+    use crate::conditions::{Kind, CONDITIONS};
 
-    /// The sweep's condition keys and defaults must stay those of `simulate`.
+    /// simulate, compare and uncertainty take every registry condition as an option with the registry default, and
+    /// simulate has no other condition option.
     #[test]
-    fn sweep_variables_match_simulate_options() {
+    fn condition_options_are_the_registry() {
         let cmd = Cli::command();
-        let sim = cmd.find_subcommand("simulate").expect("simulate subcommand");
-        for var in VARIABLES {
-            let arg = sim.get_arguments().find(|a| a.get_long() == Some(var.key)).unwrap_or_else(|| panic!("simulate has no --{}", var.key));
-            let defaults: Vec<String> = arg.get_default_values().iter().map(|d| d.to_string_lossy().into_owned()).collect();
-            if var.kind == Kind::Flag {
-                assert!(defaults.is_empty() || defaults == ["false"], "--{}: {defaults:?}", var.key);
-                assert_eq!(var.default, "false");
-            } else {
-                assert_eq!(defaults, [var.default], "default of --{}", var.key);
+        for name in ["simulate", "compare", "uncertainty"] {
+            let sub = cmd.find_subcommand(name).expect("subcommand");
+            for c in &CONDITIONS {
+                let arg = sub.get_arguments().find(|a| a.get_long() == Some(c.key)).unwrap_or_else(|| panic!("{name} has no --{}", c.key));
+                let defaults: Vec<String> = arg.get_default_values().iter().map(|d| d.to_string_lossy().into_owned()).collect();
+                if c.kind == Kind::Flag {
+                    assert!(defaults.is_empty() || defaults == ["false"], "--{}: {defaults:?}", c.key);
+                } else {
+                    assert_eq!(defaults, [c.default], "default of {name} --{}", c.key);
+                }
             }
         }
+        let sim = cmd.find_subcommand("simulate").expect("simulate subcommand");
         let not_conditions = ["out", "json", "no-plots", "limits", "components", "help", "version"];
         for arg in sim.get_arguments() {
             if let Some(long) = arg.get_long() {
                 if !not_conditions.contains(&long) {
-                    assert!(VARIABLES.iter().any(|v| v.key == long), "simulate option --{long} is not a sweep condition");
+                    assert!(CONDITIONS.iter().any(|c| c.key == long), "simulate option --{long} is not a registry condition");
                 }
             }
         }

@@ -9,6 +9,8 @@ use crate::fuel::Fuel;
 use crate::output;
 use crate::output::tables::{TableFormat, WriteOptions};
 use crate::props::gas::AmbientGas;
+use crate::conditions::{self, Condition, CONDITIONS};
+use crate::model::{DropletInputs, Motion};
 use crate::table::surrogate::{ReferenceCondition, SurrogateOptions};
 use crate::table::{self, TableError, TableOptions};
 use crate::units::{self, Quantity};
@@ -17,29 +19,53 @@ fn parse_q(option: &str, text: &str, q: Quantity) -> Result<f64, CliError> {
     units::parse(text, q).map_err(|e| CliError::input(format!("--{option}: {e}")))
 }
 
-/// `--reference` key=value pairs on top of the defaults.
-fn parse_reference(text: &str) -> Result<ReferenceCondition, CliError> {
-    let mut r = ReferenceCondition::default();
+/// The droplet inputs a surrogate run uses for reference condition `r` (as `table::surrogate::run` builds them).
+fn surrogate_inputs(fuel: &Fuel, gas: &AmbientGas, r: &ReferenceCondition) -> DropletInputs {
+    let mut inp = DropletInputs::new(fuel.clone(), gas.clone(), r.ambient_temperature, r.pressure, r.diameter, r.droplet_temperature);
+    inp.motion = Motion::Fixed { velocity: r.velocity };
+    inp
+}
+
+/// The reference condition the surrogate fit reads from droplet inputs.
+fn reference_of(inp: &DropletInputs) -> ReferenceCondition {
+    let velocity = match inp.motion {
+        Motion::Fixed { velocity } | Motion::Injected { velocity } => velocity,
+    };
+    ReferenceCondition { ambient_temperature: inp.ambient_temperature, pressure: inp.pressure, diameter: inp.initial_diameter, velocity, droplet_temperature: inp.initial_temperature }
+}
+
+/// True when condition `c` at `value` takes effect on the inputs and survives the trip through a reference
+/// condition (the fit uses it).
+fn carried(c: &Condition, base: &DropletInputs, value: &crate::conditions::Value, fuel: &Fuel, gas: &AmbientGas) -> bool {
+    let mut inp = base.clone();
+    c.apply(&mut inp, value).is_ok() && (c.get)(&inp).as_ref() == Some(value) && (c.get)(&inp) == (c.get)(&surrogate_inputs(fuel, gas, &reference_of(&inp)))
+}
+
+/// The condition keys `--reference` can set: those the surrogate fit carries (found by trying each entry's example).
+fn reference_keys(lib: &Library, base: &DropletInputs, fuel: &Fuel, gas: &AmbientGas) -> Vec<&'static str> {
+    CONDITIONS.iter().filter(|c| c.parse_text(c.example, lib).is_ok_and(|v| carried(c, base, &v, fuel, gas))).map(|c| c.key).collect()
+}
+
+/// `--reference` key=value pairs of condition options (registry spelling and units) on top of the defaults; a
+/// condition the surrogate fit does not carry is refused with the keys it does carry.
+fn parse_reference(lib: &Library, fuel: &Fuel, gas: &AmbientGas, text: &str) -> Result<ReferenceCondition, CliError> {
+    let mut base = conditions::build_inputs(&CONDITIONS, fuel.clone(), lib, &[]).map_err(|e| CliError::input(format!("--reference: {e}")))?;
+    base.gas = gas.clone();
+    let mut inp = base.clone();
     for item in text.split(',').map(str::trim).filter(|s| !s.is_empty()) {
         let (key, value) = item
             .split_once('=')
             .ok_or_else(|| CliError::input(format!("--reference '{text}': cannot read '{item}'; use key=value pairs like ambient-temperature=800K,pressure=1atm")))?;
         let (key, value) = (key.trim(), value.trim());
-        let q = |qty| units::parse(value, qty).map_err(|e| CliError::input(format!("--reference {key}={value}: {e}")));
-        match key {
-            "ambient-temperature" => r.ambient_temperature = q(Quantity::Temperature)?,
-            "pressure" => r.pressure = q(Quantity::Pressure)?,
-            "diameter" => r.diameter = q(Quantity::Length)?,
-            "velocity" => r.velocity = q(Quantity::Velocity)?,
-            "droplet-temperature" => r.droplet_temperature = q(Quantity::Temperature)?,
-            other => {
-                return Err(CliError::input(format!(
-                    "--reference '{text}': unknown key '{other}' (known: ambient-temperature, pressure, diameter, velocity, droplet-temperature)"
-                )))
-            }
+        let known = || reference_keys(lib, &base, fuel, gas).join(", ");
+        let c = conditions::find(&CONDITIONS, key).ok_or_else(|| CliError::input(format!("--reference '{text}': unknown key '{key}' (known: {})", known())))?;
+        let v = c.parse_text(value, lib).map_err(|e| CliError::input(format!("--reference {key}={value}: {e}")))?;
+        if !carried(c, &inp, &v, fuel, gas) {
+            return Err(CliError::input(format!("--reference {key}={value}: the surrogate fit does not vary '{key}' (it runs a well-mixed droplet in --gas at a constant slip); reference keys: {}", known())));
         }
+        c.apply(&mut inp, &v).map_err(|e| CliError::input(format!("--reference {key}={value}: {}", e.reason)))?;
     }
-    Ok(r)
+    Ok(reference_of(&inp))
 }
 
 fn parse_residues(text: &str) -> Result<Vec<f64>, CliError> {
@@ -109,13 +135,13 @@ pub fn table(lib: &Library, args: &TableArgs) -> Result<(), CliError> {
     let vapor_to = parse_q("vapor-to", &args.vapor_to, Quantity::Temperature)?;
     let residue_temperature = parse_q("residue-temperature", &args.residue_temperature, Quantity::Temperature)?;
     let residue_fractions = parse_residues(&args.residue)?;
-    let reference = parse_reference(&args.reference)?;
     let gas = AmbientGas::parse(lib, &args.gas).map_err(|e| CliError::input(format!("--gas {}: {e}", args.gas)))?;
     let date = metadata_date(args.no_date)?;
     let fuel = Fuel::resolve(&args.fuel, lib)?;
     for n in &fuel.notices {
         let _ = writeln!(std::io::stderr(), "note: {n}");
     }
+    let reference = parse_reference(lib, &fuel, &gas, &args.reference)?;
     let mut opts = TableOptions::new(gas);
     opts.pressure = pressure;
     opts.step = step;
@@ -191,11 +217,26 @@ mod tests {
 
     #[test]
     fn reference_parsing() {
-        let r = parse_reference("ambient-temperature=1000K, diameter=30um").unwrap();
+        let lib = Library::embedded().unwrap();
+        let fuel = Fuel::resolve("n-decane", &lib).unwrap();
+        let gas = AmbientGas::air(&lib).unwrap();
+        let parse = |t: &str| parse_reference(&lib, &fuel, &gas, t);
+        let r = parse("ambient-temperature=1000K, diameter=30um").unwrap();
         assert!((r.ambient_temperature - 1000.0).abs() < 1e-12 && (r.diameter - 30e-6).abs() < 1e-18 && (r.pressure - 101_325.0).abs() < 1e-9);
-        assert!(parse_reference("temperature=1000K").is_err());
-        assert!(parse_reference("ambient-temperature").is_err());
-        assert!(parse_reference("pressure=3 furlongs").is_err());
+        assert_eq!(parse("ambient-temperature=800K,pressure=1atm,diameter=50um,velocity=0,droplet-temperature=300K").unwrap(), ReferenceCondition::default());
+        assert!(parse("temperature=1000K").unwrap_err().message.contains("unknown key 'temperature'"));
+        assert!(parse("ambient-temperature").is_err());
+        assert!(parse("pressure=3 furlongs").is_err());
+        // the keys the fit carries are found from the registry, not listed by hand
+        let base = conditions::build_inputs(&CONDITIONS, fuel.clone(), &lib, &[]).unwrap();
+        assert_eq!(reference_keys(&lib, &base, &fuel, &gas), ["ambient-temperature", "pressure", "diameter", "droplet-temperature", "velocity"]);
+        // every other registry condition is recognised and refused with a reason, never "unknown"
+        for c in CONDITIONS.iter() {
+            match parse(&format!("{}={}", c.key, c.example)) {
+                Ok(_) => assert!(reference_keys(&lib, &base, &fuel, &gas).contains(&c.key)),
+                Err(e) => assert!(e.message.contains("does not vary") && e.message.contains(c.key), "{}", e.message),
+            }
+        }
         assert!(parse_residues("0,0.3,0.6").unwrap().len() == 3);
         assert!(parse_residues("0.3,0.1").is_err());
         assert!(parse_residues("1.0").is_err());

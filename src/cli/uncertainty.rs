@@ -4,7 +4,8 @@
 use std::io::IsTerminal;
 
 use super::args::{PropertyDistributionArg, SamplingArg, UncertaintyArgs};
-use super::commands::{droplet_inputs, notice, parse_q, progress, stdout_write};
+use super::common::{notice, parse_q, progress, stdout_write};
+use super::conditions::droplet_inputs;
 use super::CliError;
 use crate::data::Library;
 use crate::fuel::Fuel;
@@ -61,7 +62,7 @@ fn settings(args: &UncertaintyArgs) -> Result<Settings, CliError> {
         SamplingArg::MonteCarlo => Method::MonteCarlo,
         SamplingArg::LatinHypercube => Method::LatinHypercube,
     };
-    Ok(Settings { samples, seed, method, threads: super::commands::worker_threads(args.threads), ..Settings::default() })
+    Ok(Settings { samples, seed, method, threads: super::common::worker_threads(args.threads), ..Settings::default() })
 }
 
 fn ms(v: Option<f64>) -> String {

@@ -15,7 +15,7 @@ pub use merge::{merge, MergeReport};
 pub use residue::ResidueIndicators;
 pub use runner::{run, Progress, RunOptions, SweepReport};
 pub use shard::Shard;
-pub use spec::{Case, SweepSpec, Value, VARIABLES};
+pub use spec::{Case, SweepSpec, Value, ValueText};
 pub use summary::ExtraColumns;
 
 use thiserror::Error;

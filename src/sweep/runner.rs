@@ -236,7 +236,7 @@ fn worker(
 
 fn run_case(spec: &SweepSpec, id: u64, out: &Path, histories: bool, extra: &[Box<dyn ExtraColumns>], fmt: &mut RowFormatter) -> Result<String, SweepError> {
     let case = spec.case(id).ok_or_else(|| SweepError::Internal(format!("case {id} is outside the sweep")))?;
-    let inputs = spec.inputs(&case);
+    let inputs = spec.inputs(&case)?;
     let case_dir = out.join(CASES_DIR).join(id.to_string());
     if histories {
         match fs::remove_dir_all(&case_dir) {

@@ -5,7 +5,8 @@ use crate::model::{DropletInputs, RunOutcome, Status};
 use crate::output::{Cell, CsvTable, TOOL_VERSION};
 
 use super::shard::Shard;
-use super::spec::{Case, SweepSpec, VARIABLES};
+use super::spec::{Case, SweepSpec, ValueText};
+use crate::conditions::CONDITIONS;
 
 /// Extra summary columns computed from a finished case (e.g. residual-liquid indicators).
 ///
@@ -39,7 +40,7 @@ pub const CASES_LINE_PREFIX: &str = "# cases: ";
 /// Column names of summary.csv.
 pub fn header(extra: &[Box<dyn ExtraColumns>]) -> Vec<String> {
     let mut h: Vec<String> = vec!["case_id".into(), "fuel".into()];
-    h.extend(VARIABLES.iter().map(|v| v.column.to_string()));
+    h.extend(CONDITIONS.iter().map(|v| v.column.to_string()));
     h.extend(RESULT_COLUMNS.iter().map(|s| s.to_string()));
     for e in extra {
         h.extend(e.names());
@@ -162,14 +163,14 @@ pub fn check_row(text: &str, id: u64, n_fields: usize, expected_inputs: Option<&
         }
     }
     let fields = split_fields(text);
-    let inputs = 2 + VARIABLES.len();
+    let inputs = 2 + CONDITIONS.len();
     if fields.len() != n_fields || n_fields < inputs + RESULT_COLUMNS.len() + 1 {
         return Err("cannot be split into its columns".into());
     }
     if fields[1].trim().is_empty() {
         return Err("has no fuel name".into());
     }
-    for (v, cell) in VARIABLES.iter().zip(&fields[2..inputs]) {
+    for (v, cell) in CONDITIONS.iter().zip(&fields[2..inputs]) {
         if cell.starts_with(|c: char| c.is_ascii_digit() || c == '-') && cell.parse::<f64>().is_ok_and(|x| !x.is_finite()) {
             return Err(format!("{} = {cell} is not a finite number", v.column));
         }
@@ -311,8 +312,8 @@ mod tests {
 
     #[test]
     fn damaged_rows_are_named() {
-        let n = 2 + VARIABLES.len() + RESULT_COLUMNS.len() + 1;
-        let inputs: Vec<String> = (0..VARIABLES.len()).map(|_| "1".to_string()).collect();
+        let n = 2 + CONDITIONS.len() + RESULT_COLUMNS.len() + 1;
+        let inputs: Vec<String> = (0..CONDITIONS.len()).map(|_| "1".to_string()).collect();
         let row = |fuel: &str, results: &[&str], status: &str| {
             let mut f = vec!["3".to_string(), fuel.to_string()];
             f.extend(inputs.iter().cloned());

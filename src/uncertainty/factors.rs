@@ -4,7 +4,8 @@
 
 use std::sync::Arc;
 
-use crate::model::{DropletInputs, Motion};
+use crate::conditions::Value;
+use crate::model::DropletInputs;
 
 use super::random::name_key;
 use super::spec::{property_keys, CompositionTarget, ConditionKey, Distribution, UncertaintySpec};
@@ -65,11 +66,13 @@ impl Factor {
         match &self.kind {
             FactorKind::Condition { key, nominal, spread } => {
                 let v = nominal + spread * z;
-                // a speed is a magnitude: a draw below zero is held at zero
-                if *key == ConditionKey::Velocity {
-                    v.max(0.0)
+                // a draw beyond an inclusive bound of the condition is held at it (a speed below zero at zero);
+                // conditions with an exclusive bound are refused in `resolve` when a draw could cross it
+                let range = key.condition().range;
+                if range.min_inclusive {
+                    v.max(range.min).min(range.max)
                 } else {
-                    v
+                    v.min(range.max)
                 }
             }
             FactorKind::Composition { spread, .. } => (1.0 + spread * z).max(0.0),
@@ -99,32 +102,14 @@ impl Factor {
     }
 }
 
-/// Nominal value of a condition in `inputs` (SI).
-pub fn condition_value(inputs: &DropletInputs, key: ConditionKey) -> f64 {
-    match key {
-        ConditionKey::AmbientTemperature => inputs.ambient_temperature,
-        ConditionKey::Pressure => inputs.pressure,
-        ConditionKey::Diameter => inputs.initial_diameter,
-        ConditionKey::DropletTemperature => inputs.initial_temperature,
-        ConditionKey::Velocity => match inputs.motion {
-            Motion::Fixed { velocity } | Motion::Injected { velocity } => velocity,
-        },
-    }
+/// Nominal value of a condition in `inputs` (SI), or None when it holds no number (radiation off, no fibre).
+pub fn condition_value(inputs: &DropletInputs, key: ConditionKey) -> Option<f64> {
+    (key.condition().get)(inputs).and_then(|v| v.number())
 }
 
 fn set_condition(inputs: &mut DropletInputs, key: ConditionKey, v: f64) {
-    match key {
-        ConditionKey::AmbientTemperature => inputs.ambient_temperature = v,
-        ConditionKey::Pressure => inputs.pressure = v,
-        ConditionKey::Diameter => inputs.initial_diameter = v,
-        ConditionKey::DropletTemperature => inputs.initial_temperature = v,
-        ConditionKey::Velocity => {
-            inputs.motion = match inputs.motion {
-                Motion::Fixed { .. } => Motion::Fixed { velocity: v },
-                Motion::Injected { .. } => Motion::Injected { velocity: v },
-            }
-        }
-    }
+    // `resolve` tried this setter with the nominal number: a continuous condition's setter takes any number
+    let _ = (key.condition().set)(inputs, &Value::Number(v));
 }
 
 /// The factors of `spec` for the fuel and condition of `nominal`, in a fixed order (conditions, composition
@@ -134,7 +119,16 @@ pub fn resolve(spec: &UncertaintySpec, nominal: &DropletInputs) -> Result<(Vec<F
     let mut factors = vec![];
     let mut notices = vec![];
     for (&key, s) in &spec.conditions {
-        let nominal_value = condition_value(nominal, key);
+        let what = || format!("uncertainty of {}", key.as_str());
+        let nominal_value = condition_value(nominal, key).ok_or_else(|| UncertaintyError::Input {
+            what: what(),
+            message: format!("the nominal run has no number for {} ({}): nothing to spread", key.as_str(), match (key.condition().get)(nominal) {
+                Some(Value::Choice(w)) => w.to_string(),
+                Some(other) => format!("{other:?}"),
+                None => "not used in this run".into(),
+            }),
+        })?;
+        (key.condition().set)(&mut nominal.clone(), &Value::Number(nominal_value)).map_err(|reason| UncertaintyError::Input { what: what(), message: reason })?;
         let spread = if s.relative { s.value * nominal_value.abs() } else { s.value };
         if spread == 0.0 {
             continue;
@@ -143,15 +137,11 @@ pub fn resolve(spec: &UncertaintySpec, nominal: &DropletInputs) -> Result<(Vec<F
             Distribution::Uniform => spread,
             _ => super::random::TRUNCATION * spread,
         };
-        if key != ConditionKey::Velocity && nominal_value - reach <= 0.0 {
+        let range = key.condition().range;
+        if !range.min_inclusive && nominal_value - reach <= range.min {
             return Err(UncertaintyError::Input {
-                what: format!("uncertainty of {}", key.as_str()),
-                message: format!(
-                    "nominal {} {} minus the largest draw {} leaves no positive value: reduce the spread",
-                    nominal_value,
-                    key.column().rsplit('_').next().unwrap_or(""),
-                    reach
-                ),
+                what: what(),
+                message: format!("nominal {} {} minus the largest draw {} leaves no {}: reduce the spread", nominal_value, key.condition().unit, reach, if range.min == 0.0 { "positive value".to_string() } else { format!("value above {}", range.min) }),
             });
         }
         factors.push(Factor {
@@ -292,7 +282,7 @@ mod tests {
         let inp = nominal("demo-wide");
         let mut spec = UncertaintySpec::default();
         spec.add_composition("aromatics=10%", "c", &lib).unwrap();
-        spec.conditions.insert(ConditionKey::Pressure, Spread { value: 0.1, relative: true, distribution: Distribution::Normal });
+        spec.conditions.insert(ConditionKey::parse("pressure").unwrap(), Spread { value: 0.1, relative: true, distribution: Distribution::Normal });
         let (f, _) = resolve(&spec, &inp).unwrap();
         let z: Vec<f64> = (0..f.len()).map(|k| if k % 2 == 0 { 1.0 } else { -0.5 }).collect();
         let p = perturbed(&inp, &f, &z);
@@ -314,7 +304,7 @@ mod tests {
     fn spreads_reaching_zero_are_refused() {
         let inp = nominal("n-decane");
         let mut spec = UncertaintySpec::default();
-        spec.conditions.insert(ConditionKey::Diameter, Spread { value: 20e-6, relative: false, distribution: Distribution::Normal });
+        spec.conditions.insert(ConditionKey::parse("diameter").unwrap(), Spread { value: 20e-6, relative: false, distribution: Distribution::Normal });
         let e = resolve(&spec, &inp).unwrap_err().to_string();
         assert!(e.contains("diameter"), "{e}");
     }

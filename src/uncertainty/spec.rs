@@ -5,66 +5,86 @@
 
 use std::collections::BTreeMap;
 
+use crate::conditions::{Condition, CONDITIONS};
 use crate::data::component::DEFAULT_UNCERTAINTY;
 use crate::data::{suggest, HydrocarbonClass, Library};
 use crate::units::{self, Quantity};
 
 use super::UncertaintyError;
 
-/// A condition that can be uncertain.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]
-pub enum ConditionKey {
-    /// Ambient gas temperature.
-    AmbientTemperature,
-    /// Ambient pressure.
-    Pressure,
-    /// Initial droplet diameter.
-    Diameter,
-    /// Relative velocity (initial velocity of an injected droplet).
-    Velocity,
-    /// Initial droplet temperature.
-    DropletTemperature,
+/// A condition that can be uncertain: a thin view of a registry entry of a continuous kind
+/// ([`crate::conditions::Kind::is_continuous`]), ordered by its position in the registry.
+#[derive(Clone, Copy)]
+pub struct ConditionKey {
+    position: usize,
+    condition: &'static Condition,
+}
+
+impl PartialEq for ConditionKey {
+    fn eq(&self, other: &Self) -> bool {
+        self.position == other.position && self.condition.key == other.condition.key
+    }
+}
+impl Eq for ConditionKey {}
+impl PartialOrd for ConditionKey {
+    fn partial_cmp(&self, other: &Self) -> Option<std::cmp::Ordering> {
+        Some(self.cmp(other))
+    }
+}
+impl Ord for ConditionKey {
+    fn cmp(&self, other: &Self) -> std::cmp::Ordering {
+        (self.position, self.condition.key).cmp(&(other.position, other.condition.key))
+    }
+}
+impl std::fmt::Debug for ConditionKey {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(f, "ConditionKey({})", self.condition.key)
+    }
 }
 
 impl ConditionKey {
-    /// Every condition, in factor order.
-    pub const ALL: [ConditionKey; 5] = [ConditionKey::AmbientTemperature, ConditionKey::Pressure, ConditionKey::Diameter, ConditionKey::Velocity, ConditionKey::DropletTemperature];
+    /// The spreadable condition of the built-in registry with this key, if it is one.
+    pub fn parse(name: &str) -> Option<Self> {
+        Self::parse_in(&CONDITIONS, name)
+    }
+
+    /// The spreadable condition of `registry` with this key, if it is one.
+    pub fn parse_in(registry: &'static [Condition], name: &str) -> Option<Self> {
+        registry.iter().enumerate().find(|(_, c)| c.key == name && c.kind.is_continuous()).map(|(position, condition)| ConditionKey { position, condition })
+    }
+
+    /// Keys of the spreadable conditions of `registry`, in registry order.
+    pub fn spreadable(registry: &[Condition]) -> Vec<&'static str> {
+        registry.iter().filter(|c| c.kind.is_continuous()).map(|c| c.key).collect()
+    }
+
+    /// The registry entry.
+    pub fn condition(self) -> &'static Condition {
+        self.condition
+    }
 
     /// Key as in files and on the command line (the `simulate` option name).
     pub fn as_str(self) -> &'static str {
-        match self {
-            ConditionKey::AmbientTemperature => "ambient-temperature",
-            ConditionKey::Pressure => "pressure",
-            ConditionKey::Diameter => "diameter",
-            ConditionKey::Velocity => "velocity",
-            ConditionKey::DropletTemperature => "droplet-temperature",
-        }
+        self.condition.key
     }
 
     /// CSV column of the sampled value (SI unit suffix).
     pub fn column(self) -> &'static str {
-        match self {
-            ConditionKey::AmbientTemperature => "ambient_temperature_K",
-            ConditionKey::Pressure => "pressure_Pa",
-            ConditionKey::Diameter => "diameter_m",
-            ConditionKey::Velocity => "velocity_m_s",
-            ConditionKey::DropletTemperature => "droplet_temperature_K",
-        }
+        self.condition.column
     }
 
     /// Quantity of an absolute spread (a temperature spread is a difference).
     pub fn spread_quantity(self) -> Quantity {
-        match self {
-            ConditionKey::AmbientTemperature | ConditionKey::DropletTemperature => Quantity::TemperatureDifference,
-            ConditionKey::Pressure => Quantity::Pressure,
-            ConditionKey::Diameter => Quantity::Length,
-            ConditionKey::Velocity => Quantity::Velocity,
-        }
+        self.condition.kind.spread_quantity().unwrap_or(Quantity::Dimensionless)
     }
+}
 
-    /// The key for a name, if it is one.
-    pub fn parse(name: &str) -> Option<Self> {
-        Self::ALL.into_iter().find(|k| k.as_str() == name)
+/// The refusal of a key that is not a spreadable condition of `registry`.
+fn not_spreadable(registry: &[Condition], name: &str) -> String {
+    let known = ConditionKey::spreadable(registry).join(", ");
+    match crate::conditions::find(registry, name) {
+        Some(c) => format!("'{name}' cannot be spread: it takes {}, not a number on a continuous scale (spreadable: {known})", c.value_help()),
+        None => format!("unknown condition '{name}'{} (known: {known})", suggest(name, ConditionKey::spreadable(registry).into_iter())),
     }
 }
 
@@ -293,6 +313,11 @@ fn composition_target(name: &str, lib: &Library) -> Result<CompositionTarget, St
 impl UncertaintySpec {
     /// Read a TOML uncertainty file; `file` names it in messages.
     pub fn parse(text: &str, file: &str, lib: &Library) -> Result<Self, UncertaintyError> {
+        Self::parse_with(text, file, lib, &CONDITIONS)
+    }
+
+    /// Read a TOML uncertainty file whose `[conditions]` are those of `registry` (the built-in one or an extension).
+    pub fn parse_with(text: &str, file: &str, lib: &Library, registry: &'static [Condition]) -> Result<Self, UncertaintyError> {
         let value: toml::Table = toml::from_str(text).map_err(|e| spec_err(file, "(file)", crate::data::toml_error_at(&e, text)))?;
         let mut spec = UncertaintySpec::default();
         for (key, v) in &value {
@@ -301,9 +326,7 @@ impl UncertaintySpec {
                     let t = v.as_table().ok_or_else(|| spec_err(file, "conditions", "must be a table ([conditions])"))?;
                     for (name, entry) in t {
                         let field = format!("conditions.{name}");
-                        let k = ConditionKey::parse(name).ok_or_else(|| {
-                            spec_err(file, &field, format!("unknown condition (known: {})", ConditionKey::ALL.map(|k| k.as_str()).join(", ")))
-                        })?;
+                        let k = ConditionKey::parse_in(registry, name).ok_or_else(|| spec_err(file, &field, not_spreadable(registry, name)))?;
                         let s = spread_value(entry, Some(k.spread_quantity())).map_err(|m| spec_err(file, &field, m))?;
                         spec.conditions.insert(k, s);
                     }
@@ -332,12 +355,14 @@ impl UncertaintySpec {
 
     /// Add command-line condition entries `key=spread,...` (spread as in files: `10K`, `2%`); they replace file entries.
     pub fn add_conditions(&mut self, text: &str, option: &str) -> Result<(), UncertaintyError> {
+        self.add_conditions_with(text, option, &CONDITIONS)
+    }
+
+    /// [`add_conditions`](Self::add_conditions) with the conditions of `registry`.
+    pub fn add_conditions_with(&mut self, text: &str, option: &str, registry: &'static [Condition]) -> Result<(), UncertaintyError> {
         for item in text.split(',').map(str::trim).filter(|s| !s.is_empty()) {
             let (name, spread) = item.split_once('=').ok_or_else(|| UncertaintyError::Input { what: option.to_string(), message: format!("cannot read '{item}': use key=spread pairs like ambient-temperature=10K,pressure=2%") })?;
-            let k = ConditionKey::parse(name.trim()).ok_or_else(|| UncertaintyError::Input {
-                what: option.to_string(),
-                message: format!("unknown condition '{}' (known: {})", name.trim(), ConditionKey::ALL.map(|k| k.as_str()).join(", ")),
-            })?;
+            let k = ConditionKey::parse_in(registry, name.trim()).ok_or_else(|| UncertaintyError::Input { what: option.to_string(), message: not_spreadable(registry, name.trim()) })?;
             let s = shorthand(spread, Some(k.spread_quantity())).and_then(|s| check_spread(&s).map(|_| s)).map_err(|m| UncertaintyError::Input { what: option.to_string(), message: format!("{}: {m}", name.trim()) })?;
             self.conditions.insert(k, s);
         }
@@ -426,11 +451,11 @@ distribution = "log-normal"
 vapor-pressure = 0.05
 "#;
         let s = UncertaintySpec::parse(text, "u.toml", &lib).unwrap();
-        assert_eq!(s.conditions[&ConditionKey::AmbientTemperature], Spread { value: 10.0, relative: false, distribution: Distribution::Normal });
-        assert_eq!(s.conditions[&ConditionKey::Pressure], Spread { value: 0.02, relative: true, distribution: Distribution::Normal });
-        assert!((s.conditions[&ConditionKey::Diameter].value - 5e-6).abs() < 1e-15);
-        assert_eq!(s.conditions[&ConditionKey::Diameter].distribution, Distribution::Uniform);
-        assert!(s.conditions[&ConditionKey::Velocity].relative);
+        assert_eq!(s.conditions[&ConditionKey::parse("ambient-temperature").unwrap()], Spread { value: 10.0, relative: false, distribution: Distribution::Normal });
+        assert_eq!(s.conditions[&ConditionKey::parse("pressure").unwrap()], Spread { value: 0.02, relative: true, distribution: Distribution::Normal });
+        assert!((s.conditions[&ConditionKey::parse("diameter").unwrap()].value - 5e-6).abs() < 1e-15);
+        assert_eq!(s.conditions[&ConditionKey::parse("diameter").unwrap()].distribution, Distribution::Uniform);
+        assert!(s.conditions[&ConditionKey::parse("velocity").unwrap()].relative);
         assert_eq!(s.composition[&CompositionTarget::Group("aromatics")].value, 0.1);
         assert_eq!(s.composition[&CompositionTarget::Component("n-decane".into())].value, 0.05);
         assert_eq!(s.composition[&CompositionTarget::Each].distribution, Distribution::Uniform);

@@ -1,0 +1,85 @@
+//! Helpers shared by the command files: output to stdout and stderr, quantity options, output targets, thread
+//! counts and the residue table of a droplet run. No command file imports another; they all import this one.
+
+use std::io::{IsTerminal, Write};
+use std::path::Path;
+
+use super::CliError;
+use crate::model::{self, DropletInputs};
+use crate::output;
+use crate::units::{self, Quantity};
+
+/// Write to stdout; a closed pipe (`| head`) is not an error.
+pub(super) fn stdout_write(text: &str) -> Result<(), CliError> {
+    let mut out = std::io::stdout().lock();
+    match out.write_all(text.as_bytes()).and_then(|_| out.flush()) {
+        Ok(()) => Ok(()),
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
+        Err(e) => Err(CliError::runtime(format!("stdout: {e}"))),
+    }
+}
+
+/// A progress line on stderr, only when stderr is a terminal.
+pub(super) fn progress(msg: &str) {
+    if std::io::stderr().is_terminal() {
+        let _ = writeln!(std::io::stderr(), "{msg}");
+    }
+}
+
+/// A `note:` line on stderr.
+pub(super) fn notice(msg: &str) {
+    let _ = writeln!(std::io::stderr(), "note: {msg}");
+}
+
+/// A quantity option with its unit, in SI; the error names the option.
+pub(super) fn parse_q(option: &str, text: &str, q: Quantity) -> Result<f64, CliError> {
+    units::parse(text, q).map_err(|e| CliError::input(format!("--{option}: {e}")))
+}
+
+/// Worker threads for `--threads N`: 0 = every core; more than the cores this process may use is capped to
+/// them with a note (the results do not depend on the thread count; thousands of threads only cost time and
+/// memory).
+pub(super) fn worker_threads(requested: usize) -> usize {
+    let cores = std::thread::available_parallelism().map(|n| n.get()).unwrap_or(1);
+    if requested > cores {
+        notice(&format!("--threads {requested}: this machine lets dropcut use {cores} cores; running {cores} threads"));
+        return cores;
+    }
+    requested
+}
+
+/// Refuse an existing `--out` that is not a folder (a file, device, FIFO) before any work is done.
+pub(super) fn out_dir(out: &Path) -> Result<(), CliError> {
+    match output::refuse_dir_target(out) {
+        Some(m) => Err(CliError::input(format!("--out {}: {m}", out.display()))),
+        None => Ok(()),
+    }
+}
+
+/// Refuse an existing `--out` file that is not a regular file (device, FIFO, symbolic link, folder).
+pub(super) fn out_file(out: &Path) -> Result<(), CliError> {
+    match output::refuse_file_target(out) {
+        Some(m) => Err(CliError::input(format!("--out {}: {m}", out.display()))),
+        None => Ok(()),
+    }
+}
+
+/// Residual-liquid indicators along a droplet history (mean liquid, and the surface layer of a resolved
+/// droplet) written to residue.csv.
+pub(super) fn write_droplet_residue(dir: &Path, inp: &DropletInputs, run: &model::RunResult, limits: Option<&crate::post::Limits>) -> Result<(), CliError> {
+    use crate::post::droplet::{residues_along_history, Layer};
+    let fractions = crate::post::weathering::default_fractions();
+    let opts = crate::post::IndicatorOptions { activity: inp.liquid.activity, ..Default::default() };
+    let comps = &inp.fuel.components;
+    let mean = residues_along_history(&run.history, &fractions, Layer::Mean);
+    let mean_rows = crate::post::residue_table(comps, &mean, &opts).map_err(|e| CliError::runtime(e.to_string()))?;
+    let mut sets = vec![output::residue::ResidueSet { label: "mean", rows: &mean_rows }];
+    let surface_rows;
+    if inp.liquid.mixing == model::droplet::LiquidMixing::Diffusion {
+        let surface = residues_along_history(&run.history, &fractions, Layer::Surface);
+        surface_rows = crate::post::residue_table(comps, &surface, &opts).map_err(|e| CliError::runtime(e.to_string()))?;
+        sets.push(output::residue::ResidueSet { label: "surface", rows: &surface_rows });
+    }
+    output::residue::write_residue(&dir.join("residue.csv"), &format!("residual liquid along the droplet history of {}", inp.fuel.name), &sets, limits)?;
+    Ok(())
+}

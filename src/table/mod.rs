@@ -17,7 +17,7 @@ use thiserror::Error;
 
 use crate::data::Component;
 use crate::fuel::Fuel;
-use crate::model::resolved::wilke_chang;
+use crate::props::diffusion::wilke_chang;
 use crate::model::ModelError;
 use crate::post::indicators::freezing_point;
 use crate::post::PostError;

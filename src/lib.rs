@@ -24,6 +24,23 @@
 //! let lifetime = run.outcome.lifetime.unwrap();
 //! assert!(lifetime > 1e-3 && lifetime < 2e-2, "{lifetime} s");
 //! ```
+//!
+//! A property table and the residue indicators of a liquid:
+//!
+//! ```
+//! use dropcut::data::Library;
+//! use dropcut::fuel::Fuel;
+//! use dropcut::post::{indicators, IndicatorOptions};
+//! use dropcut::props::gas::AmbientGas;
+//! use dropcut::table::{mixture_table, TableOptions};
+//!
+//! let lib = Library::embedded().unwrap();
+//! let fuel = Fuel::resolve("demo-narrow", &lib).unwrap();
+//! let table = mixture_table("mixture", &fuel, &TableOptions::new(AmbientGas::air(&lib).unwrap())).unwrap();
+//! assert!(table.rows.len() > 5);
+//! let found = indicators(&fuel.components, &fuel.mass_fractions, &IndicatorOptions::default()).unwrap();
+//! assert!(found.t10_K.unwrap() < found.t50_K.unwrap());
+//! ```
 #![warn(missing_docs)]
 #![allow(non_snake_case)] // SI-unit suffixes in names: temperature_K, pressure_Pa
 

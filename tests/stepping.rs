@@ -149,8 +149,11 @@ fn exchange_terms_sum_to_what_the_droplet_lost() {
         };
         let given: f64 = exchanges.iter().map(|e| e.energy).sum();
         let lost = enthalpy(&first) - enthalpy(&end);
-        eprintln!("resolved {resolved}: energy given {given:.6e} J, lost {lost:.6e} J");
-        assert!(rel(given, lost) <= 1e-9, "{given} vs {lost}");
+        // the net loss is a small difference (the droplet heats up while it loses mass): relative to the gross
+        // energy exchanged over the life
+        let gross: f64 = exchanges.iter().map(|e| e.energy.abs()).sum();
+        eprintln!("resolved {resolved}: energy given {given:.9e} J, lost {lost:.9e} J, gross {gross:.3e} J");
+        assert!((given - lost).abs() <= 1e-9 * gross, "{given} vs {lost}");
         let momentum: f64 = exchanges.iter().map(|e| e.momentum[0]).sum();
         let lost_momentum = first.mass() * first.velocity()[0] - end.mass() * end.velocity()[0];
         assert!(rel(momentum, lost_momentum) <= 1e-9, "{momentum} vs {lost_momentum}");
@@ -188,11 +191,21 @@ fn step_change_of_gas_temperature_mid_life() {
         let mut k = 0;
         while !state.is_finished() {
             previous = state.clone();
-            let ex = stepper.advance(&mut state, dt, &ff(k)).unwrap();
+            let mut ex = if k == switch {
+                // continuity: 10 ns after the jump the state has moved by a tiny amount only
+                let first = stepper.advance(&mut state, 1e-8, &hot).unwrap();
+                assert!((state.surface_temperature() - previous.surface_temperature()).abs() < 0.02, "{} -> {}", previous.surface_temperature(), state.surface_temperature());
+                assert!(rel(state.mass(), previous.mass()) < 1e-4);
+                Some(first)
+            } else {
+                None
+            };
+            let rest = stepper.advance(&mut state, if k == switch { dt - 1e-8 } else { dt }, &ff(k)).unwrap();
+            let ex = match ex.take() {
+                Some(first) => Exchange { mass: first.mass.iter().zip(&rest.mass).map(|(a, b)| a + b).collect(), ..rest },
+                None => rest,
+            };
             if k == switch {
-                // continuity: one 10 µs step after the jump changes mass and temperature by a small amount
-                assert!((state.surface_temperature() - previous.surface_temperature()).abs() < 5.0, "{} -> {}", previous.surface_temperature(), state.surface_temperature());
-                assert!(rel(state.mass(), previous.mass()) < 0.05);
                 let m_hot: f64 = ex.mass.iter().sum();
                 let m_cold: f64 = steady[k].mass.iter().sum();
                 assert!(m_hot > m_cold, "evaporation after the jump {m_hot} vs steady {m_cold}");

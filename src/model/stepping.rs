@@ -228,6 +228,31 @@ impl DropletState {
 /// The model of one fuel a solver advances droplets with: the liquid model and options of a [`DropletInputs`]
 /// (its ambient and motion values only fill the far field until a step gives one), with its work buffers. One
 /// stepper serves any number of droplets, one after the other.
+///
+/// ```
+/// use dropcut::data::Library;
+/// use dropcut::fuel::Fuel;
+/// use dropcut::model::{DropletInputs, FarField, Motion, Stepper};
+/// use dropcut::props::gas::AmbientGas;
+///
+/// let lib = Library::embedded().unwrap();
+/// let fuel = Fuel::resolve("n-decane", &lib).unwrap();
+/// let mut inputs = DropletInputs::new(fuel, AmbientGas::air(&lib).unwrap(), 800.0, 101_325.0, 30e-6, 300.0);
+/// inputs.motion = Motion::Injected { velocity: 0.0 }; // the velocity relaxes toward the gas by drag
+/// let mut stepper = Stepper::new(&inputs).unwrap();
+/// let mut far_field = FarField::new(900.0, 101_325.0);
+/// let mut droplet = stepper.initial_state(&far_field, [3.0, 0.0, 0.0]).unwrap();
+/// let m0 = droplet.mass();
+/// let (mut vapour, mut energy) = (0.0, 0.0);
+/// while !droplet.is_finished() {
+///     far_field.temperature += 1.0; // the gas the droplet meets gets hotter
+///     let exchange = stepper.advance(&mut droplet, 1e-4, &far_field).unwrap();
+///     vapour += exchange.mass.iter().sum::<f64>();
+///     energy += exchange.energy;
+/// }
+/// assert!((vapour - (m0 - droplet.mass())).abs() < 1e-12 * m0);
+/// assert!(energy > 0.0 && droplet.time() < 0.02);
+/// ```
 pub struct Stepper {
     inputs: DropletInputs,
     core: Core,

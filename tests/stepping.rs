@@ -120,7 +120,8 @@ fn equal_steps_and_restarts_give_the_one_shot_lifetime() {
 
 /// Exchange terms sum to the mass, energy and momentum the droplet lost (1e-9 relative); the droplet's liquid
 /// enthalpy is recomputed here from the component masses and temperatures with `liquid_enthalpy`. The energy also
-/// agrees with ∫ (Σ ṁ_i (h_L,i + L_i)(T_s) − Q_gas) dt along the one-shot history (trapezoids; 2 %).
+/// agrees with ∫ (Σ ṁ_i (h_L,i + L_i)(T_s) − Q_gas) dt along the one-shot history (trapezoids over its rows:
+/// within 0.5 % of the heat the gas gave; the net is a small difference of two large flows).
 #[test]
 fn exchange_terms_sum_to_what_the_droplet_lost() {
     let lib = Library::embedded().unwrap();
@@ -164,8 +165,9 @@ fn exchange_terms_sum_to_what_the_droplet_lost() {
                     - r.film.heat_from_gas
             };
             let integral: f64 = run.history.windows(2).map(|w| 0.5 * (w[1].time - w[0].time) * (rate(&w[0]) + rate(&w[1]))).sum();
-            eprintln!("∫ (vapour enthalpy − gas heat) dt along the one-shot history {integral:.6e} J");
-            assert!(rel(given, integral) < 2e-2, "{given} vs {integral}");
+            let gross_flow: f64 = run.history.windows(2).map(|w| 0.5 * (w[1].time - w[0].time) * (w[0].film.heat_from_gas.abs() + w[1].film.heat_from_gas.abs())).sum();
+            eprintln!("∫ (vapour enthalpy − gas heat) dt along the one-shot history {integral:.6e} J (gas heat {gross_flow:.3e} J)");
+            assert!((given - integral).abs() < 5e-3 * gross_flow, "{given} vs {integral}");
         }
     }
 }
@@ -192,9 +194,15 @@ fn step_change_of_gas_temperature_mid_life() {
         while !state.is_finished() {
             previous = state.clone();
             let mut ex = if k == switch {
-                // continuity: 10 ns after the jump the state has moved by a tiny amount only
+                // continuity: 10 ns after the jump the state has moved by a tiny amount only (mass, liquid
+                // enthalpy; the uniform droplet's temperature). A conducting droplet's surface cell (about 30 nm
+                // thick at 20 cells) answers the new heat flux within its own diffusion time of some 10 ns, so its
+                // surface temperature may move by a fraction of a kelvin, as it should.
                 let first = stepper.advance(&mut state, 1e-8, &hot).unwrap();
-                assert!((state.surface_temperature() - previous.surface_temperature()).abs() < 0.02, "{} -> {}", previous.surface_temperature(), state.surface_temperature());
+                if !resolved {
+                    assert!((state.surface_temperature() - previous.surface_temperature()).abs() < 0.02, "{} -> {}", previous.surface_temperature(), state.surface_temperature());
+                }
+                assert!(rel(state.enthalpy(), previous.enthalpy()) < 1e-3, "{} -> {}", previous.enthalpy(), state.enthalpy());
                 assert!(rel(state.mass(), previous.mass()) < 1e-4);
                 Some(first)
             } else {

@@ -2,6 +2,7 @@
  * print its exchange terms each step (SI units). Build: see tests/capi/run.sh. The same scenario through the
  * Rust API is examples/step_droplet.rs; both print the same lines. */
 #include <stdio.h>
+#include <math.h>
 #include <stdlib.h>
 #include "dropcut.h"
 
@@ -45,7 +46,7 @@ int main(void) {
     int finished = 0;
     int code = dc_advance(NULL, droplet, dt, &far, mass, n, &energy, momentum, &finished);
     printf("null handle: code %d: %s\n", code, dc_last_error());
-    far.temperature = 0.0 / 0.0;
+    far.temperature = NAN;
     code = dc_advance(stepper, droplet, dt, &far, mass, n, &energy, momentum, &finished);
     printf("NaN far field: code %d: %s\n", code, dc_last_error());
     far.temperature = 900.0;

@@ -105,7 +105,7 @@ unsafe fn text(p: *const c_char, name: &str) -> Result<String, (c_int, String)> 
 ///
 /// # Safety
 /// `ff` must be null or point to a valid DcFarField whose vapour pointer holds `vapor_len` values.
-unsafe fn far_field(ff: *const DcFarField) -> Result<FarField, (c_int, String)> {
+unsafe fn read_far_field(ff: *const DcFarField) -> Result<FarField, (c_int, String)> {
     let ff = ff.as_ref().ok_or_else(|| null("far_field"))?;
     let vapor = if ff.vapor_len == 0 {
         vec![]
@@ -192,7 +192,7 @@ pub unsafe extern "C" fn dc_stepper_components(stepper: *const DcStepper, out: *
 /// # Safety
 /// Pointers must be null or valid; `velocity` must hold 3 values.
 #[no_mangle]
-pub unsafe extern "C" fn dc_droplet_new(stepper: *mut DcStepper, far_field_in: *const DcFarField, velocity: *const f64, out: *mut *mut DcDroplet) -> c_int {
+pub unsafe extern "C" fn dc_droplet_new(stepper: *mut DcStepper, far_field: *const DcFarField, velocity: *const f64, out: *mut *mut DcDroplet) -> c_int {
     guard(|| {
         let s = stepper.as_mut().ok_or_else(|| null("stepper"))?;
         if velocity.is_null() {
@@ -201,7 +201,7 @@ pub unsafe extern "C" fn dc_droplet_new(stepper: *mut DcStepper, far_field_in: *
         if out.is_null() {
             return Err(null("out"));
         }
-        let ff = far_field(far_field_in)?;
+        let ff = read_far_field(far_field)?;
         let v = std::slice::from_raw_parts(velocity, 3);
         let state = s.stepper.initial_state(&ff, [v[0], v[1], v[2]]).map_err(model_error)?;
         *out = Box::into_raw(Box::new(DcDroplet { state }));
@@ -225,7 +225,7 @@ pub unsafe extern "C" fn dc_droplet_free(droplet: *mut DcDroplet) {
 /// # Safety
 /// Pointers must be null or valid for the stated lengths.
 #[no_mangle]
-pub unsafe extern "C" fn dc_advance(stepper: *mut DcStepper, droplet: *mut DcDroplet, dt: f64, far_field_in: *const DcFarField, mass: *mut f64, mass_len: usize, energy: *mut f64, momentum: *mut f64, finished: *mut c_int) -> c_int {
+pub unsafe extern "C" fn dc_advance(stepper: *mut DcStepper, droplet: *mut DcDroplet, dt: f64, far_field: *const DcFarField, mass: *mut f64, mass_len: usize, energy: *mut f64, momentum: *mut f64, finished: *mut c_int) -> c_int {
     guard(|| {
         let s = stepper.as_mut().ok_or_else(|| null("stepper"))?;
         let d = droplet.as_mut().ok_or_else(|| null("droplet"))?;
@@ -241,7 +241,7 @@ pub unsafe extern "C" fn dc_advance(stepper: *mut DcStepper, droplet: *mut DcDro
         if mass_len < n {
             return Err((DC_ERR_BUFFER, format!("mass_len = {mass_len}: the fuel has {n} components")));
         }
-        let ff = far_field(far_field_in)?;
+        let ff = read_far_field(far_field)?;
         let ex = s.stepper.advance(&mut d.state, dt, &ff).map_err(model_error)?;
         std::slice::from_raw_parts_mut(mass, n).copy_from_slice(&ex.mass);
         *energy = ex.energy;

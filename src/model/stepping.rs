@@ -117,7 +117,7 @@ pub struct DropletState {
     velocity: [f64; 3],
     initial_mass: f64,
     speed_scale: f64,
-    /// Specific liquid enthalpy per component and temperature cell [J/kg] (component-major).
+    /// Specific liquid enthalpy per component at the mass-mean temperature [J/kg].
     specific_enthalpy: Vec<f64>,
     enthalpy: f64,
     step: f64,
@@ -202,7 +202,8 @@ impl DropletState {
         }
     }
 
-    /// Liquid enthalpy the droplet holds [J] (reference: each pure liquid at 298.15 K).
+    /// Liquid enthalpy the droplet holds [J] (reference: each pure liquid at 298.15 K), Σ_i m_i h_L,i at the
+    /// mass-mean liquid temperature.
     pub fn enthalpy(&self) -> f64 {
         self.enthalpy
     }
@@ -373,8 +374,8 @@ impl Stepper {
             ahead: None,
             pending: None,
         };
-        let temps = state.temperatures().to_vec();
-        state.specific_enthalpy = (0..n).flat_map(|i| temps.iter().map(|t| liquid_enthalpy(&comps[i], *t)).collect::<Vec<_>>()).collect();
+        let t_mean = self.mean_temperature(&state);
+        state.specific_enthalpy = comps.iter().map(|c| liquid_enthalpy(c, t_mean)).collect();
         state.enthalpy = enthalpy_of(&state);
         let flashed: Vec<f64> = state.evaporated().to_vec();
         if flashed.iter().any(|m| *m != 0.0) {
@@ -452,18 +453,21 @@ impl Stepper {
         exchange
     }
 
-    /// Specific enthalpies at the new temperatures (each advanced from the old by its quadrature) and the total.
+    /// Mass-mean liquid temperature of a state [K] (the temperature itself for a uniform droplet).
+    fn mean_temperature(&self, state: &DropletState) -> f64 {
+        match (&state.liquid, &self.core) {
+            (Liquid::Resolved(s), Core::Resolved(model)) => model.tgrid.mean(&s.temp),
+            _ => state.temperatures()[0],
+        }
+    }
+
+    /// Specific enthalpies at the new mean temperature (each advanced from the old by its quadrature) and the total.
     fn update_enthalpy(&self, old: &DropletState, next: &mut DropletState) {
-        let comps = self.components();
-        let old_t = old.temperatures();
-        let new_t = next.temperatures().to_vec();
-        let cells = new_t.len();
+        let (t_old, t_new) = (self.mean_temperature(old), self.mean_temperature(next));
         let mut h = old.specific_enthalpy.clone();
-        for (i, c) in comps.iter().enumerate() {
-            for j in 0..cells {
-                if old_t[j] != new_t[j] {
-                    h[i * cells + j] += liquid_enthalpy_change(c, old_t[j], new_t[j]);
-                }
+        if t_old != t_new {
+            for (h, c) in h.iter_mut().zip(self.components()) {
+                *h += liquid_enthalpy_change(c, t_old, t_new);
             }
         }
         next.specific_enthalpy = h;
@@ -630,36 +634,11 @@ fn relative(droplet: [f64; 3], gas: [f64; 3]) -> (f64, [f64; 3]) {
     }
 }
 
-/// Liquid enthalpy of a state from its specific enthalpies [J]: Σ_i m_i h̄_i, with h̄_i the mean over the
-/// temperature cells weighted by the component's share of each cell.
+/// Liquid enthalpy of a state from its specific enthalpies at its mass-mean temperature [J]: Σ_i m_i h_L,i(T̄).
+/// For a resolved droplet the mean temperature is that of the radial profile: the resolved model's energy
+/// equation carries the properties of the mean liquid, so its energy content is that of the mean state.
 fn enthalpy_of(state: &DropletState) -> f64 {
-    let n = state.components();
-    let h = &state.specific_enthalpy;
-    match &state.liquid {
-        Liquid::WellMixed { y, .. } => (0..n).map(|i| y[i] * h[i]).sum(),
-        Liquid::Resolved(s) => {
-            let nt = s.temp.len();
-            let ny = s.y.len() / n;
-            let widths = resolved_widths(nt);
-            (0..n)
-                .map(|i| {
-                    let (mut num, mut den) = (0.0, 0.0);
-                    for j in 0..nt {
-                        let share = if ny == nt { s.y[i * ny + j] } else { 1.0 };
-                        num += widths[j] * share * h[i * nt + j];
-                        den += widths[j] * share;
-                    }
-                    let mean = if den > 0.0 { num / den } else { h[i * nt] };
-                    s.inventory[i] * mean
-                })
-                .sum()
-        }
-    }
-}
-
-/// Mass share of each cell of a radial grid of `cells` cells [-].
-fn resolved_widths(cells: usize) -> Vec<f64> {
-    super::radial::RadialGrid::new(cells).widths.clone()
+    state.masses().iter().zip(&state.specific_enthalpy).map(|(m, h)| m * h).sum()
 }
 
 /// The resolved state at time `t` between the accepted states `a` and `b`, linear in time.

@@ -6,7 +6,7 @@
 //!
 //! As a library: [`model::simulate`] runs one droplet life; [`model::Stepper`] advances droplets step by step in
 //! a far field a spray solver gives and returns the exchange terms; [`table`] builds property tables;
-//! [`post::indicators`] evaluates residue indicators. Cargo features: `cli` (the command line: clap, progress
+//! [`post::indicators()`] evaluates residue indicators. Cargo features: `cli` (the command line: clap, progress
 //! bars) and `charts` (plotters, fonts) are on by default; `default-features = false` builds the library alone;
 //! `capi` adds the C interface (`capi` module, header `dropcut.h`).
 //!

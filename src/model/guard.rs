@@ -3,7 +3,7 @@
 //! that it could not reach its end within the step limit (time). Both are deterministic (they depend on step
 //! counts and simulated time only, never on the clock), so results stay byte-identical across machines.
 
-use super::droplet::Observer;
+use super::history::Observer;
 
 /// Most history rows a run keeps; past this every other row is dropped and only every 2nd, 4th, … step is kept.
 pub const MAX_HISTORY_ROWS: usize = 20_000;

@@ -1,14 +1,27 @@
-//! Droplet models: the gas film (Abramzon–Sirignano), the well-mixed multicomponent liquid, the integrator
-//! and the run driver with events, regimes and observers.
+//! Droplet models: the gas film (Abramzon–Sirignano), the well-mixed and the radially resolved liquid side by
+//! side, their shared inputs, history rows and watches, the integrator, the run driver (`simulate`) and the
+//! stepping API for Lagrangian solvers (`stepping`).
+//!
+//! Inside the layer: inputs, history, watch, film, integrator, radial ← well_mixed, resolved ← run, stepping
+//! (no module imports one to its right; `droplet` only re-exports the paths of earlier versions).
 
 pub mod droplet;
 pub mod film;
 pub mod guard;
+pub mod history;
+pub mod inputs;
 pub mod integrator;
 pub mod radial;
 pub mod resolved;
+pub mod run;
+pub mod stepping;
+pub mod watch;
+pub mod well_mixed;
 
-pub use droplet::{simulate, DropletInputs, HistoryRow, Motion, Observer, Regime, RunOutcome, RunResult, Status};
+pub use history::{HistoryRow, Observer, Regime, RunOutcome, RunResult, Status};
+pub use inputs::{DropletInputs, Motion};
+pub use run::simulate;
+pub use stepping::{DropletState, Exchange, FarField, Stepper};
 pub use film::TransferCorrelation;
 
 use thiserror::Error;

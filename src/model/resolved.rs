@@ -9,46 +9,55 @@ use std::sync::Arc;
 use crate::data::Component;
 use crate::props::liquid;
 
-use super::droplet::{
-    adiabatic_flash, reynolds_note, validity_notes, DropletInputs, HistoryRow, LiquidHeat, LiquidMixing, Motion, Observer, Profile, Regime, RunOutcome, RunResult, Status,
-    BOILING_THRESHOLD,
-};
+pub use crate::props::diffusion::wilke_chang;
+
 use super::film::{circulation_factor, Film, FilmResult};
+use super::history::{HistoryRow, Observer, Profile, Regime, RunOutcome, RunResult, Status};
+use super::inputs::{integration_failure, validity_notes, DropletInputs, LiquidHeat, LiquidMixing, Motion};
 use super::integrator::Stats;
 use super::radial::{RadialGrid, SurfaceInput};
+use super::watch::RunWatch;
+use super::well_mixed::{adiabatic_flash, BOILING_THRESHOLD};
 use super::ModelError;
-
-/// Wilke–Chang liquid diffusion coefficient [m²/s] of a solute of molar volume `v_a` (at its normal boiling
-/// point, m³/mol) in a solvent of molar mass `w_b` [kg/mol] and viscosity `mu_b` [Pa·s], association factor 1
-/// (Wilke & Chang 1955; Poling et al. 2001 eq. 11-9.1).
-pub fn wilke_chang(t: f64, w_b: f64, mu_b: f64, v_a: f64) -> f64 {
-    7.4e-8 * (w_b * 1e3).sqrt() * t / (mu_b * 1e3 * (v_a * 1e6).powf(0.6)) * 1e-4
-}
 
 /// Evaluated-evaporated-fraction levels at which radial profiles are kept.
 pub const PROFILE_LEVELS: [f64; 7] = [0.0, 0.1, 0.25, 0.5, 0.75, 0.9, 0.95];
 
+/// State of a resolved droplet: radial profiles, inventories, relative speed.
 #[derive(Debug, Clone)]
-struct State {
-    time: f64,
-    mass: f64,
+pub(crate) struct State {
+    /// Time [s].
+    pub(crate) time: f64,
+    /// Droplet mass [kg].
+    pub(crate) mass: f64,
     /// Mass fractions, component-major: y[i * ny + j].
-    y: Vec<f64>,
-    temp: Vec<f64>,
-    evaporated: Vec<f64>,
+    pub(crate) y: Vec<f64>,
+    /// Temperature per cell [K].
+    pub(crate) temp: Vec<f64>,
+    /// Evaporated mass per component [kg].
+    pub(crate) evaporated: Vec<f64>,
     /// Liquid mass of each component [kg]; with `evaporated` it sums to the initial mass exactly.
-    inventory: Vec<f64>,
-    velocity: f64,
-    surface_y: Vec<f64>,
-    surface_t: f64,
+    pub(crate) inventory: Vec<f64>,
+    /// Relative speed [m/s].
+    pub(crate) velocity: f64,
+    /// Surface liquid mass fractions [-].
+    pub(crate) surface_y: Vec<f64>,
+    /// Surface temperature [K].
+    pub(crate) surface_t: f64,
 }
 
-struct Model<'a> {
-    inp: &'a DropletInputs,
+/// The resolved-liquid model of one fuel in one far field, with its grids and scratch buffers.
+pub(crate) struct Model {
+    conductivity_factor: f64,
+    diffusivity_factor: f64,
+    fixed_temperature: bool,
+    drag: bool,
     comps: Vec<Arc<Component>>,
     film: Film,
-    ygrid: RadialGrid,
-    tgrid: RadialGrid,
+    /// Composition grid.
+    pub(crate) ygrid: RadialGrid,
+    /// Temperature grid.
+    pub(crate) tgrid: RadialGrid,
     n: usize,
     // scratch
     w_mean: Vec<f64>,
@@ -71,7 +80,7 @@ struct Liquid {
     diffusivity: f64,
 }
 
-impl<'a> Model<'a> {
+impl Model {
     fn ny(&self) -> usize {
         self.ygrid.len()
     }
@@ -96,9 +105,9 @@ impl<'a> Model<'a> {
         Liquid {
             density: rho,
             cp: liquid::heat_capacity(comps, &self.w_mean, t_mean),
-            conductivity: liquid::conductivity(comps, &self.w_mean, t_mean) * self.inp.liquid.conductivity_factor,
+            conductivity: liquid::conductivity(comps, &self.w_mean, t_mean) * self.conductivity_factor,
             viscosity: mu,
-            diffusivity: wilke_chang(t_mean, w_b, mu, v_a) * self.inp.liquid.diffusivity_factor,
+            diffusivity: wilke_chang(t_mean, w_b, mu, v_a) * self.diffusivity_factor,
         }
     }
 
@@ -180,7 +189,7 @@ impl<'a> Model<'a> {
             }
             next.temp.copy_from_slice(&s.temp);
             let input_t = SurfaceInput { q0: f0.heat_to_liquid / liq.cp, q1: dq / liq.cp, u_ref: s.surface_t };
-            next.surface_t = if self.inp.fixed_temperature {
+            next.surface_t = if self.fixed_temperature {
                 s.surface_t
             } else {
                 self.tgrid.implicit_step(&mut next.temp, s.mass, m_new, dt, g_t, mdot_a, input_t)
@@ -238,7 +247,7 @@ impl<'a> Model<'a> {
             return Err("non-physical values".into());
         }
         // drag (semi-implicit), gas at rest
-        if let Motion::Injected { .. } = self.inp.motion {
+        if self.drag {
             let c = 0.375 * f0.drag_coefficient * f0.ambient_density / (liq.density * radius);
             next.velocity = s.velocity / (1.0 + dt * c * s.velocity.abs());
         }
@@ -355,104 +364,222 @@ fn error_norm(a: &State, b: &State, m0: f64) -> f64 {
     (acc / count).sqrt()
 }
 
-/// Run one droplet with a radially resolved liquid (diffusion and/or conduction).
-pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {
-    let n = inp.fuel.len();
-    let comps = inp.fuel.components.clone();
-    let mut film = Film::new(inp.film_setup());
-    let nodes = inp.liquid.nodes;
-    if !(4..=400).contains(&nodes) {
-        return Err(ModelError::Input { field: "nodes", value: nodes.to_string(), reason: "must lie between 4 and 400".into() });
+// ---- Integration core: shared by the run driver below and by the stepping API ----
+
+impl Model {
+    /// The model of `inp` and its initial state at time 0 (after an adiabatic flash when the droplet starts at or
+    /// above its bubble point), the initial mass [kg] and the note of the flash.
+    pub(crate) fn prepare(inp: &DropletInputs) -> Result<(Model, State, f64, Option<String>), ModelError> {
+        let n = inp.fuel.len();
+        let comps = inp.fuel.components.clone();
+        let mut film = Film::new(inp.film_setup());
+        let nodes = inp.liquid.nodes;
+        if !(4..=400).contains(&nodes) {
+            return Err(ModelError::Input { field: "nodes", value: nodes.to_string(), reason: "must lie between 4 and 400".into() });
+        }
+        let ny = if inp.liquid.mixing == LiquidMixing::Diffusion { nodes } else { 1 };
+        let nt = if inp.liquid.heat == LiquidHeat::Conduction { nodes } else { 1 };
+        let w0 = &inp.fuel.mass_fractions;
+        let t0 = inp.initial_temperature;
+        let rho0 = liquid::density(&comps, w0, t0);
+        let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
+        let x0 = inp.fuel.mole_fractions();
+        let t_bubble0 = film.bubble_point(&x0).unwrap_or(f64::INFINITY);
+        let mut masses: Vec<f64> = w0.iter().map(|w| w * m0).collect();
+        let mut t_start = t0;
+        let mut note = None;
+        if !inp.fixed_temperature && t0 >= t_bubble0 - 1e-9 {
+            let (m_left, tb) = adiabatic_flash(&comps, &mut film.setup.activity, w0, t0, m0, inp.pressure, inp.end_mass_fraction);
+            let total: f64 = m_left.iter().sum();
+            note = Some(format!(
+                "initial temperature {t0:.2} K is above the bubble point {t_bubble0:.2} K: {:.3} % of the mass flashed at injection; the resolved liquid starts at {:.2} K just below the bubble point",
+                100.0 * (1.0 - total / m0),
+                tb - 0.5
+            ));
+            masses = m_left;
+            t_start = tb - 0.5;
+        }
+        let mass: f64 = masses.iter().sum();
+        let velocity0 = match inp.motion {
+            Motion::Fixed { velocity } | Motion::Injected { velocity } => velocity,
+        };
+        let w_start: Vec<f64> = masses.iter().map(|m| m / mass).collect();
+        let mut y = vec![0.0; n * ny];
+        for i in 0..n {
+            for j in 0..ny {
+                y[i * ny + j] = w_start[i];
+            }
+        }
+        let model = Model {
+            conductivity_factor: inp.liquid.conductivity_factor,
+            diffusivity_factor: inp.liquid.diffusivity_factor,
+            fixed_temperature: inp.fixed_temperature,
+            drag: matches!(inp.motion, Motion::Injected { .. }),
+            molar_volume_b: comps.iter().map(|c| c.molar_volume_at_boiling()).collect(),
+            comps,
+            film,
+            ygrid: RadialGrid::new(ny),
+            tgrid: RadialGrid::new(nt),
+            n,
+            w_mean: vec![0.0; n],
+            x_mean: vec![0.0; n],
+            x_surf: vec![0.0; n],
+            latent: vec![0.0; n],
+            rates: vec![0.0; n],
+            kappa: vec![0.0; n],
+            inputs: vec![SurfaceInput { q0: 0.0, q1: 0.0, u_ref: 0.0 }; n],
+            film_calls: 0,
+        };
+        let state = State {
+            time: 0.0,
+            mass,
+            y,
+            temp: vec![t_start; nt],
+            evaporated: (0..n).map(|i| m0 * w0[i] - masses[i]).collect(),
+            inventory: masses.clone(),
+            velocity: velocity0,
+            surface_y: w_start,
+            surface_t: t_start,
+        };
+        Ok((model, state, m0, note))
     }
-    let ny = if inp.liquid.mixing == LiquidMixing::Diffusion { nodes } else { 1 };
-    let nt = if inp.liquid.heat == LiquidHeat::Conduction { nodes } else { 1 };
-    let mut notes = validity_notes(inp);
-    let w0 = &inp.fuel.mass_fractions;
-    let t0 = inp.initial_temperature;
-    let rho0 = liquid::density(&comps, w0, t0);
-    let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
-    let x0 = inp.fuel.mole_fractions();
-    let t_bubble0 = film.bubble_point(&x0).unwrap_or(f64::INFINITY);
-    let mut masses: Vec<f64> = w0.iter().map(|w| w * m0).collect();
-    let mut t_start = t0;
-    if !inp.fixed_temperature && t0 >= t_bubble0 - 1e-9 {
-        let (m_left, tb) = adiabatic_flash(&comps, &mut film.setup.activity, w0, t0, m0, inp.pressure, inp.end_mass_fraction);
-        let total: f64 = m_left.iter().sum();
-        notes.push(format!(
-            "initial temperature {t0:.2} K is above the bubble point {t_bubble0:.2} K: {:.3} % of the mass flashed at injection; the resolved liquid starts at {:.2} K just below the bubble point",
-            100.0 * (1.0 - total / m0),
-            tb - 0.5
-        ));
-        masses = m_left;
-        t_start = tb - 0.5;
+
+    /// The gas film (its setup holds the far field).
+    pub(crate) fn film_mut(&mut self) -> &mut Film {
+        &mut self.film
     }
-    let mass: f64 = masses.iter().sum();
-    let velocity0 = match inp.motion {
-        Motion::Fixed { velocity } | Motion::Injected { velocity } => velocity,
+
+    /// Set the relative motion: with drag (`true`) or at constant slip.
+    pub(crate) fn set_drag(&mut self, drag: bool) {
+        self.drag = drag;
+    }
+}
+
+/// Local-error tolerance of the step-doubling estimate for the user's relative tolerance `rtol`, scaled with its
+/// square root.
+pub(crate) fn step_tolerance(rtol: f64) -> f64 {
+    3e-2 * (rtol / 1e-6).sqrt()
+}
+
+/// First step of a droplet of diameter `d0` [m] [s].
+pub(crate) fn first_step(d0: f64) -> f64 {
+    1e-3 * d0 * d0 / 1e-7
+}
+
+/// Next step size after an accepted step of size `dt` with error norm `err` [s].
+pub(crate) fn grown_step(dt: f64, tol: f64, err: f64) -> f64 {
+    dt * (0.9 * (tol / err.max(1e-300)).sqrt()).clamp(0.2, 4.0)
+}
+
+/// The outcome of one step attempt.
+pub(crate) enum Attempt {
+    /// Accepted: the new state (at `time + dt`) and its error norm.
+    Accepted(State, f64),
+    /// Rejected: try again with the reduced `dt`.
+    Retry,
+    /// The surface reached the bubble point: this model has no boiling regime.
+    Boiling,
+    /// The step size fell to the round-off limit (reason).
+    Failed(String),
+}
+
+/// One attempt of a step `dt` from `state`: a full step and two half steps, Richardson-combined when their
+/// difference is within `tol`; on rejection `dt` is reduced in place. Counts into `stats`.
+pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: f64, m0: f64, stats: &mut Stats) -> Attempt {
+    let start = model.start(state);
+    let (full, half) = match start {
+        Ok(st) => (model.step(state, &st, *dt), model.step(state, &st, 0.5 * *dt).and_then(|h| model.start(&h).and_then(|sh| model.step(&h, &sh, 0.5 * *dt)))),
+        Err(e) => (Err(e.clone()), Err(e)),
     };
-    let w_start: Vec<f64> = masses.iter().map(|m| m / mass).collect();
-    let mut y = vec![0.0; n * ny];
-    for i in 0..n {
-        for j in 0..ny {
-            y[i * ny + j] = w_start[i];
+    stats.rhs_calls = model.film_calls;
+    let (full, half) = match (full, half) {
+        (Ok(f), Ok(h)) => (f, h),
+        (Err(e), _) | (_, Err(e)) => {
+            stats.rejected += 1;
+            if e == "boiling" && *dt < 1e-12 {
+                return Attempt::Boiling;
+            }
+            *dt *= 0.25;
+            if *dt < 1e-14 {
+                return if e == "boiling" { Attempt::Boiling } else { Attempt::Failed(e) };
+            }
+            return Attempt::Retry;
+        }
+    };
+    let err = error_norm(&half, &full, m0);
+    if err > tol {
+        stats.rejected += 1;
+        *dt *= (0.9 * (tol / err).sqrt()).clamp(0.1, 0.9);
+        return Attempt::Retry;
+    }
+    let mut new = combine(&half, &full);
+    new.time = state.time + *dt;
+    if !(new.mass > 0.0) || new.temp.iter().any(|v| !v.is_finite()) {
+        stats.rejected += 1;
+        *dt *= 0.25;
+        return Attempt::Retry;
+    }
+    stats.steps += 1;
+    Attempt::Accepted(new, err)
+}
+
+/// Time inside the step from `a` to `b` (remaining fractions `rem_a` > `level` ≥ `rem_b`) where the remaining
+/// fraction crosses `level`, by linear interpolation [s].
+pub(crate) fn crossing_time(a_time: f64, dt: f64, rem_a: f64, rem_b: f64, level: f64) -> f64 {
+    a_time + dt * (rem_a - level) / (rem_a - rem_b)
+}
+
+// ---- Run driver: a whole droplet life over the integration core ----
+
+/// Bookkeeping of a resolved run between steps.
+struct RunLog {
+    watch: RunWatch,
+    crossing: [Option<f64>; 3],
+    status: Status,
+    lifetime: Option<f64>,
+    profiles: Vec<Profile>,
+    next_profile: usize,
+}
+
+impl RunLog {
+    /// Keep the profiles of every level the evaporated fraction has passed.
+    fn keep_profiles(&mut self, model: &mut Model, state: &State, m0: f64) {
+        while self.next_profile < PROFILE_LEVELS.len() && PROFILE_LEVELS[self.next_profile] <= 1.0 - state.mass / m0 {
+            self.profiles.push(model.profile(state, m0));
+            self.next_profile += 1;
         }
     }
-    let mut model = Model {
-        inp,
-        molar_volume_b: comps.iter().map(|c| c.molar_volume_at_boiling()).collect(),
-        comps,
-        film,
-        ygrid: RadialGrid::new(ny),
-        tgrid: RadialGrid::new(nt),
-        n,
-        w_mean: vec![0.0; n],
-        x_mean: vec![0.0; n],
-        x_surf: vec![0.0; n],
-        latent: vec![0.0; n],
-        rates: vec![0.0; n],
-        kappa: vec![0.0; n],
-        inputs: vec![SurfaceInput { q0: 0.0, q1: 0.0, u_ref: 0.0 }; n],
-        film_calls: 0,
-    };
-    let mut state = State {
-        time: 0.0,
-        mass,
-        y,
-        temp: vec![t_start; nt],
-        evaporated: (0..n).map(|i| m0 * w0[i] - masses[i]).collect(),
-        inventory: masses.clone(),
-        velocity: velocity0,
-        surface_y: w_start,
-        surface_t: t_start,
-    };
-    // tolerance of the step-doubling estimate, scaled with the square root of the user's relative tolerance
-    let tol = 3e-2 * (inp.rtol / 1e-6).sqrt();
-    let mut dt = 1e-3 * inp.initial_diameter * inp.initial_diameter / 1e-7;
+}
+
+/// Remaining-fraction levels whose times the outcome reports (t10, t50, t90).
+const LEVELS: [f64; 3] = [0.9, 0.5, 0.1];
+
+/// Run one droplet with a radially resolved liquid (diffusion and/or conduction).
+pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {
+    let (mut model, mut state, m0, flash_note) = Model::prepare(inp)?;
+    let mut notes = validity_notes(inp);
+    notes.extend(flash_note);
+    let tol = step_tolerance(inp.rtol);
+    let mut dt = first_step(inp.initial_diameter);
     let mut stats = Stats::default();
     let mut history = super::guard::ThinnedHistory::new();
     let mut stagnation = super::guard::StagnationGuard::default();
-    let mut profiles = vec![];
-    let mut next_profile = 0;
     let wants_rows = observer.wants_rows();
     let first = model.row(&state, m0, inp.initial_diameter);
-    let mut critical = super::droplet::CriticalWatch::default();
-    critical.observe(&model.comps, &first.surface_liquid_mass_fractions, first.surface_temperature, 0.0);
-    let mut max_t = first.surface_temperature;
-    let mut max_re = first.film.reynolds;
-    let mut heatup_end = if first.film.heat_to_liquid.abs() <= 0.1 * first.film.heat_from_gas.abs() { Some(0.0) } else { None };
+    let mut log = RunLog {
+        watch: RunWatch::start(&model.comps, &first.surface_liquid_mass_fractions, &first),
+        // a flash at injection may already have evaporated 10 % or more: those times are 0, not missing
+        crossing: LEVELS.map(|lvl| (state.mass / m0 <= lvl).then_some(0.0)),
+        status: Status::TimeLimit,
+        lifetime: None,
+        profiles: vec![],
+        next_profile: 0,
+    };
     observer.on_step(&first);
     if wants_rows {
         history.push(first);
     }
-    while next_profile < PROFILE_LEVELS.len() && PROFILE_LEVELS[next_profile] <= 1.0 - state.mass / m0 {
-        profiles.push(model.profile(&state, m0));
-        next_profile += 1;
-    }
-    let levels = [0.9, 0.5, 0.1];
-    // a flash at injection may already have evaporated 10 % or more: those times are 0, not missing
-    let mut crossing: [Option<f64>; 3] = levels.map(|lvl| (state.mass / m0 <= lvl).then_some(0.0));
-    let mut status = Status::TimeLimit;
-    let mut lifetime = None;
+    log.keep_profiles(&mut model, &state, m0);
     let mut boiling_stop = false;
     loop {
         if stats.steps > 1_000_000 {
@@ -462,73 +589,31 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
             return Err(ModelError::Integration { time: state.time, reason });
         }
         dt = dt.min(inp.max_time - state.time).max(1e-15);
-        let start = model.start(&state);
-        let (full, half) = match start {
-            Ok(st) => (
-                model.step(&state, &st, dt),
-                model.step(&state, &st, 0.5 * dt).and_then(|h| model.start(&h).and_then(|sh| model.step(&h, &sh, 0.5 * dt))),
-            ),
-            Err(e) => (Err(e.clone()), Err(e)),
-        };
-        stats.rhs_calls = model.film_calls;
-        let (full, half) = match (full, half) {
-            (Ok(f), Ok(h)) => (f, h),
-            (Err(e), _) | (_, Err(e)) => {
-                stats.rejected += 1;
-                if e == "boiling" && dt < 1e-12 {
-                    boiling_stop = true;
-                    break;
-                }
-                dt *= 0.25;
-                if dt < 1e-14 {
-                    if e == "boiling" {
-                        boiling_stop = true;
-                        break;
-                    }
-                    return Err(super::droplet::integration_failure(inp, state.time, state.surface_t, &format!("the step size fell to the round-off limit ({e})")));
-                }
-                continue;
+        let (new, err) = match attempt_step(&mut model, &state, &mut dt, tol, m0, &mut stats) {
+            Attempt::Accepted(new, err) => (new, err),
+            Attempt::Retry => continue,
+            Attempt::Boiling => {
+                boiling_stop = true;
+                break;
             }
+            Attempt::Failed(e) => return Err(integration_failure(inp, state.time, state.surface_t, &format!("the step size fell to the round-off limit ({e})"))),
         };
-        let err = error_norm(&half, &full, m0);
-        if err > tol {
-            stats.rejected += 1;
-            dt *= (0.9 * (tol / err).sqrt()).clamp(0.1, 0.9);
-            continue;
-        }
-        let mut new = combine(&half, &full);
-        new.time = state.time + dt;
-        if !(new.mass > 0.0) || new.temp.iter().any(|v| !v.is_finite()) {
-            stats.rejected += 1;
-            dt *= 0.25;
-            continue;
-        }
-        stats.steps += 1;
         let rem_prev = state.mass / m0;
         let rem_now = new.mass / m0;
-        for (k, lvl) in levels.iter().enumerate() {
-            if crossing[k].is_none() && rem_prev > *lvl && rem_now <= *lvl {
-                crossing[k] = Some(state.time + dt * (rem_prev - lvl) / (rem_prev - rem_now));
+        for (k, lvl) in LEVELS.iter().enumerate() {
+            if log.crossing[k].is_none() && rem_prev > *lvl && rem_now <= *lvl {
+                log.crossing[k] = Some(crossing_time(state.time, dt, rem_prev, rem_now, *lvl));
             }
         }
         let finished = rem_now <= inp.end_mass_fraction;
         if finished {
-            let te = state.time + dt * (rem_prev - inp.end_mass_fraction) / (rem_prev - rem_now);
-            lifetime = Some(te);
-            status = Status::Evaporated;
+            log.lifetime = Some(crossing_time(state.time, dt, rem_prev, rem_now, inp.end_mass_fraction));
+            log.status = Status::Evaporated;
         }
         state = new;
         let row = model.row(&state, m0, inp.initial_diameter);
-        max_t = max_t.max(row.surface_temperature);
-        critical.observe(&model.comps, &row.surface_liquid_mass_fractions, row.surface_temperature, state.time);
-        max_re = max_re.max(row.film.reynolds);
-        if heatup_end.is_none() && row.film.heat_to_liquid.abs() <= 0.1 * row.film.heat_from_gas.abs() {
-            heatup_end = Some(state.time);
-        }
-        while next_profile < PROFILE_LEVELS.len() && PROFILE_LEVELS[next_profile] <= 1.0 - state.mass / m0 {
-            profiles.push(model.profile(&state, m0));
-            next_profile += 1;
-        }
+        log.watch.observe(&model.comps, &row.surface_liquid_mass_fractions, &row, state.time);
+        log.keep_profiles(&mut model, &state, m0);
         let stop = observer.on_step(&row);
         if wants_rows {
             history.push(row);
@@ -537,29 +622,31 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
             break;
         }
         if stop {
-            status = Status::Stopped;
+            log.status = Status::Stopped;
             break;
         }
         if state.time >= inp.max_time * (1.0 - 1e-12) {
             break;
         }
-        dt *= (0.9 * (tol / err.max(1e-300)).sqrt()).clamp(0.2, 4.0);
+        dt = grown_step(dt, tol, err);
     }
+    stats.rhs_calls = model.film_calls;
+    let outcome = resolved_outcome(inp, &mut model, &state, m0, log.status, boiling_stop, notes, &log, stats);
+    Ok(RunResult { outcome, history: history.into_rows(), profiles: log.profiles })
+}
+
+/// The run summary at the final state: notes, mass balance, crossings, final composition.
+#[allow(clippy::too_many_arguments)]
+fn resolved_outcome(inp: &DropletInputs, model: &mut Model, state: &State, m0: f64, mut status: Status, boiling_stop: bool, mut notes: Vec<String>, log: &RunLog, stats: Stats) -> RunOutcome {
+    let n = inp.fuel.len();
+    let w0 = &inp.fuel.mass_fractions;
     if boiling_stop {
         notes.push(format!(
             "the droplet surface reached the bubble point at t = {:.4e} s; the resolved-liquid model has no boiling regime and stops there (use --liquid-mixing well-mixed --liquid-heat uniform for the heat-limited boiling regime)",
             state.time
         ));
     }
-    if let Some(note) = critical.note(&model.comps) {
-        notes.push(note);
-    }
-    if let Some(note) = critical.freezing_note(&model.comps) {
-        notes.push(note);
-    }
-    if let Some(note) = reynolds_note(inp.correlation, max_re) {
-        notes.push(note);
-    }
+    log.watch.push_notes(&model.comps, inp.correlation, &mut notes);
     if status == Status::TimeLimit && !boiling_stop {
         notes.push(format!("time limit {:.4e} s reached with {:.2} % of the mass evaporated", inp.max_time, 100.0 * (1.0 - state.mass / m0)));
     }
@@ -567,22 +654,21 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         status = Status::Stopped;
     }
     let mut mass_err: f64 = 0.0;
-    model.mean_composition(&state);
+    model.mean_composition(state);
     for i in 0..n {
         let initial = m0 * w0[i];
         if initial > 0.0 {
             mass_err = mass_err.max((state.inventory[i] + state.evaporated[i] - initial).abs() / initial);
         }
     }
-    stats.rhs_calls = model.film_calls;
-    let outcome = RunOutcome {
+    RunOutcome {
         status,
-        lifetime,
-        t10: crossing[0],
-        t50: crossing[1],
-        t90: crossing[2],
-        heatup_end,
-        max_surface_temperature: max_t,
+        lifetime: log.lifetime,
+        t10: log.crossing[0],
+        t50: log.crossing[1],
+        t90: log.crossing[2],
+        heatup_end: log.watch.heatup_end,
+        max_surface_temperature: log.watch.max_surface_temperature,
         boiling_onset: None,
         end_time: state.time,
         final_evaporated_fraction: 1.0 - state.mass / m0,
@@ -591,6 +677,5 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         mass_balance_error: mass_err,
         evaporated_mass: state.evaporated.clone(),
         final_liquid_mass_fractions: model.w_mean.clone(),
-    };
-    Ok(RunResult { outcome, history: history.into_rows(), profiles })
+    }
 }

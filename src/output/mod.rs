@@ -2,14 +2,18 @@
 //! never producers of physics. Files are written to a temporary name and renamed, so an interrupted run never
 //! leaves a truncated file behind.
 
+#[cfg(feature = "charts")]
 pub mod charts;
 pub mod compare;
 pub mod history;
+#[cfg(feature = "charts")]
 pub mod html;
 pub mod read;
 pub mod residue;
+#[cfg(feature = "charts")]
 pub mod sweep_maps;
 pub mod tables;
+#[cfg(feature = "charts")]
 pub mod uncertainty;
 
 use std::cell::RefCell;

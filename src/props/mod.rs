@@ -2,6 +2,8 @@
 //! ambient gas and gas-film mixtures.
 
 pub mod activity;
+pub mod diffusion;
+pub mod enthalpy;
 pub mod gas;
 pub mod joback;
 pub mod liquid;

@@ -4,7 +4,7 @@ use std::sync::Arc;
 
 use crate::data::Component;
 use crate::fuel::Fuel;
-use crate::model::resolved::wilke_chang;
+use crate::props::diffusion::wilke_chang;
 use crate::props::gas::{vapor_diffusion_coefficient, AmbientGas};
 use crate::props::liquid;
 

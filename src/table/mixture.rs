@@ -6,7 +6,7 @@ use serde::Serialize;
 
 use crate::data::Component;
 use crate::fuel::Fuel;
-use crate::model::resolved::wilke_chang;
+use crate::props::diffusion::wilke_chang;
 use crate::props::activity::Activity;
 use crate::props::gas::{gas_mixture_state, vapor_diffusion_coefficient, AmbientGas};
 use crate::props::liquid;

@@ -403,6 +403,24 @@ impl SweepSpec {
 
     /// Parse spec text; `file` names it in messages and `base_dir` is where relative fuel paths are tried first.
     pub fn parse(text: &str, file: &str, base_dir: &Path, lib: &Library) -> Result<SweepSpec, SweepError> {
+        Self::parse_with(text, file, base_dir, lib, None)
+    }
+
+    /// A spec of exactly one case for library front ends (the Python module): the already resolved `fuel` under
+    /// `conditions` (keys as in `[conditions]`, one value each; the others at their defaults), with the same
+    /// checks and messages as a spec file's conditions (field `conditions.<key>`).
+    pub fn one_case(fuel: SweepFuel, conditions: toml::Table, lib: &Library) -> Result<SweepSpec, SweepError> {
+        let file = "(conditions)";
+        if let Some((key, _)) = conditions.iter().find(|(_, v)| matches!(v, toml::Value::Array(_) | toml::Value::Table(_))) {
+            return Err(SweepError::Spec { file: file.into(), field: format!("conditions.{key}"), message: "expected one value, not a list or a range".into() });
+        }
+        let mut table = toml::Table::new();
+        table.insert("conditions".into(), toml::Value::Table(conditions));
+        let text = toml::to_string(&table).map_err(|e| SweepError::Spec { file: file.into(), field: "conditions".into(), message: e.to_string() })?;
+        Self::parse_with(&text, file, Path::new(""), lib, Some(vec![fuel]))
+    }
+
+    fn parse_with(text: &str, file: &str, base_dir: &Path, lib: &Library, preset_fuels: Option<Vec<SweepFuel>>) -> Result<SweepSpec, SweepError> {
         let ctx = Ctx { file, lib };
         let table: toml::Table = toml::from_str(text).map_err(|e| ctx.err("(syntax)", toml_error_at(&e, text)))?;
         for key in table.keys() {
@@ -419,7 +437,10 @@ impl SweepSpec {
         };
         let name = text_field("name")?;
         let description = text_field("description")?;
-        let fuels = parse_fuels(&ctx, table.get("fuels"), base_dir)?;
+        let fuels = match preset_fuels {
+            Some(fuels) => fuels,
+            None => parse_fuels(&ctx, table.get("fuels"), base_dir)?,
+        };
 
         // conditions
         let mut given: BTreeMap<usize, toml::Value> = BTreeMap::new();
@@ -1079,6 +1100,32 @@ velocity = [0, 5, 10]
                 }
                 other => panic!("{text}: expected a spec error, got {other:?}"),
             }
+        }
+    }
+
+    #[test]
+    fn one_case_equals_the_spec_file_case() {
+        let lib = lib();
+        let text = "fuels = [\"demo-wide\"]\n[conditions]\ndiameter = \"30um\"\npressure = 1e6\ninjected = true\nvelocity = 20\nambient-vapor = \"n-decane=0.01\"\n";
+        let spec = parse(text).unwrap();
+        let from_file = spec.inputs(&spec.case(0).unwrap());
+        let fuel = SweepFuel { entry: "demo-wide".into(), fuel: Fuel::resolve("demo-wide", &lib).unwrap() };
+        let mut c = toml::Table::new();
+        c.insert("diameter".into(), toml::Value::String("30um".into()));
+        c.insert("pressure".into(), toml::Value::Float(1e6));
+        c.insert("injected".into(), toml::Value::Boolean(true));
+        c.insert("velocity".into(), toml::Value::Integer(20));
+        c.insert("ambient-vapor".into(), toml::Value::String("n-decane=0.01".into()));
+        let one = SweepSpec::one_case(fuel.clone(), c, &lib).unwrap();
+        assert_eq!(one.case_count(), 1);
+        assert_eq!(one.fingerprint(), spec.fingerprint());
+        let inp = one.inputs(&one.case(0).unwrap());
+        assert_eq!(format!("{inp:?}"), format!("{from_file:?}"));
+        let mut bad = toml::Table::new();
+        bad.insert("diameter".into(), toml::Value::Array(vec![toml::Value::Float(1e-5), toml::Value::Float(2e-5)]));
+        match SweepSpec::one_case(fuel, bad, &lib) {
+            Err(SweepError::Spec { field, message, .. }) => assert!(field == "conditions.diameter" && message.contains("one value"), "{field}: {message}"),
+            other => panic!("expected a spec error, got {other:?}"),
         }
     }
 }

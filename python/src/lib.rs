@@ -533,10 +533,14 @@ fn table(
 }
 
 /// Progress of a sweep passed to a Python callable `callback(done, total)` (at most every quarter second).
+/// A failing callback is shown and dropped (the sweep goes on); a KeyboardInterrupt (Ctrl-C, also while the
+/// callback runs) is kept and raised when the sweep returns, since a started sweep runs to its end (its journal
+/// lets `resume=True` continue an interrupted one).
 struct CallbackProgress {
     callback: Option<Py<PyAny>>,
     total: u64,
     last: Option<Instant>,
+    interrupt: Option<PyErr>,
 }
 
 impl CallbackProgress {
@@ -547,15 +551,19 @@ impl CallbackProgress {
         }
         self.last = Some(Instant::now());
         let total = self.total;
-        let failed = Python::attach(|py| match cb.call1(py, (done, total)) {
-            Ok(_) => false,
+        let failed = Python::attach(|py| match py.check_signals().and_then(|_| cb.call1(py, (done, total)).map(|_| ())) {
+            Ok(()) => None,
+            Err(e) if e.is_instance_of::<pyo3::exceptions::PyKeyboardInterrupt>(py) => Some(e),
             Err(e) => {
                 e.print(py); // a broken progress display never stops the sweep
-                true
+                Some(e)
             }
         });
-        if failed {
+        if let Some(e) = failed {
             self.callback = None;
+            if Python::attach(|py| e.is_instance_of::<pyo3::exceptions::PyKeyboardInterrupt>(py)) {
+                self.interrupt = Some(e);
+            }
         }
     }
 }
@@ -592,8 +600,11 @@ fn sweep<'py>(py: Python<'py>, spec: PathBuf, out: PathBuf, threads: usize, hist
         resume,
         extra_columns: if spec.residue_indicators { vec![Box::new(dropcut::sweep::ResidueIndicators::default())] } else { vec![] },
     };
-    let mut cb = CallbackProgress { callback: progress, total: 0, last: None };
+    let mut cb = CallbackProgress { callback: progress, total: 0, last: None, interrupt: None };
     let report = py.detach(|| dropcut::sweep::run(&spec, &out, &opts, &mut cb)).map_err(py_err)?;
+    if let Some(e) = cb.interrupt.take() {
+        return Err(e);
+    }
     let d = PyDict::new(py);
     d.set_item("summary", report.summary)?;
     d.set_item("cases", report.cases)?;

@@ -254,3 +254,22 @@ def test_the_lock_is_released_during_a_run() -> None:
     inside = [x for x in ticks if start + 0.1 * (end - start) < x < end - 0.1 * (end - start)]
     assert end - start > 0.05, "run too short to tell"
     assert len(inside) >= 3, (end - start, len(inside))
+
+
+def test_a_failing_progress_callback_never_stops_a_sweep_and_ctrl_c_is_raised(tmp_path: Path) -> None:
+    spec = tmp_path / "tiny.toml"
+    spec.write_text(SPEC)
+
+    def broken(done: int, total: int) -> None:
+        raise ValueError("display broke")
+
+    assert len(dropcut.sweep(spec, progress=broken)) == 4
+
+    def interrupted(done: int, total: int) -> None:
+        raise KeyboardInterrupt
+
+    with pytest.raises(KeyboardInterrupt):
+        dropcut.sweep(spec, out=tmp_path / "stopped", progress=interrupted)
+    # the sweep ran to its end: resuming finds it complete
+    again = dropcut.sweep(spec, out=tmp_path / "stopped", resume=True, progress=False)
+    assert again.attrs["report"]["already_complete"]

@@ -127,8 +127,10 @@ fn condition_inputs(lib: &Library, fuel: &Fuel, conditions: Option<&Bound<'_, Py
             toml::Value::Float(value.extract()?)
         } else if value.is_instance_of::<PyString>() {
             toml::Value::String(value.extract()?)
+        } else if let Ok(i) = value.extract::<i64>() {
+            toml::Value::Integer(i) // numpy integers and other objects with __index__
         } else if let Ok(x) = value.extract::<f64>() {
-            toml::Value::Float(x) // numpy floats and other numbers
+            toml::Value::Float(x) // other numbers
         } else {
             return Err(PyTypeError::new_err(format!("{name}: expected a number (SI), a string with a unit or a bool, found {}", value.get_type().name()?)));
         };

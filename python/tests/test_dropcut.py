@@ -96,6 +96,14 @@ def test_si_floats_and_unit_strings_give_the_same_run() -> None:
     assert a.summary == b.summary
 
 
+def test_numpy_numbers_are_accepted() -> None:
+    import numpy as np
+
+    a = dropcut.simulate("demo-narrow", diameter=np.float64(30e-6), nodes=np.int64(12), liquid_mixing="diffusion", max_time=1)
+    b = dropcut.simulate("demo-narrow", diameter=30e-6, nodes=12, liquid_mixing="diffusion", max_time=1)
+    assert a.summary == b.summary
+
+
 def test_resolved_droplet_has_profiles_and_a_surface_layer(tmp_path: Path) -> None:
     cli("simulate", "demo-wide", "--liquid-mixing", "diffusion", "--nodes", "10", "--no-plots", "--out", str(tmp_path))
     r = dropcut.simulate("demo-wide", liquid_mixing="diffusion", nodes=10)

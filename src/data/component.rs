@@ -250,6 +250,9 @@ pub struct Component {
     /// Coefficients of the extensions of the published correlations beyond their ranges, fitted to them on
     /// first use (`crate::props::pure`); empty until then.
     pub extensions: std::sync::OnceLock<Extensions>,
+    /// Property kernels of this component (shared by its copies) and whether this copy evaluates through them
+    /// (`crate::props::kernels`; only droplet runs do).
+    pub kernels: crate::props::kernels::KernelSlot,
 }
 
 /// Coefficients that continue published correlations past their ranges (docs/property-methods.md), fitted
@@ -501,6 +504,7 @@ impl Component {
             origin: file.to_string(),
             property_scales: [1.0; 10],
             extensions: std::sync::OnceLock::new(),
+            kernels: Default::default(),
         };
         component.check_plausible(&ctx)?;
         component.check_anchors(&ctx)?;

@@ -63,6 +63,8 @@ pub struct DropletInputs {
     pub extra_heat: ExtraHeat,
     /// Drag law of the evaporating droplet (used with `Motion::Injected`).
     pub drag: DragLaw,
+    /// Pure-component properties from per-component kernels (default) or by direct evaluation.
+    pub properties: crate::props::kernels::PropertyEvaluation,
 }
 
 /// How species mix inside the droplet.
@@ -138,6 +140,7 @@ impl DropletInputs {
             liquid: LiquidOptions::default(),
             extra_heat: ExtraHeat::default(),
             drag: DragLaw::default(),
+            properties: Default::default(),
         }
     }
 }
@@ -151,7 +154,7 @@ impl DropletInputs {
     pub fn film_setup(&self) -> FilmSetup {
         let n = self.fuel.len();
         FilmSetup {
-            components: self.fuel.components.clone(),
+            components: crate::props::kernels::run_components(&self.fuel.components, self.properties),
             gas: self.gas.clone(),
             pressure: self.pressure,
             ambient_temperature: self.ambient_temperature,
@@ -815,6 +818,8 @@ fn activity_note(inp: &DropletInputs, mut res: RunResult) -> RunResult {
 }
 
 fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {
+    let run_inputs = crate::props::kernels::run_inputs(inp);
+    let inp = &*run_inputs;
     if inp.liquid.is_resolved() {
         return super::resolved::simulate_resolved(inp, observer);
     }

@@ -273,6 +273,9 @@ pub struct Film {
     pub liquid_density: f64,
     /// Ratio of non-equilibrium to equilibrium total surface vapour mole fraction in the last evaluation.
     pub non_equilibrium_factor: f64,
+    /// Heat-transfer Spalding number of the last evaluation below the bubble point (start of the next B_T
+    /// iteration; NaN before the first).
+    last_spalding_heat: f64,
 }
 
 impl Film {
@@ -296,6 +299,7 @@ impl Film {
             surface_mole_eq: vec![0.0; n],
             liquid_density: 700.0,
             non_equilibrium_factor: 1.0,
+            last_spalding_heat: f64::NAN,
             setup,
         }
     }
@@ -580,10 +584,12 @@ impl Film {
         let phi_base = (cp_f / cp_g) * sh_star / lewis;
         // h(B) = (1+B_M)^φ(B) − 1; at Re = 0 (Nu0 = 2) φ does not depend on B and one evaluation is exact.
         let h = |b: f64| -> f64 { (phi_base / (2.0 + (nu0 - 2.0) / film_correction(b)) * ln_1p_bm).exp_m1() };
-        let mut b_t = h(b_m);
+        // start from the previous call's B_T (successive calls are close in state), else from B_M
+        let start = if self.last_spalding_heat.is_finite() && self.last_spalding_heat > -0.5 && nu0 != 2.0 { self.last_spalding_heat } else { b_m };
+        let mut b_t = h(start);
         if nu0 != 2.0 {
-            // secant iteration on r(B) = h(B) − B from (B_M, h(B_M)); fixed-point fallback keeps it safe
-            let (mut b0, mut r0) = (b_m, b_t - b_m);
+            // secant iteration on r(B) = h(B) − B from (B_0, h(B_0)); fixed-point fallback keeps it safe
+            let (mut b0, mut r0) = (start, b_t - start);
             let mut b1 = b_t;
             for _ in 0..50 {
                 let r1 = h(b1) - b1;
@@ -600,6 +606,7 @@ impl Film {
                 b1 = next;
             }
             b_t = b1;
+            self.last_spalding_heat = b_t;
         }
         let nu_star = 2.0 + (nu0 - 2.0) / film_correction(b_t);
         let q_gas = 2.0 * std::f64::consts::PI * k_g * r * nu_star * dt * log1p_over(b_t);

@@ -4,6 +4,7 @@
 pub mod activity;
 pub mod gas;
 pub mod joback;
+pub mod kernels;
 pub mod liquid;
 pub mod pure;
 

@@ -345,6 +345,11 @@ fn fit_component_wilhoit(c: &Component) -> Option<WilhoitCoefficients> {
     fit_wilhoit(&ts, &cps, f.carbon + f.hydrogen + f.oxygen).map(|(w, _)| w)
 }
 
+/// Upper end of the temperatures where the published vapour-conductivity correlation of `c` is used [K].
+pub fn vapor_conductivity_fit_limit(c: &Component) -> f64 {
+    c.vapor_conductivity_fit_limit()
+}
+
 /// Which published range applies: evaluate inside [t_min, t_max]; outside, scale the corresponding-states
 /// estimate so that it meets the published value at the nearest end of the range (a smooth, shape-preserving
 /// extrapolation instead of holding or extrapolating the fitted form).
@@ -405,17 +410,46 @@ impl Component {
         self.extensions.get_or_init(|| fit_extensions(self))
     }
 
+    /// Unscaled property `index` at `t` from this copy's kernel when it has one and it serves `t`, else direct.
+    #[inline(always)]
+    fn kernel_or(&self, index: usize, t: f64, direct: impl FnOnce() -> f64) -> f64 {
+        if let Some(k) = self.kernels.active() {
+            if let Some(v) = k.eval(self, index, t) {
+                return v;
+            }
+        }
+        direct()
+    }
+
+    /// Unscaled property `index` (in [`Component::correlations`] order) at `t`, always by direct evaluation of
+    /// the published correlations and their extensions (what the property kernels interpolate).
+    pub fn unscaled_direct(&self, index: usize, t: f64) -> f64 {
+        match index {
+            VAPOR_PRESSURE => self.direct_vapor_pressure(t),
+            LIQUID_DENSITY => self.unscaled_liquid_density(t),
+            LATENT_HEAT => self.direct_latent_heat(t),
+            LIQUID_HEAT_CAPACITY => self.direct_liquid_heat_capacity(t),
+            LIQUID_VISCOSITY => self.unscaled_liquid_viscosity(t),
+            LIQUID_CONDUCTIVITY => self.direct_liquid_conductivity(t),
+            SURFACE_TENSION => self.direct_surface_tension(t),
+            IDEAL_GAS_HEAT_CAPACITY => self.unscaled_ideal_gas_heat_capacity(t),
+            VAPOR_VISCOSITY => self.unscaled_vapor_viscosity(t),
+            _ => self.direct_vapor_conductivity(t),
+        }
+    }
+
     /// Saturation (vapour) pressure at `t` [Pa].
     pub fn vapor_pressure(&self, t: f64) -> f64 {
-        let p = Self::published(&self.vapor_pressure, t).unwrap_or_else(|| {
-            ambrose_walton_vapor_pressure(t, self.critical_temperature(), self.critical_pressure(), self.acentric_factor())
-        });
-        p * self.property_scales[VAPOR_PRESSURE]
+        self.kernel_or(VAPOR_PRESSURE, t, || self.direct_vapor_pressure(t)) * self.property_scales[VAPOR_PRESSURE]
+    }
+
+    fn direct_vapor_pressure(&self, t: f64) -> f64 {
+        Self::published(&self.vapor_pressure, t).unwrap_or_else(|| ambrose_walton_vapor_pressure(t, self.critical_temperature(), self.critical_pressure(), self.acentric_factor()))
     }
 
     /// Saturated liquid density at `t` [kg/m³].
     pub fn liquid_density(&self, t: f64) -> f64 {
-        self.unscaled_liquid_density(t) * self.property_scales[LIQUID_DENSITY]
+        self.kernel_or(LIQUID_DENSITY, t, || self.unscaled_liquid_density(t)) * self.property_scales[LIQUID_DENSITY]
     }
 
     #[inline]
@@ -433,26 +467,34 @@ impl Component {
 
     /// Latent heat of vaporisation at `t` [J/kg].
     pub fn latent_heat(&self, t: f64) -> f64 {
+        self.kernel_or(LATENT_HEAT, t, || self.direct_latent_heat(t)) * self.property_scales[LATENT_HEAT]
+    }
+
+    fn direct_latent_heat(&self, t: f64) -> f64 {
         let (tb, tc) = (self.normal_boiling_point(), self.critical_temperature());
         Self::liquid_property(&self.latent_heat, t, |t| {
             let lb = riedel_latent_heat_at_boiling(tb, tc, self.critical_pressure());
             watson_latent_heat(t, tb, lb, tc) / self.molar_mass()
-        }) * self.property_scales[LATENT_HEAT]
+        })
     }
 
     /// Liquid heat capacity at `t` [J/(kg·K)].
     pub fn liquid_heat_capacity(&self, t: f64) -> f64 {
+        self.kernel_or(LIQUID_HEAT_CAPACITY, t, || self.direct_liquid_heat_capacity(t)) * self.property_scales[LIQUID_HEAT_CAPACITY]
+    }
+
+    fn direct_liquid_heat_capacity(&self, t: f64) -> f64 {
         Self::liquid_property(&self.liquid_heat_capacity, t, |t| {
             let cp_ig_molar = self.unscaled_ideal_gas_heat_capacity(t) * self.molar_mass();
             rowlinson_bondi_cp(cp_ig_molar, t, self.critical_temperature(), self.acentric_factor()) / self.molar_mass()
-        }) * self.property_scales[LIQUID_HEAT_CAPACITY]
+        })
     }
 
     /// Liquid dynamic viscosity at `t` [Pa·s]: the published correlation up to the takeover temperature
     /// (`min(t_max, Tb, 0.70 Tc)`; `t_max` for oxygenates), then the Hildebrand fluidity law fitted to it,
     /// blended log-linearly into Letsou–Stiel from 0.80 Tc (docs/property-methods.md).
     pub fn liquid_viscosity(&self, t: f64) -> f64 {
-        self.unscaled_liquid_viscosity(t) * self.property_scales[LIQUID_VISCOSITY]
+        self.kernel_or(LIQUID_VISCOSITY, t, || self.unscaled_liquid_viscosity(t)) * self.property_scales[LIQUID_VISCOSITY]
     }
 
     #[inline]
@@ -484,27 +526,33 @@ impl Component {
     /// k/ρ held at its value at the upper limit (density scaling); below it and without coefficients,
     /// Sato–Riedel (anchored).
     pub fn liquid_conductivity(&self, t: f64) -> f64 {
+        self.kernel_or(LIQUID_CONDUCTIVITY, t, || self.direct_liquid_conductivity(t)) * self.property_scales[LIQUID_CONDUCTIVITY]
+    }
+
+    fn direct_liquid_conductivity(&self, t: f64) -> f64 {
         let c = &self.liquid_conductivity;
         let sato = |t| sato_riedel_conductivity(t, self.normal_boiling_point(), self.critical_temperature(), self.molar_mass());
-        let k = if !matches!(c.form, Form::CorrespondingStates) && t > c.t_max {
+        if !matches!(c.form, Form::CorrespondingStates) && t > c.t_max {
             let t = t.min(MAX_REDUCED_TEMPERATURE * self.critical_temperature()).max(c.t_max);
             c.eval(c.t_max) * self.unscaled_liquid_density(t) / self.unscaled_liquid_density(c.t_max)
         } else {
             Self::liquid_property(c, t, sato)
-        };
-        k * self.property_scales[LIQUID_CONDUCTIVITY]
+        }
     }
 
     /// Surface tension at `t` [N/m].
     pub fn surface_tension(&self, t: f64) -> f64 {
+        self.kernel_or(SURFACE_TENSION, t, || self.direct_surface_tension(t)) * self.property_scales[SURFACE_TENSION]
+    }
+
+    fn direct_surface_tension(&self, t: f64) -> f64 {
         Self::liquid_property(&self.surface_tension, t, |t| brock_bird_surface_tension(t, self.normal_boiling_point(), self.critical_temperature(), self.critical_pressure()))
-            * self.property_scales[SURFACE_TENSION]
     }
 
     /// Ideal-gas heat capacity at `t` [J/(kg·K)] (the component file must give coefficients); a polynomial is
     /// continued outside its range by the Wilhoit form fitted to it (rising to the classical limit).
     pub fn ideal_gas_heat_capacity(&self, t: f64) -> f64 {
-        self.unscaled_ideal_gas_heat_capacity(t) * self.property_scales[IDEAL_GAS_HEAT_CAPACITY]
+        self.kernel_or(IDEAL_GAS_HEAT_CAPACITY, t, || self.unscaled_ideal_gas_heat_capacity(t)) * self.property_scales[IDEAL_GAS_HEAT_CAPACITY]
     }
 
     #[inline]
@@ -525,7 +573,7 @@ impl Component {
 
     /// Low-pressure vapour viscosity at `t` [Pa·s].
     pub fn vapor_viscosity(&self, t: f64) -> f64 {
-        self.unscaled_vapor_viscosity(t) * self.property_scales[VAPOR_VISCOSITY]
+        self.kernel_or(VAPOR_VISCOSITY, t, || self.unscaled_vapor_viscosity(t)) * self.property_scales[VAPOR_VISCOSITY]
     }
 
     #[inline]
@@ -554,8 +602,12 @@ impl Component {
     /// limit to min(t_max, 1.1 Tc); outside, the Chung et al. temperature dependence (with this component's
     /// vapour viscosity and ideal-gas cp) anchored at the nearest end.
     pub fn vapor_conductivity(&self, t: f64) -> f64 {
+        self.kernel_or(VAPOR_CONDUCTIVITY, t, || self.direct_vapor_conductivity(t)) * self.property_scales[VAPOR_CONDUCTIVITY]
+    }
+
+    fn direct_vapor_conductivity(&self, t: f64) -> f64 {
         let c = &self.vapor_conductivity;
-        let k = match c.form {
+        match c.form {
             Form::CorrespondingStates => self.chung_conductivity(t),
             Form::Constant(_) => c.eval(t),
             _ => {
@@ -572,8 +624,7 @@ impl Component {
                     }
                 }
             }
-        };
-        k * self.property_scales[VAPOR_CONDUCTIVITY]
+        }
     }
 
     /// Upper end of the temperatures where the published vapour-conductivity correlation is used [K].

@@ -265,6 +265,8 @@ pub struct Extensions {
     /// Wilhoit ideal-gas cp above the published range: (B [K], a0, a1, a2, cp at 0 K [J/(mol·K)], classical
     /// limit [J/(mol·K)]); None when the ideal-gas cp is not a polynomial with a finite range.
     pub wilhoit: Option<WilhoitCoefficients>,
+    /// Temperature-independent factor of the Chung et al. vapour viscosity of this component [Pa·s/K^½].
+    pub chung_viscosity_factor: f64,
 }
 
 /// Wilhoit ideal-gas cp coefficients: (B [K], [a0, a1, a2], cp at 0 K [J/(mol·K)], classical limit [J/(mol·K)]).
@@ -701,6 +703,12 @@ impl Component {
     #[inline]
     pub fn critical_pressure(&self) -> f64 {
         self.constants.critical_pressure.value
+    }
+
+    /// Critical molar volume [m³/mol].
+    #[inline]
+    pub fn critical_volume(&self) -> f64 {
+        self.constants.critical_volume.value
     }
 
     /// Normal boiling point [K].

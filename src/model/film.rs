@@ -454,9 +454,7 @@ impl Film {
             let y_ref = self.surface_mass[i] + a_r * (s.ambient_vapor[i] - self.surface_mass[i]);
             // weights: reference composition, or liquid mole fractions when no vapour at all
             let wgt = if weight_total > 0.0 { y_ref.max(0.0) } else { x[i] * self.molar_mass[i] };
-            let cp_i = c.ideal_gas_heat_capacity(t_ref);
-            let mu_i = c.vapor_viscosity(t_ref);
-            let k_i = c.vapor_conductivity(t_ref);
+            let (cp_i, mu_i, k_i) = c.vapor_properties(t_ref);
             let moles = wgt / self.molar_mass[i];
             y_fref += y_ref.max(0.0);
             cp_fuel_ref += wgt * cp_i;

@@ -168,9 +168,30 @@ impl PropertyKernels {
         let u = (t - seg.mid) * seg.inv_half;
         let mut v = poly.c[COEFFICIENTS - 1];
         for k in (0..COEFFICIENTS - 1).rev() {
-            v = v.mul_add(u, poly.c[k]);
+            v = v * u + poly.c[k]; // not mul_add: without the fma target feature that is a library call
         }
         Some(if property == VAPOR_PRESSURE { v.exp() } else { v })
+    }
+
+    /// Unscaled values of three properties at `t` from one segment look-up; None unless all three are served.
+    #[inline]
+    pub fn eval3(&self, c: &Component, properties: [usize; 3], t: f64) -> Option<[f64; 3]> {
+        let s = self.segment_of(t)?;
+        let seg = &self.segments[s];
+        let u = (t - seg.mid) * seg.inv_half;
+        let mut out = [0.0; 3];
+        for (o, &property) in out.iter_mut().zip(&properties) {
+            let poly = self.polys.get(s * PROPERTIES + property)?.get_or_init(|| fit(c, property, seg));
+            if !poly.ok {
+                return None;
+            }
+            let mut v = poly.c[COEFFICIENTS - 1];
+            for k in (0..COEFFICIENTS - 1).rev() {
+                v = v * u + poly.c[k];
+            }
+            *o = if property == VAPOR_PRESSURE { v.exp() } else { v };
+        }
+        Some(out)
     }
 
     /// Largest relative deviation from the direct evaluation of property `property` over the kernel segments
@@ -255,7 +276,7 @@ fn fit(c: &Component, property: usize, seg: &Segment) -> Poly {
         let direct = c.unscaled_direct(property, t);
         let mut v = poly.c[N - 1];
         for m in (0..N - 1).rev() {
-            v = v.mul_add((t - seg.mid) * seg.inv_half, poly.c[m]);
+            v = v * ((t - seg.mid) * seg.inv_half) + poly.c[m];
         }
         let v = if log { v.exp() } else { v };
         if !(direct.is_finite() && direct != 0.0 && (v / direct - 1.0).abs() <= ACCEPTED_DEVIATION) {

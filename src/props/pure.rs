@@ -23,7 +23,9 @@ pub fn neufeld_omega_diffusion(t_star: f64) -> f64 {
 pub fn ambrose_walton_vapor_pressure(t: f64, tc: f64, pc: f64, omega: f64) -> f64 {
     let tr = (t / tc).min(1.0);
     let tau = 1.0 - tr;
-    let f = |a: [f64; 4]| (a[0] * tau + a[1] * tau.powf(1.5) + a[2] * tau.powf(2.5) + a[3] * tau.powi(5)) / tr;
+    let tau15 = tau * tau.sqrt(); // τ^1.5 and τ^2.5 from one square root
+    let tau5 = tau.powi(5);
+    let f = |a: [f64; 4]| (a[0] * tau + a[1] * tau15 + a[2] * tau15 * tau + a[3] * tau5) / tr;
     let f0 = f([-5.97616, 1.29874, -0.60394, -1.06841]);
     let f1 = f([-5.03365, 1.11505, -5.41217, -7.46628]);
     let f2 = f([-0.64771, 2.41539, -4.26979, 3.25259]);
@@ -305,7 +307,13 @@ fn solve3(mut m: [[f64; 3]; 3], mut r: [f64; 3]) -> Option<[f64; 3]> {
 
 /// Fit the extensions of a component's published correlations (see [`Extensions`]).
 pub fn fit_extensions(c: &Component) -> Extensions {
-    Extensions { fluidity: fit_fluidity(c), wilhoit: fit_component_wilhoit(c) }
+    Extensions { fluidity: fit_fluidity(c), wilhoit: fit_component_wilhoit(c), chung_viscosity_factor: chung_viscosity_factor(c.critical_volume(), c.acentric_factor(), c.molar_mass()) }
+}
+
+/// The temperature-independent factor of [`chung_gas_viscosity`]: μ = factor · sqrt(T) / Ω_v(1.2593 T/Tc) [Pa·s/K^½].
+pub fn chung_viscosity_factor(vc: f64, omega: f64, molar_mass: f64) -> f64 {
+    let fc = 1.0 - 0.2756 * omega;
+    40.785 * fc * (molar_mass * 1e3).sqrt() / (vc * 1e6).powf(2.0 / 3.0) * 1e-7
 }
 
 /// Hildebrand (1971) fluidity law 1/μ = a·V + b through the published liquid viscosity at the takeover
@@ -571,6 +579,22 @@ impl Component {
         }
     }
 
+    /// Ideal-gas heat capacity [J/(kg·K)], low-pressure vapour viscosity [Pa·s] and conductivity [W/(m·K)] at
+    /// `t`, as the three methods give them (one kernel segment look-up; direct evaluation reuses the viscosity
+    /// and heat capacity in the Chung et al. conductivity).
+    #[inline]
+    pub fn vapor_properties(&self, t: f64) -> (f64, f64, f64) {
+        let s = &self.property_scales;
+        if let Some(k) = self.kernels.active() {
+            if let Some([cp, mu, kv]) = k.eval3(self, [IDEAL_GAS_HEAT_CAPACITY, VAPOR_VISCOSITY, VAPOR_CONDUCTIVITY], t) {
+                return (cp * s[IDEAL_GAS_HEAT_CAPACITY], mu * s[VAPOR_VISCOSITY], kv * s[VAPOR_CONDUCTIVITY]);
+            }
+        }
+        let (cp, mu) = (self.unscaled_ideal_gas_heat_capacity(t), self.unscaled_vapor_viscosity(t));
+        let kv = self.direct_vapor_conductivity_with(t, Some((mu, cp)));
+        (cp * s[IDEAL_GAS_HEAT_CAPACITY], mu * s[VAPOR_VISCOSITY], kv * s[VAPOR_CONDUCTIVITY])
+    }
+
     /// Low-pressure vapour viscosity at `t` [Pa·s].
     pub fn vapor_viscosity(&self, t: f64) -> f64 {
         self.kernel_or(VAPOR_VISCOSITY, t, || self.unscaled_vapor_viscosity(t)) * self.property_scales[VAPOR_VISCOSITY]
@@ -578,7 +602,9 @@ impl Component {
 
     #[inline]
     fn chung_viscosity(&self, t: f64) -> f64 {
-        chung_gas_viscosity(t, self.critical_temperature(), self.constants.critical_volume.value, self.acentric_factor(), self.molar_mass())
+        // chung_gas_viscosity with its temperature-independent factor computed once per component
+        let factor = self.extensions().chung_viscosity_factor;
+        factor * t.sqrt() / neufeld_omega_viscosity(1.2593 * t / self.critical_temperature())
     }
 
     #[inline]
@@ -593,9 +619,13 @@ impl Component {
 
     #[inline]
     fn chung_conductivity(&self, t: f64) -> f64 {
-        let mu = self.unscaled_vapor_viscosity(t);
-        let cp = self.unscaled_ideal_gas_heat_capacity(t) * self.molar_mass();
-        chung_gas_conductivity(t, self.critical_temperature(), self.acentric_factor(), self.molar_mass(), mu, cp)
+        self.chung_conductivity_from(t, self.unscaled_vapor_viscosity(t), self.unscaled_ideal_gas_heat_capacity(t))
+    }
+
+    /// Chung et al. conductivity at `t` from the unscaled vapour viscosity and ideal-gas cp [J/(kg·K)] there.
+    #[inline]
+    fn chung_conductivity_from(&self, t: f64, viscosity: f64, cp_mass: f64) -> f64 {
+        chung_gas_conductivity(t, self.critical_temperature(), self.acentric_factor(), self.molar_mass(), viscosity, cp_mass * self.molar_mass())
     }
 
     /// Low-pressure vapour thermal conductivity at `t` [W/(m·K)]: the published correlation from its lower
@@ -606,9 +636,19 @@ impl Component {
     }
 
     fn direct_vapor_conductivity(&self, t: f64) -> f64 {
+        self.direct_vapor_conductivity_with(t, None)
+    }
+
+    /// Direct vapour conductivity at `t`; `at_t` = (unscaled vapour viscosity, ideal-gas cp) at `t` when the
+    /// caller has them (the Chung et al. shape then reuses them).
+    fn direct_vapor_conductivity_with(&self, t: f64, at_t: Option<(f64, f64)>) -> f64 {
+        let chung_at_t = || match at_t {
+            Some((mu, cp)) => self.chung_conductivity_from(t, mu, cp),
+            None => self.chung_conductivity(t),
+        };
         let c = &self.vapor_conductivity;
         match c.form {
-            Form::CorrespondingStates => self.chung_conductivity(t),
+            Form::CorrespondingStates => chung_at_t(),
             Form::Constant(_) => c.eval(t),
             _ => {
                 let hi = self.vapor_conductivity_fit_limit();
@@ -618,7 +658,7 @@ impl Component {
                 } else {
                     let at_edge = self.chung_conductivity(edge);
                     if at_edge > 0.0 && at_edge.is_finite() {
-                        c.eval(edge) * self.chung_conductivity(t) / at_edge
+                        c.eval(edge) * chung_at_t() / at_edge
                     } else {
                         c.eval(edge)
                     }
@@ -808,6 +848,17 @@ mod tests {
         let cps: Vec<f64> = ts.iter().map(|t| wilhoit_cp(*t, w)).collect();
         let (fit, err) = fit_wilhoit(&ts, &cps, 34).unwrap();
         assert!(err < 1e-9 && (fit.0 - 300.0).abs() < 1e-9, "{fit:?} {err}");
+    }
+
+    /// The per-component Chung viscosity factor reproduces the full formula.
+    #[test]
+    fn chung_factor_matches_full_formula() {
+        let (tc, vc, omega, w) = (617.7, 624e-6, 0.49, 0.142);
+        let f = chung_viscosity_factor(vc, omega, w);
+        for t in [300.0, 600.0, 1200.0] {
+            let full = chung_gas_viscosity(t, tc, vc, omega, w);
+            assert!((f * t.sqrt() / neufeld_omega_viscosity(1.2593 * t / tc) / full - 1.0).abs() < 1e-14);
+        }
     }
 
     /// Neufeld collision integral check values Ω_D(1) = 1.4405, Ω_D(2) = 1.0754 (physics notes B.10).

@@ -155,7 +155,7 @@ impl DropletInputs {
         let n = self.fuel.len();
         FilmSetup {
             components: crate::props::kernels::run_components(&self.fuel.components, self.properties),
-            gas: self.gas.clone(),
+            gas: crate::props::kernels::run_gas(&self.gas, self.properties),
             pressure: self.pressure,
             ambient_temperature: self.ambient_temperature,
             ambient_vapor: if self.ambient_vapor.is_empty() { vec![0.0; n] } else { self.ambient_vapor.clone() },

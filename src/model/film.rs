@@ -448,7 +448,8 @@ impl Film {
         let mut d_eff = 0.0;
         let mut cp_surface = 0.0;
         let weight_total = if y_fs > 1e-300 { y_fs } else { 0.0 };
-        let t175 = t_ref.powf(1.75);
+        let sqrt_t = t_ref.sqrt();
+        let t175 = t_ref * sqrt_t * sqrt_t.sqrt(); // T^1.75 from two square roots
         for i in 0..n {
             let c = &s.components[i];
             let y_ref = self.surface_mass[i] + a_r * (s.ambient_vapor[i] - self.surface_mass[i]);
@@ -473,7 +474,7 @@ impl Film {
         let mu_fuel = mu_num / hz_den.max(1e-300);
         let k_fuel = k_num / hz_den.max(1e-300);
         let y_fref = y_fref.min(1.0);
-        let (cp_amb, mu_amb, k_amb) = s.gas.transport(t_ref);
+        let (cp_amb, mu_amb, k_amb) = s.gas.film_transport(t_ref);
         let w_amb = s.gas.molar_mass;
         let inv_w = y_fref / w_fuel + (1.0 - y_fref) / w_amb;
         let x_f = (y_fref / w_fuel) / inv_w;

@@ -635,7 +635,7 @@ impl Component {
 
     /// A copy whose ten properties are multiplied by `scales` (in [`Component::correlations`] order).
     pub fn with_property_scales(&self, scales: [f64; 10]) -> Self {
-        Component { property_scales: scales, ..self.clone() }
+        Component { property_scales: scales, kernels: self.kernels.for_rescaled_copy(), ..self.clone() }
     }
 
     /// Every (field, source id) pair used by this component, for registry checks and reports.

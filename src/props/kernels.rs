@@ -321,8 +321,12 @@ pub struct GasKernel {
     polys: Box<[OnceLock<Poly>]>,
 }
 
+/// Everything the transport properties of `gas` depend on: mole fractions and the species with their correlations.
 fn gas_fingerprint(gas: &AmbientGas) -> Vec<u64> {
-    gas.mole_fractions.iter().chain(gas.species.iter().map(|g| &g.molar_mass.value)).map(|v| v.to_bits()).collect()
+    use std::hash::{Hash, Hasher};
+    let mut h = std::collections::hash_map::DefaultHasher::new();
+    format!("{:?}", gas.species).hash(&mut h);
+    gas.mole_fractions.iter().map(|v| v.to_bits()).chain([h.finish()]).collect()
 }
 
 impl GasKernel {
@@ -403,10 +407,18 @@ impl KernelSlot {
     }
 }
 
-impl Clone for KernelSlot {
-    /// Copies share the kernels (property scales apply on top of them); the cached twin is not copied.
-    fn clone(&self) -> Self {
+impl KernelSlot {
+    /// The slot of a copy that differs from its original only in its property scales: it shares the kernels
+    /// (the scales apply on top of them) and evaluates through them if the original does.
+    pub fn for_rescaled_copy(&self) -> Self {
         KernelSlot { shared: self.shared.clone(), active: self.active.clone(), twin: OnceLock::new() }
+    }
+}
+
+impl Clone for KernelSlot {
+    /// A plain copy starts without kernels: its correlations or constants may be changed after copying.
+    fn clone(&self) -> Self {
+        KernelSlot::default()
     }
 }
 
@@ -538,5 +550,12 @@ mod tests {
         assert!(scaled.kernels.active().is_some());
         assert_eq!(scaled.vapor_pressure(400.0), 1.5 * p);
         assert!(without_kernels(&fast).kernels.active().is_none());
+        // a plain copy may be changed after copying: it builds its own kernels
+        let mut changed = (*c).clone();
+        if let crate::data::Form::Dippr101(ref mut a) = changed.vapor_pressure.form {
+            a[0] += 0.5f64.ln();
+        }
+        let changed = with_kernels(&Arc::new(changed));
+        assert!((changed.vapor_pressure(400.0) / (0.5 * p) - 1.0).abs() < 1e-7);
     }
 }

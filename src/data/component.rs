@@ -252,7 +252,47 @@ pub struct Component {
     pub extensions: std::sync::OnceLock<Extensions>,
     /// Property kernels of this component (shared by its copies) and whether this copy evaluates through them
     /// (`crate::props::kernels`; only droplet runs do).
-    pub kernels: crate::props::kernels::KernelSlot,
+    pub kernels: KernelSlot,
+}
+
+/// Opaque property-kernel state of a component, managed by the properties layer (`props::kernels`): the
+/// kernels (built on first use), whether this copy evaluates through them, and the cached copy that does.
+#[derive(Default)]
+pub struct KernelSlot {
+    /// The kernels once built, shared by this component and its rescaled copies.
+    pub shared: std::sync::Arc<std::sync::OnceLock<std::sync::Arc<dyn std::any::Any + Send + Sync>>>,
+    /// The kernels this copy evaluates through (None: direct evaluation).
+    pub active: Option<std::sync::Arc<dyn std::any::Any + Send + Sync>>,
+    /// The copy of this component that evaluates through the kernels.
+    pub twin: std::sync::OnceLock<std::sync::Arc<Component>>,
+}
+
+impl KernelSlot {
+    /// The slot of a copy that differs from its original only in its property scales: it shares the kernels
+    /// (the scales apply on top of them) and evaluates through them if the original does.
+    pub fn for_rescaled_copy(&self) -> Self {
+        KernelSlot { shared: self.shared.clone(), active: self.active.clone(), twin: std::sync::OnceLock::new() }
+    }
+}
+
+impl Clone for KernelSlot {
+    /// A plain copy starts without kernels: its correlations or constants may be changed after copying.
+    fn clone(&self) -> Self {
+        KernelSlot::default()
+    }
+}
+
+impl PartialEq for KernelSlot {
+    /// Kernels do not change what a component is.
+    fn eq(&self, _: &Self) -> bool {
+        true
+    }
+}
+
+impl std::fmt::Debug for KernelSlot {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(f, "KernelSlot {{ active: {} }}", self.active.is_some())
+    }
 }
 
 /// Coefficients that continue published correlations past their ranges (docs/property-methods.md), fitted

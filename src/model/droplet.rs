@@ -818,8 +818,13 @@ fn activity_note(inp: &DropletInputs, mut res: RunResult) -> RunResult {
 }
 
 fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {
-    let run_inputs = crate::props::kernels::run_inputs(inp);
-    let inp = &*run_inputs;
+    let mut run_inputs = None;
+    if let Some(components) = crate::props::kernels::swap_components(&inp.fuel.components, inp.properties) {
+        let mut i = inp.clone();
+        i.fuel.components = components;
+        run_inputs = Some(i);
+    }
+    let inp = run_inputs.as_ref().unwrap_or(inp);
     if inp.liquid.is_resolved() {
         return super::resolved::simulate_resolved(inp, observer);
     }

@@ -15,6 +15,7 @@
 
 use std::sync::{Arc, OnceLock};
 
+use crate::data::component::KernelSlot;
 use crate::data::Component;
 use crate::props::gas::AmbientGas;
 
@@ -390,53 +391,14 @@ pub fn run_gas(gas: &AmbientGas, mode: PropertyEvaluation) -> AmbientGas {
     g
 }
 
-/// The kernel state carried by every [`Component`]: the kernels (built on first use, shared by all copies of
-/// the component), whether this copy evaluates through them, and the kernel-evaluating copy of this component.
-#[derive(Default)]
-pub struct KernelSlot {
-    shared: Arc<OnceLock<Arc<PropertyKernels>>>,
-    active: Option<Arc<PropertyKernels>>,
-    twin: OnceLock<Arc<Component>>,
-}
-
-impl KernelSlot {
-    /// The kernels this copy evaluates through (None: direct evaluation).
-    #[inline]
-    pub fn active(&self) -> Option<&PropertyKernels> {
-        self.active.as_deref()
-    }
-}
-
-impl KernelSlot {
-    /// The slot of a copy that differs from its original only in its property scales: it shares the kernels
-    /// (the scales apply on top of them) and evaluates through them if the original does.
-    pub fn for_rescaled_copy(&self) -> Self {
-        KernelSlot { shared: self.shared.clone(), active: self.active.clone(), twin: OnceLock::new() }
-    }
-}
-
-impl Clone for KernelSlot {
-    /// A plain copy starts without kernels: its correlations or constants may be changed after copying.
-    fn clone(&self) -> Self {
-        KernelSlot::default()
-    }
-}
-
-impl PartialEq for KernelSlot {
-    /// Kernels do not change what a component is.
-    fn eq(&self, _: &Self) -> bool {
-        true
-    }
-}
-
-impl std::fmt::Debug for KernelSlot {
-    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-        write!(f, "KernelSlot {{ active: {} }}", self.active.is_some())
-    }
+/// The kernels `c` evaluates through, if any.
+#[inline]
+pub fn active(c: &Component) -> Option<&PropertyKernels> {
+    c.kernels.active.as_deref().and_then(|k| k.downcast_ref::<PropertyKernels>())
 }
 
 /// The kernels of `c` (built once, shared by every copy of `c`).
-pub fn kernels_of(c: &Component) -> Arc<PropertyKernels> {
+pub fn kernels_of(c: &Component) -> Arc<dyn std::any::Any + Send + Sync> {
     c.kernels.shared.get_or_init(|| Arc::new(PropertyKernels::new(c))).clone()
 }
 
@@ -473,16 +435,13 @@ pub fn run_components(components: &[Arc<Component>], mode: PropertyEvaluation) -
     }
 }
 
-/// The inputs of a droplet run with its fuel's components set to `inp.properties` (borrowed when they already
-/// are).
-pub fn run_inputs(inp: &crate::model::DropletInputs) -> std::borrow::Cow<'_, crate::model::DropletInputs> {
-    let want_kernels = inp.properties == PropertyEvaluation::Kernels;
-    if inp.fuel.components.iter().all(|c| c.kernels.active.is_some() == want_kernels) {
-        return std::borrow::Cow::Borrowed(inp);
+/// The components of a run under `mode` when some of `components` are not yet set to it (None: all are).
+pub fn swap_components(components: &[Arc<Component>], mode: PropertyEvaluation) -> Option<Vec<Arc<Component>>> {
+    let want_kernels = mode == PropertyEvaluation::Kernels;
+    if components.iter().all(|c| c.kernels.active.is_some() == want_kernels) {
+        return None;
     }
-    let mut run = inp.clone();
-    run.fuel.components = run_components(&inp.fuel.components, inp.properties);
-    std::borrow::Cow::Owned(run)
+    Some(run_components(components, mode))
 }
 
 #[cfg(test)]
@@ -540,16 +499,16 @@ mod tests {
         let lib = Library::embedded().unwrap();
         let c = lib.component("n-decane").unwrap().clone();
         let fast = with_kernels(&c);
-        assert!(fast.kernels.active().is_some() && c.kernels.active().is_none());
+        assert!(active(&fast).is_some() && active(&c).is_none());
         assert!(Arc::ptr_eq(&fast, &with_kernels(&c)), "twin is cached");
         let p = fast.vapor_pressure(400.0);
         assert!((p / c.vapor_pressure(400.0) - 1.0).abs() < 1e-7);
         let mut scales = [1.0; 10];
         scales[0] = 1.5;
         let scaled = Arc::new(fast.with_property_scales(scales));
-        assert!(scaled.kernels.active().is_some());
+        assert!(active(&scaled).is_some());
         assert_eq!(scaled.vapor_pressure(400.0), 1.5 * p);
-        assert!(without_kernels(&fast).kernels.active().is_none());
+        assert!(active(&without_kernels(&fast)).is_none());
         // a plain copy may be changed after copying: it builds its own kernels
         let mut changed = (*c).clone();
         if let crate::data::Form::Dippr101(ref mut a) = changed.vapor_pressure.form {

@@ -421,7 +421,7 @@ impl Component {
     /// Unscaled property `index` at `t` from this copy's kernel when it has one and it serves `t`, else direct.
     #[inline(always)]
     fn kernel_or(&self, index: usize, t: f64, direct: impl FnOnce() -> f64) -> f64 {
-        if let Some(k) = self.kernels.active() {
+        if let Some(k) = super::kernels::active(self) {
             if let Some(v) = k.eval(self, index, t) {
                 return v;
             }
@@ -585,7 +585,7 @@ impl Component {
     #[inline]
     pub fn vapor_properties(&self, t: f64) -> (f64, f64, f64) {
         let s = &self.property_scales;
-        if let Some(k) = self.kernels.active() {
+        if let Some(k) = super::kernels::active(self) {
             if let Some([cp, mu, kv]) = k.eval3(self, [IDEAL_GAS_HEAT_CAPACITY, VAPOR_VISCOSITY, VAPOR_CONDUCTIVITY], t) {
                 return (cp * s[IDEAL_GAS_HEAT_CAPACITY], mu * s[VAPOR_VISCOSITY], kv * s[VAPOR_CONDUCTIVITY]);
             }

@@ -250,6 +250,49 @@ pub struct Component {
     /// Coefficients of the extensions of the published correlations beyond their ranges, fitted to them on
     /// first use (`crate::props::pure`); empty until then.
     pub extensions: std::sync::OnceLock<Extensions>,
+    /// Property kernels of this component (shared by its copies) and whether this copy evaluates through them
+    /// (`crate::props::kernels`; only droplet runs do).
+    pub kernels: KernelSlot,
+}
+
+/// Opaque property-kernel state of a component, managed by the properties layer (`props::kernels`): the
+/// kernels (built on first use), whether this copy evaluates through them, and the cached copy that does.
+#[derive(Default)]
+pub struct KernelSlot {
+    /// The kernels once built, shared by this component and its rescaled copies.
+    pub shared: std::sync::Arc<std::sync::OnceLock<std::sync::Arc<dyn std::any::Any + Send + Sync>>>,
+    /// The kernels this copy evaluates through (None: direct evaluation).
+    pub active: Option<std::sync::Arc<dyn std::any::Any + Send + Sync>>,
+    /// The copy of this component that evaluates through the kernels.
+    pub twin: std::sync::OnceLock<std::sync::Arc<Component>>,
+}
+
+impl KernelSlot {
+    /// The slot of a copy that differs from its original only in its property scales: it shares the kernels
+    /// (the scales apply on top of them) and evaluates through them if the original does.
+    pub fn for_rescaled_copy(&self) -> Self {
+        KernelSlot { shared: self.shared.clone(), active: self.active.clone(), twin: std::sync::OnceLock::new() }
+    }
+}
+
+impl Clone for KernelSlot {
+    /// A plain copy starts without kernels: its correlations or constants may be changed after copying.
+    fn clone(&self) -> Self {
+        KernelSlot::default()
+    }
+}
+
+impl PartialEq for KernelSlot {
+    /// Kernels do not change what a component is.
+    fn eq(&self, _: &Self) -> bool {
+        true
+    }
+}
+
+impl std::fmt::Debug for KernelSlot {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(f, "KernelSlot {{ active: {} }}", self.active.is_some())
+    }
 }
 
 /// Coefficients that continue published correlations past their ranges (docs/property-methods.md), fitted
@@ -262,6 +305,8 @@ pub struct Extensions {
     /// Wilhoit ideal-gas cp above the published range: (B \[K\], a0, a1, a2, cp at 0 K [J/(mol·K)], classical
     /// limit [J/(mol·K)]); None when the ideal-gas cp is not a polynomial with a finite range.
     pub wilhoit: Option<WilhoitCoefficients>,
+    /// Temperature-independent factor of the Chung et al. vapour viscosity of this component [Pa·s/K^½].
+    pub chung_viscosity_factor: f64,
 }
 
 /// Wilhoit ideal-gas cp coefficients: (B \[K\], [a0, a1, a2], cp at 0 K [J/(mol·K)], classical limit [J/(mol·K)]).
@@ -501,6 +546,7 @@ impl Component {
             origin: file.to_string(),
             property_scales: [1.0; 10],
             extensions: std::sync::OnceLock::new(),
+            kernels: Default::default(),
         };
         component.check_plausible(&ctx)?;
         component.check_anchors(&ctx)?;
@@ -629,7 +675,7 @@ impl Component {
 
     /// A copy whose ten properties are multiplied by `scales` (in [`Component::correlations`] order).
     pub fn with_property_scales(&self, scales: [f64; 10]) -> Self {
-        Component { property_scales: scales, ..self.clone() }
+        Component { property_scales: scales, kernels: self.kernels.for_rescaled_copy(), ..self.clone() }
     }
 
     /// Every (field, source id) pair used by this component, for registry checks and reports.
@@ -697,6 +743,12 @@ impl Component {
     #[inline]
     pub fn critical_pressure(&self) -> f64 {
         self.constants.critical_pressure.value
+    }
+
+    /// Critical molar volume \[m³/mol\].
+    #[inline]
+    pub fn critical_volume(&self) -> f64 {
+        self.constants.critical_volume.value
     }
 
     /// Normal boiling point \[K\].

@@ -306,14 +306,15 @@ impl Form {
             }
             Form::Dippr101(c) => {
                 let t = t.max(1.0);
+                let ln_t = t.ln();
                 let d = if c[3] == 0.0 {
                     0.0
                 } else if c[4] == c[4].trunc() && c[4].abs() <= 16.0 {
                     c[3] * t.powi(c[4] as i32) // Perry's exponents are small integers: much cheaper than powf
                 } else {
-                    c[3] * t.powf(c[4])
+                    c[3] * (c[4] * ln_t).exp() // T^E from the logarithm already taken
                 };
-                (c[0] + c[1] / t + c[2] * t.ln() + d).exp()
+                (c[0] + c[1] / t + c[2] * ln_t + d).exp()
             }
             Form::Dippr102(c) => {
                 let t = t.max(1.0);
@@ -358,7 +359,8 @@ impl Form {
             Form::Wagner { c, tc, pc } => {
                 let tr = (t / tc).min(1.0);
                 let tau = 1.0 - tr;
-                pc * ((c[0] * tau + c[1] * tau.powf(1.5) + c[2] * tau.powf(2.5) + c[3] * tau.powi(5)) / tr.max(1e-3)).exp()
+                let tau15 = tau * tau.sqrt(); // τ^1.5 and τ^2.5 from one square root
+                pc * ((c[0] * tau + c[1] * tau15 + c[2] * tau15 * tau + c[3] * tau.powi(5)) / tr.max(1e-3)).exp()
             }
             Form::MuleroCachadina { terms, tc } => {
                 let x = (1.0 - t / tc).max(0.0);

@@ -2,17 +2,60 @@
 
 use std::collections::{BTreeMap, HashMap};
 use std::path::Path;
-use std::sync::Arc;
+use std::sync::{Arc, OnceLock};
 
 use super::gases::{parse_gases, GasSpecies};
 use super::{suggest, Component, DataError, Form, SourceRegistry};
 
 include!(concat!(env!("OUT_DIR"), "/embedded.rs"));
 
+/// One component of the library: parsed on first use when it comes from the embedded files (those are
+/// checked as a whole by the tests, see [`Library::check_all`]), at once when a user adds it.
+#[derive(Debug, Clone)]
+struct Entry {
+    /// Embedded file text and the name shown for it, until parsed.
+    text: Option<(&'static str, String)>,
+    parsed: OnceLock<Arc<Component>>,
+}
+
+impl Entry {
+    fn get(&self) -> &Arc<Component> {
+        self.parsed.get_or_init(|| {
+            let (text, shown) = self.text.as_ref().expect("an entry without text is parsed when added");
+            // the embedded files are fixed at build time and parsed and checked by `check_all` in the tests
+            Arc::new(Component::parse(text, shown).unwrap_or_else(|e| panic!("embedded component file: {e}")))
+        })
+    }
+}
+
+/// The top-level keys of a component file that name it (read without parsing the rest).
+#[derive(serde::Deserialize)]
+struct ComponentNames {
+    id: String,
+    #[serde(default)]
+    aliases: Vec<String>,
+}
+
+/// Id and aliases of a component file from the lines before its first table header.
+fn component_names(text: &str) -> Option<ComponentNames> {
+    let mut end = text.len();
+    let mut pos = 0;
+    for line in text.split_inclusive('\n') {
+        if line.trim_start().starts_with('[') {
+            end = pos;
+            break;
+        }
+        pos += line.len();
+    }
+    toml::from_str(&text[..end]).ok()
+}
+
 /// All components, gases, sources and named fuel files known to a run.
 #[derive(Debug, Clone)]
 pub struct Library {
-    components: Vec<Arc<Component>>,
+    entries: Vec<Entry>,
+    /// Every component in load order, gathered (and parsed) on the first call of [`Library::components`].
+    all: OnceLock<Vec<Arc<Component>>>,
     index: HashMap<String, usize>,
     /// Ambient-gas species by id.
     pub gases: BTreeMap<String, GasSpecies>,
@@ -25,7 +68,7 @@ pub struct Library {
 impl Library {
     /// The library embedded in the binary (mixtures/ at build time).
     pub fn embedded() -> Result<Self, DataError> {
-        let mut lib = Library { components: vec![], index: HashMap::new(), gases: BTreeMap::new(), sources: SourceRegistry::default(), fuels: BTreeMap::new() };
+        let mut lib = Library { entries: vec![], all: OnceLock::new(), index: HashMap::new(), gases: BTreeMap::new(), sources: SourceRegistry::default(), fuels: BTreeMap::new() };
         for (path, text) in EMBEDDED_FILES {
             let shown = format!("mixtures/{path}");
             lib.add_text(path, text, &shown)?;
@@ -34,9 +77,24 @@ impl Library {
         Ok(lib)
     }
 
-    fn add_text(&mut self, rel: &str, text: &str, shown: &str) -> Result<(), DataError> {
+    /// Parse every component (the embedded ones are otherwise parsed on first use) and check every source id.
+    pub fn check_all(&self) -> Result<(), DataError> {
+        for e in &self.entries {
+            if e.parsed.get().is_none() {
+                let (text, shown) = e.text.as_ref().expect("unparsed entries have text");
+                let c = Component::parse(text, shown)?;
+                let _ = e.parsed.set(Arc::new(c));
+            }
+        }
+        self.check_sources()
+    }
+
+    fn add_text(&mut self, rel: &str, text: &'static str, shown: &str) -> Result<(), DataError> {
         if rel.starts_with("components/") {
-            self.add_component(Component::parse(text, shown)?)?;
+            match component_names(text) {
+                Some(names) => self.add_entry(&names.id, &names.aliases, Entry { text: Some((text, shown.to_string())), parsed: OnceLock::new() }, shown)?,
+                None => self.add_component(Component::parse(text, shown)?)?,
+            }
         } else if rel == "gases.toml" {
             self.gases.extend(parse_gases(text, shown)?);
         } else if rel == "sources.toml" {
@@ -56,20 +114,34 @@ impl Library {
                 message: "needs coefficients (published, or a group-contribution polynomial marked estimated:joback)".into(),
             });
         }
-        for name in std::iter::once(&c.id).chain(c.aliases.iter()) {
+        let (id, aliases, origin) = (c.id.clone(), c.aliases.clone(), c.origin.clone());
+        let parsed = OnceLock::new();
+        let _ = parsed.set(Arc::new(c));
+        self.add_entry(&id, &aliases, Entry { text: None, parsed }, &origin)
+    }
+
+    fn add_entry(&mut self, id: &String, aliases: &[String], entry: Entry, origin: &str) -> Result<(), DataError> {
+        for name in std::iter::once(id).chain(aliases.iter()) {
             if let Some(&i) = self.index.get(name) {
-                return Err(DataError::Invalid {
-                    context: format!("{}: id", c.origin),
-                    message: format!("'{name}' is already defined by {}", self.components[i].origin),
-                });
+                return Err(DataError::Invalid { context: format!("{origin}: id"), message: format!("'{name}' is already defined by {}", self.origin_of(i)) });
             }
         }
-        let i = self.components.len();
-        for name in std::iter::once(&c.id).chain(c.aliases.iter()) {
+        let i = self.entries.len();
+        for name in std::iter::once(id).chain(aliases.iter()) {
             self.index.insert(name.clone(), i);
         }
-        self.components.push(Arc::new(c));
+        self.entries.push(entry);
+        self.all = OnceLock::new();
         Ok(())
+    }
+
+    /// The file entry `i` came from (without parsing it).
+    fn origin_of(&self, i: usize) -> String {
+        match (&self.entries[i].text, self.entries[i].parsed.get()) {
+            (_, Some(c)) => c.origin.clone(),
+            (Some((_, shown)), None) => shown.clone(),
+            (None, None) => String::new(),
+        }
     }
 
     /// Load every `*.toml` component file in a user folder (and `sources.toml` there, if any).
@@ -91,8 +163,11 @@ impl Library {
     }
 
     /// Every source id used anywhere must resolve in the registry or be an allowed marker.
+    ///
+    /// Only components already parsed are checked: the embedded ones not used so far are checked as a whole by
+    /// [`Library::check_all`] (in the tests).
     pub fn check_sources(&self) -> Result<(), DataError> {
-        for c in &self.components {
+        for c in self.entries.iter().filter_map(|e| e.parsed.get()) {
             for (field, id) in c.source_ids() {
                 if !self.sources.resolves(&id) {
                     return Err(DataError::Unknown {
@@ -127,7 +202,7 @@ impl Library {
             if let Some(&i) = self.index.get(name) {
                 return Err(DataError::Invalid {
                     context: format!("{}: id", c.origin),
-                    message: format!("'{name}' is already a library component ({}); rename the embedded component", self.components[i].origin),
+                    message: format!("'{name}' is already a library component ({}); rename the embedded component", self.origin_of(i)),
                 });
             }
         }
@@ -146,7 +221,7 @@ impl Library {
 
     /// Look a component up by id or alias.
     pub fn component(&self, name: &str) -> Option<&Arc<Component>> {
-        self.index.get(name).map(|&i| &self.components[i])
+        self.index.get(name).map(|&i| self.entries[i].get())
     }
 
     /// Look a component up, with a "did you mean" error naming `context`.
@@ -161,7 +236,7 @@ impl Library {
 
     /// All components in load order.
     pub fn components(&self) -> &[Arc<Component>] {
-        &self.components
+        self.all.get_or_init(|| self.entries.iter().map(|e| e.get().clone()).collect())
     }
 
     /// Look an ambient-gas species up by id.
@@ -177,6 +252,7 @@ mod tests {
     #[test]
     fn embedded_library_loads_and_sources_resolve() {
         let lib = Library::embedded().unwrap_or_else(|e| panic!("{e}"));
+        lib.check_all().unwrap_or_else(|e| panic!("{e}"));
         assert!(lib.components().len() >= 40, "{}", lib.components().len());
         for c in lib.components() {
             let tb = c.normal_boiling_point();
@@ -198,5 +274,27 @@ mod tests {
                 }
             }
         }
+    }
+
+    /// The names read before parsing are those of the parsed component, for every embedded component file.
+    #[test]
+    fn names_read_without_parsing_match_the_parse() {
+        for (path, text) in EMBEDDED_FILES.iter().filter(|(p, _)| p.starts_with("components/")) {
+            let names = component_names(text).unwrap_or_else(|| panic!("{path}: id not readable"));
+            let c = Component::parse(text, path).unwrap();
+            assert_eq!((names.id, names.aliases), (c.id.clone(), c.aliases.clone()), "{path}");
+        }
+    }
+
+    /// Looking one component up parses only that one; `components()` parses the rest in load order.
+    #[test]
+    fn lookups_parse_lazily() {
+        let lib = Library::embedded().unwrap();
+        assert_eq!(lib.entries.iter().filter(|e| e.parsed.get().is_some()).count(), 0);
+        let c = lib.component("decane").unwrap();
+        assert_eq!(c.id, "n-decane");
+        assert_eq!(lib.entries.iter().filter(|e| e.parsed.get().is_some()).count(), 1);
+        let ids: Vec<_> = lib.components().iter().map(|c| c.id.clone()).collect();
+        assert!(Arc::ptr_eq(lib.component("n-decane").unwrap(), &lib.components()[ids.iter().position(|i| i == "n-decane").unwrap()]));
     }
 }

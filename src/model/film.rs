@@ -274,6 +274,9 @@ pub struct Film {
     pub liquid_density: f64,
     /// Ratio of non-equilibrium to equilibrium total surface vapour mole fraction in the last evaluation.
     pub non_equilibrium_factor: f64,
+    /// Heat-transfer Spalding number of the last evaluation below the bubble point (start of the next B_T
+    /// iteration; NaN before the first).
+    last_spalding_heat: f64,
 }
 
 impl Film {
@@ -297,6 +300,7 @@ impl Film {
             surface_mole_eq: vec![0.0; n],
             liquid_density: 700.0,
             non_equilibrium_factor: 1.0,
+            last_spalding_heat: f64::NAN,
             setup,
         }
     }
@@ -452,15 +456,14 @@ impl Film {
         let mut d_eff = 0.0;
         let mut cp_surface = 0.0;
         let weight_total = if y_fs > 1e-300 { y_fs } else { 0.0 };
-        let t175 = t_ref.powf(1.75);
+        let sqrt_t = t_ref.sqrt();
+        let t175 = t_ref * sqrt_t * sqrt_t.sqrt(); // T^1.75 from two square roots
         for i in 0..n {
             let c = &s.components[i];
             let y_ref = self.surface_mass[i] + a_r * (s.ambient_vapor[i] - self.surface_mass[i]);
             // weights: reference composition, or liquid mole fractions when no vapour at all
             let wgt = if weight_total > 0.0 { y_ref.max(0.0) } else { x[i] * self.molar_mass[i] };
-            let cp_i = c.ideal_gas_heat_capacity(t_ref);
-            let mu_i = c.vapor_viscosity(t_ref);
-            let k_i = c.vapor_conductivity(t_ref);
+            let (cp_i, mu_i, k_i) = c.vapor_properties(t_ref);
             let moles = wgt / self.molar_mass[i];
             y_fref += y_ref.max(0.0);
             cp_fuel_ref += wgt * cp_i;
@@ -479,7 +482,7 @@ impl Film {
         let mu_fuel = mu_num / hz_den.max(1e-300);
         let k_fuel = k_num / hz_den.max(1e-300);
         let y_fref = y_fref.min(1.0);
-        let (cp_amb, mu_amb, k_amb) = s.gas.transport(t_ref);
+        let (cp_amb, mu_amb, k_amb) = s.gas.film_transport(t_ref);
         let w_amb = s.gas.molar_mass;
         let inv_w = y_fref / w_fuel + (1.0 - y_fref) / w_amb;
         let x_f = (y_fref / w_fuel) / inv_w;
@@ -588,10 +591,12 @@ impl Film {
         let phi_base = (cp_f / cp_g) * sh_star / lewis;
         // h(B) = (1+B_M)^φ(B) − 1; at Re = 0 (Nu0 = 2) φ does not depend on B and one evaluation is exact.
         let h = |b: f64| -> f64 { (phi_base / (2.0 + (nu0 - 2.0) / film_correction(b)) * ln_1p_bm).exp_m1() };
-        let mut b_t = h(b_m);
+        // start from the previous call's B_T (successive calls are close in state), else from B_M
+        let start = if self.last_spalding_heat.is_finite() && self.last_spalding_heat > -0.5 && nu0 != 2.0 { self.last_spalding_heat } else { b_m };
+        let mut b_t = h(start);
         if nu0 != 2.0 {
-            // secant iteration on r(B) = h(B) − B from (B_M, h(B_M)); fixed-point fallback keeps it safe
-            let (mut b0, mut r0) = (b_m, b_t - b_m);
+            // secant iteration on r(B) = h(B) − B from (B_0, h(B_0)); fixed-point fallback keeps it safe
+            let (mut b0, mut r0) = (start, b_t - start);
             let mut b1 = b_t;
             for _ in 0..50 {
                 let r1 = h(b1) - b1;
@@ -608,6 +613,7 @@ impl Film {
                 b1 = next;
             }
             b_t = b1;
+            self.last_spalding_heat = b_t;
         }
         let nu_star = 2.0 + (nu0 - 2.0) / film_correction(b_t);
         let q_gas = 2.0 * std::f64::consts::PI * k_g * r * nu_star * dt * log1p_over(b_t);

@@ -62,6 +62,8 @@ pub struct DropletInputs {
     pub extra_heat: ExtraHeat,
     /// Drag law of the evaporating droplet (used with `Motion::Injected`).
     pub drag: DragLaw,
+    /// Pure-component properties from per-component kernels (default) or by direct evaluation.
+    pub properties: crate::props::kernels::PropertyEvaluation,
 }
 
 /// How species mix inside the droplet.
@@ -137,6 +139,7 @@ impl DropletInputs {
             liquid: LiquidOptions::default(),
             extra_heat: ExtraHeat::default(),
             drag: DragLaw::default(),
+            properties: Default::default(),
         }
     }
 }
@@ -150,8 +153,8 @@ impl DropletInputs {
     pub fn film_setup(&self) -> FilmSetup {
         let n = self.fuel.len();
         FilmSetup {
-            components: self.fuel.components.clone(),
-            gas: self.gas.clone(),
+            components: crate::props::kernels::run_components(&self.fuel.components, self.properties),
+            gas: crate::props::kernels::run_gas(&self.gas, self.properties),
             pressure: self.pressure,
             ambient_temperature: self.ambient_temperature,
             ambient_vapor: if self.ambient_vapor.is_empty() { vec![0.0; n] } else { self.ambient_vapor.clone() },
@@ -347,4 +350,14 @@ fn ideal_solubility_freezing_point(comps: &[std::sync::Arc<crate::data::Componen
         }
     }
     best
+}
+
+/// The inputs a run integrates with: with kernel evaluation (the default), the fuel's components carry their
+/// per-component property kernels (None when nothing changes, e.g. direct evaluation).
+pub(crate) fn with_kernels(inp: &DropletInputs) -> Option<DropletInputs> {
+    crate::props::kernels::swap_components(&inp.fuel.components, inp.properties).map(|components| {
+        let mut i = inp.clone();
+        i.fuel.components = components;
+        i
+    })
 }

@@ -67,6 +67,9 @@ const D5: f64 = 701980252875.0 / 199316789632.0;
 const D6: f64 = -1453857185.0 / 822651844.0;
 const D7: f64 = 69997945.0 / 29380423.0;
 
+/// Largest factor by which a rejected step is shrunk before it is retried (Hairer's DOPRI5 uses 10).
+pub const MAX_SHRINK_AFTER_REJECTION: f64 = 10.0;
+
 /// Dormand–Prince 5(4) stepper with dense output of the last accepted step.
 #[derive(Debug, Clone)]
 pub struct DormandPrince {
@@ -171,43 +174,59 @@ impl DormandPrince {
     }
 
     /// Take one accepted step (retrying internally after rejections); returns the new time.
+    ///
+    /// Step control: PI controller of Hairer's DOPRI5 (β = 0.04, safety 0.9, growth ≤ 10×, shrink ≤ 5× after an
+    /// accepted step); after a rejection the step shrinks by at most [`MAX_SHRINK_AFTER_REJECTION`] and the step
+    /// that follows the next acceptance does not grow (Hairer, Nørsett & Wanner, Solving ODEs I, §II.4).
     pub fn step<S: OdeSystem>(&mut self, sys: &mut S) -> Result<f64, StepError> {
         let n = self.n;
+        let mut rejected_here = false;
         loop {
             let h = self.h.min(self.h_max);
             if h.abs() < 1e-14 * self.t.abs().max(1e-300) || h < 1e-300 {
                 return Err(StepError::StepTooSmall { t: self.t });
             }
-            let (t, y) = (self.t, &self.y);
-            macro_rules! stage {
-                ($dst:expr, $c:expr, $($a:expr => $ki:expr),+) => {{
-                    for i in 0..n {
-                        self.y_stage[i] = y[i] + h * (0.0 $(+ $a * self.k[$ki][i])+);
-                    }
-                    let (head, tail) = self.k.split_at_mut($dst);
-                    let _ = head;
-                    sys.rhs(t + $c * h, &self.y_stage, &mut tail[0]);
-                }};
-            }
-            stage!(1, C2, A21 => 0);
-            stage!(2, C3, A31 => 0, A32 => 1);
-            stage!(3, C4, A41 => 0, A42 => 1, A43 => 2);
-            stage!(4, C5, A51 => 0, A52 => 1, A53 => 2, A54 => 3);
-            stage!(5, 1.0, A61 => 0, A62 => 1, A63 => 2, A64 => 3, A65 => 4);
-            for i in 0..n {
-                self.y_new[i] = y[i] + h * (A71 * self.k[0][i] + A73 * self.k[2][i] + A74 * self.k[3][i] + A75 * self.k[4][i] + A76 * self.k[5][i]);
-            }
+            let t = self.t;
             {
-                let (head, tail) = self.k.split_at_mut(6);
-                let _ = head;
-                sys.rhs(t + h, &self.y_new, &mut tail[0]);
+                // stage loops over slices of one length: no bounds checks inside
+                let y = &self.y[..n];
+                let [k0, k1, k2, k3, k4, k5, k6] = &mut self.k;
+                let (k0, k1, k2, k3, k4, k5, k6) = (&mut k0[..n], &mut k1[..n], &mut k2[..n], &mut k3[..n], &mut k4[..n], &mut k5[..n], &mut k6[..n]);
+                let ys = &mut self.y_stage[..n];
+                for i in 0..n {
+                    ys[i] = y[i] + h * (A21 * k0[i]);
+                }
+                sys.rhs(t + C2 * h, ys, k1);
+                for i in 0..n {
+                    ys[i] = y[i] + h * (A31 * k0[i] + A32 * k1[i]);
+                }
+                sys.rhs(t + C3 * h, ys, k2);
+                for i in 0..n {
+                    ys[i] = y[i] + h * (A41 * k0[i] + A42 * k1[i] + A43 * k2[i]);
+                }
+                sys.rhs(t + C4 * h, ys, k3);
+                for i in 0..n {
+                    ys[i] = y[i] + h * (A51 * k0[i] + A52 * k1[i] + A53 * k2[i] + A54 * k3[i]);
+                }
+                sys.rhs(t + C5 * h, ys, k4);
+                for i in 0..n {
+                    ys[i] = y[i] + h * (A61 * k0[i] + A62 * k1[i] + A63 * k2[i] + A64 * k3[i] + A65 * k4[i]);
+                }
+                sys.rhs(t + h, ys, k5);
+                let yn = &mut self.y_new[..n];
+                for i in 0..n {
+                    yn[i] = y[i] + h * (A71 * k0[i] + A73 * k2[i] + A74 * k3[i] + A75 * k4[i] + A76 * k5[i]);
+                }
+                sys.rhs(t + h, yn, k6);
+                let err = &mut self.err[..n];
+                for i in 0..n {
+                    err[i] = h * (E1 * k0[i] + E3 * k2[i] + E4 * k3[i] + E5 * k4[i] + E6 * k5[i] + E7 * k6[i]);
+                }
             }
             self.stats.rhs_calls += 6;
-            for i in 0..n {
-                self.err[i] = h * (E1 * self.k[0][i] + E3 * self.k[2][i] + E4 * self.k[3][i] + E5 * self.k[4][i] + E6 * self.k[5][i] + E7 * self.k[6][i]);
-            }
             if self.y_new.iter().chain(self.k[6].iter()).any(|v| !v.is_finite()) {
                 self.stats.rejected += 1;
+                rejected_here = true;
                 self.h = h * 0.1;
                 if self.h < 1e-300 {
                     return Err(StepError::NonFinite { t: self.t });
@@ -216,28 +235,42 @@ impl DormandPrince {
             }
             // error norm with max(|y|, |y_new|) scaling
             let mut acc = 0.0;
-            for i in 0..n {
-                let sc = self.tol.atol[i] + self.tol.rtol * y[i].abs().max(self.y_new[i].abs());
-                let r = self.err[i] / sc;
-                acc += r * r;
+            {
+                let (y, yn, e, atol) = (&self.y[..n], &self.y_new[..n], &self.err[..n], &self.tol.atol[..n]);
+                for i in 0..n {
+                    let sc = atol[i] + self.tol.rtol * y[i].abs().max(yn[i].abs());
+                    let r = e[i] / sc;
+                    acc += r * r;
+                }
             }
             let err = (acc / n as f64).sqrt();
             // PI step-size control (Hairer's DOPRI5: beta = 0.04, safety 0.9, factors 0.2..10)
             let fac11 = err.max(1e-300).powf(0.2 - 0.04 * 0.75);
             let mut fac = fac11 / self.fac_old.powf(0.04);
             fac = (fac / 0.9).clamp(0.1, 5.0);
-            let h_new = h / fac;
+            let mut h_new = h / fac;
             if err <= 1.0 {
                 self.fac_old = err.max(1e-4);
+                if rejected_here {
+                    h_new = h_new.min(h);
+                }
                 // dense output coefficients
-                for i in 0..n {
-                    let ydiff = self.y_new[i] - y[i];
-                    let bspl = h * self.k[0][i] - ydiff;
-                    self.rcont[0][i] = y[i];
-                    self.rcont[1][i] = ydiff;
-                    self.rcont[2][i] = bspl;
-                    self.rcont[3][i] = ydiff - h * self.k[6][i] - bspl;
-                    self.rcont[4][i] = h * (D1 * self.k[0][i] + D3 * self.k[2][i] + D4 * self.k[3][i] + D5 * self.k[4][i] + D6 * self.k[5][i] + D7 * self.k[6][i]);
+                {
+                    let y = &self.y[..n];
+                    let yn = &self.y_new[..n];
+                    let [k0, _, k2, k3, k4, k5, k6] = &self.k;
+                    let (k0, k2, k3, k4, k5, k6) = (&k0[..n], &k2[..n], &k3[..n], &k4[..n], &k5[..n], &k6[..n]);
+                    let [r0, r1, r2, r3, r4] = &mut self.rcont;
+                    let (r0, r1, r2, r3, r4) = (&mut r0[..n], &mut r1[..n], &mut r2[..n], &mut r3[..n], &mut r4[..n]);
+                    for i in 0..n {
+                        let ydiff = yn[i] - y[i];
+                        let bspl = h * k0[i] - ydiff;
+                        r0[i] = y[i];
+                        r1[i] = ydiff;
+                        r2[i] = bspl;
+                        r3[i] = ydiff - h * k6[i] - bspl;
+                        r4[i] = h * (D1 * k0[i] + D3 * k2[i] + D4 * k3[i] + D5 * k4[i] + D6 * k5[i] + D7 * k6[i]);
+                    }
                 }
                 self.t_old = t;
                 self.h_last = h;
@@ -249,7 +282,8 @@ impl DormandPrince {
                 return Ok(self.t);
             }
             self.stats.rejected += 1;
-            self.h = h / (fac11 / 0.9).min(10.0).max(1.0);
+            rejected_here = true;
+            self.h = h / (fac11 / 0.9).clamp(1.0, MAX_SHRINK_AFTER_REJECTION);
         }
     }
 

@@ -45,6 +45,8 @@ fn activity_note(inp: &DropletInputs, mut res: RunResult) -> RunResult {
 
 /// The run of the chosen liquid model, without the notes `simulate` adds.
 fn simulate_model(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {
+    let run_inputs = super::inputs::with_kernels(inp);
+    let inp = run_inputs.as_ref().unwrap_or(inp);
     if inp.liquid.is_resolved() {
         super::resolved::simulate_resolved(inp, observer)
     } else {

@@ -282,6 +282,8 @@ impl Stepper {
                 reason: "the stepping API takes no radiation or supporting fibre: the solver's radiation model owns that heat".into(),
             });
         }
+        let run_inputs = super::inputs::with_kernels(inputs);
+        let inputs = run_inputs.as_ref().unwrap_or(inputs);
         let core = if inputs.liquid.is_resolved() { Core::Resolved(Box::new(resolved::Model::prepare(inputs)?.0)) } else { Core::WellMixed(Box::new(WellMixed::new(inputs).0)) };
         let n = inputs.fuel.len();
         let far_field = FarField {

@@ -25,6 +25,10 @@ pub struct AmbientGas {
     pub label: String,
     /// Per species pair (i, j): ((W_j/W_i)^¼, 1/sqrt(8(1 + W_i/W_j))) of Wilke's φ_ij.
     pub wilke_factors: Vec<(f64, f64)>,
+    /// Kernel of [`AmbientGas::transport`] used by [`AmbientGas::film_transport`] in droplet runs (None: direct).
+    pub kernel: Option<Arc<super::kernels::GasKernel>>,
+    /// The kernel once built, shared by copies of this gas (`crate::props::kernels::run_gas`).
+    pub kernel_slot: Arc<std::sync::OnceLock<Arc<super::kernels::GasKernel>>>,
 }
 
 /// Wilke's interaction factor φ_ij (Wilke 1950).
@@ -113,7 +117,7 @@ impl AmbientGas {
                 wilke_factors.push(((wj / wi).powf(0.25), 1.0 / (8.0 * (1.0 + wi / wj)).sqrt()));
             }
         }
-        AmbientGas { species, mole_fractions, mass_fractions, molar_mass, label: label.to_string(), wilke_factors }
+        AmbientGas { species, mole_fractions, mass_fractions, molar_mass, label: label.to_string(), wilke_factors, kernel: None, kernel_slot: Default::default() }
     }
 
     /// Dry air.
@@ -194,6 +198,17 @@ impl AmbientGas {
             k_mix += x[i] * k[i] / den;
         }
         (cp, mu_mix, k_mix)
+    }
+
+    /// [`AmbientGas::transport`] from the run's kernel where it serves `t` (droplet runs), else directly.
+    #[inline]
+    pub fn film_transport(&self, t: f64) -> (f64, f64, f64) {
+        if let Some(k) = &self.kernel {
+            if let Some(v) = k.transport(self, t) {
+                return v;
+            }
+        }
+        self.transport(t)
     }
 
     /// Fuller coefficient c (D = c T^1.75 / p) of a vapour in this gas, combined over species by Blanc's law.

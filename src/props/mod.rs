@@ -6,6 +6,7 @@ pub mod diffusion;
 pub mod enthalpy;
 pub mod gas;
 pub mod joback;
+pub mod kernels;
 pub mod liquid;
 pub mod pure;
 

@@ -23,7 +23,9 @@ pub fn neufeld_omega_diffusion(t_star: f64) -> f64 {
 pub fn ambrose_walton_vapor_pressure(t: f64, tc: f64, pc: f64, omega: f64) -> f64 {
     let tr = (t / tc).min(1.0);
     let tau = 1.0 - tr;
-    let f = |a: [f64; 4]| (a[0] * tau + a[1] * tau.powf(1.5) + a[2] * tau.powf(2.5) + a[3] * tau.powi(5)) / tr;
+    let tau15 = tau * tau.sqrt(); // τ^1.5 and τ^2.5 from one square root
+    let tau5 = tau.powi(5);
+    let f = |a: [f64; 4]| (a[0] * tau + a[1] * tau15 + a[2] * tau15 * tau + a[3] * tau5) / tr;
     let f0 = f([-5.97616, 1.29874, -0.60394, -1.06841]);
     let f1 = f([-5.03365, 1.11505, -5.41217, -7.46628]);
     let f2 = f([-0.64771, 2.41539, -4.26979, 3.25259]);
@@ -305,7 +307,13 @@ fn solve3(mut m: [[f64; 3]; 3], mut r: [f64; 3]) -> Option<[f64; 3]> {
 
 /// Fit the extensions of a component's published correlations (see [`Extensions`]).
 pub fn fit_extensions(c: &Component) -> Extensions {
-    Extensions { fluidity: fit_fluidity(c), wilhoit: fit_component_wilhoit(c) }
+    Extensions { fluidity: fit_fluidity(c), wilhoit: fit_component_wilhoit(c), chung_viscosity_factor: chung_viscosity_factor(c.critical_volume(), c.acentric_factor(), c.molar_mass()) }
+}
+
+/// The temperature-independent factor of [`chung_gas_viscosity`]: μ = factor · sqrt(T) / Ω_v(1.2593 T/Tc) [Pa·s/K^½].
+pub fn chung_viscosity_factor(vc: f64, omega: f64, molar_mass: f64) -> f64 {
+    let fc = 1.0 - 0.2756 * omega;
+    40.785 * fc * (molar_mass * 1e3).sqrt() / (vc * 1e6).powf(2.0 / 3.0) * 1e-7
 }
 
 /// Hildebrand (1971) fluidity law 1/μ = a·V + b through the published liquid viscosity at the takeover
@@ -343,6 +351,11 @@ fn fit_component_wilhoit(c: &Component) -> Option<WilhoitCoefficients> {
     let cps: Vec<f64> = ts.iter().map(|t| corr.eval(*t) * c.molar_mass()).collect();
     let f = c.formula;
     fit_wilhoit(&ts, &cps, f.carbon + f.hydrogen + f.oxygen).map(|(w, _)| w)
+}
+
+/// Upper end of the temperatures where the published vapour-conductivity correlation of `c` is used [K].
+pub fn vapor_conductivity_fit_limit(c: &Component) -> f64 {
+    c.vapor_conductivity_fit_limit()
 }
 
 /// Which published range applies: evaluate inside [t_min, t_max]; outside, scale the corresponding-states
@@ -405,17 +418,46 @@ impl Component {
         self.extensions.get_or_init(|| fit_extensions(self))
     }
 
+    /// Unscaled property `index` at `t` from this copy's kernel when it has one and it serves `t`, else direct.
+    #[inline(always)]
+    fn kernel_or(&self, index: usize, t: f64, direct: impl FnOnce() -> f64) -> f64 {
+        if let Some(k) = super::kernels::active(self) {
+            if let Some(v) = k.eval(self, index, t) {
+                return v;
+            }
+        }
+        direct()
+    }
+
+    /// Unscaled property `index` (in [`Component::correlations`] order) at `t`, always by direct evaluation of
+    /// the published correlations and their extensions (what the property kernels interpolate).
+    pub fn unscaled_direct(&self, index: usize, t: f64) -> f64 {
+        match index {
+            VAPOR_PRESSURE => self.direct_vapor_pressure(t),
+            LIQUID_DENSITY => self.unscaled_liquid_density(t),
+            LATENT_HEAT => self.direct_latent_heat(t),
+            LIQUID_HEAT_CAPACITY => self.direct_liquid_heat_capacity(t),
+            LIQUID_VISCOSITY => self.unscaled_liquid_viscosity(t),
+            LIQUID_CONDUCTIVITY => self.direct_liquid_conductivity(t),
+            SURFACE_TENSION => self.direct_surface_tension(t),
+            IDEAL_GAS_HEAT_CAPACITY => self.unscaled_ideal_gas_heat_capacity(t),
+            VAPOR_VISCOSITY => self.unscaled_vapor_viscosity(t),
+            _ => self.direct_vapor_conductivity(t),
+        }
+    }
+
     /// Saturation (vapour) pressure at `t` [Pa].
     pub fn vapor_pressure(&self, t: f64) -> f64 {
-        let p = Self::published(&self.vapor_pressure, t).unwrap_or_else(|| {
-            ambrose_walton_vapor_pressure(t, self.critical_temperature(), self.critical_pressure(), self.acentric_factor())
-        });
-        p * self.property_scales[VAPOR_PRESSURE]
+        self.kernel_or(VAPOR_PRESSURE, t, || self.direct_vapor_pressure(t)) * self.property_scales[VAPOR_PRESSURE]
+    }
+
+    fn direct_vapor_pressure(&self, t: f64) -> f64 {
+        Self::published(&self.vapor_pressure, t).unwrap_or_else(|| ambrose_walton_vapor_pressure(t, self.critical_temperature(), self.critical_pressure(), self.acentric_factor()))
     }
 
     /// Saturated liquid density at `t` [kg/m³].
     pub fn liquid_density(&self, t: f64) -> f64 {
-        self.unscaled_liquid_density(t) * self.property_scales[LIQUID_DENSITY]
+        self.kernel_or(LIQUID_DENSITY, t, || self.unscaled_liquid_density(t)) * self.property_scales[LIQUID_DENSITY]
     }
 
     #[inline]
@@ -433,26 +475,34 @@ impl Component {
 
     /// Latent heat of vaporisation at `t` [J/kg].
     pub fn latent_heat(&self, t: f64) -> f64 {
+        self.kernel_or(LATENT_HEAT, t, || self.direct_latent_heat(t)) * self.property_scales[LATENT_HEAT]
+    }
+
+    fn direct_latent_heat(&self, t: f64) -> f64 {
         let (tb, tc) = (self.normal_boiling_point(), self.critical_temperature());
         Self::liquid_property(&self.latent_heat, t, |t| {
             let lb = riedel_latent_heat_at_boiling(tb, tc, self.critical_pressure());
             watson_latent_heat(t, tb, lb, tc) / self.molar_mass()
-        }) * self.property_scales[LATENT_HEAT]
+        })
     }
 
     /// Liquid heat capacity at `t` [J/(kg·K)].
     pub fn liquid_heat_capacity(&self, t: f64) -> f64 {
+        self.kernel_or(LIQUID_HEAT_CAPACITY, t, || self.direct_liquid_heat_capacity(t)) * self.property_scales[LIQUID_HEAT_CAPACITY]
+    }
+
+    fn direct_liquid_heat_capacity(&self, t: f64) -> f64 {
         Self::liquid_property(&self.liquid_heat_capacity, t, |t| {
             let cp_ig_molar = self.unscaled_ideal_gas_heat_capacity(t) * self.molar_mass();
             rowlinson_bondi_cp(cp_ig_molar, t, self.critical_temperature(), self.acentric_factor()) / self.molar_mass()
-        }) * self.property_scales[LIQUID_HEAT_CAPACITY]
+        })
     }
 
     /// Liquid dynamic viscosity at `t` [Pa·s]: the published correlation up to the takeover temperature
     /// (`min(t_max, Tb, 0.70 Tc)`; `t_max` for oxygenates), then the Hildebrand fluidity law fitted to it,
     /// blended log-linearly into Letsou–Stiel from 0.80 Tc (docs/property-methods.md).
     pub fn liquid_viscosity(&self, t: f64) -> f64 {
-        self.unscaled_liquid_viscosity(t) * self.property_scales[LIQUID_VISCOSITY]
+        self.kernel_or(LIQUID_VISCOSITY, t, || self.unscaled_liquid_viscosity(t)) * self.property_scales[LIQUID_VISCOSITY]
     }
 
     #[inline]
@@ -484,27 +534,33 @@ impl Component {
     /// k/ρ held at its value at the upper limit (density scaling); below it and without coefficients,
     /// Sato–Riedel (anchored).
     pub fn liquid_conductivity(&self, t: f64) -> f64 {
+        self.kernel_or(LIQUID_CONDUCTIVITY, t, || self.direct_liquid_conductivity(t)) * self.property_scales[LIQUID_CONDUCTIVITY]
+    }
+
+    fn direct_liquid_conductivity(&self, t: f64) -> f64 {
         let c = &self.liquid_conductivity;
         let sato = |t| sato_riedel_conductivity(t, self.normal_boiling_point(), self.critical_temperature(), self.molar_mass());
-        let k = if !matches!(c.form, Form::CorrespondingStates) && t > c.t_max {
+        if !matches!(c.form, Form::CorrespondingStates) && t > c.t_max {
             let t = t.min(MAX_REDUCED_TEMPERATURE * self.critical_temperature()).max(c.t_max);
             c.eval(c.t_max) * self.unscaled_liquid_density(t) / self.unscaled_liquid_density(c.t_max)
         } else {
             Self::liquid_property(c, t, sato)
-        };
-        k * self.property_scales[LIQUID_CONDUCTIVITY]
+        }
     }
 
     /// Surface tension at `t` [N/m].
     pub fn surface_tension(&self, t: f64) -> f64 {
+        self.kernel_or(SURFACE_TENSION, t, || self.direct_surface_tension(t)) * self.property_scales[SURFACE_TENSION]
+    }
+
+    fn direct_surface_tension(&self, t: f64) -> f64 {
         Self::liquid_property(&self.surface_tension, t, |t| brock_bird_surface_tension(t, self.normal_boiling_point(), self.critical_temperature(), self.critical_pressure()))
-            * self.property_scales[SURFACE_TENSION]
     }
 
     /// Ideal-gas heat capacity at `t` [J/(kg·K)] (the component file must give coefficients); a polynomial is
     /// continued outside its range by the Wilhoit form fitted to it (rising to the classical limit).
     pub fn ideal_gas_heat_capacity(&self, t: f64) -> f64 {
-        self.unscaled_ideal_gas_heat_capacity(t) * self.property_scales[IDEAL_GAS_HEAT_CAPACITY]
+        self.kernel_or(IDEAL_GAS_HEAT_CAPACITY, t, || self.unscaled_ideal_gas_heat_capacity(t)) * self.property_scales[IDEAL_GAS_HEAT_CAPACITY]
     }
 
     #[inline]
@@ -523,14 +579,32 @@ impl Component {
         }
     }
 
+    /// Ideal-gas heat capacity [J/(kg·K)], low-pressure vapour viscosity [Pa·s] and conductivity [W/(m·K)] at
+    /// `t`, as the three methods give them (one kernel segment look-up; direct evaluation reuses the viscosity
+    /// and heat capacity in the Chung et al. conductivity).
+    #[inline]
+    pub fn vapor_properties(&self, t: f64) -> (f64, f64, f64) {
+        let s = &self.property_scales;
+        if let Some(k) = super::kernels::active(self) {
+            if let Some([cp, mu, kv]) = k.eval3(self, [IDEAL_GAS_HEAT_CAPACITY, VAPOR_VISCOSITY, VAPOR_CONDUCTIVITY], t) {
+                return (cp * s[IDEAL_GAS_HEAT_CAPACITY], mu * s[VAPOR_VISCOSITY], kv * s[VAPOR_CONDUCTIVITY]);
+            }
+        }
+        let (cp, mu) = (self.unscaled_ideal_gas_heat_capacity(t), self.unscaled_vapor_viscosity(t));
+        let kv = self.direct_vapor_conductivity_with(t, Some((mu, cp)));
+        (cp * s[IDEAL_GAS_HEAT_CAPACITY], mu * s[VAPOR_VISCOSITY], kv * s[VAPOR_CONDUCTIVITY])
+    }
+
     /// Low-pressure vapour viscosity at `t` [Pa·s].
     pub fn vapor_viscosity(&self, t: f64) -> f64 {
-        self.unscaled_vapor_viscosity(t) * self.property_scales[VAPOR_VISCOSITY]
+        self.kernel_or(VAPOR_VISCOSITY, t, || self.unscaled_vapor_viscosity(t)) * self.property_scales[VAPOR_VISCOSITY]
     }
 
     #[inline]
     fn chung_viscosity(&self, t: f64) -> f64 {
-        chung_gas_viscosity(t, self.critical_temperature(), self.constants.critical_volume.value, self.acentric_factor(), self.molar_mass())
+        // chung_gas_viscosity with its temperature-independent factor computed once per component
+        let factor = self.extensions().chung_viscosity_factor;
+        factor * t.sqrt() / neufeld_omega_viscosity(1.2593 * t / self.critical_temperature())
     }
 
     #[inline]
@@ -545,18 +619,36 @@ impl Component {
 
     #[inline]
     fn chung_conductivity(&self, t: f64) -> f64 {
-        let mu = self.unscaled_vapor_viscosity(t);
-        let cp = self.unscaled_ideal_gas_heat_capacity(t) * self.molar_mass();
-        chung_gas_conductivity(t, self.critical_temperature(), self.acentric_factor(), self.molar_mass(), mu, cp)
+        self.chung_conductivity_from(t, self.unscaled_vapor_viscosity(t), self.unscaled_ideal_gas_heat_capacity(t))
+    }
+
+    /// Chung et al. conductivity at `t` from the unscaled vapour viscosity and ideal-gas cp [J/(kg·K)] there.
+    #[inline]
+    fn chung_conductivity_from(&self, t: f64, viscosity: f64, cp_mass: f64) -> f64 {
+        chung_gas_conductivity(t, self.critical_temperature(), self.acentric_factor(), self.molar_mass(), viscosity, cp_mass * self.molar_mass())
     }
 
     /// Low-pressure vapour thermal conductivity at `t` [W/(m·K)]: the published correlation from its lower
     /// limit to min(t_max, 1.1 Tc); outside, the Chung et al. temperature dependence (with this component's
     /// vapour viscosity and ideal-gas cp) anchored at the nearest end.
     pub fn vapor_conductivity(&self, t: f64) -> f64 {
+        self.kernel_or(VAPOR_CONDUCTIVITY, t, || self.direct_vapor_conductivity(t)) * self.property_scales[VAPOR_CONDUCTIVITY]
+    }
+
+    fn direct_vapor_conductivity(&self, t: f64) -> f64 {
+        self.direct_vapor_conductivity_with(t, None)
+    }
+
+    /// Direct vapour conductivity at `t`; `at_t` = (unscaled vapour viscosity, ideal-gas cp) at `t` when the
+    /// caller has them (the Chung et al. shape then reuses them).
+    fn direct_vapor_conductivity_with(&self, t: f64, at_t: Option<(f64, f64)>) -> f64 {
+        let chung_at_t = || match at_t {
+            Some((mu, cp)) => self.chung_conductivity_from(t, mu, cp),
+            None => self.chung_conductivity(t),
+        };
         let c = &self.vapor_conductivity;
-        let k = match c.form {
-            Form::CorrespondingStates => self.chung_conductivity(t),
+        match c.form {
+            Form::CorrespondingStates => chung_at_t(),
             Form::Constant(_) => c.eval(t),
             _ => {
                 let hi = self.vapor_conductivity_fit_limit();
@@ -566,14 +658,13 @@ impl Component {
                 } else {
                     let at_edge = self.chung_conductivity(edge);
                     if at_edge > 0.0 && at_edge.is_finite() {
-                        c.eval(edge) * self.chung_conductivity(t) / at_edge
+                        c.eval(edge) * chung_at_t() / at_edge
                     } else {
                         c.eval(edge)
                     }
                 }
             }
-        };
-        k * self.property_scales[VAPOR_CONDUCTIVITY]
+        }
     }
 
     /// Upper end of the temperatures where the published vapour-conductivity correlation is used [K].
@@ -757,6 +848,17 @@ mod tests {
         let cps: Vec<f64> = ts.iter().map(|t| wilhoit_cp(*t, w)).collect();
         let (fit, err) = fit_wilhoit(&ts, &cps, 34).unwrap();
         assert!(err < 1e-9 && (fit.0 - 300.0).abs() < 1e-9, "{fit:?} {err}");
+    }
+
+    /// The per-component Chung viscosity factor reproduces the full formula.
+    #[test]
+    fn chung_factor_matches_full_formula() {
+        let (tc, vc, omega, w) = (617.7, 624e-6, 0.49, 0.142);
+        let f = chung_viscosity_factor(vc, omega, w);
+        for t in [300.0, 600.0, 1200.0] {
+            let full = chung_gas_viscosity(t, tc, vc, omega, w);
+            assert!((f * t.sqrt() / neufeld_omega_viscosity(1.2593 * t / tc) / full - 1.0).abs() < 1e-14);
+        }
     }
 
     /// Neufeld collision integral check values Ω_D(1) = 1.4405, Ω_D(2) = 1.0754 (physics notes B.10).

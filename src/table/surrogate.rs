@@ -339,6 +339,7 @@ impl SurrogateBasis {
             origin: "dropcut table: surrogate fit".into(),
             property_scales: [1.0; 10],
             extensions: std::sync::OnceLock::new(),
+            kernels: Default::default(),
         };
         Ok(SurrogateBasis { base, liquid_range, vapor_range, fit_errors: errors })
     }

@@ -31,6 +31,8 @@ from ._native import DropcutError, DropcutRunError
 __all__ = [
     "DropcutError",
     "DropcutRunError",
+    "Droplet",
+    "Exchange",
     "Fuel",
     "SimulationResult",
     "components",
@@ -229,6 +231,127 @@ def simulate(fuel: FuelLike, *, limits: Optional[str] = None, **conditions: Unio
     dict as summary.json, ``.residue`` DataFrame as residue.csv).
     """
     return SimulationResult(_native.simulate(_fuel(fuel), conditions, limits))
+
+
+class Exchange:
+    """What one :meth:`Droplet.advance` gave the gas over the step (droplet → gas; negative: gas → droplet), SI.
+
+    ``mass``: vapour per fuel component [kg] (numpy array, in the order of :attr:`Droplet.components`);
+    ``energy``: the droplet's loss of liquid enthalpy [J] (each pure liquid at 298.15 K is zero; the vapour carries
+    liquid enthalpy plus latent heat at the surface temperature); ``momentum``: the droplet's loss of momentum
+    [kg m/s] (drag plus the vapour's momentum); ``time``: time advanced [s] (less than asked when the droplet's
+    life ended inside the step); ``finished``: the droplet reached its end of life in this step.
+    """
+
+    __slots__ = ("mass", "energy", "momentum", "time", "finished")
+
+    def __init__(self, raw: Mapping[str, Any]) -> None:
+        """Build from the native result."""
+        self.mass: np.ndarray = np.asarray(raw["mass"], dtype=float)
+        self.energy: float = float(raw["energy"])
+        self.momentum: np.ndarray = np.asarray(raw["momentum"], dtype=float)
+        self.time: float = float(raw["time"])
+        self.finished: bool = bool(raw["finished"])
+
+    def __repr__(self) -> str:
+        return f"<dropcut.Exchange: {self.mass.sum():.4e} kg vapour, {self.energy:.4e} J over {self.time:.4e} s>"
+
+
+class Droplet:
+    """One droplet a spray code advances by its own time step in a far field that may change every step.
+
+    The same model and code as :func:`simulate` (the library's stepping API): a droplet advanced in equal steps
+    in a constant far field follows the one-shot run. ``conditions`` are the :func:`simulate` conditions that
+    define the droplet and its liquid model (``diameter``, ``droplet_temperature``, ``liquid_mixing``,
+    ``liquid_heat``, ``injected`` to let drag slow the droplet, ``rtol``, …); its first far field is their
+    ``ambient_temperature`` and ``pressure``. Radiation and a supporting fibre are refused (a solver's radiation
+    model owns that heat). ``velocity``: the droplet's velocity vector [m/s] (default: ``velocity`` along x).
+
+    Example::
+
+        d = dropcut.Droplet("demo-narrow", diameter="40um", injected=True, velocity=10)
+        while not d.finished:
+            ex = d.advance(1e-4, temperature=900.0, pressure=2e5)
+    """
+
+    def __init__(self, fuel: FuelLike, *, velocity: Optional[Sequence[float]] = None, **conditions: Union[Quantity, bool, None]) -> None:
+        """Make the droplet (see the class documentation)."""
+        self._native = _native.Droplet(_fuel(fuel), conditions, None if velocity is None else [float(v) for v in velocity])
+
+    def advance(
+        self,
+        dt: float,
+        temperature: float,
+        pressure: float,
+        vapor_mass_fractions: Optional[Sequence[float]] = None,
+        gas_velocity: Optional[Sequence[float]] = None,
+    ) -> Exchange:
+        """Advance by ``dt`` [s] in the far field (gas temperature [K], pressure [Pa], fuel-vapour mass fractions
+        per component, gas velocity [m/s] as 3 components) and return the :class:`Exchange` of the step.
+        A bad value (NaN, a negative step, a wrong length) raises :class:`DropcutError` and leaves the droplet
+        as it was."""
+        return Exchange(
+            self._native.advance(
+                float(dt),
+                float(temperature),
+                float(pressure),
+                None if vapor_mass_fractions is None else [float(v) for v in vapor_mass_fractions],
+                None if gas_velocity is None else [float(v) for v in gas_velocity],
+            )
+        )
+
+    @property
+    def components(self) -> List[str]:
+        """Component ids, in the order of every per-component array."""
+        return list(self._native.components)
+
+    @property
+    def time(self) -> float:
+        """Time since the droplet was made [s]."""
+        return self._native.time
+
+    @property
+    def mass(self) -> float:
+        """Liquid mass [kg]."""
+        return self._native.mass
+
+    @property
+    def masses(self) -> np.ndarray:
+        """Liquid mass per component [kg]."""
+        return np.asarray(self._native.masses, dtype=float)
+
+    @property
+    def diameter(self) -> float:
+        """Diameter [m]."""
+        return self._native.diameter
+
+    @property
+    def surface_temperature(self) -> float:
+        """Surface temperature [K]."""
+        return self._native.surface_temperature
+
+    @property
+    def temperatures(self) -> np.ndarray:
+        """Liquid temperature: one value (well-mixed) or one per radial cell, centre first [K]."""
+        return np.asarray(self._native.temperatures, dtype=float)
+
+    @property
+    def velocity(self) -> np.ndarray:
+        """Droplet velocity [m/s]."""
+        return np.asarray(self._native.velocity, dtype=float)
+
+    @property
+    def enthalpy(self) -> float:
+        """Liquid enthalpy the droplet holds [J] (each pure liquid at 298.15 K is zero)."""
+        return self._native.enthalpy
+
+    @property
+    def finished(self) -> bool:
+        """True once the droplet reached its end of life."""
+        return self._native.finished
+
+    def __repr__(self) -> str:
+        return f"<dropcut.Droplet: t = {self.time:.4e} s, d = {self.diameter:.4e} m, Ts = {self.surface_temperature:.2f} K>"
 
 
 def residue(

@@ -385,6 +385,130 @@ impl PyFuel {
 }
 
 // ---------------------------------------------------------------------------------------------------------------
+// Stepping: one droplet advanced by the caller's time step in a far field that may change every step.
+
+/// A droplet a spray code advances step by step (the library's stepping API, `dropcut::model::Stepper`).
+#[pyclass(name = "Droplet", module = "dropcut._native")]
+struct PyDroplet {
+    stepper: model::Stepper,
+    state: model::DropletState,
+}
+
+fn vector3(v: Option<Vec<f64>>, what: &str) -> PyResult<Option<[f64; 3]>> {
+    match v {
+        None => Ok(None),
+        Some(v) if v.len() == 3 => Ok(Some([v[0], v[1], v[2]])),
+        Some(v) => Err(input_err(format!("{what}: expected 3 components (x, y, z), found {}", v.len()))),
+    }
+}
+
+#[pymethods]
+impl PyDroplet {
+    /// A droplet of `fuel` made under `conditions` (the simulate conditions: diameter, droplet temperature, liquid
+    /// model, `injected`, …); its first far field is the conditions' ambient temperature and pressure at rest.
+    /// `velocity`: the droplet's velocity vector [m/s] (default: the `velocity` condition along x).
+    #[new]
+    #[pyo3(signature = (fuel, conditions=None, velocity=None))]
+    fn new(fuel: &PyFuel, conditions: Option<&Bound<'_, PyDict>>, velocity: Option<Vec<f64>>) -> PyResult<Self> {
+        let inputs = condition_inputs(&fuel.lib, &fuel.fuel, conditions)?;
+        let speed = match inputs.motion {
+            model::Motion::Fixed { velocity } | model::Motion::Injected { velocity } => velocity,
+        };
+        let velocity = vector3(velocity, "velocity")?.unwrap_or([speed, 0.0, 0.0]);
+        if velocity.iter().any(|v| !v.is_finite()) {
+            return Err(input_err(format!("velocity: {velocity:?} m/s must be finite")));
+        }
+        let mut stepper = model::Stepper::new(&inputs).map_err(py_err)?;
+        let far_field = model::FarField::new(inputs.ambient_temperature, inputs.pressure);
+        let state = stepper.initial_state(&far_field, velocity).map_err(py_err)?;
+        Ok(PyDroplet { stepper, state })
+    }
+
+    /// Advance by `dt` [s] in the given far field; returns the exchange terms (droplet → gas) as a dict:
+    /// mass (kg per component), energy (J), momentum (kg m/s, 3 components), time (s advanced), finished.
+    #[pyo3(signature = (dt, temperature, pressure, vapor_mass_fractions=None, gas_velocity=None))]
+    fn advance<'py>(&mut self, py: Python<'py>, dt: f64, temperature: f64, pressure: f64, vapor_mass_fractions: Option<Vec<f64>>, gas_velocity: Option<Vec<f64>>) -> PyResult<Bound<'py, PyDict>> {
+        if !(dt.is_finite() && dt > 0.0) {
+            return Err(input_err(format!("dt = {dt} s: the step must be a positive finite time")));
+        }
+        let far_field = model::FarField {
+            temperature,
+            pressure,
+            vapor_mass_fractions: vapor_mass_fractions.unwrap_or_default(),
+            gas_velocity: vector3(gas_velocity, "gas_velocity")?.unwrap_or([0.0; 3]),
+        };
+        let ex = self.stepper.advance(&mut self.state, dt, &far_field).map_err(py_err)?;
+        let d = PyDict::new(py);
+        d.set_item("mass", ex.mass)?;
+        d.set_item("energy", ex.energy)?;
+        d.set_item("momentum", ex.momentum.to_vec())?;
+        d.set_item("time", ex.time)?;
+        d.set_item("finished", ex.finished)?;
+        Ok(d)
+    }
+
+    /// Component ids, in the order of every per-component list.
+    #[getter]
+    fn components(&self) -> Vec<String> {
+        self.stepper.components().iter().map(|c| c.id.clone()).collect()
+    }
+
+    /// Time since the droplet was made [s].
+    #[getter]
+    fn time(&self) -> f64 {
+        self.state.time()
+    }
+
+    /// Liquid mass [kg].
+    #[getter]
+    fn mass(&self) -> f64 {
+        self.state.mass()
+    }
+
+    /// Liquid mass per component [kg].
+    #[getter]
+    fn masses(&self) -> Vec<f64> {
+        self.state.masses().to_vec()
+    }
+
+    /// Diameter [m].
+    #[getter]
+    fn diameter(&self) -> f64 {
+        self.stepper.diameter(&self.state)
+    }
+
+    /// Surface temperature [K].
+    #[getter]
+    fn surface_temperature(&self) -> f64 {
+        self.state.surface_temperature()
+    }
+
+    /// Liquid temperature: one value (well-mixed) or one per radial cell, centre first (resolved) [K].
+    #[getter]
+    fn temperatures(&self) -> Vec<f64> {
+        self.state.temperatures().to_vec()
+    }
+
+    /// Droplet velocity [m/s].
+    #[getter]
+    fn velocity(&self) -> Vec<f64> {
+        self.state.velocity().to_vec()
+    }
+
+    /// Liquid enthalpy held by the droplet [J] (each pure liquid at 298.15 K is zero).
+    #[getter]
+    fn enthalpy(&self) -> f64 {
+        self.state.enthalpy()
+    }
+
+    /// True once the droplet reached its end of life.
+    #[getter]
+    fn finished(&self) -> bool {
+        self.state.is_finished()
+    }
+}
+
+// ---------------------------------------------------------------------------------------------------------------
 // Runs.
 
 /// One droplet run: returns {history, residue, profiles (None unless resolved), summary_json, notes, inputs}.
@@ -635,6 +759,7 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add("DropcutRunError", m.py().get_type::<DropcutRunError>())?;
     m.add("__version__", env!("CARGO_PKG_VERSION"))?;
     m.add_class::<PyFuel>()?;
+    m.add_class::<PyDroplet>()?;
     m.add_function(wrap_pyfunction!(components_json, m)?)?;
     m.add_function(wrap_pyfunction!(simulate, m)?)?;
     m.add_function(wrap_pyfunction!(residue, m)?)?;

@@ -281,3 +281,63 @@ def test_a_failing_progress_callback_never_stops_a_sweep_and_ctrl_c_is_raised(tm
     # the sweep ran to its end: resuming finds it complete
     again = dropcut.sweep(spec, out=tmp_path / "stopped", resume=True, progress=False)
     assert again.attrs["report"]["already_complete"]
+
+
+def test_droplet_steps_follow_the_one_shot_run_and_exchange_what_it_loses():
+    """Droplet.advance in equal steps in a constant far field: the life ends where simulate's does (the
+    stepping API drives the same integration), and the vapour given to the gas is the mass the droplet lost."""
+    conditions = dict(ambient_temperature=800.0, pressure=101325.0, diameter="30um", velocity=5.0)
+    one_shot = dropcut.simulate("demo-narrow", **conditions)
+    life = one_shot.summary["lifetime_s"]
+    d = dropcut.Droplet("demo-narrow", **conditions)
+    m0 = d.mass
+    assert d.components == [c[len("Yliq_"):] for c in one_shot.history.columns if c.startswith("Yliq_")]
+    vapour = 0.0
+    energy = 0.0
+    elapsed = 0.0
+    for _ in range(100000):
+        ex = d.advance(1e-4, temperature=800.0, pressure=101325.0)
+        vapour += float(ex.mass.sum())
+        energy += ex.energy
+        elapsed += ex.time
+        if ex.finished:
+            break
+    assert d.finished
+    assert abs(elapsed / life - 1.0) < 1e-6, (elapsed, life)
+    assert abs(d.time / life - 1.0) < 1e-6
+    assert abs(vapour - (m0 - d.mass)) <= 1e-9 * m0
+    assert energy > 0.0 and d.enthalpy < 0.0 or d.mass < 0.01 * m0
+    # the final state is what the one-shot history ends with
+    last = one_shot.history.iloc[-1]
+    assert abs(d.surface_temperature / last["surface_temperature_K"] - 1.0) < 1e-6
+
+
+def test_droplet_reacts_to_a_hotter_far_field():
+    """A step change of the gas temperature mid-life shortens the rest of the life, continuously."""
+    def life(jump: bool) -> float:
+        d = dropcut.Droplet("n-decane", diameter="20um", ambient_temperature="600K")
+        t = 0.0
+        while not d.finished:
+            gas = 1000.0 if (jump and t > 2e-3) else 600.0
+            t += d.advance(1e-4, temperature=gas, pressure=101325.0).time
+        return t
+
+    assert life(True) < 0.9 * life(False)
+
+
+def test_droplet_bad_input_raises_and_leaves_the_droplet_as_it_was():
+    d = dropcut.Droplet("n-decane", diameter="20um")
+    before = (d.time, d.mass)
+    for kwargs, needle in [
+        (dict(dt=-1e-4, temperature=800.0, pressure=1e5), "positive"),
+        (dict(dt=1e-4, temperature=float("nan"), pressure=1e5), "far-field temperature"),
+        (dict(dt=1e-4, temperature=800.0, pressure=1e5, vapor_mass_fractions=[0.1, 0.2]), "far-field vapour"),
+        (dict(dt=1e-4, temperature=800.0, pressure=1e5, gas_velocity=[1.0, 2.0]), "gas_velocity"),
+    ]:
+        with pytest.raises(dropcut.DropcutError, match=needle):
+            d.advance(**kwargs)
+        assert (d.time, d.mass) == before
+    with pytest.raises(dropcut.DropcutError, match="radiation"):
+        dropcut.Droplet("n-decane", radiation="1500K")
+    with pytest.raises(dropcut.DropcutError, match="diameter"):
+        dropcut.Droplet("n-decane", diameter="-5um")

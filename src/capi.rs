@@ -34,15 +34,15 @@ pub const DC_LIQUID_RESOLVED: c_int = 1;
 /// The far field of one solver step.
 #[repr(C)]
 pub struct DcFarField {
-    /// Gas temperature [K].
+    /// Gas temperature \[K\].
     pub temperature: f64,
-    /// Pressure [Pa].
+    /// Pressure \[Pa\].
     pub pressure: f64,
     /// Fuel-vapour mass fractions, one per fuel component (may be null when `vapor_len` is 0).
     pub vapor_mass_fractions: *const f64,
     /// Number of values in `vapor_mass_fractions` (0 or the number of components).
     pub vapor_len: usize,
-    /// Gas velocity [m/s].
+    /// Gas velocity \[m/s\].
     pub gas_velocity: [f64; 3],
 }
 
@@ -131,7 +131,7 @@ pub extern "C" fn dc_last_error() -> *const c_char {
     LAST_ERROR.with(|e| e.borrow().as_ptr())
 }
 
-/// New stepper: `fuel` (library fuel or component id, e.g. "demo-wide"), `gas` ("air", "n2" or mole fractions like "o2=0.15,n2=0.85"), initial diameter [m] and temperature [K] of new droplets, `liquid` DC_LIQUID_*, `drag` 1: velocity relaxes by drag, 0: slip held, into `*out`.
+/// New stepper: `fuel` (library fuel or component id, e.g. "demo-wide"), `gas` ("air", "n2" or mole fractions like "o2=0.15,n2=0.85"), initial diameter \[m\] and temperature \[K\] of new droplets, `liquid` DC_LIQUID_*, `drag` 1: velocity relaxes by drag, 0: slip held, into `*out`.
 ///
 /// # Safety
 /// `fuel` and `gas` must be NUL-terminated strings; `out` must be valid for a write.
@@ -187,7 +187,7 @@ pub unsafe extern "C" fn dc_stepper_components(stepper: *const DcStepper, out: *
     })
 }
 
-/// New droplet of the stepper's fuel moving at `velocity` [m/s] (3 values) in `far_field`, into `*out`.
+/// New droplet of the stepper's fuel moving at `velocity` \[m/s\] (3 values) in `far_field`, into `*out`.
 ///
 /// # Safety
 /// Pointers must be null or valid; `velocity` must hold 3 values.
@@ -220,7 +220,7 @@ pub unsafe extern "C" fn dc_droplet_free(droplet: *mut DcDroplet) {
     }
 }
 
-/// Advance `droplet` by `dt` [s] in `far_field`; writes the vapour mass given to the gas per component [kg] into `mass` (`mass_len` ≥ components), the energy [J] (liquid at 298.15 K = 0), the momentum [kg m/s] (3 values), and 1 into `*finished` when its life ended. On an error the droplet is unchanged.
+/// Advance `droplet` by `dt` \[s\] in `far_field`; writes the vapour mass given to the gas per component \[kg\] into `mass` (`mass_len` ≥ components), the energy \[J\] (liquid at 298.15 K = 0), the momentum \[kg m/s\] (3 values), and 1 into `*finished` when its life ended. On an error the droplet is unchanged.
 ///
 /// # Safety
 /// Pointers must be null or valid for the stated lengths.
@@ -251,7 +251,7 @@ pub unsafe extern "C" fn dc_advance(stepper: *mut DcStepper, droplet: *mut DcDro
     })
 }
 
-/// The droplet's time since creation [s], mass [kg], surface temperature [K], diameter [m] and velocity (3 values) [m/s].
+/// The droplet's time since creation \[s\], mass \[kg\], surface temperature \[K\], diameter \[m\] and velocity (3 values) \[m/s\].
 ///
 /// # Safety
 /// Pointers must be null or valid; `velocity` must hold 3 values.

@@ -43,6 +43,10 @@
 //! ```
 #![warn(missing_docs)]
 #![allow(non_snake_case)] // SI-unit suffixes in names: temperature_K, pressure_Pa
+// Numeric kernels index several parallel per-component arrays (masses, fractions, γ, p_sat) by one index.
+#![allow(clippy::needless_range_loop)]
+// `!(x > 0.0)` is deliberate throughout: unlike `x <= 0.0` it also rejects NaN.
+#![allow(clippy::neg_cmp_op_on_partial_ord)]
 
 #[cfg(feature = "capi")]
 pub mod capi;

@@ -269,7 +269,8 @@ fn check_build(text: &str) -> Result<(), TestCaseError> {
 /// Inputs that once broke a parser (or nearly did), kept as fixed cases.
 #[test]
 fn regressions() {
-    let cases: &[(&str, fn(&str) -> Result<(), TestCaseError>)] = &[
+    type Check = fn(&str) -> Result<(), TestCaseError>;
+    let cases: &[(&str, Check)] = &[
         ("n-decane = 1e308\nn-dodecane = 1e308\nname = \"x\"\nbasis = \"mass\"\n", check_fuel),
         ("name = \"x\"\nbasis = \"mass\"\n[composition]\nn-decane = 1e308\nn-dodecane = 1e308\n", check_fuel),
         ("name = \"x\"\nbasis = \"mass\"\n[composition]\n\"n-dec\\u001bane\" = 1\n", check_fuel),

@@ -110,7 +110,7 @@ fn equal_steps_and_restarts_give_the_one_shot_lifetime() {
             let life = one_shot(&inp).outcome.lifetime.unwrap();
             let mut stepper = Stepper::new(&inp).unwrap();
             let n = inp.fuel.len();
-            let alternating = |k: usize| FarField { vapor_mass_fractions: if k % 2 == 0 { vec![] } else { vec![0.0; n] }, ..far_field(&inp) };
+            let alternating = |k: usize| FarField { vapor_mass_fractions: if k.is_multiple_of(2) { vec![] } else { vec![0.0; n] }, ..far_field(&inp) };
             let (_, _, end) = life_in_steps(&mut stepper, &alternating, life / 200.0, [5.0, 0.0, 0.0]);
             eprintln!("restarting every step: {} vs one-shot {life}", end.time());
             assert!(rel(end.time(), life) <= 1e-6, "{} vs {life}", end.time());

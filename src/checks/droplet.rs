@@ -18,7 +18,7 @@
 //! The check is therefore a band, not a point: for each experiment the model runs with the rig's fibre and
 //! (i) no radiation and (ii) black furnace walls absorbed with efficiency 1 (the largest radiative heat a grey
 //! droplet can take; n-heptane is semi-transparent, so the true share lies between). The experiment passes when
-//! its value lies inside [model (ii), model (i)] widened by the tolerance (plot reading ≈ ±5 % combined with
+//! its value lies inside \[model (ii), model (i)\] widened by the tolerance (plot reading ≈ ±5 % combined with
 //! ≈ 5 % film-model and property uncertainty, common practice). A free droplet (no fibre, no radiation) must
 //! not evaporate faster than either experiment beyond the same tolerance: both rigs only add heat.
 //!
@@ -48,15 +48,15 @@ pub const GROUP: &str = "droplet experiments";
 /// What is compared with the experiment.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum Quantity {
-    /// t/d0² when (d/d0)² first falls to `at_d2_ratio` [s/m²]; 0 means the end of the droplet's life.
+    /// t/d0² when (d/d0)² first falls to `at_d2_ratio` \[s/m²\]; 0 means the end of the droplet's life.
     TimeOverD0Squared {
-        /// (d/d0)² at which the time is read [-] (0 = end of life).
+        /// (d/d0)² at which the time is read \[-\] (0 = end of life).
         at_d2_ratio: f64,
     },
     /// Droplet temperature when (d/d0)² has fallen to `at_d2_ratio` (the quasi-steady plateau) \[K\];
     /// absolute tolerance in K.
     PlateauTemperature {
-        /// (d/d0)² at which the temperature is read [-].
+        /// (d/d0)² at which the temperature is read \[-\].
         at_d2_ratio: f64,
     },
 }
@@ -78,7 +78,7 @@ pub struct ExperimentCase {
     pub initial_diameter: f64,
     /// Initial droplet temperature \[K\].
     pub initial_temperature: f64,
-    /// Constant gas velocity relative to the (suspended) droplet [m/s].
+    /// Constant gas velocity relative to the (suspended) droplet \[m/s\].
     pub velocity: f64,
     /// Compared quantity.
     pub quantity: Quantity,
@@ -192,7 +192,7 @@ pub fn cases() -> Vec<ExperimentCase> {
     ]
 }
 
-/// Least-squares slope −d(d²)/dt over the rows with `lower` ≤ (d/d0)² ≤ `upper` [m²/s]; None with < 3 rows.
+/// Least-squares slope −d(d²)/dt over the rows with `lower` ≤ (d/d0)² ≤ `upper` \[m²/s\]; None with < 3 rows.
 pub fn evaporation_constant(rows: &[HistoryRow], upper: f64, lower: f64) -> Option<f64> {
     let pts: Vec<(f64, f64)> = rows.iter().filter(|r| r.d2_ratio <= upper && r.d2_ratio >= lower).map(|r| (r.time, r.diameter * r.diameter)).collect();
     if pts.len() < 3 {
@@ -230,7 +230,7 @@ fn failed(case: &ExperimentCase, reason: String) -> CheckResult {
     CheckResult { group: GROUP.into(), check: case.label.into(), source: case.source.into(), tolerance, achieved: reason, passed: false }
 }
 
-/// t/d0² when (d/d0)² first falls to `at` (interpolated linearly in (d/d0)²), or at the last row for `at` = 0 [s/m²].
+/// t/d0² when (d/d0)² first falls to `at` (interpolated linearly in (d/d0)²), or at the last row for `at` = 0 \[s/m²\].
 pub fn time_over_d0_squared(rows: &[HistoryRow], d0: f64, at: f64) -> Option<f64> {
     if at <= 0.0 {
         return rows.last().map(|r| r.time / (d0 * d0));

@@ -21,25 +21,25 @@ pub struct IdealLiquid {
     pub id: &'static str,
     /// Vapour-pressure section (TOML body).
     pub vapor_pressure: String,
-    /// Liquid density [kg/m³].
+    /// Liquid density \[kg/m³\].
     pub density: f64,
-    /// Latent heat [J/kg].
+    /// Latent heat \[J/kg\].
     pub latent_heat: f64,
-    /// Liquid cp [J/(kg·K)].
+    /// Liquid cp \[J/(kg·K)\].
     pub cp_liquid: f64,
-    /// Vapour cp [J/(kg·K)].
+    /// Vapour cp \[J/(kg·K)\].
     pub cp_vapor: f64,
-    /// Vapour viscosity [Pa·s].
+    /// Vapour viscosity \[Pa·s\].
     pub mu_vapor: f64,
-    /// Vapour conductivity [W/(m·K)].
+    /// Vapour conductivity \[W/(m·K)\].
     pub k_vapor: f64,
 }
 
-/// Molar mass of the idealised liquids (C7H16) [kg/mol].
+/// Molar mass of the idealised liquids (C7H16) \[kg/mol\].
 pub const IDEAL_W: f64 = 0.100_204;
 /// Fuller volume of the idealised liquids (C7H16 by atomic increments).
 pub const IDEAL_V: f64 = 7.0 * 15.9 + 16.0 * 2.31;
-/// Idealised inert gas: molar mass [kg/mol], cp [J/(kg·K)], μ [Pa·s], k [W/(m·K)], Fuller volume.
+/// Idealised inert gas: molar mass \[kg/mol\], cp \[J/(kg·K)\], μ \[Pa·s\], k \[W/(m·K)\], Fuller volume.
 pub const GAS: (f64, f64, f64, f64, f64) = (0.028_96, 1100.0, 3.0e-5, 0.05, 19.7);
 
 fn constant(name: &str, value: f64, unit: &str) -> String {
@@ -97,7 +97,7 @@ pub fn ideal_gas() -> Result<AmbientGas, String> {
     Ok(AmbientGas::assemble(vec![g], vec![1.0], vec![1.0], w, "inert"))
 }
 
-/// Fuller–Schettler–Giddings D [m²/s], written out independently (Poling et al. 2001 eq. 11-4.4).
+/// Fuller–Schettler–Giddings D \[m²/s\], written out independently (Poling et al. 2001 eq. 11-4.4).
 fn fuller(t: f64, p: f64) -> f64 {
     let w_ab = 2.0 / (1.0 / (IDEAL_W * 1e3) + 1.0 / (GAS.0 * 1e3));
     0.00143 * t.powf(1.75) / ((p / 1e5) * w_ab.sqrt() * (IDEAL_V.cbrt() + GAS.4.cbrt()).powi(2)) * 1e-4

@@ -166,7 +166,7 @@ fn binary_flash_point_checked(lib: &Library) -> Result<Vec<CheckResult>, String>
         .collect())
 }
 
-/// Composite Simpson rule of `f` over [a, b] with `panels` (even) intervals.
+/// Composite Simpson rule of `f` over \[a, b\] with `panels` (even) intervals.
 fn simpson(f: &mut impl FnMut(f64) -> f64, a: f64, b: f64, panels: usize) -> f64 {
     let h = (b - a) / panels as f64;
     let mut s = f(a) + f(b);

@@ -27,10 +27,10 @@ pub const CHECK_PRESSURE: f64 = 1e6;
 /// Lifetime tolerance of the surrogate at its reference condition (issue): 1 %.
 pub const TOL_SURROGATE_LIFETIME: f64 = 0.01;
 /// Reported surrogate errors must equal an independent rerun to this relative difference of the lifetimes
-/// (both runs are deterministic; the slack only absorbs floating-point noise) [-].
+/// (both runs are deterministic; the slack only absorbs floating-point noise) \[-\].
 pub const TOL_REPORTED: f64 = 1e-9;
 /// A pure fuel's surrogate must stay within this lifetime error at every evaluation condition: the only
-/// differences are the least-squares curve fits (our own choice) [-].
+/// differences are the least-squares curve fits (our own choice) \[-\].
 pub const TOL_PURE_IDENTITY: f64 = 0.01;
 
 /// Every table check.
@@ -227,7 +227,7 @@ pub fn lifetime(fuel: &Fuel, gas: &AmbientGas, cond: &ReferenceCondition) -> Opt
 }
 
 /// Largest difference between the reported surrogate/mixture lifetimes and an independent rerun of both
-/// models, over the reference and every evaluation condition (relative) [-].
+/// models, over the reference and every evaluation condition (relative) \[-\].
 pub fn reported_error_discrepancy(fuel: &Fuel, gas: &AmbientGas, s: &Surrogate) -> f64 {
     let sur = Fuel::pure(s.component.clone());
     let mut worst = 0.0f64;

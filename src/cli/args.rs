@@ -436,7 +436,7 @@ pub struct UncertaintyArgs {
     /// Seed of the random draws (the same seed gives the same files whatever the thread count).
     #[arg(long, default_value = "1", value_name = "S", allow_hyphen_values = true)]
     pub seed: String,
-    /// Uncertainty file (TOML: [conditions], [composition], [properties]; see docs/uncertainty.md).
+    /// Uncertainty file (TOML: \[conditions\], \[composition\], \[properties\]; see docs/uncertainty.md).
     #[arg(long, value_name = "FILE")]
     pub uncertainty: Option<PathBuf>,
     /// Condition spreads, e.g. ambient-temperature=10K,pressure=2% (normal standard deviations; % = relative);

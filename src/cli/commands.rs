@@ -266,8 +266,11 @@ fn table_header() -> String {
     )
 }
 
-/// The demo conditions: (name, description, ambient T, pressure, diameter, droplet T, velocity, max time).
-pub const DEMO_CONDITIONS: [(&str, &str, &str, &str, &str, &str, &str, &str); 2] = [
+/// One demo condition: (name, description, ambient T, pressure, diameter, droplet T, velocity, max time).
+pub type DemoCondition = (&'static str, &'static str, &'static str, &'static str, &'static str, &'static str, &'static str, &'static str);
+
+/// The demo conditions.
+pub const DEMO_CONDITIONS: [DemoCondition; 2] = [
     ("combustor", "combustor-like: 800 K air at 10 bar, 30 um droplet at 300 K injected at 20 m/s", "800K", "10bar", "30um", "300K", "20", "1s"),
     ("relight", "altitude-relight-like: 260 K air at 0.4 bar, 40 um droplet at 250 K, 10 m/s slip", "260K", "0.4bar", "40um", "250K", "10", "2s"),
 ];

@@ -1,4 +1,4 @@
-//! `dropcut uncertainty FUEL... [condition options] --samples N --seed S [--uncertainty FILE] ...`: CLI glue
+//! `dropcut uncertainty FUEL... \[condition options\] --samples N --seed S \[--uncertainty FILE\] ...`: CLI glue
 //! around `crate::uncertainty` (sampling, statistics) and `crate::output::uncertainty` (files, charts).
 
 use std::io::IsTerminal;

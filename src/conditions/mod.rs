@@ -94,11 +94,11 @@ impl Kind {
 /// Allowed numeric range of a continuous condition (SI): above `min` (or at it, when `min_inclusive`), at most `max`.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Range {
-    /// Lower bound [SI].
+    /// Lower bound \[SI\].
     pub min: f64,
     /// True when `min` itself is allowed.
     pub min_inclusive: bool,
-    /// Upper bound (inclusive) [SI]; infinity for none.
+    /// Upper bound (inclusive) \[SI\]; infinity for none.
     pub max: f64,
 }
 

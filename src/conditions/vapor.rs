@@ -12,7 +12,7 @@ pub struct VaporPair {
     pub library_id: Option<String>,
     /// Why the library does not know it (`unknown component 'x'; did you mean …`), when it does not.
     pub unknown: Option<String>,
-    /// Far-field mass fraction [-], in [0, 0.5).
+    /// Far-field mass fraction \[-\], in [0, 0.5).
     pub mass_fraction: f64,
 }
 

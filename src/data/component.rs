@@ -167,7 +167,7 @@ struct RawComponent {
 /// Scalar constants of a component, SI units.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Constants {
-    /// Molar mass [kg/mol].
+    /// Molar mass \[kg/mol\].
     pub molar_mass: Sourced,
     /// Normal boiling point \[K\].
     pub normal_boiling_point: Sourced,
@@ -175,25 +175,25 @@ pub struct Constants {
     pub critical_temperature: Sourced,
     /// Critical pressure \[Pa\].
     pub critical_pressure: Sourced,
-    /// Critical molar volume [m³/mol].
+    /// Critical molar volume \[m³/mol\].
     pub critical_volume: Sourced,
-    /// Acentric factor [-].
+    /// Acentric factor \[-\].
     pub acentric_factor: Sourced,
     /// Melting point \[K\].
     pub melting_point: Sourced,
-    /// Enthalpy of fusion [J/mol].
+    /// Enthalpy of fusion \[J/mol\].
     pub enthalpy_of_fusion: Option<Sourced>,
-    /// Published liquid density at 15 °C [kg/m³].
+    /// Published liquid density at 15 °C \[kg/m³\].
     pub density_15c: Option<Sourced>,
-    /// Lower heating value of the liquid [J/kg].
+    /// Lower heating value of the liquid \[J/kg\].
     pub lower_heating_value: Sourced,
-    /// Cetane number or derived cetane number [-] (`kind` says which).
+    /// Cetane number or derived cetane number \[-\] (`kind` says which).
     pub cetane_number: Sourced,
     /// Closed-cup flash point \[K\].
     pub flash_point: Option<Sourced>,
-    /// Spencer–Danner Rackett parameter [-].
+    /// Spencer–Danner Rackett parameter \[-\].
     pub rackett_z: Option<Sourced>,
-    /// Fuller diffusion-volume sum [-].
+    /// Fuller diffusion-volume sum \[-\].
     pub diffusion_volume: Option<Sourced>,
     /// Lennard-Jones collision diameter \[m\].
     pub lennard_jones_sigma: Option<Sourced>,
@@ -224,27 +224,27 @@ pub struct Component {
     pub constants: Constants,
     /// Vapour pressure \[Pa\].
     pub vapor_pressure: Correlation,
-    /// Saturated liquid density [kg/m³].
+    /// Saturated liquid density \[kg/m³\].
     pub liquid_density: Correlation,
-    /// Latent heat [J/kg].
+    /// Latent heat \[J/kg\].
     pub latent_heat: Correlation,
-    /// Liquid heat capacity [J/(kg·K)].
+    /// Liquid heat capacity \[J/(kg·K)\].
     pub liquid_heat_capacity: Correlation,
-    /// Liquid viscosity [Pa·s].
+    /// Liquid viscosity \[Pa·s\].
     pub liquid_viscosity: Correlation,
-    /// Liquid thermal conductivity [W/(m·K)].
+    /// Liquid thermal conductivity \[W/(m·K)\].
     pub liquid_conductivity: Correlation,
-    /// Surface tension [N/m].
+    /// Surface tension \[N/m\].
     pub surface_tension: Correlation,
-    /// Ideal-gas heat capacity [J/(kg·K)].
+    /// Ideal-gas heat capacity \[J/(kg·K)\].
     pub ideal_gas_heat_capacity: Correlation,
-    /// Vapour viscosity [Pa·s].
+    /// Vapour viscosity \[Pa·s\].
     pub vapor_viscosity: Correlation,
-    /// Vapour thermal conductivity [W/(m·K)].
+    /// Vapour thermal conductivity \[W/(m·K)\].
     pub vapor_conductivity: Correlation,
     /// File the component came from.
     pub origin: String,
-    /// Multipliers on the ten properties, in [`Component::correlations`] order [-]: 1 everywhere except in
+    /// Multipliers on the ten properties, in [`Component::correlations`] order \[-\]: 1 everywhere except in
     /// uncertainty samples (`crate::uncertainty`), which set them with [`Component::with_property_scales`].
     pub property_scales: [f64; 10],
     /// Coefficients of the extensions of the published correlations beyond their ranges, fitted to them on
@@ -299,17 +299,17 @@ impl std::fmt::Debug for KernelSlot {
 /// to the published correlations themselves by `crate::props::pure::fit_extensions`.
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub struct Extensions {
-    /// Hildebrand fluidity law 1/μ = a·V + b above the takeover temperature: (takeover \[K\], a [1/(Pa·s)/(m³/mol)],
-    /// b [1/(Pa·s)]); None when the liquid viscosity has no published coefficients or the fit failed.
+    /// Hildebrand fluidity law 1/μ = a·V + b above the takeover temperature: (takeover \[K\], a \[1/(Pa·s)/(m³/mol)\],
+    /// b \[1/(Pa·s)\]); None when the liquid viscosity has no published coefficients or the fit failed.
     pub fluidity: Option<(f64, f64, f64)>,
-    /// Wilhoit ideal-gas cp above the published range: (B \[K\], a0, a1, a2, cp at 0 K [J/(mol·K)], classical
-    /// limit [J/(mol·K)]); None when the ideal-gas cp is not a polynomial with a finite range.
+    /// Wilhoit ideal-gas cp above the published range: (B \[K\], a0, a1, a2, cp at 0 K \[J/(mol·K)\], classical
+    /// limit \[J/(mol·K)\]); None when the ideal-gas cp is not a polynomial with a finite range.
     pub wilhoit: Option<WilhoitCoefficients>,
-    /// Temperature-independent factor of the Chung et al. vapour viscosity of this component [Pa·s/K^½].
+    /// Temperature-independent factor of the Chung et al. vapour viscosity of this component \[Pa·s/K^½\].
     pub chung_viscosity_factor: f64,
 }
 
-/// Wilhoit ideal-gas cp coefficients: (B \[K\], [a0, a1, a2], cp at 0 K [J/(mol·K)], classical limit [J/(mol·K)]).
+/// Wilhoit ideal-gas cp coefficients: (B \[K\], \[a0, a1, a2\], cp at 0 K \[J/(mol·K)\], classical limit \[J/(mol·K)\]).
 pub type WilhoitCoefficients = (f64, [f64; 3], f64, f64);
 
 /// Default relative uncertainties (published coefficients, estimated) per property; docs/property-methods.md.
@@ -326,10 +326,10 @@ pub const DEFAULT_UNCERTAINTY: [(&str, f64, f64); 10] = [
     ("vapor-conductivity", 0.05, 0.15),
 ];
 
-/// Physical bounds of a liquid fuel component's density near 15 °C [kg/m³] (n-pentane about 630, polycyclic
+/// Physical bounds of a liquid fuel component's density near 15 °C \[kg/m³\] (n-pentane about 630, polycyclic
 /// aromatics about 1100; common practice, with margin).
 pub const ANCHOR_DENSITY: (f64, f64) = (500.0, 1300.0);
-/// Physical bounds of a liquid fuel component's dynamic viscosity near 15 °C [Pa s] (light alkanes about
+/// Physical bounds of a liquid fuel component's dynamic viscosity near 15 °C \[Pa s\] (light alkanes about
 /// 2e-4, heavy multi-ring liquids about 1e-1; common practice, with margin).
 pub const ANCHOR_VISCOSITY: (f64, f64) = (1e-4, 1.0);
 
@@ -355,10 +355,10 @@ pub const CETANE_KINDS: [(&str, &str); 3] = [
     ("estimate", "estimated (correlation, class trend or index), not measured"),
 ];
 
-/// Physical bounds of a liquid density of a fuel molecule at any temperature of its liquid range [kg/m³]:
+/// Physical bounds of a liquid density of a fuel molecule at any temperature of its liquid range \[kg/m³\]:
 /// below the lightest liquid hydrocarbons near their critical point, above dense polyaromatics (common practice).
 pub const DENSITY_BOUNDS: (f64, f64) = (100.0, 2000.0);
-/// Physical bounds of a liquid dynamic viscosity between the melting and boiling points [Pa·s]: a liquid is
+/// Physical bounds of a liquid dynamic viscosity between the melting and boiling points \[Pa·s\]: a liquid is
 /// not less viscous than about 1e-5 Pa·s (near-critical light hydrocarbons) and a fuel molecule well above its
 /// melting point not more than 1e3 Pa·s (common practice).
 pub const VISCOSITY_BOUNDS: (f64, f64) = (1e-5, 1e3);
@@ -727,7 +727,7 @@ impl Component {
         ]
     }
 
-    /// Molar mass [kg/mol].
+    /// Molar mass \[kg/mol\].
     #[inline]
     pub fn molar_mass(&self) -> f64 {
         self.constants.molar_mass.value
@@ -757,7 +757,7 @@ impl Component {
         self.constants.normal_boiling_point.value
     }
 
-    /// Acentric factor [-].
+    /// Acentric factor \[-\].
     #[inline]
     pub fn acentric_factor(&self) -> f64 {
         self.constants.acentric_factor.value

@@ -4,7 +4,7 @@ use serde::Deserialize;
 
 use super::DataError;
 
-/// Molar gas constant [J/(mol·K)] (CODATA 2018, exact).
+/// Molar gas constant \[J/(mol·K)\] (CODATA 2018, exact).
 pub const GAS_CONSTANT: f64 = 8.314_462_618;
 
 /// The equation form of a correlation (see docs/component-format.md).
@@ -24,16 +24,16 @@ pub enum Form {
     Dippr106 {
         /// Coefficients A..E.
         c: [f64; 5],
-        /// Critical temperature used in Tr [K].
+        /// Critical temperature used in Tr \[K\].
         tc: f64,
     },
-    /// Aly–Lee: y = A + B [(C/T)/sinh(C/T)]² + D [(E/T)/cosh(E/T)]².
+    /// Aly–Lee: y = A + B \[(C/T)/sinh(C/T)\]² + D \[(E/T)/cosh(E/T)\]².
     Dippr107([f64; 5]),
     /// y = A²/τ + B − 2AC τ − AD τ² − C² τ³/3 − CD τ⁴/2 − D² τ⁵/5, τ = 1 − T/Tc.
     Dippr114 {
         /// Coefficients A..D.
         c: [f64; 4],
-        /// Critical temperature [K].
+        /// Critical temperature \[K\].
         tc: f64,
     },
     /// log10(y) = A − B/(T + C).
@@ -42,7 +42,7 @@ pub enum Form {
     Wagner {
         /// Coefficients A..D.
         c: [f64; 4],
-        /// Critical temperature [K].
+        /// Critical temperature \[K\].
         tc: f64,
         /// Critical pressure in the correlation's unit.
         pc: f64,
@@ -53,7 +53,7 @@ pub enum Form {
     MuleroCachadina {
         /// Pairs (σ_k, n_k).
         terms: Vec<(f64, f64)>,
-        /// Critical temperature [K].
+        /// Critical temperature \[K\].
         tc: f64,
     },
     /// NASA 7-coefficient cp/R polynomials, low and high ranges.
@@ -62,18 +62,18 @@ pub enum Form {
         low: [f64; 7],
         /// High-range coefficients a1..a7.
         high: [f64; 7],
-        /// Switch temperature [K].
+        /// Switch temperature \[K\].
         t_mid: f64,
     },
     /// VDI Heat Atlas (PPDS) saturated-liquid density: y = ρc + A τ^0.35 + B τ^(2/3) + C τ + D τ^(4/3),
-    /// τ = 1 − T/Tc; coefficients [ρc, A, B, C, D] in the correlation's unit.
+    /// τ = 1 − T/Tc; coefficients \[ρc, A, B, C, D\] in the correlation's unit.
     PpdsDensity {
         /// Coefficients ρc, A, B, C, D.
         c: [f64; 5],
-        /// Critical temperature [K].
+        /// Critical temperature \[K\].
         tc: f64,
     },
-    /// VDI Heat Atlas (PPDS equation 9) liquid viscosity: y = E exp[A x^(1/3) + B x^(4/3)], x = (C − T)/(T − D).
+    /// VDI Heat Atlas (PPDS equation 9) liquid viscosity: y = E exp\[A x^(1/3) + B x^(4/3)\], x = (C − T)/(T − D).
     Ppds9([f64; 5]),
     /// Estimated from the constants by the default corresponding-states method of the property.
     CorrespondingStates,
@@ -94,19 +94,19 @@ pub struct RawCorrelation {
     /// NASA7 high-range coefficients.
     #[serde(default)]
     pub coefficients_high: Option<Vec<f64>>,
-    /// NASA7 switch temperature [K].
+    /// NASA7 switch temperature \[K\].
     #[serde(default)]
     pub t_mid: Option<f64>,
     /// Unit of the published result.
     #[serde(default)]
     pub unit: Option<String>,
-    /// Lower validity limit [K].
+    /// Lower validity limit \[K\].
     #[serde(default)]
     pub t_min: Option<f64>,
-    /// Upper validity limit [K].
+    /// Upper validity limit \[K\].
     #[serde(default)]
     pub t_max: Option<f64>,
-    /// Critical temperature parameter of the form [K].
+    /// Critical temperature parameter of the form \[K\].
     #[serde(default)]
     pub tc: Option<f64>,
     /// Critical pressure parameter of the form (correlation unit).
@@ -129,9 +129,9 @@ pub struct Correlation {
     pub form: Form,
     /// Multiplier from the published unit to the SI mass-basis unit of the property.
     pub factor: f64,
-    /// Lower validity limit [K].
+    /// Lower validity limit \[K\].
     pub t_min: f64,
-    /// Upper validity limit [K].
+    /// Upper validity limit \[K\].
     pub t_max: f64,
     /// Source id.
     pub source: String,
@@ -142,19 +142,19 @@ pub struct Correlation {
 /// What physical dimension a property has (selects the allowed units).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Dimension {
-    /// Pressure [Pa].
+    /// Pressure \[Pa\].
     Pressure,
-    /// Mass density [kg/m³].
+    /// Mass density \[kg/m³\].
     Density,
-    /// Specific energy [J/kg].
+    /// Specific energy \[J/kg\].
     SpecificEnergy,
-    /// Specific heat capacity [J/(kg·K)].
+    /// Specific heat capacity \[J/(kg·K)\].
     SpecificHeat,
-    /// Dynamic viscosity [Pa·s].
+    /// Dynamic viscosity \[Pa·s\].
     Viscosity,
-    /// Thermal conductivity [W/(m·K)].
+    /// Thermal conductivity \[W/(m·K)\].
     Conductivity,
-    /// Surface tension [N/m].
+    /// Surface tension \[N/m\].
     SurfaceTension,
 }
 
@@ -243,7 +243,7 @@ impl RawCorrelation {
                 Form::Wagner { c: coeffs(&c, 4, "wagner").map_err(bad)?, tc: need_tc("wagner")?, pc }
             }
             "mulero-cachadina" => {
-                if c.is_empty() || c.len() % 2 != 0 {
+                if c.is_empty() || !c.len().is_multiple_of(2) {
                     return Err(bad(format!("mulero-cachadina takes pairs [sigma, n, ...], found {} numbers", c.len())));
                 }
                 Form::MuleroCachadina { terms: c.chunks(2).map(|p| (p[0], p[1])).collect(), tc: need_tc("mulero-cachadina")? }
@@ -296,7 +296,7 @@ impl RawCorrelation {
 }
 
 impl Form {
-    /// Evaluate the form at temperature `t` [K] in the published unit; `t_min`/`t_max` clamp polynomials.
+    /// Evaluate the form at temperature `t` \[K\] in the published unit; `t_min`/`t_max` clamp polynomials.
     pub fn eval(&self, t: f64, t_min: f64, t_max: f64) -> f64 {
         match self {
             Form::Constant(a) => *a,
@@ -389,7 +389,7 @@ impl Form {
 }
 
 impl Correlation {
-    /// Value in the SI mass-basis unit at `t` [K]; not defined for corresponding-states forms.
+    /// Value in the SI mass-basis unit at `t` \[K\]; not defined for corresponding-states forms.
     #[inline]
     pub fn eval(&self, t: f64) -> f64 {
         self.factor * self.form.eval(t, self.t_min, self.t_max)

@@ -33,19 +33,19 @@ pub struct GasSpecies {
     pub id: String,
     /// Display name.
     pub name: String,
-    /// Molar mass [kg/mol].
+    /// Molar mass \[kg/mol\].
     pub molar_mass: Sourced,
-    /// Fuller diffusion volume [-].
+    /// Fuller diffusion volume \[-\].
     pub diffusion_volume: Sourced,
     /// Lennard-Jones diameter \[m\].
     pub lennard_jones_sigma: Option<Sourced>,
     /// Lennard-Jones well depth / k \[K\].
     pub lennard_jones_epsilon_over_k: Option<Sourced>,
-    /// Ideal-gas heat capacity [J/(kg·K)].
+    /// Ideal-gas heat capacity \[J/(kg·K)\].
     pub ideal_gas_heat_capacity: Correlation,
-    /// Viscosity [Pa·s].
+    /// Viscosity \[Pa·s\].
     pub viscosity: Correlation,
-    /// Thermal conductivity [W/(m·K)].
+    /// Thermal conductivity \[W/(m·K)\].
     pub conductivity: Correlation,
 }
 
@@ -82,7 +82,7 @@ pub fn parse_gases(text: &str, file: &str) -> Result<BTreeMap<String, GasSpecies
 }
 
 impl GasSpecies {
-    /// Molar mass [kg/mol].
+    /// Molar mass \[kg/mol\].
     #[inline]
     pub fn molar_mass(&self) -> f64 {
         self.molar_mass.value

@@ -11,7 +11,7 @@ pub struct Group {
     pub tc: f64,
     /// ΔPc.
     pub pc: f64,
-    /// ΔVc [cm³/mol].
+    /// ΔVc \[cm³/mol\].
     pub vc: f64,
     /// ΔTb \[K\].
     pub tb: f64,
@@ -43,7 +43,7 @@ pub fn group(key: &str) -> Option<&'static Group> {
 
 
 /// Joback & Reid (1987) increments for the melting point ΔTm \[K\] and the ideal-gas enthalpy of formation at
-/// 298.15 K ΔHf [kJ/mol], by group key, as reprinted in Poling, Prausnitz & O'Connell, 5th ed. (2001),
+/// 298.15 K ΔHf \[kJ/mol\], by group key, as reprinted in Poling, Prausnitz & O'Connell, 5th ed. (2001),
 /// Table C-1 (the same values the component generator mixtures/tools/make_components.py uses).
 /// Tm = 122.5 + ΣΔTm; Hf(g) = 68.29 + ΣΔHf.
 pub const MELTING_AND_FORMATION: [(&str, f64, f64); 9] = [

@@ -19,9 +19,9 @@ pub struct Subgroup {
     pub main_group: u32,
     /// Main-group name.
     pub main_group_name: String,
-    /// Van der Waals group volume R_k [-].
+    /// Van der Waals group volume R_k \[-\].
     pub volume: f64,
-    /// Van der Waals group surface area Q_k [-].
+    /// Van der Waals group surface area Q_k \[-\].
     pub area: f64,
 }
 

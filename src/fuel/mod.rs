@@ -104,7 +104,7 @@ pub struct Fuel {
     pub description: String,
     /// Components, in file order of first appearance.
     pub components: Vec<Arc<Component>>,
-    /// Mass fractions [-], same order, sum 1.
+    /// Mass fractions \[-\], same order, sum 1.
     pub mass_fractions: Vec<f64>,
     /// Notices raised while reading (renormalisation, etc.).
     pub notices: Vec<String>,
@@ -371,24 +371,24 @@ impl Fuel {
         self.components.is_empty()
     }
 
-    /// Mole fractions [-].
+    /// Mole fractions \[-\].
     pub fn mole_fractions(&self) -> Vec<f64> {
         crate::props::liquid::mass_to_mole(&self.components, &self.mass_fractions)
     }
 
-    /// Liquid volume fractions at 15 °C [-].
+    /// Liquid volume fractions at 15 °C \[-\].
     pub fn volume_fractions(&self) -> Vec<f64> {
         let v: Vec<f64> = self.components.iter().zip(&self.mass_fractions).map(|(c, w)| w / c.density_15c()).collect();
         let s: f64 = v.iter().sum();
         v.iter().map(|x| x / s).collect()
     }
 
-    /// Mean molar mass [kg/mol].
+    /// Mean molar mass \[kg/mol\].
     pub fn molar_mass(&self) -> f64 {
         1.0 / self.components.iter().zip(&self.mass_fractions).map(|(c, w)| w / c.molar_mass()).sum::<f64>()
     }
 
-    /// Density at 15 °C by ideal volume additivity of the components' 15 °C densities [kg/m³].
+    /// Density at 15 °C by ideal volume additivity of the components' 15 °C densities \[kg/m³\].
     pub fn density_15c(&self) -> f64 {
         1.0 / self.components.iter().zip(&self.mass_fractions).map(|(c, w)| w / c.density_15c()).sum::<f64>()
     }
@@ -433,7 +433,7 @@ mod tests {
         estimate_component(lib, id, id, &g, &EstimateOptions::default(), "t").unwrap().to_toml(Some("component"))
     }
 
-    /// A fuel file may define components in [[component]] tables and mix them with library components.
+    /// A fuel file may define components in [\[component\]] tables and mix them with library components.
     #[test]
     fn embedded_components_are_read() {
         let lib = lib();

@@ -120,11 +120,11 @@ pub struct FilmSetup {
     pub components: Vec<Arc<Component>>,
     /// Ambient gas.
     pub gas: AmbientGas,
-    /// Ambient pressure [Pa].
+    /// Ambient pressure \[Pa\].
     pub pressure: f64,
-    /// Ambient temperature [K].
+    /// Ambient temperature \[K\].
     pub ambient_temperature: f64,
-    /// Far-field fuel-vapour mass fractions, per component [-].
+    /// Far-field fuel-vapour mass fractions, per component \[-\].
     pub ambient_vapor: Vec<f64>,
     /// Reference-state weight A_r (1/3 rule).
     pub reference_weight: f64,
@@ -143,19 +143,19 @@ pub struct FilmSetup {
 /// Thermal radiation exchanged between the droplet and an enclosure (the gas itself is transparent).
 #[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
 pub struct Radiation {
-    /// Black-body temperature of the surroundings [K]; None: at the ambient gas temperature (furnace walls at
+    /// Black-body temperature of the surroundings \[K\]; None: at the ambient gas temperature (furnace walls at
     /// the gas temperature), so it follows the gas temperature in sweeps and uncertainty samples.
     pub temperature: Option<f64>,
-    /// Absorption efficiency of the droplet, also its emissivity (Kirchhoff, grey body) [-], 0–1.
+    /// Absorption efficiency of the droplet, also its emissivity (Kirchhoff, grey body) \[-\], 0–1.
     pub absorption_efficiency: f64,
 }
 
 /// A fibre that suspends the droplet, conducting heat in from the hot gas like an infinite fin.
 #[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
 pub struct SupportFibre {
-    /// Fibre diameter [m].
+    /// Fibre diameter \[m\].
     pub diameter: f64,
-    /// Thermal conductivity of the fibre material [W/(m·K)].
+    /// Thermal conductivity of the fibre material \[W/(m·K)\].
     pub conductivity: f64,
     /// Number of fibre stems leaving the droplet (1 for a fibre ending in the droplet, 2 for one through it).
     pub stems: u32,
@@ -171,12 +171,12 @@ pub struct ExtraHeat {
 }
 
 /// Nusselt number of a circular cylinder in cross-flow, Churchill & Bernstein (1977, J. Heat Transfer 99:300):
-/// Nu = 0.3 + 0.62 Re^½ Pr^⅓ / [1 + (0.4/Pr)^⅔]^¼ · [1 + (Re/282 000)^⅝]^⅘ (a lower bound for Re·Pr < 0.2).
+/// Nu = 0.3 + 0.62 Re^½ Pr^⅓ / \[1 + (0.4/Pr)^⅔\]^¼ · \[1 + (Re/282 000)^⅝\]^⅘ (a lower bound for Re·Pr < 0.2).
 pub fn churchill_bernstein(re: f64, pr: f64) -> f64 {
     0.3 + 0.62 * re.sqrt() * pr.cbrt() / (1.0 + (0.4 / pr).powf(2.0 / 3.0)).powf(0.25) * (1.0 + (re / 282_000.0).powf(5.0 / 8.0)).powf(0.8)
 }
 
-/// Stefan–Boltzmann constant [W/(m²·K⁴)] (CODATA 2018, exact in the 2019 SI).
+/// Stefan–Boltzmann constant \[W/(m²·K⁴)\] (CODATA 2018, exact in the 2019 SI).
 pub const STEFAN_BOLTZMANN: f64 = 5.670_374_419e-8;
 
 impl ExtraHeat {
@@ -185,7 +185,7 @@ impl ExtraHeat {
         self.radiation.is_none() && self.fibre.is_none()
     }
 
-    /// Net radiative heat absorbed by a grey sphere of diameter `d` at `t_s` in a black enclosure [W]:
+    /// Net radiative heat absorbed by a grey sphere of diameter `d` at `t_s` in a black enclosure \[W\]:
     /// Q = Q_abs π d² σ (T_rad⁴ − T_s⁴) (incident power on a sphere in an isotropic field is π d² σ T⁴).
     pub fn radiation_heat(&self, t_s: f64, d: f64, t_inf: f64) -> f64 {
         match self.radiation {
@@ -197,7 +197,7 @@ impl ExtraHeat {
         }
     }
 
-    /// Heat conducted in along the fibre stems [W]: infinite fin, Q = n sqrt(h P k A_c) (T∞ − T_s)
+    /// Heat conducted in along the fibre stems \[W\]: infinite fin, Q = n sqrt(h P k A_c) (T∞ − T_s)
     /// (Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, eq. 3.80 — number from memory), h from the
     /// Churchill–Bernstein cylinder correlation (ibid. eq. 7.54, from memory) with gas properties at the mean of T∞ and T_s.
     pub fn fibre_heat(&self, gas: &crate::props::gas::AmbientGas, pressure: f64, t_inf: f64, t_s: f64, speed: f64) -> f64 {
@@ -217,11 +217,11 @@ impl ExtraHeat {
 /// Results of one film evaluation (all SI).
 #[derive(Debug, Clone, Copy, Default, serde::Serialize)]
 pub struct FilmResult {
-    /// Total evaporation rate [kg/s] (negative when condensing).
+    /// Total evaporation rate \[kg/s\] (negative when condensing).
     pub evaporation_rate: f64,
-    /// Heat conducted into the liquid [W].
+    /// Heat conducted into the liquid \[W\].
     pub heat_to_liquid: f64,
-    /// Heat arriving from the gas [W].
+    /// Heat arriving from the gas \[W\].
     pub heat_from_gas: f64,
     /// Spalding mass-transfer number.
     pub spalding_mass: f64,
@@ -233,23 +233,23 @@ pub struct FilmResult {
     pub sherwood: f64,
     /// Modified Nusselt number.
     pub nusselt: f64,
-    /// Film density [kg/m³].
+    /// Film density \[kg/m³\].
     pub film_density: f64,
-    /// Film viscosity [Pa·s].
+    /// Film viscosity \[Pa·s\].
     pub film_viscosity: f64,
-    /// Film diffusion coefficient [m²/s].
+    /// Film diffusion coefficient \[m²/s\].
     pub film_diffusivity: f64,
-    /// Film conductivity [W/(m·K)].
+    /// Film conductivity \[W/(m·K)\].
     pub film_conductivity: f64,
-    /// Film heat capacity [J/(kg·K)].
+    /// Film heat capacity \[J/(kg·K)\].
     pub film_cp: f64,
     /// Sum of surface vapour mole fractions (1 at the bubble point).
     pub surface_vapor_mole_fraction: f64,
     /// Drag coefficient with blowing correction.
     pub drag_coefficient: f64,
-    /// Free-stream gas density [kg/m³].
+    /// Free-stream gas density \[kg/m³\].
     pub ambient_density: f64,
-    /// Heat reaching the liquid by radiation and along a supporting fibre [W] (0 without them).
+    /// Heat reaching the liquid by radiation and along a supporting fibre \[W\] (0 without them).
     pub heat_extra: f64,
 }
 
@@ -261,16 +261,16 @@ pub struct Film {
     molar_mass: Vec<f64>,
     sqrt_molar_mass: Vec<f64>,
     fuller: Vec<f64>,
-    /// Surface vapour mole fractions (Raoult) [-].
+    /// Surface vapour mole fractions (Raoult) \[-\].
     pub surface_mole: Vec<f64>,
-    /// Surface vapour mass fractions [-].
+    /// Surface vapour mass fractions \[-\].
     pub surface_mass: Vec<f64>,
-    /// Per-component evaporation rates [kg/s].
+    /// Per-component evaporation rates \[kg/s\].
     pub species_rate: Vec<f64>,
     ambient_density: f64,
     ambient_vapor_total: f64,
     surface_mole_eq: Vec<f64>,
-    /// Liquid density used by the non-equilibrium correction [kg/m³] (set by the droplet model).
+    /// Liquid density used by the non-equilibrium correction \[kg/m³\] (set by the droplet model).
     pub liquid_density: f64,
     /// Ratio of non-equilibrium to equilibrium total surface vapour mole fraction in the last evaluation.
     pub non_equilibrium_factor: f64,
@@ -305,12 +305,12 @@ impl Film {
         }
     }
 
-    /// Bubble point of liquid mole fractions `x` at the film pressure, with the film's activity model [K].
+    /// Bubble point of liquid mole fractions `x` at the film pressure, with the film's activity model \[K\].
     pub fn bubble_point(&mut self, x: &[f64]) -> Result<f64, PropertyError> {
         liquid::bubble_point_with(&self.setup.components, &mut self.setup.activity, x, self.setup.pressure)
     }
 
-    /// Free-stream gas density [kg/m³].
+    /// Free-stream gas density \[kg/m³\].
     pub fn ambient_density(&self) -> f64 {
         self.ambient_density
     }
@@ -355,7 +355,7 @@ impl Film {
         r
     }
 
-    /// Gas-film part of [`Film::evaluate`]; `q_extra` (radiation and fibre heat [W]) enters only the boiling
+    /// Gas-film part of [`Film::evaluate`]; `q_extra` (radiation and fibre heat \[W\]) enters only the boiling
     /// balance, where it sets the rate.
     #[allow(clippy::too_many_arguments)]
     fn evaluate_gas_side(&mut self, x: &[f64], t_s: f64, d: f64, speed: f64, latent: &[f64], boiling_latent: Option<f64>, q_extra: f64) -> FilmResult {

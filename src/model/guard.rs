@@ -80,7 +80,7 @@ pub struct StagnationGuard {
 }
 
 impl StagnationGuard {
-    /// Why a run that has taken `steps` steps to reach `time` [s] (with `evaporated` of its mass gone) should
+    /// Why a run that has taken `steps` steps to reach `time` \[s\] (with `evaporated` of its mass gone) should
     /// stop: it could not reach `max_time` or the end of evaporation, whichever comes first, within
     /// `step_limit` steps at its present pace. None: go on.
     pub fn check(&mut self, steps: u64, time: f64, max_time: f64, evaporated: f64, step_limit: u64) -> Option<String> {

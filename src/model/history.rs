@@ -19,50 +19,50 @@ pub enum Regime {
 /// One output row of a droplet history.
 #[derive(Debug, Clone, serde::Serialize)]
 pub struct HistoryRow {
-    /// Time [s].
+    /// Time \[s\].
     pub time: f64,
-    /// Diameter [m].
+    /// Diameter \[m\].
     pub diameter: f64,
-    /// (d/d0)² [-].
+    /// (d/d0)² \[-\].
     pub d2_ratio: f64,
-    /// Surface (= droplet) temperature [K].
+    /// Surface (= droplet) temperature \[K\].
     pub surface_temperature: f64,
-    /// Droplet mass [kg].
+    /// Droplet mass \[kg\].
     pub mass: f64,
-    /// Evaporated fraction of the initial mass [-].
+    /// Evaporated fraction of the initial mass \[-\].
     pub evaporated_fraction: f64,
-    /// Relative velocity [m/s].
+    /// Relative velocity \[m/s\].
     pub velocity: f64,
     /// Film results at this instant.
     pub film: FilmResult,
-    /// Liquid mass fractions [-].
+    /// Liquid mass fractions \[-\].
     pub liquid_mass_fractions: Vec<f64>,
-    /// Mass fractions of the vapour leaving the surface [-].
+    /// Mass fractions of the vapour leaving the surface \[-\].
     pub vapor_mass_fractions: Vec<f64>,
     /// Regime.
     pub regime: Regime,
-    /// Mass-mean liquid temperature [K] (= surface temperature for a uniform droplet).
+    /// Mass-mean liquid temperature \[K\] (= surface temperature for a uniform droplet).
     pub mean_temperature: f64,
-    /// Centre temperature [K] (= surface temperature for a uniform droplet).
+    /// Centre temperature \[K\] (= surface temperature for a uniform droplet).
     pub center_temperature: f64,
-    /// Liquid mass fractions at the surface [-] (empty for a well-mixed liquid).
+    /// Liquid mass fractions at the surface \[-\] (empty for a well-mixed liquid).
     pub surface_liquid_mass_fractions: Vec<f64>,
 }
 
 /// Radial profiles inside the droplet at one instant (resolved models).
 #[derive(Debug, Clone, serde::Serialize)]
 pub struct Profile {
-    /// Time [s].
+    /// Time \[s\].
     pub time: f64,
-    /// Evaporated fraction [-].
+    /// Evaporated fraction \[-\].
     pub evaporated_fraction: f64,
-    /// Droplet radius [m].
+    /// Droplet radius \[m\].
     pub radius: f64,
-    /// Normalised radius of each cell centre r/r_s [-].
+    /// Normalised radius of each cell centre r/r_s \[-\].
     pub radius_fraction: Vec<f64>,
-    /// Temperature per cell [K].
+    /// Temperature per cell \[K\].
     pub temperature: Vec<f64>,
-    /// Mass fractions per component, per cell [-] (component-major).
+    /// Mass fractions per component, per cell \[-\] (component-major).
     pub mass_fractions: Vec<Vec<f64>>,
 }
 
@@ -119,33 +119,33 @@ pub enum Status {
 pub struct RunOutcome {
     /// How the run ended.
     pub status: Status,
-    /// Time when `end_mass_fraction` of the initial mass remains [s].
+    /// Time when `end_mass_fraction` of the initial mass remains \[s\].
     pub lifetime: Option<f64>,
-    /// Time at which 10 % of the mass has evaporated [s].
+    /// Time at which 10 % of the mass has evaporated \[s\].
     pub t10: Option<f64>,
-    /// Time at which 50 % has evaporated [s].
+    /// Time at which 50 % has evaporated \[s\].
     pub t50: Option<f64>,
-    /// Time at which 90 % has evaporated [s].
+    /// Time at which 90 % has evaporated \[s\].
     pub t90: Option<f64>,
-    /// End of the heat-up period [s]: first time the heat into the liquid is below 10 % of the gas heat flux.
+    /// End of the heat-up period \[s\]: first time the heat into the liquid is below 10 % of the gas heat flux.
     pub heatup_end: Option<f64>,
-    /// Highest surface temperature [K].
+    /// Highest surface temperature \[K\].
     pub max_surface_temperature: f64,
-    /// Time at which boiling started [s].
+    /// Time at which boiling started \[s\].
     pub boiling_onset: Option<f64>,
-    /// Final time [s].
+    /// Final time \[s\].
     pub end_time: f64,
-    /// Evaporated fraction at the end [-].
+    /// Evaporated fraction at the end \[-\].
     pub final_evaporated_fraction: f64,
     /// Notes on regimes and validity.
     pub regime_notes: Vec<String>,
     /// Integrator statistics.
     pub stats: Stats,
-    /// Largest relative mass-balance error over components (liquid + evaporated vs initial) [-].
+    /// Largest relative mass-balance error over components (liquid + evaporated vs initial) \[-\].
     pub mass_balance_error: f64,
-    /// Evaporated mass per component at the end [kg].
+    /// Evaporated mass per component at the end \[kg\].
     pub evaporated_mass: Vec<f64>,
-    /// Liquid mass fractions at the end [-].
+    /// Liquid mass fractions at the end \[-\].
     pub final_liquid_mass_fractions: Vec<f64>,
 }
 
@@ -161,7 +161,7 @@ pub struct RunResult {
 }
 
 /// Energy balance of a uniform-temperature droplet history: Σ over steps |m̄ c̄_p ΔT − Δt · mean(Q_gas + Q_extra −
-/// Σ ṁ_i L_i(T_s))|, divided by Σ Δt · mean|Q_gas + Q_extra| (trapezoids between recorded rows) [-]. The heat
+/// Σ ṁ_i L_i(T_s))|, divided by Σ Δt · mean|Q_gas + Q_extra| (trapezoids between recorded rows) \[-\]. The heat
 /// terms are recomputed from the recorded gas heat, extra heat, species rates and surface temperature, not taken
 /// from the model's own heat-to-liquid, so a regime that holds the temperature while heat flows in shows up.
 pub fn energy_balance_residual(comps: &[std::sync::Arc<crate::data::Component>], rows: &[HistoryRow]) -> f64 {

@@ -13,14 +13,14 @@ use super::ModelError;
 #[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
 #[serde(tag = "kind", rename_all = "kebab-case")]
 pub enum Motion {
-    /// A constant slip velocity [m/s].
+    /// A constant slip velocity \[m/s\].
     Fixed {
-        /// Relative velocity [m/s].
+        /// Relative velocity \[m/s\].
         velocity: f64,
     },
-    /// A droplet injected into gas at rest with this initial velocity, slowed by drag [m/s].
+    /// A droplet injected into gas at rest with this initial velocity, slowed by drag \[m/s\].
     Injected {
-        /// Initial relative velocity [m/s].
+        /// Initial relative velocity \[m/s\].
         velocity: f64,
     },
 }
@@ -32,15 +32,15 @@ pub struct DropletInputs {
     pub fuel: Fuel,
     /// Ambient gas.
     pub gas: AmbientGas,
-    /// Ambient temperature [K].
+    /// Ambient temperature \[K\].
     pub ambient_temperature: f64,
-    /// Ambient pressure [Pa].
+    /// Ambient pressure \[Pa\].
     pub pressure: f64,
-    /// Far-field fuel-vapour mass fractions per fuel component [-] (empty = none).
+    /// Far-field fuel-vapour mass fractions per fuel component \[-\] (empty = none).
     pub ambient_vapor: Vec<f64>,
-    /// Initial diameter [m].
+    /// Initial diameter \[m\].
     pub initial_diameter: f64,
-    /// Initial droplet temperature [K].
+    /// Initial droplet temperature \[K\].
     pub initial_temperature: f64,
     /// Relative motion.
     pub motion: Motion,
@@ -50,7 +50,7 @@ pub struct DropletInputs {
     pub reference_weight: f64,
     /// Relative tolerance of the integrator.
     pub rtol: f64,
-    /// Time at which to give up [s].
+    /// Time at which to give up \[s\].
     pub max_time: f64,
     /// Hold the droplet temperature at its initial value (analytic tests, Rayleigh limit).
     pub fixed_temperature: bool,
@@ -185,7 +185,7 @@ pub(crate) fn check_inputs(inp: &DropletInputs) -> Result<(), ModelError> {
     let v = match inp.motion {
         Motion::Fixed { velocity } | Motion::Injected { velocity } => velocity,
     };
-    if !(v.is_finite() && v >= 0.0 && v <= 1000.0) {
+    if !(v.is_finite() && (0.0..=1000.0).contains(&v)) {
         return bad("velocity", format!("{v} m/s"), "must lie between 0 and 1000 m/s");
     }
     if !(inp.rtol.is_finite() && inp.rtol >= 1e-12 && inp.rtol <= 1e-2) {
@@ -335,7 +335,7 @@ pub(crate) fn integration_failure(inp: &DropletInputs, time: f64, surface_temper
 }
 
 /// Ideal solid–liquid solubility (Schröder–van Laar, ΔCp neglected) freezing point of a liquid of mole
-/// fractions `x` [K] and the component that crystallises first; None when no component has an enthalpy of
+/// fractions `x` \[K\] and the component that crystallises first; None when no component has an enthalpy of
 /// fusion. The same estimate as the residue indicators' freezing point.
 fn ideal_solubility_freezing_point(comps: &[std::sync::Arc<crate::data::Component>], x: &[f64]) -> Option<(f64, String)> {
     let mut best: Option<(f64, String)> = None;

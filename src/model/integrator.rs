@@ -305,7 +305,7 @@ impl DormandPrince {
         self.h = (self.h * 0.1).max(1e-12);
     }
 
-    /// Next step size the controller proposes [s].
+    /// Next step size the controller proposes \[s\].
     pub fn proposed_step(&self) -> f64 {
         self.h
     }

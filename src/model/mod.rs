@@ -42,7 +42,7 @@ pub enum ModelError {
     /// The integration failed.
     #[error("integration failed at t = {time:.6e} s: {reason}")]
     Integration {
-        /// Time reached [s].
+        /// Time reached \[s\].
         time: f64,
         /// Reason.
         reason: String,

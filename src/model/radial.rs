@@ -135,6 +135,7 @@ impl RadialGrid {
     /// One implicit step. `u` holds cell values at the old time and receives the new ones; `m_old`, `m_new`
     /// droplet masses; `g_scale` = ρ² κ A_s² / m (same for all faces); `mdot` evaporation rate (kg/s, >0
     /// evaporating); `input` the surface input (heat in /cp, or species). Returns the new surface value u_s.
+    #[allow(clippy::too_many_arguments)] // one implicit step of the discretised equation: its inputs, named
     pub fn implicit_step(&mut self, u: &mut [f64], m_old: f64, m_new: f64, dt: f64, g_scale: f64, mdot: f64, input: SurfaceInput) -> f64 {
         let n = self.len();
         if n == 1 {
@@ -175,7 +176,7 @@ impl RadialGrid {
 
     /// Implicit step for several quantities that share the grid, transport coefficients and advection and
     /// differ only in their surface input (the species of a mixture): the tridiagonal matrix is factored once.
-    /// `u` is component-major (`u[i * n + j]`); the new surface values go to `surface`.
+    /// `u` is component-major (`u\[i * n + j\]`); the new surface values go to `surface`.
     #[allow(clippy::too_many_arguments)]
     pub fn implicit_step_many(&mut self, u: &mut [f64], m_old: f64, m_new: f64, dt: f64, g_scale: f64, mdot: f64, inputs: &[SurfaceInput], surface: &mut [f64]) {
         let n = self.len();

@@ -26,23 +26,23 @@ pub const PROFILE_LEVELS: [f64; 7] = [0.0, 0.1, 0.25, 0.5, 0.75, 0.9, 0.95];
 /// State of a resolved droplet: radial profiles, inventories, relative speed.
 #[derive(Debug, Clone)]
 pub(crate) struct State {
-    /// Time [s].
+    /// Time \[s\].
     pub(crate) time: f64,
-    /// Droplet mass [kg].
+    /// Droplet mass \[kg\].
     pub(crate) mass: f64,
-    /// Mass fractions, component-major: y[i * ny + j].
+    /// Mass fractions, component-major: y\[i * ny + j\].
     pub(crate) y: Vec<f64>,
-    /// Temperature per cell [K].
+    /// Temperature per cell \[K\].
     pub(crate) temp: Vec<f64>,
-    /// Evaporated mass per component [kg].
+    /// Evaporated mass per component \[kg\].
     pub(crate) evaporated: Vec<f64>,
-    /// Liquid mass of each component [kg]; with `evaporated` it sums to the initial mass exactly.
+    /// Liquid mass of each component \[kg\]; with `evaporated` it sums to the initial mass exactly.
     pub(crate) inventory: Vec<f64>,
-    /// Relative speed [m/s].
+    /// Relative speed \[m/s\].
     pub(crate) velocity: f64,
-    /// Surface liquid mass fractions [-].
+    /// Surface liquid mass fractions \[-\].
     pub(crate) surface_y: Vec<f64>,
-    /// Surface temperature [K].
+    /// Surface temperature \[K\].
     pub(crate) surface_t: f64,
 }
 
@@ -368,7 +368,7 @@ fn error_norm(a: &State, b: &State, m0: f64) -> f64 {
 
 impl Model {
     /// The model of `inp` and its initial state at time 0 (after an adiabatic flash when the droplet starts at or
-    /// above its bubble point), the initial mass [kg] and the note of the flash.
+    /// above its bubble point), the initial mass \[kg\] and the note of the flash.
     pub(crate) fn prepare(inp: &DropletInputs) -> Result<(Model, State, f64, Option<String>), ModelError> {
         let n = inp.fuel.len();
         let comps = inp.fuel.components.clone();
@@ -461,12 +461,12 @@ pub(crate) fn step_tolerance(rtol: f64) -> f64 {
     3e-2 * (rtol / 1e-6).sqrt()
 }
 
-/// First step of a droplet of diameter `d0` [m] [s].
+/// First step of a droplet of diameter `d0` \[m\] \[s\].
 pub(crate) fn first_step(d0: f64) -> f64 {
     1e-3 * d0 * d0 / 1e-7
 }
 
-/// Next step size after an accepted step of size `dt` with error norm `err` [s].
+/// Next step size after an accepted step of size `dt` with error norm `err` \[s\].
 pub(crate) fn grown_step(dt: f64, tol: f64, err: f64) -> f64 {
     dt * (0.9 * (tol / err.max(1e-300)).sqrt()).clamp(0.2, 4.0)
 }
@@ -524,7 +524,7 @@ pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: 
 }
 
 /// Time inside the step from `a` to `b` (remaining fractions `rem_a` > `level` ≥ `rem_b`) where the remaining
-/// fraction crosses `level`, by linear interpolation [s].
+/// fraction crosses `level`, by linear interpolation \[s\].
 pub(crate) fn crossing_time(a_time: f64, dt: f64, rem_a: f64, rem_b: f64, level: f64) -> f64 {
     a_time + dt * (rem_a - level) / (rem_a - rem_b)
 }

@@ -33,13 +33,13 @@ use super::ModelError;
 /// [`DropletInputs`] the stepper was made with.
 #[derive(Debug, Clone, PartialEq)]
 pub struct FarField {
-    /// Gas temperature [K].
+    /// Gas temperature \[K\].
     pub temperature: f64,
-    /// Pressure [Pa].
+    /// Pressure \[Pa\].
     pub pressure: f64,
-    /// Fuel-vapour mass fractions in the gas, one per fuel component [-] (empty: none).
+    /// Fuel-vapour mass fractions in the gas, one per fuel component \[-\] (empty: none).
     pub vapor_mass_fractions: Vec<f64>,
-    /// Gas velocity [m/s], in the frame of the droplet velocity.
+    /// Gas velocity \[m/s\], in the frame of the droplet velocity.
     pub gas_velocity: [f64; 3],
 }
 
@@ -77,14 +77,14 @@ impl FarField {
 /// What one [`Stepper::advance`] gives the gas, over the step (droplet → gas; negative: gas → droplet).
 #[derive(Debug, Clone, PartialEq)]
 pub struct Exchange {
-    /// Mass given to the gas as vapour, per fuel component [kg] (negative when it condenses).
+    /// Mass given to the gas as vapour, per fuel component \[kg\] (negative when it condenses).
     pub mass: Vec<f64>,
-    /// Energy given to the gas [J]: the droplet's loss of liquid enthalpy (reference: each pure liquid at
+    /// Energy given to the gas \[J\]: the droplet's loss of liquid enthalpy (reference: each pure liquid at
     /// 298.15 K; the vapour carries h_L + L at the surface temperature).
     pub energy: f64,
-    /// Momentum given to the gas [kg·m/s]: the droplet's loss of momentum (drag plus the momentum of the vapour).
+    /// Momentum given to the gas \[kg·m/s\]: the droplet's loss of momentum (drag plus the momentum of the vapour).
     pub momentum: [f64; 3],
-    /// Time the droplet advanced [s] (less than asked when its life ended inside the step).
+    /// Time the droplet advanced \[s\] (less than asked when its life ended inside the step).
     pub time: f64,
     /// True when the droplet reached its end of life (`end_mass_fraction` of its initial mass left) in this step.
     pub finished: bool,
@@ -117,7 +117,7 @@ pub struct DropletState {
     velocity: [f64; 3],
     initial_mass: f64,
     speed_scale: f64,
-    /// Specific liquid enthalpy per component at the mass-mean temperature [J/kg].
+    /// Specific liquid enthalpy per component at the mass-mean temperature \[J/kg\].
     specific_enthalpy: Vec<f64>,
     enthalpy: f64,
     step: f64,
@@ -129,12 +129,12 @@ pub struct DropletState {
 }
 
 impl DropletState {
-    /// Time since the droplet was made [s].
+    /// Time since the droplet was made \[s\].
     pub fn time(&self) -> f64 {
         self.time
     }
 
-    /// Liquid mass of each fuel component [kg].
+    /// Liquid mass of each fuel component \[kg\].
     pub fn masses(&self) -> &[f64] {
         match &self.liquid {
             Liquid::WellMixed { y, .. } => &y[..self.components()],
@@ -142,12 +142,12 @@ impl DropletState {
         }
     }
 
-    /// Droplet mass [kg].
+    /// Droplet mass \[kg\].
     pub fn mass(&self) -> f64 {
         self.masses().iter().sum()
     }
 
-    /// Mass evaporated since the droplet was made, per component [kg].
+    /// Mass evaporated since the droplet was made, per component \[kg\].
     pub fn evaporated(&self) -> &[f64] {
         match &self.liquid {
             Liquid::WellMixed { y, .. } => &y[self.components() + 2..],
@@ -155,7 +155,7 @@ impl DropletState {
         }
     }
 
-    /// Liquid temperature per cell, centre to surface [K] (one value for a uniform-temperature droplet).
+    /// Liquid temperature per cell, centre to surface \[K\] (one value for a uniform-temperature droplet).
     pub fn temperatures(&self) -> &[f64] {
         match &self.liquid {
             Liquid::WellMixed { y, .. } => &y[self.components()..self.components() + 1],
@@ -163,7 +163,7 @@ impl DropletState {
         }
     }
 
-    /// Surface temperature [K].
+    /// Surface temperature \[K\].
     pub fn surface_temperature(&self) -> f64 {
         match &self.liquid {
             Liquid::WellMixed { y, .. } => y[self.components()],
@@ -171,7 +171,7 @@ impl DropletState {
         }
     }
 
-    /// Liquid mass fractions per component and cell, component-major (one cell for a well-mixed liquid) [-].
+    /// Liquid mass fractions per component and cell, component-major (one cell for a well-mixed liquid) \[-\].
     pub fn mass_fraction_profiles(&self) -> Vec<f64> {
         match &self.liquid {
             Liquid::WellMixed { y, .. } => {
@@ -183,12 +183,12 @@ impl DropletState {
         }
     }
 
-    /// Droplet velocity [m/s].
+    /// Droplet velocity \[m/s\].
     pub fn velocity(&self) -> [f64; 3] {
         self.velocity
     }
 
-    /// Set the droplet velocity [m/s] (a solver's wall or body-force update); the next step restarts the integrator.
+    /// Set the droplet velocity \[m/s\] (a solver's wall or body-force update); the next step restarts the integrator.
     pub fn set_velocity(&mut self, velocity: [f64; 3]) {
         self.velocity = velocity;
         self.ahead = None;
@@ -202,13 +202,13 @@ impl DropletState {
         }
     }
 
-    /// Liquid enthalpy the droplet holds [J] (reference: each pure liquid at 298.15 K), Σ_i m_i h_L,i at the
+    /// Liquid enthalpy the droplet holds \[J\] (reference: each pure liquid at 298.15 K), Σ_i m_i h_L,i at the
     /// mass-mean liquid temperature.
     pub fn enthalpy(&self) -> f64 {
         self.enthalpy
     }
 
-    /// Step size the integrator proposes for its next step [s] (carried across calls).
+    /// Step size the integrator proposes for its next step \[s\] (carried across calls).
     pub fn step_size(&self) -> f64 {
         self.step
     }
@@ -300,13 +300,13 @@ impl Stepper {
         &self.inputs.fuel.components
     }
 
-    /// Latent heat of each component at 298.15 K [J/kg]: subtract Σ mass_i · L_i from [`Exchange::energy`] for a
+    /// Latent heat of each component at 298.15 K \[J/kg\]: subtract Σ mass_i · L_i from [`Exchange::energy`] for a
     /// vapour enthalpy that is zero for the vapour at 298.15 K.
     pub fn reference_latent_heats(&self) -> Vec<f64> {
         self.components().iter().map(|c| c.latent_heat(REFERENCE_TEMPERATURE)).collect()
     }
 
-    /// Droplet diameter [m] (density of the mean liquid at its mass-mean temperature).
+    /// Droplet diameter \[m\] (density of the mean liquid at its mass-mean temperature).
     pub fn diameter(&self, state: &DropletState) -> f64 {
         let m = state.mass().max(0.0);
         let w: Vec<f64> = state.masses().iter().map(|v| v.max(0.0) / m.max(1e-300)).collect();
@@ -340,7 +340,7 @@ impl Stepper {
         Ok(())
     }
 
-    /// A new droplet of the inputs' diameter and temperature, moving at `velocity` [m/s] in `far_field`. A droplet
+    /// A new droplet of the inputs' diameter and temperature, moving at `velocity` \[m/s\] in `far_field`. A droplet
     /// made at or above its bubble point flashes at once (as in `simulate`); what left is given with the first step.
     pub fn initial_state(&mut self, far_field: &FarField, velocity: [f64; 3]) -> Result<DropletState, ModelError> {
         if velocity.iter().any(|v| !v.is_finite()) {
@@ -387,7 +387,7 @@ impl Stepper {
         Ok(state)
     }
 
-    /// Advance `state` by `dt` [s] in `far_field`: integrate the droplet (one solver step, any number of
+    /// Advance `state` by `dt` \[s\] in `far_field`: integrate the droplet (one solver step, any number of
     /// integrator steps) and return what it gave the gas. The state is updated in place; on an error it is left
     /// as it was. A finished droplet gives an empty exchange.
     pub fn advance(&mut self, state: &mut DropletState, dt: f64, far_field: &FarField) -> Result<Exchange, ModelError> {
@@ -455,7 +455,7 @@ impl Stepper {
         exchange
     }
 
-    /// Mass-mean liquid temperature of a state [K] (the temperature itself for a uniform droplet).
+    /// Mass-mean liquid temperature of a state \[K\] (the temperature itself for a uniform droplet).
     fn mean_temperature(&self, state: &DropletState) -> f64 {
         match (&state.liquid, &self.core) {
             (Liquid::Resolved(s), Core::Resolved(model)) => model.tgrid.mean(&s.temp),
@@ -599,7 +599,7 @@ impl Stepper {
         let at = if finished { finished_at.unwrap_or(t_target) } else { t_target };
         let new_state = if to.time <= at { (*to).clone() } else { interpolate(&from, &to, at) };
         let time = if finished { at } else { t_target };
-        let ahead = (overshoot && !finished).then(|| Ahead::Resolved { from, to, dt: h, finished: finished_at });
+        let ahead = (overshoot && !finished).then_some(Ahead::Resolved { from, to, dt: h, finished: finished_at });
         let next = DropletState { time, liquid: Liquid::Resolved(Box::new(resolved::State { time, ..new_state })), step: carried.unwrap_or(h), ahead, ..state.clone_light() };
         Ok((next, finished))
     }
@@ -625,7 +625,7 @@ impl DropletState {
     }
 }
 
-/// Relative speed |u_d − u_g| [m/s] and its direction (zero vector at no slip).
+/// Relative speed |u_d − u_g| \[m/s\] and its direction (zero vector at no slip).
 fn relative(droplet: [f64; 3], gas: [f64; 3]) -> (f64, [f64; 3]) {
     let rel = [droplet[0] - gas[0], droplet[1] - gas[1], droplet[2] - gas[2]];
     let speed = (rel[0] * rel[0] + rel[1] * rel[1] + rel[2] * rel[2]).sqrt();
@@ -636,7 +636,7 @@ fn relative(droplet: [f64; 3], gas: [f64; 3]) -> (f64, [f64; 3]) {
     }
 }
 
-/// Liquid enthalpy of a state from its specific enthalpies at its mass-mean temperature [J]: Σ_i m_i h_L,i(T̄).
+/// Liquid enthalpy of a state from its specific enthalpies at its mass-mean temperature \[J\]: Σ_i m_i h_L,i(T̄).
 /// For a resolved droplet the mean temperature is that of the radial profile: the resolved model's energy
 /// equation carries the properties of the mean liquid, so its energy content is that of the mean state.
 fn enthalpy_of(state: &DropletState) -> f64 {

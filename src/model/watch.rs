@@ -23,10 +23,10 @@ pub(crate) fn reynolds_note(correlation: TransferCorrelation, max_re: f64) -> Op
 /// surface (liquid mole fraction above 1 %), so a light component that has already evaporated raises no alarm.
 #[derive(Debug, Default)]
 pub(crate) struct CriticalWatch {
-    /// Worst case so far: (T_s / T_c, T_s [K], T_c [K], component index, mole fraction, time [s]).
+    /// Worst case so far: (T_s / T_c, T_s \[K\], T_c \[K\], component index, mole fraction, time \[s\]).
     worst: Option<(f64, f64, f64, usize, f64, f64)>,
     /// First state with the surface below the ideal-solubility freezing point of the surface liquid:
-    /// (T_s [K], freezing point [K], component index of the first crystals, time [s]).
+    /// (T_s \[K\], freezing point \[K\], component index of the first crystals, time \[s\]).
     frozen: Option<(f64, f64, usize, f64)>,
 }
 
@@ -87,10 +87,10 @@ impl CriticalWatch {
 #[derive(Debug)]
 pub(crate) struct RunWatch {
     critical: CriticalWatch,
-    /// Highest surface temperature so far [K].
+    /// Highest surface temperature so far \[K\].
     pub(crate) max_surface_temperature: f64,
     max_reynolds: f64,
-    /// First time the heat into the liquid fell below 10 % of the gas heat flux [s].
+    /// First time the heat into the liquid fell below 10 % of the gas heat flux \[s\].
     pub(crate) heatup_end: Option<f64>,
 }
 

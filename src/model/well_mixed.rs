@@ -18,7 +18,7 @@ use super::ModelError;
 /// the bubble point), so that entering and leaving the regime changes no temperature.
 pub const BOILING_THRESHOLD: f64 = 0.995;
 
-/// Temperature at which the heat-limited boiling regime holds a liquid of mole fractions `x` at pressure `p` [K]:
+/// Temperature at which the heat-limited boiling regime holds a liquid of mole fractions `x` at pressure `p` \[K\]:
 /// Σ x_i γ_i p_sat,i(T) = BOILING_THRESHOLD · p (γ from `activity`; 1 for the ideal liquid). None when the liquid has no bubble point at that pressure.
 pub fn boiling_hold_temperature(comps: &[std::sync::Arc<crate::data::Component>], activity: &mut Activity, x: &[f64], p: f64) -> Option<f64> {
     liquid::bubble_point_with(comps, activity, x, BOILING_THRESHOLD * p).ok()
@@ -38,7 +38,7 @@ pub struct WellMixed {
     x_probe: Vec<f64>,
     /// Last film result (from the most recent rhs call).
     pub last: FilmResult,
-    /// Surface temperature used in the last rhs call [K].
+    /// Surface temperature used in the last rhs call \[K\].
     pub last_surface_temperature: f64,
     initial_mass: f64,
 }
@@ -58,7 +58,7 @@ impl WellMixed {
         m
     }
 
-    /// Boiling-regime (hold) temperature of the composition `x` with the film's activity model [K] (see
+    /// Boiling-regime (hold) temperature of the composition `x` with the film's activity model \[K\] (see
     /// [`boiling_hold_temperature`]).
     fn bubble_point(film: &mut Film, x: &[f64]) -> f64 {
         let fallback = film.setup.ambient_temperature;
@@ -66,7 +66,7 @@ impl WellMixed {
         boiling_hold_temperature(&film.setup.components, &mut film.setup.activity, x, pressure).unwrap_or(fallback)
     }
 
-    /// Heat into the liquid [W] if the droplet at state `y` evaporated at its hold temperature without the
+    /// Heat into the liquid \[W\] if the droplet at state `y` evaporated at its hold temperature without the
     /// heat limit (the evaporating regime's film at Σ X_s = BOILING_THRESHOLD): positive means the evaporating
     /// regime would heat the droplet past the hold temperature (boiling holds it there); zero or negative means
     /// the heat no longer holds it at the bubble point and it leaves the boiling regime.
@@ -210,7 +210,7 @@ impl OdeSystem for WellMixed {
 }
 /// Adiabatic flash of a superheated liquid at pressure `p`: the superheat m cp (T − T_b) evaporates liquid of
 /// the equilibrium-vapour composition, in portions of at most 1 %, until the liquid sits at its bubble point.
-/// Returns the component masses left and the final temperature [K]. `activity`: the liquid activity model.
+/// Returns the component masses left and the final temperature \[K\]. `activity`: the liquid activity model.
 pub fn adiabatic_flash(comps: &[std::sync::Arc<crate::data::Component>], activity: &mut Activity, w0: &[f64], t0: f64, m0: f64, p: f64, end_mass_fraction: f64) -> (Vec<f64>, f64) {
     let n = comps.len();
     let mut masses: Vec<f64> = (0..n).map(|i| m0 * w0[i]).collect();
@@ -293,7 +293,7 @@ impl WellMixed {
         (sys, y0, Some(note))
     }
 
-    /// Integrator tolerances of a droplet of initial mass `m0` [kg] and initial relative speed `speed0` [m/s].
+    /// Integrator tolerances of a droplet of initial mass `m0` \[kg\] and initial relative speed `speed0` \[m/s\].
     pub(crate) fn tolerances(rtol: f64, n: usize, m0: f64, speed0: f64) -> Tolerances {
         let mut atol = vec![rtol * 1e-3 * m0; 2 * n + 2];
         atol[n] = rtol * 1.0;
@@ -301,7 +301,7 @@ impl WellMixed {
         Tolerances { rtol, atol }
     }
 
-    /// Initial droplet mass [kg].
+    /// Initial droplet mass \[kg\].
     pub(crate) fn initial_mass(&self) -> f64 {
         self.initial_mass
     }
@@ -363,7 +363,7 @@ impl WellMixed {
     }
 }
 
-/// Liquid fraction of the initial mass `m0` left at state `y` of `n` components [-].
+/// Liquid fraction of the initial mass `m0` left at state `y` of `n` components \[-\].
 pub(crate) fn remaining(y: &[f64], n: usize, m0: f64) -> f64 {
     y[..n].iter().sum::<f64>() / m0
 }
@@ -397,20 +397,20 @@ pub(crate) fn end_of_life(stepper: &DormandPrince, n: usize, m0: f64, end_mass_f
 /// A change of heat regime found in the last accepted step; the integrator was restarted at its time.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub(crate) enum RegimeChange {
-    /// Σ X_s reached the boiling threshold; `entered`: the net heat holds the droplet at `hold_temperature` [K].
+    /// Σ X_s reached the boiling threshold; `entered`: the net heat holds the droplet at `hold_temperature` \[K\].
     Onset {
-        /// Time [s].
+        /// Time \[s\].
         time: f64,
         /// True when the droplet entered the boiling regime.
         entered: bool,
-        /// Boiling-regime temperature [K].
+        /// Boiling-regime temperature \[K\].
         hold_temperature: f64,
     },
     /// The net heat no longer holds the droplet at the bubble point: it leaves the boiling regime.
     Exit {
-        /// Time [s].
+        /// Time \[s\].
         time: f64,
-        /// Temperature at the exit [K].
+        /// Temperature at the exit \[K\].
         temperature: f64,
     },
 }

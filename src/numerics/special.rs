@@ -3,24 +3,24 @@
 
 use std::f64::consts::SQRT_2;
 
-/// Error function erf(x) [-].
+/// Error function erf(x) \[-\].
 pub fn erf(x: f64) -> f64 {
     statrs::function::erf::erf(x)
 }
 
-/// Complementary error function erfc(x) = 1 − erf(x) [-], accurate also where erf(x) is close to 1.
+/// Complementary error function erfc(x) = 1 − erf(x) \[-\], accurate also where erf(x) is close to 1.
 pub fn erfc(x: f64) -> f64 {
     statrs::function::erf::erfc(x)
 }
 
-/// Standard normal distribution function Φ(x) = erfc(−x/√2)/2 [-].
+/// Standard normal distribution function Φ(x) = erfc(−x/√2)/2 \[-\].
 pub fn normal_cdf(x: f64) -> f64 {
     0.5 * erfc(-x / SQRT_2)
 }
 
-/// Standard normal quantile Φ⁻¹(p) = −√2 erfc⁻¹(2p) [-], refined by one Newton step on Φ(x) = p (statrs'
+/// Standard normal quantile Φ⁻¹(p) = −√2 erfc⁻¹(2p) \[-\], refined by one Newton step on Φ(x) = p (statrs'
 /// `erfc_inv` alone round-trips to about 1e-10 relative, its `erfc` to a few ulp); p is held in
-/// [1e-300, 1 − 1e-16], so the result is always finite (within about ±37.1); NaN in gives NaN out.
+/// \[1e-300, 1 − 1e-16\], so the result is always finite (within about ±37.1); NaN in gives NaN out.
 pub fn normal_quantile(p: f64) -> f64 {
     let p = p.clamp(1e-300, 1.0 - 1e-16);
     let x = -SQRT_2 * statrs::function::erf::erfc_inv(2.0 * p);

@@ -108,15 +108,15 @@ pub struct InputEcho {
     pub fuel_origin: String,
     /// Components and mass fractions.
     pub composition_mass_fractions: Vec<(String, f64)>,
-    /// Ambient temperature [K].
+    /// Ambient temperature \[K\].
     pub ambient_temperature_K: f64,
-    /// Pressure [Pa].
+    /// Pressure \[Pa\].
     pub pressure_Pa: f64,
     /// Ambient gas mole fractions.
     pub ambient_gas: Vec<(String, f64)>,
-    /// Initial diameter [m].
+    /// Initial diameter \[m\].
     pub initial_diameter_m: f64,
-    /// Initial droplet temperature [K].
+    /// Initial droplet temperature \[K\].
     pub droplet_temperature_K: f64,
     /// Motion.
     pub motion: Motion,
@@ -126,7 +126,7 @@ pub struct InputEcho {
     pub reference_weight: f64,
     /// Relative tolerance.
     pub rtol: f64,
-    /// Time limit [s].
+    /// Time limit \[s\].
     pub max_time_s: f64,
     /// Liquid model.
     pub liquid_model: String,
@@ -178,21 +178,21 @@ pub struct Summary {
     pub tool: String,
     /// How the run ended.
     pub status: String,
-    /// Time when 0.1 % of the initial mass remains [s].
+    /// Time when 0.1 % of the initial mass remains \[s\].
     pub lifetime_s: Option<f64>,
-    /// 10 % evaporated [s].
+    /// 10 % evaporated \[s\].
     pub t10_s: Option<f64>,
-    /// 50 % evaporated [s].
+    /// 50 % evaporated \[s\].
     pub t50_s: Option<f64>,
-    /// 90 % evaporated [s].
+    /// 90 % evaporated \[s\].
     pub t90_s: Option<f64>,
-    /// End of heat-up [s].
+    /// End of heat-up \[s\].
     pub heatup_end_s: Option<f64>,
-    /// Highest surface temperature [K].
+    /// Highest surface temperature \[K\].
     pub max_surface_temperature_K: f64,
-    /// Boiling onset [s].
+    /// Boiling onset \[s\].
     pub boiling_onset_s: Option<f64>,
-    /// Final time [s].
+    /// Final time \[s\].
     pub end_time_s: f64,
     /// Evaporated fraction at the end.
     pub final_evaporated_fraction: f64,
@@ -204,7 +204,7 @@ pub struct Summary {
     pub mass_balance_error: f64,
     /// Estimated (not published) properties used, per component.
     pub estimated_properties: Vec<(String, Vec<String>)>,
-    /// Liquid temperatures the run reached (lowest and highest of surface, mean and centre) [K]; the liquid
+    /// Liquid temperatures the run reached (lowest and highest of surface, mean and centre) \[K\]; the liquid
     /// properties were evaluated in this span.
     pub liquid_temperature_span_K: (f64, f64),
     /// Properties used outside their valid range (component, property, method, valid range, how far below

@@ -209,7 +209,7 @@ impl SavedRun {
         self.dir.file_name().map(|s| s.to_string_lossy().into_owned()).unwrap_or_else(|| "run".into())
     }
 
-    /// Initial diameter [m]: from summary.json, else from the first history row.
+    /// Initial diameter \[m\]: from summary.json, else from the first history row.
     pub fn initial_diameter(&self) -> Option<f64> {
         self.input_number("initial_diameter_m").or_else(|| self.history.numbers("diameter_m").ok().and_then(|d| d.first().copied().flatten()))
     }

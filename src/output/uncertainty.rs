@@ -241,7 +241,7 @@ pub struct UncertaintySummary {
     pub seed: u64,
     /// Sampling design.
     pub method: &'static str,
-    /// Percentiles of every band [%].
+    /// Percentiles of every band \[%\].
     pub percentiles: [f64; 3],
     /// Samples that evaporated, reached the time limit, failed.
     pub sample_status: SampleCounts,
@@ -251,7 +251,7 @@ pub struct UncertaintySummary {
     pub outputs: Vec<OutputStatistics>,
     /// Top inputs of each ranked output.
     pub sensitivity: Vec<Ranking>,
-    /// Deterministic lifetime that normalises the time grid [s].
+    /// Deterministic lifetime that normalises the time grid \[s\].
     pub reference_time_s: f64,
     /// Notices.
     pub notes: Vec<String>,
@@ -404,7 +404,7 @@ impl LabelledBands {
 /// A sensitivity input as a reader says it: `property:vapor-pressure` → "vapour pressure (all components)",
 /// `composition:aromatics` → "aromatics share", `ambient-temperature` → "ambient temperature".
 pub fn readable_input(name: &str) -> String {
-    let words = |s: &str| s.replace('-', " ").replace('_', " ").replace("vapor", "vapour");
+    let words = |s: &str| s.replace(['-', '_'], " ").replace("vapor", "vapour");
     if let Some(p) = name.strip_prefix("property:") {
         format!("{} (all components)", words(p))
     } else if let Some(c) = name.strip_prefix("composition:") {

@@ -50,9 +50,9 @@ pub const T_40C: f64 = 313.15;
 pub const T_MINUS_20C: f64 = 253.15;
 /// −40 °C \[K\].
 pub const T_MINUS_40C: f64 = 233.15;
-/// Default evaporated fraction that defines the final boiling point of the simulated curve [-].
+/// Default evaporated fraction that defines the final boiling point of the simulated curve \[-\].
 pub const DEFAULT_FINAL_FRACTION: f64 = 0.995;
-/// Default largest RK4 step in φ = −ln(1 − F) for the simulated distillation [-].
+/// Default largest RK4 step in φ = −ln(1 − F) for the simulated distillation \[-\].
 pub const DEFAULT_MAX_STEP: f64 = 0.5;
 
 /// Basis of the recovered (evaporated) fraction of a distillation curve.
@@ -133,9 +133,9 @@ pub struct IndicatorOptions {
     pub viscosity_rule: ViscosityRule,
     /// Cetane blending rule.
     pub cetane_rule: CetaneRule,
-    /// Evaporated fraction that defines the final boiling point [-], in (0.5, 1).
+    /// Evaporated fraction that defines the final boiling point \[-\], in (0.5, 1).
     pub final_fraction: f64,
-    /// Largest RK4 step in φ = −ln(1 − F) along the distillation [-].
+    /// Largest RK4 step in φ = −ln(1 − F) along the distillation \[-\].
     pub max_step: f64,
     /// Liquid activity model of the bubble point, distillation, vapour pressure and flash point.
     pub activity: ActivityModel,
@@ -188,7 +188,7 @@ pub const INDICATOR_KEYS: [(&str, &str); 24] = [
 #[derive(Debug, Clone, PartialEq, Serialize)]
 #[allow(non_snake_case)]
 pub struct Indicators {
-    /// Evaporated fraction of the parent liquid this composition is the residue of [-] (set by callers).
+    /// Evaporated fraction of the parent liquid this composition is the residue of \[-\] (set by callers).
     pub evaporated_fraction: Option<f64>,
     /// Bubble point at the distillation pressure (1 atm by default) \[K\].
     pub bubble_point_K: Option<f64>,
@@ -208,32 +208,32 @@ pub struct Indicators {
     pub vapor_pressure_38C_Pa: Option<f64>,
     /// Closed-cup flash point estimate \[K\].
     pub flash_point_K: Option<f64>,
-    /// Density at 15 °C [kg/m³].
+    /// Density at 15 °C \[kg/m³\].
     pub density_15C_kg_m3: Option<f64>,
-    /// Kinematic viscosity at −40 °C [m²/s].
+    /// Kinematic viscosity at −40 °C \[m²/s\].
     pub kinematic_viscosity_minus40C_m2_s: Option<f64>,
-    /// Kinematic viscosity at −20 °C [m²/s].
+    /// Kinematic viscosity at −20 °C \[m²/s\].
     pub kinematic_viscosity_minus20C_m2_s: Option<f64>,
-    /// Kinematic viscosity at 40 °C [m²/s].
+    /// Kinematic viscosity at 40 °C \[m²/s\].
     pub kinematic_viscosity_40C_m2_s: Option<f64>,
-    /// Surface tension at 20 °C [N/m].
+    /// Surface tension at 20 °C \[N/m\].
     pub surface_tension_20C_N_m: Option<f64>,
-    /// Derived cetane number by the chosen blending rule [-].
+    /// Derived cetane number by the chosen blending rule \[-\].
     pub dcn: Option<f64>,
     /// Share of the DCN's blend weight (the blending rule's fractions) carried by components whose cetane
-    /// value is not a measured derived cetane number: engine CN, estimates, or values recalled from memory [-].
+    /// value is not a measured derived cetane number: engine CN, estimates, or values recalled from memory \[-\].
     pub dcn_not_measured_share: Option<f64>,
-    /// Lower heating value, mass basis [J/kg].
+    /// Lower heating value, mass basis \[J/kg\].
     pub lhv_J_kg: Option<f64>,
-    /// Lower heating value per liquid volume at 15 °C [J/m³].
+    /// Lower heating value per liquid volume at 15 °C \[J/m³\].
     pub lhv_volume_J_m3: Option<f64>,
-    /// Hydrogen mass fraction [-].
+    /// Hydrogen mass fraction \[-\].
     pub hydrogen_mass_fraction: Option<f64>,
-    /// Hydrogen-to-carbon atom ratio [-].
+    /// Hydrogen-to-carbon atom ratio \[-\].
     pub hc_ratio: Option<f64>,
-    /// Aromatics (alkylbenzenes, cycloaromatics, diaromatics) volume fraction at 15 °C [-].
+    /// Aromatics (alkylbenzenes, cycloaromatics, diaromatics) volume fraction at 15 °C \[-\].
     pub aromatics_volume_fraction: Option<f64>,
-    /// Mean molar mass [kg/mol].
+    /// Mean molar mass \[kg/mol\].
     pub molar_mass_kg_mol: Option<f64>,
     /// Freezing point estimate (last crystal to disappear) \[K\].
     pub freezing_point_K: Option<f64>,
@@ -241,7 +241,7 @@ pub struct Indicators {
     pub distillation_pressure_Pa: f64,
     /// Basis of the distillation recovered fraction.
     pub distillation_basis: RecoveryBasis,
-    /// Evaporated fraction that defines the final boiling point [-].
+    /// Evaporated fraction that defines the final boiling point \[-\].
     pub final_boiling_fraction: f64,
     /// Viscosity blending rule used.
     pub viscosity_rule: ViscosityRule,

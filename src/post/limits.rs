@@ -104,9 +104,9 @@ pub struct LimitWindow {
     pub key: String,
     /// Human label.
     pub label: String,
-    /// Lower bound, SI [unit of the key].
+    /// Lower bound, SI \[unit of the key\].
     pub min: Option<f64>,
-    /// Upper bound, SI [unit of the key].
+    /// Upper bound, SI \[unit of the key\].
     pub max: Option<f64>,
     /// SI unit of the key.
     pub unit: &'static str,
@@ -148,11 +148,11 @@ pub struct LimitFlag {
     pub key: String,
     /// Human label.
     pub label: String,
-    /// Indicator value [unit].
+    /// Indicator value \[unit\].
     pub value: Option<f64>,
-    /// Lower bound [unit].
+    /// Lower bound \[unit\].
     pub min: Option<f64>,
-    /// Upper bound [unit].
+    /// Upper bound \[unit\].
     pub max: Option<f64>,
     /// SI unit.
     pub unit: &'static str,

@@ -155,11 +155,11 @@ impl<'a> Evaluator<'a> {
 /// A state reached at a requested evaporated fraction.
 #[derive(Debug, Clone, PartialEq)]
 pub struct PathPoint {
-    /// Evaporated fraction on the path's basis [-].
+    /// Evaporated fraction on the path's basis \[-\].
     pub evaporated_fraction: f64,
     /// Liquid temperature \[K\] (bubble point, or the fixed temperature).
     pub temperature: f64,
-    /// Liquid mole fractions [-].
+    /// Liquid mole fractions \[-\].
     pub mole_fractions: Vec<f64>,
 }
 
@@ -319,7 +319,7 @@ fn isothermal(p_sat: &[f64], x0: &[f64], total: f64, weights: &[f64], fractions:
     out
 }
 
-/// Per-mole weights for a basis: liquid volume at 15 °C [m³/mol], mass [kg/mol] or moles [-].
+/// Per-mole weights for a basis: liquid volume at 15 °C \[m³/mol\], mass \[kg/mol\] or moles \[-\].
 pub fn basis_weights(components: &[Arc<Component>], basis: super::RecoveryBasis) -> Vec<f64> {
     components
         .iter()

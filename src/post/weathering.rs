@@ -24,18 +24,18 @@ pub fn default_fractions() -> Vec<f64> {
 /// A residual liquid: what is left of a parent liquid after part of it evaporated.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Residue {
-    /// Evaporated mass fraction of the parent liquid [-].
+    /// Evaporated mass fraction of the parent liquid \[-\].
     pub evaporated_fraction: f64,
-    /// Mass fractions of the residue, in the parent's component order [-].
+    /// Mass fractions of the residue, in the parent's component order \[-\].
     pub mass_fractions: Vec<f64>,
 }
 
 /// One row of a residue table: the residue and its indicators (with `evaporated_fraction` filled in).
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct ResidueRow {
-    /// Evaporated mass fraction of the parent liquid [-].
+    /// Evaporated mass fraction of the parent liquid \[-\].
     pub evaporated_fraction: f64,
-    /// Mass fractions of the residue [-].
+    /// Mass fractions of the residue \[-\].
     pub mass_fractions: Vec<f64>,
     /// Indicators of the residue.
     pub indicators: Indicators,

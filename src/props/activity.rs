@@ -62,7 +62,7 @@ impl ActivityModel {
 #[error("{0}")]
 pub struct ActivityError(pub String);
 
-/// Highest temperature of the UNIFAC parameter regression data, as usually quoted [K] (Poling et al. 2001,
+/// Highest temperature of the UNIFAC parameter regression data, as usually quoted \[K\] (Poling et al. 2001,
 /// §8.10: parameters from VLE data about 300–425 K); above it the coefficients are extrapolated.
 pub const UNIFAC_UPPER_TEMPERATURE: f64 = 425.0;
 
@@ -83,7 +83,7 @@ struct Unifac {
     nu: Vec<f64>,
     /// Q_k of each group present.
     group_area: Vec<f64>,
-    /// a_mn [K] between the main groups of groups m and n, row-major.
+    /// a_mn \[K\] between the main groups of groups m and n, row-major.
     interaction: Vec<f64>,
     /// r_i, q_i.
     volume: Vec<f64>,
@@ -197,7 +197,7 @@ impl Activity {
         self.unifac.is_none()
     }
 
-    /// Activity coefficients γ_i of the liquid with mole fractions `x` at `t` [K] (no allocation).
+    /// Activity coefficients γ_i of the liquid with mole fractions `x` at `t` \[K\] (no allocation).
     #[inline]
     pub fn gammas(&mut self, x: &[f64], t: f64) -> &[f64] {
         if let Some(u) = &mut self.unifac {
@@ -206,7 +206,7 @@ impl Activity {
         &self.gamma
     }
 
-    /// Bubble (vapour) pressure Σ x_i γ_i p_sat,i(T) [Pa] (modified Raoult's law).
+    /// Bubble (vapour) pressure Σ x_i γ_i p_sat,i(T) \[Pa\] (modified Raoult's law).
     #[inline]
     pub fn bubble_pressure(&mut self, components: &[Arc<Component>], x: &[f64], t: f64) -> f64 {
         let g = self.gammas(x, t);
@@ -214,7 +214,7 @@ impl Activity {
     }
 
     /// Equilibrium vapour over the liquid `x` at `t` (modified Raoult's law): the partial pressures
-    /// p_i = x_i γ_i p_sat,i(T) written to `partial` [Pa]; returns their sum, the bubble pressure [Pa]. The vapour
+    /// p_i = x_i γ_i p_sat,i(T) written to `partial` \[Pa\]; returns their sum, the bubble pressure \[Pa\]. The vapour
     /// mole fractions at total pressure p are p_i/p (at the bubble point p_i/Σ p_i). No allocation.
     pub fn equilibrium_partial_pressures(&mut self, components: &[Arc<Component>], x: &[f64], t: f64, partial: &mut [f64]) -> f64 {
         let g = self.gammas(x, t);

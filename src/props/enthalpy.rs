@@ -4,13 +4,13 @@
 
 use crate::data::Component;
 
-/// Reference temperature of the liquid enthalpies [K] (pure liquid at 298.15 K has h = 0).
+/// Reference temperature of the liquid enthalpies \[K\] (pure liquid at 298.15 K has h = 0).
 pub const REFERENCE_TEMPERATURE: f64 = 298.15;
 
-/// Largest temperature panel of the quadrature [K].
+/// Largest temperature panel of the quadrature \[K\].
 const PANEL: f64 = 10.0;
 
-/// Change of the liquid's specific enthalpy from `t_a` to `t_b` [J/kg]: ∫ c_pL dT by two-point Gauss–Legendre
+/// Change of the liquid's specific enthalpy from `t_a` to `t_b` \[J/kg\]: ∫ c_pL dT by two-point Gauss–Legendre
 /// on panels of at most 10 K (exact for a cubic c_p; far below 1e-9 relative for the library's correlations).
 pub fn liquid_enthalpy_change(c: &Component, t_a: f64, t_b: f64) -> f64 {
     let span = t_b - t_a;
@@ -28,7 +28,7 @@ pub fn liquid_enthalpy_change(c: &Component, t_a: f64, t_b: f64) -> f64 {
     0.5 * width * sum
 }
 
-/// Liquid specific enthalpy at `t` relative to the liquid at [`REFERENCE_TEMPERATURE`] [J/kg].
+/// Liquid specific enthalpy at `t` relative to the liquid at [`REFERENCE_TEMPERATURE`] \[J/kg\].
 pub fn liquid_enthalpy(c: &Component, t: f64) -> f64 {
     liquid_enthalpy_change(c, REFERENCE_TEMPERATURE, t)
 }

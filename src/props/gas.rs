@@ -15,11 +15,11 @@ pub const AIR: [(&str, f64); 3] = [("n2", 0.7812), ("o2", 0.2096), ("ar", 0.0092
 pub struct AmbientGas {
     /// Species.
     pub species: Vec<GasSpecies>,
-    /// Mole fractions [-], sum 1.
+    /// Mole fractions \[-\], sum 1.
     pub mole_fractions: Vec<f64>,
-    /// Mass fractions [-], sum 1.
+    /// Mass fractions \[-\], sum 1.
     pub mass_fractions: Vec<f64>,
-    /// Mean molar mass [kg/mol].
+    /// Mean molar mass \[kg/mol\].
     pub molar_mass: f64,
     /// Short description, e.g. "air".
     pub label: String,
@@ -58,13 +58,13 @@ pub fn wilke_mix(values: &[f64], viscosities: &[f64], molar_masses: &[f64], y: &
     total
 }
 
-/// Fuller–Schettler–Giddings binary diffusion coefficient [m²/s] (Fuller et al. 1966; Poling et al. 2001 eq. 11-4.4).
+/// Fuller–Schettler–Giddings binary diffusion coefficient \[m²/s\] (Fuller et al. 1966; Poling et al. 2001 eq. 11-4.4).
 #[inline]
 pub fn fuller_diffusion(t: f64, p: f64, w_a: f64, w_b: f64, v_a: f64, v_b: f64) -> f64 {
     fuller_coefficient(w_a, w_b, v_a, v_b) * t.powf(1.75) / p
 }
 
-/// The factor c in D = c T^1.75 / p of the Fuller equation [m²·Pa/(s·K^1.75)].
+/// The factor c in D = c T^1.75 / p of the Fuller equation \[m²·Pa/(s·K^1.75)\].
 #[inline]
 pub fn fuller_coefficient(w_a: f64, w_b: f64, v_a: f64, v_b: f64) -> f64 {
     let w_ab = 2.0 / (1.0 / (w_a * 1e3) + 1.0 / (w_b * 1e3));
@@ -144,19 +144,19 @@ impl AmbientGas {
         Self::new(lib, &parts, text)
     }
 
-    /// Ambient-gas heat capacity [J/(kg·K)].
+    /// Ambient-gas heat capacity \[J/(kg·K)\].
     pub fn heat_capacity(&self, t: f64) -> f64 {
         self.species.iter().zip(&self.mass_fractions).map(|(g, y)| y * g.ideal_gas_heat_capacity.eval(t)).sum()
     }
 
-    /// Ambient-gas viscosity by Wilke [Pa·s].
+    /// Ambient-gas viscosity by Wilke \[Pa·s\].
     pub fn viscosity(&self, t: f64) -> f64 {
         let mu: Vec<f64> = self.species.iter().map(|g| g.viscosity.eval(t)).collect();
         let w: Vec<f64> = self.species.iter().map(|g| g.molar_mass()).collect();
         wilke_mix(&mu, &mu, &w, &self.mole_fractions)
     }
 
-    /// Ambient-gas conductivity by Wassiljewa–Mason–Saxena [W/(m·K)].
+    /// Ambient-gas conductivity by Wassiljewa–Mason–Saxena \[W/(m·K)\].
     pub fn conductivity(&self, t: f64) -> f64 {
         let mu: Vec<f64> = self.species.iter().map(|g| g.viscosity.eval(t)).collect();
         let k: Vec<f64> = self.species.iter().map(|g| g.conductivity.eval(t)).collect();
@@ -164,7 +164,7 @@ impl AmbientGas {
         wilke_mix(&k, &mu, &w, &self.mole_fractions)
     }
 
-    /// Heat capacity [J/(kg·K)], Wilke viscosity [Pa·s] and Wassiljewa–Mason–Saxena conductivity [W/(m·K)]
+    /// Heat capacity \[J/(kg·K)\], Wilke viscosity \[Pa·s\] and Wassiljewa–Mason–Saxena conductivity \[W/(m·K)\]
     /// at `t`, without allocating (at most 8 species).
     pub fn transport(&self, t: f64) -> (f64, f64, f64) {
         let n = self.species.len().min(8);
@@ -222,13 +222,13 @@ impl AmbientGas {
         1.0 / inv
     }
 
-    /// Ideal-gas density [kg/m³].
+    /// Ideal-gas density \[kg/m³\].
     pub fn density(&self, t: f64, p: f64) -> f64 {
         p * self.molar_mass / (GAS_CONSTANT * t)
     }
 }
 
-/// Binary diffusion coefficient of a fuel component's vapour in the ambient gas [m²/s] (Fuller + Blanc).
+/// Binary diffusion coefficient of a fuel component's vapour in the ambient gas \[m²/s\] (Fuller + Blanc).
 pub fn vapor_diffusion_coefficient(c: &Component, gas: &AmbientGas, t: f64, p: f64) -> f64 {
     gas.fuller_coefficient_of(c.molar_mass(), c.diffusion_volume()) * t.powf(1.75) / p
 }
@@ -237,15 +237,15 @@ pub fn vapor_diffusion_coefficient(c: &Component, gas: &AmbientGas, t: f64, p: f
 #[derive(Debug, Clone, Copy, serde::Serialize)]
 #[allow(non_snake_case)]
 pub struct GasMixtureState {
-    /// Heat capacity [J/(kg·K)].
+    /// Heat capacity \[J/(kg·K)\].
     pub cp_J_kgK: f64,
-    /// Viscosity [Pa·s].
+    /// Viscosity \[Pa·s\].
     pub viscosity_Pa_s: f64,
-    /// Thermal conductivity [W/(m·K)].
+    /// Thermal conductivity \[W/(m·K)\].
     pub conductivity_W_mK: f64,
-    /// Density [kg/m³].
+    /// Density \[kg/m³\].
     pub density_kg_m3: f64,
-    /// Mean molar mass [kg/mol].
+    /// Mean molar mass \[kg/mol\].
     pub molar_mass_kg_mol: f64,
 }
 

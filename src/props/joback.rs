@@ -19,24 +19,24 @@ fn sum(groups: &Groups, f: impl Fn(&Group) -> f64) -> f64 {
     groups.iter().map(|(g, n)| f(g) * f64::from(*n)).sum()
 }
 
-/// Normal boiling point Tb = 198 + ΣΔTb [K] (Joback & Reid 1987).
+/// Normal boiling point Tb = 198 + ΣΔTb \[K\] (Joback & Reid 1987).
 pub fn boiling_point(groups: &Groups) -> f64 {
     198.0 + sum(groups, |g| g.tb)
 }
 
-/// Critical temperature from a (measured or estimated) boiling point [K].
+/// Critical temperature from a (measured or estimated) boiling point \[K\].
 pub fn critical_temperature(groups: &Groups, tb: f64) -> f64 {
     let s = sum(groups, |g| g.tc);
     tb / (0.584 + 0.965 * s - s * s)
 }
 
-/// Critical pressure [Pa].
+/// Critical pressure \[Pa\].
 pub fn critical_pressure(groups: &Groups) -> f64 {
     let atoms: f64 = groups.iter().map(|(g, n)| f64::from(g.atoms * n)).sum();
     1e5 / (0.113 + 0.0032 * atoms - sum(groups, |g| g.pc)).powi(2)
 }
 
-/// Critical volume [m³/mol].
+/// Critical volume \[m³/mol\].
 pub fn critical_volume(groups: &Groups) -> f64 {
     (17.5 + sum(groups, |g| g.vc)) * 1e-6
 }
@@ -46,14 +46,14 @@ pub fn cp_coefficients(groups: &Groups) -> [f64; 4] {
     [sum(groups, |g| g.cp[0]) - 37.93, sum(groups, |g| g.cp[1]) + 0.210, sum(groups, |g| g.cp[2]) - 3.91e-4, sum(groups, |g| g.cp[3]) + 2.06e-7]
 }
 
-/// Ideal-gas heat capacity [J/(mol·K)] (valid about 280–1000 K; held at 1000 K above).
+/// Ideal-gas heat capacity \[J/(mol·K)\] (valid about 280–1000 K; held at 1000 K above).
 pub fn ideal_gas_cp(groups: &Groups, t: f64) -> f64 {
     let c = cp_coefficients(groups);
     let t = t.clamp(200.0, 1000.0);
     (c[0] + t * (c[1] + t * (c[2] + t * c[3]))).max(GAS_CONSTANT * 4.0)
 }
 
-/// Liquid viscosity [Pa·s]: μ = W exp[(Ση_a − 597.82)/T + Ση_b − 11.202], W in g/mol; None when a group has no
+/// Liquid viscosity \[Pa·s\]: μ = W exp[(Ση_a − 597.82)/T + Ση_b − 11.202], W in g/mol; None when a group has no
 /// viscosity increments. Intended for Tr below about 0.7.
 pub fn liquid_viscosity(groups: &Groups, molar_mass: f64, t: f64) -> Option<f64> {
     if groups.is_empty() || groups.iter().any(|(g, _)| g.eta.is_none()) {

@@ -21,11 +21,11 @@ use crate::props::gas::AmbientGas;
 
 /// Degree + 1 of the interpolating polynomial of a segment.
 pub const COEFFICIENTS: usize = 12;
-/// Widest segment [K].
+/// Widest segment \[K\].
 pub const SEGMENT_WIDTH: f64 = 40.0;
-/// Temperatures [K] covered by kernels; outside, the direct evaluation is used.
+/// Temperatures \[K\] covered by kernels; outside, the direct evaluation is used.
 pub const KERNEL_RANGE: (f64, f64) = (150.0, 3500.0);
-/// Largest relative deviation from the direct evaluation accepted at the check points of a segment [-].
+/// Largest relative deviation from the direct evaluation accepted at the check points of a segment \[-\].
 pub const ACCEPTED_DEVIATION: f64 = 2e-8;
 /// Number of properties of a component (in [`Component::correlations`] order).
 pub const PROPERTIES: usize = 10;
@@ -43,7 +43,7 @@ pub enum PropertyEvaluation {
     Direct,
 }
 
-/// One segment [lo, hi) of a kernel: its centre and the inverse half-width that map it onto [−1, 1].
+/// One segment [lo, hi) of a kernel: its centre and the inverse half-width that map it onto \[−1, 1\].
 #[derive(Debug, Clone, Copy)]
 struct Segment {
     lo: f64,
@@ -69,7 +69,7 @@ pub struct PropertyKernels {
     polys: Box<[OnceLock<Poly>]>,
 }
 
-/// Temperatures [K] where some property of `c` changes its definition (see [`crate::props::pure`]).
+/// Temperatures \[K\] where some property of `c` changes its definition (see [`crate::props::pure`]).
 fn kinks(c: &Component) -> Vec<f64> {
     use crate::data::Form;
     let tc = c.critical_temperature();
@@ -218,7 +218,7 @@ impl PropertyKernels {
     }
 
     /// Largest relative deviation from the direct evaluation of property `property` over the kernel segments
-    /// overlapping [from, to], probed every `step` K, and the share of that range served by the kernel; builds
+    /// overlapping \[from, to\], probed every `step` K, and the share of that range served by the kernel; builds
     /// the interpolants it touches.
     pub fn measured_deviation(&self, c: &Component, property: usize, from: f64, to: f64, step: f64) -> (f64, f64) {
         let mut worst = 0.0f64;

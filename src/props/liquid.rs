@@ -42,31 +42,31 @@ pub fn mole_to_mass(components: &[Arc<Component>], mole_fractions: &[f64]) -> Ve
     w
 }
 
-/// Mean molar mass from mole fractions [kg/mol].
+/// Mean molar mass from mole fractions \[kg/mol\].
 #[inline]
 pub fn molar_mass(components: &[Arc<Component>], x: &[f64]) -> f64 {
     components.iter().zip(x).map(|(c, x)| x * c.molar_mass()).sum()
 }
 
-/// Liquid density by ideal mixing of molar volumes (Amagat) [kg/m³]; mass fractions `w`.
+/// Liquid density by ideal mixing of molar volumes (Amagat) \[kg/m³\]; mass fractions `w`.
 #[inline]
 pub fn density(components: &[Arc<Component>], w: &[f64], t: f64) -> f64 {
     1.0 / components.iter().zip(w).map(|(c, w)| w / c.liquid_density(t)).sum::<f64>()
 }
 
-/// Liquid heat capacity, mass-fraction weighted [J/(kg·K)].
+/// Liquid heat capacity, mass-fraction weighted \[J/(kg·K)\].
 #[inline]
 pub fn heat_capacity(components: &[Arc<Component>], w: &[f64], t: f64) -> f64 {
     components.iter().zip(w).map(|(c, w)| w * c.liquid_heat_capacity(t)).sum()
 }
 
-/// Latent heat, mass-fraction weighted [J/kg].
+/// Latent heat, mass-fraction weighted \[J/kg\].
 #[inline]
 pub fn latent_heat(components: &[Arc<Component>], w: &[f64], t: f64) -> f64 {
     components.iter().zip(w).map(|(c, w)| w * c.latent_heat(t)).sum()
 }
 
-/// Dynamic viscosity by Grunberg–Nissan with zero interaction (ln μ = Σ x ln μ_i) [Pa·s]; mole fractions `x`.
+/// Dynamic viscosity by Grunberg–Nissan with zero interaction (ln μ = Σ x ln μ_i) \[Pa·s\]; mole fractions `x`.
 #[inline]
 pub fn viscosity(components: &[Arc<Component>], x: &[f64], t: f64) -> f64 {
     components.iter().zip(x).map(|(c, x)| x * c.liquid_viscosity(t).ln()).sum::<f64>().exp()
@@ -78,13 +78,13 @@ pub fn refutas_blending_number(nu_mm2_s: f64) -> f64 {
     14.534 * (nu_mm2_s + 0.8).ln().ln() + 10.975
 }
 
-/// Kinematic viscosity [mm²/s] from a Refutas blending number (inverse of [`refutas_blending_number`]).
+/// Kinematic viscosity \[mm²/s\] from a Refutas blending number (inverse of [`refutas_blending_number`]).
 #[inline]
 pub fn refutas_viscosity(vbn: f64) -> f64 {
     ((vbn - 10.975) / 14.534).exp().exp() - 0.8
 }
 
-/// Kinematic viscosity by the Refutas blending-index method on mass fractions (ASTM D7152 practice) [m²/s].
+/// Kinematic viscosity by the Refutas blending-index method on mass fractions (ASTM D7152 practice) \[m²/s\].
 pub fn kinematic_viscosity_refutas(components: &[Arc<Component>], w: &[f64], t: f64) -> f64 {
     let vbn: f64 = components
         .iter()
@@ -94,26 +94,26 @@ pub fn kinematic_viscosity_refutas(components: &[Arc<Component>], w: &[f64], t: 
     refutas_viscosity(vbn) * 1e-6
 }
 
-/// Thermal conductivity by the DIPPR 9H (Vredeveld) rule k = (Σ w k_i⁻²)^(-1/2) [W/(m·K)].
+/// Thermal conductivity by the DIPPR 9H (Vredeveld) rule k = (Σ w k_i⁻²)^(-1/2) \[W/(m·K)\].
 #[inline]
 pub fn conductivity(components: &[Arc<Component>], w: &[f64], t: f64) -> f64 {
     let s: f64 = components.iter().zip(w).map(|(c, w)| w / c.liquid_conductivity(t).powi(2)).sum();
     1.0 / s.sqrt()
 }
 
-/// Surface tension, mole-fraction weighted [N/m].
+/// Surface tension, mole-fraction weighted \[N/m\].
 #[inline]
 pub fn surface_tension(components: &[Arc<Component>], x: &[f64], t: f64) -> f64 {
     components.iter().zip(x).map(|(c, x)| x * c.surface_tension(t)).sum()
 }
 
-/// Bubble pressure by Raoult's law Σ x_i p_sat,i(T) [Pa].
+/// Bubble pressure by Raoult's law Σ x_i p_sat,i(T) \[Pa\].
 #[inline]
 pub fn bubble_pressure(components: &[Arc<Component>], x: &[f64], t: f64) -> f64 {
     components.iter().zip(x).map(|(c, x)| x * c.vapor_pressure(t)).sum()
 }
 
-/// Highest temperature at which bubble and dew points are searched [K].
+/// Highest temperature at which bubble and dew points are searched \[K\].
 fn search_ceiling(components: &[Arc<Component>]) -> f64 {
     components.iter().map(|c| c.critical_temperature()).fold(0.0, f64::max) * 1.5
 }
@@ -121,7 +121,7 @@ fn search_ceiling(components: &[Arc<Component>]) -> f64 {
 /// Temperature tolerance of the bubble- and dew-point searches (Brent's method on [20 K, 1.5 max T_c]).
 const POINT_TOLERANCE: Tolerance = Tolerance::absolute(1e-9);
 
-/// Bubble-point temperature at pressure `p` (Raoult's law) [K].
+/// Bubble-point temperature at pressure `p` (Raoult's law) \[K\].
 pub fn bubble_point(components: &[Arc<Component>], x: &[f64], p: f64) -> Result<f64, PropertyError> {
     if !(p.is_finite() && p > 0.0) {
         return Err(PropertyError::Invalid { what: "pressure", value: p });
@@ -132,7 +132,7 @@ pub fn bubble_point(components: &[Arc<Component>], x: &[f64], p: f64) -> Result<
         .map_err(|_| PropertyError::NoSolution { what: "bubble point", pressure: p })
 }
 
-/// Dew-point temperature at pressure `p` for vapour mole fractions `y` (Raoult's law) [K].
+/// Dew-point temperature at pressure `p` for vapour mole fractions `y` (Raoult's law) \[K\].
 pub fn dew_point(components: &[Arc<Component>], y: &[f64], p: f64) -> Result<f64, PropertyError> {
     if !(p.is_finite() && p > 0.0) {
         return Err(PropertyError::Invalid { what: "pressure", value: p });
@@ -144,7 +144,7 @@ pub fn dew_point(components: &[Arc<Component>], y: &[f64], p: f64) -> Result<f64
         .map_err(|_| PropertyError::NoSolution { what: "dew point", pressure: p })
 }
 
-/// Bubble-point temperature at pressure `p` with activity coefficients: Σ x_i γ_i(x, T) p_sat,i(T) = p [K]
+/// Bubble-point temperature at pressure `p` with activity coefficients: Σ x_i γ_i(x, T) p_sat,i(T) = p \[K\]
 /// (the ideal `activity` gives [`bubble_point`]). No allocation.
 pub fn bubble_point_with(components: &[Arc<Component>], activity: &mut Activity, x: &[f64], p: f64) -> Result<f64, PropertyError> {
     if activity.is_ideal() {
@@ -160,7 +160,7 @@ pub fn bubble_point_with(components: &[Arc<Component>], activity: &mut Activity,
 }
 
 /// Dew-point temperature at pressure `p` for vapour mole fractions `y` with activity coefficients of the
-/// equilibrium liquid: Σ y_i p/(γ_i p_sat,i(T)) = 1 [K] (the ideal `activity` gives [`dew_point`]).
+/// equilibrium liquid: Σ y_i p/(γ_i p_sat,i(T)) = 1 \[K\] (the ideal `activity` gives [`dew_point`]).
 pub fn dew_point_with(components: &[Arc<Component>], activity: &mut Activity, y: &[f64], p: f64) -> Result<f64, PropertyError> {
     if activity.is_ideal() {
         return dew_point(components, y, p);
@@ -174,24 +174,24 @@ pub fn dew_point_with(components: &[Arc<Component>], activity: &mut Activity, y:
         .map_err(|_| PropertyError::NoSolution { what: "dew point", pressure: p })
 }
 
-/// Mixture pseudo-critical temperature by Kay's rule Σ x_i T_c,i [K].
+/// Mixture pseudo-critical temperature by Kay's rule Σ x_i T_c,i \[K\].
 pub fn pseudo_critical_temperature(components: &[Arc<Component>], x: &[f64]) -> f64 {
     components.iter().zip(x).map(|(c, x)| x * c.critical_temperature()).sum()
 }
 
-/// Mixture pseudo-critical pressure by Kay's rule Σ x_i p_c,i [Pa].
+/// Mixture pseudo-critical pressure by Kay's rule Σ x_i p_c,i \[Pa\].
 pub fn pseudo_critical_pressure(components: &[Arc<Component>], x: &[f64]) -> f64 {
     components.iter().zip(x).map(|(c, x)| x * c.critical_pressure()).sum()
 }
 
-/// Bubble point [K] only where it lies below the liquid's pseudo-critical temperature (Kay's rule, Σ x_i T_c,i):
+/// Bubble point \[K\] only where it lies below the liquid's pseudo-critical temperature (Kay's rule, Σ x_i T_c,i):
 /// a Raoult bubble point at or above it is an extrapolation of the vapour-pressure correlations into the critical
 /// region (e.g. n-dodecane at 30 bar: 698 K against T_c = 658 K) and is reported as none, with the reason.
 pub fn subcritical_bubble_point(components: &[Arc<Component>], x: &[f64], pressure: f64) -> Result<f64, String> {
     subcritical_bubble_point_with(components, &mut Activity::ideal(components.len()), x, pressure)
 }
 
-/// [`subcritical_bubble_point`] with a liquid activity model (ideal: Raoult's law) [K].
+/// [`subcritical_bubble_point`] with a liquid activity model (ideal: Raoult's law) \[K\].
 pub fn subcritical_bubble_point_with(components: &[Arc<Component>], activity: &mut Activity, x: &[f64], pressure: f64) -> Result<f64, String> {
     let t_b = bubble_point_with(components, activity, x, pressure).map_err(|e| e.to_string())?;
     let t_pc = pseudo_critical_temperature(components, x);
@@ -209,23 +209,23 @@ pub fn subcritical_bubble_point_with(components: &[Arc<Component>], activity: &m
 #[derive(Debug, Clone, serde::Serialize)]
 #[allow(non_snake_case)]
 pub struct LiquidState {
-    /// Temperature [K].
+    /// Temperature \[K\].
     pub temperature_K: f64,
-    /// Bubble (vapour) pressure [Pa].
+    /// Bubble (vapour) pressure \[Pa\].
     pub vapor_pressure_Pa: f64,
-    /// Density [kg/m³].
+    /// Density \[kg/m³\].
     pub density_kg_m3: f64,
-    /// Latent heat [J/kg].
+    /// Latent heat \[J/kg\].
     pub latent_heat_J_kg: f64,
-    /// Heat capacity [J/(kg·K)].
+    /// Heat capacity \[J/(kg·K)\].
     pub cp_J_kgK: f64,
-    /// Dynamic viscosity [Pa·s].
+    /// Dynamic viscosity \[Pa·s\].
     pub viscosity_Pa_s: f64,
-    /// Kinematic viscosity [m²/s].
+    /// Kinematic viscosity \[m²/s\].
     pub kinematic_viscosity_m2_s: f64,
-    /// Thermal conductivity [W/(m·K)].
+    /// Thermal conductivity \[W/(m·K)\].
     pub conductivity_W_mK: f64,
-    /// Surface tension [N/m].
+    /// Surface tension \[N/m\].
     pub surface_tension_N_m: f64,
 }
 

@@ -28,7 +28,7 @@ pub enum PropertyError {
     NoSolution {
         /// What was searched.
         what: &'static str,
-        /// At which pressure [Pa].
+        /// At which pressure \[Pa\].
         pressure: f64,
     },
     /// An ambient-gas definition problem.

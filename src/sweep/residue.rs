@@ -1,4 +1,4 @@
-//! Residual-liquid indicators as extra summary columns: fuel-quality indicators ([`crate::post::indicators`]) of
+//! Residual-liquid indicators as extra summary columns: fuel-quality indicators ([`crate::post::indicators()`]) of
 //! the liquid left when a case ended. For a droplet that evaporated this is the last `end-mass-fraction` (0.1 %
 //! by default) of its mass, the heaviest part of the fuel; for a case stopped by `max-time`, what was left then.
 

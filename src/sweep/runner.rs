@@ -30,7 +30,7 @@ use super::{SweepError, CASES_DIR, JOURNAL_FILE, SUMMARY_FILE};
 
 /// Largest distance (in cases) a worker may run ahead of the first row not yet written.
 pub const WINDOW: u64 = 4096;
-/// The journal is written at least this often while rows are waiting [ms].
+/// The journal is written at least this often while rows are waiting \[ms\].
 const FLUSH_EVERY: Duration = Duration::from_millis(250);
 /// Bytes of rows gathered before a write.
 const FLUSH_BYTES: usize = 64 * 1024;

@@ -43,13 +43,13 @@ pub const FIRST_VAPOR_COLUMN: usize = 10;
 /// One row of a component table; `liquid` is None outside the liquid range.
 #[derive(Debug, Clone)]
 pub struct ComponentRow {
-    /// Temperature [K].
+    /// Temperature \[K\].
     pub temperature: f64,
     /// Liquid cells (vapour pressure .. liquid diffusivity), None outside the liquid range.
     pub liquid: Option<[f64; 9]>,
     /// Vapour cells (cp, viscosity, conductivity, diffusivity).
     pub vapor: [f64; 4],
-    /// Liquid and vapour specific enthalpies (reference: liquid at 298.15 K) [J/kg], None outside the liquid range.
+    /// Liquid and vapour specific enthalpies (reference: liquid at 298.15 K) \[J/kg\], None outside the liquid range.
     pub enthalpy: Option<[f64; 2]>,
     /// Validity flag.
     pub validity: Validity,
@@ -80,7 +80,7 @@ impl ComponentRow {
     }
 }
 
-/// The solvent of the Wilke–Chang liquid diffusivity in component tables: molar mass [kg/mol] and viscosity
+/// The solvent of the Wilke–Chang liquid diffusivity in component tables: molar mass \[kg/mol\] and viscosity
 /// function of a liquid.
 #[derive(Debug, Clone)]
 pub struct Solvent {
@@ -102,11 +102,11 @@ impl Solvent {
 pub struct ComponentTable {
     /// The component.
     pub component: Arc<Component>,
-    /// Lowest and highest temperature with liquid cells [K].
+    /// Lowest and highest temperature with liquid cells \[K\].
     pub liquid_range: Option<(f64, f64)>,
-    /// Saturation temperature at the table pressure (None above the critical pressure) [K].
+    /// Saturation temperature at the table pressure (None above the critical pressure) \[K\].
     pub saturation_temperature: Option<f64>,
-    /// Table pressure [Pa].
+    /// Table pressure \[Pa\].
     pub pressure: f64,
     /// Rows (the union of the liquid and vapour grids).
     pub rows: Vec<ComponentRow>,

@@ -10,13 +10,13 @@
 //! latent-heat and heat-capacity correlations are not mutually consistent (Kirchhoff's relation); the tables
 //! report that difference ([`ideal_gas_gap`]).
 
-/// Temperature of the reference state (liquid, zero enthalpy) [K].
+/// Temperature of the reference state (liquid, zero enthalpy) \[K\].
 pub const REFERENCE_TEMPERATURE: f64 = 298.15;
 
-/// Widest panel of the Gauss–Legendre quadrature [K].
+/// Widest panel of the Gauss–Legendre quadrature \[K\].
 const PANEL: f64 = 5.0;
 
-/// Five-point Gauss–Legendre nodes and weights on [−1, 1] (Abramowitz & Stegun, Table 25.4).
+/// Five-point Gauss–Legendre nodes and weights on \[−1, 1\] (Abramowitz & Stegun, Table 25.4).
 const GAUSS5: [(f64, f64); 5] = [
     (0.0, 0.568_888_888_888_888_9),
     (-0.538_469_310_105_683, 0.478_628_670_499_366_5),
@@ -38,7 +38,7 @@ pub fn integrate(f: &dyn Fn(f64) -> f64, a: f64, b: f64) -> f64 {
 }
 
 /// h(T_k) = ∫ cp dT from [`REFERENCE_TEMPERATURE`] to each of the ascending temperatures `ts`, accumulated row to
-/// row (deterministic: the same rows give the same sums) [J/kg].
+/// row (deterministic: the same rows give the same sums) \[J/kg\].
 pub fn cumulative_enthalpy(cp: &dyn Fn(f64) -> f64, ts: &[f64]) -> Vec<f64> {
     let mut out = Vec::with_capacity(ts.len());
     let mut h = 0.0;

@@ -1,7 +1,7 @@
 //! Least-squares polynomial fits of tabulated properties, in a scaled variable for conditioning.
 //!
 //! A fit is `y = P(s)` (form `linear`) or `y = exp(P(s))` (form `log`), with `P(s) = Σ c_k s^k`, degree at most
-//! [`MAX_DEGREE`], and the scaled variable `s = (x − center) / half_width` in [−1, 1] over the fitted range, where
+//! [`MAX_DEGREE`], and the scaled variable `s = (x − center) / half_width` in \[−1, 1\] over the fitted range, where
 //! `x` is the temperature T (variable `T`) or its reciprocal 1/T (variable `1/T`, for vapour pressure and
 //! viscosity, whose logarithms are nearly linear in 1/T). The degree is the lowest that reproduces every table
 //! point within [`TARGET_RELATIVE_ERROR`], or [`MAX_DEGREE`]; the maximum relative error on the table points is
@@ -17,10 +17,10 @@ use serde::Serialize;
 /// Highest polynomial degree of a property fit.
 pub const MAX_DEGREE: usize = 4;
 
-/// Relative error on the table points at which a lower degree is accepted [-].
+/// Relative error on the table points at which a lower degree is accepted \[-\].
 pub const TARGET_RELATIVE_ERROR: f64 = 1e-4;
 
-/// Largest maximum relative error of an unflagged fit piece [-].
+/// Largest maximum relative error of an unflagged fit piece \[-\].
 pub const MAX_FIT_ERROR: f64 = 0.01;
 
 /// Fewest table rows in one piece of a piecewise fit.
@@ -49,10 +49,10 @@ impl FitForm {
 /// The independent variable before scaling.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
 pub enum FitVariable {
-    /// Temperature T [K].
+    /// Temperature T \[K\].
     #[serde(rename = "T")]
     Temperature,
-    /// Reciprocal temperature 1/T [1/K].
+    /// Reciprocal temperature 1/T \[1/K\].
     #[serde(rename = "1/T")]
     Reciprocal,
 }
@@ -66,7 +66,7 @@ impl FitVariable {
         }
     }
 
-    /// The unscaled variable x at temperature `t` [K or 1/K].
+    /// The unscaled variable x at temperature `t` \[K or 1/K\].
     #[inline]
     pub fn of(self, t: f64) -> f64 {
         match self {
@@ -85,19 +85,19 @@ pub struct PolyFit {
     pub form: FitForm,
     /// Unscaled variable (T or 1/T).
     pub variable: FitVariable,
-    /// Centre of the scaled variable [K or 1/K].
+    /// Centre of the scaled variable \[K or 1/K\].
     pub center: f64,
-    /// Half-width of the scaled variable [K or 1/K].
+    /// Half-width of the scaled variable \[K or 1/K\].
     pub half_width: f64,
     /// Coefficients c0..c_degree of P(s).
     pub coefficients: Vec<f64>,
-    /// Lowest table temperature fitted [K].
+    /// Lowest table temperature fitted \[K\].
     pub t_min: f64,
-    /// Highest table temperature fitted [K].
+    /// Highest table temperature fitted \[K\].
     pub t_max: f64,
     /// Number of table points fitted.
     pub points: usize,
-    /// Largest |fit/table − 1| over the table points [-].
+    /// Largest |fit/table − 1| over the table points \[-\].
     pub max_relative_error: f64,
     /// Index of this piece, 1-based, in ascending temperature.
     pub piece: usize,
@@ -120,13 +120,13 @@ impl PolyFit {
         self.coefficients.len().saturating_sub(1)
     }
 
-    /// Scaled variable s at temperature `t` [K].
+    /// Scaled variable s at temperature `t` \[K\].
     #[inline]
     pub fn scaled(&self, t: f64) -> f64 {
         (self.variable.of(t) - self.center) / self.half_width
     }
 
-    /// Fitted value at `t` [K], in the unit of the property.
+    /// Fitted value at `t` \[K\], in the unit of the property.
     pub fn eval(&self, t: f64) -> f64 {
         let s = self.scaled(t);
         let p = self.coefficients.iter().rev().fold(0.0, |acc, c| acc * s + c);

@@ -16,17 +16,17 @@ use super::{input, TableError, DEFAULT_START, END_CRITICAL_FRACTION, LOWEST_DEFA
 /// The temperatures of a table and how its ends were chosen.
 #[derive(Debug, Clone, Serialize)]
 pub struct TemperatureGrid {
-    /// First temperature [K].
+    /// First temperature \[K\].
     pub from: f64,
-    /// Last temperature asked for (the last row is the last grid point not above it) [K].
+    /// Last temperature asked for (the last row is the last grid point not above it) \[K\].
     pub to: f64,
-    /// Step [K].
+    /// Step \[K\].
     pub step: f64,
     /// How `from` was chosen.
     pub from_rule: String,
     /// How `to` was chosen.
     pub to_rule: String,
-    /// Row temperatures [K].
+    /// Row temperatures \[K\].
     pub temperatures: Vec<f64>,
 }
 
@@ -47,17 +47,17 @@ pub(crate) fn check_step(step: f64) -> Result<(), TableError> {
 /// the liquid's pseudo-critical temperature (Kay's rule) and the lowest critical temperature of a major component.
 #[derive(Debug, Clone)]
 pub struct RangeLimits {
-    /// Bubble point at the table pressure [K] (None at or above the pseudo-critical temperature).
+    /// Bubble point at the table pressure \[K\] (None at or above the pseudo-critical temperature).
     pub bubble_point: Option<f64>,
     /// Why there is no bubble point (empty when there is one).
     pub bubble_point_note: String,
-    /// Pseudo-critical temperature of the liquid, Kay's rule Σ x_i T_c,i [K].
+    /// Pseudo-critical temperature of the liquid, Kay's rule Σ x_i T_c,i \[K\].
     pub pseudo_critical_temperature: f64,
-    /// Lowest critical temperature of a component with mole fraction above 1 % [K] (the surrogate's fit range).
+    /// Lowest critical temperature of a component with mole fraction above 1 % \[K\] (the surrogate's fit range).
     pub critical_temperature: f64,
     /// Id of that component.
     pub critical_component: String,
-    /// Ideal-solubility freezing point [K] (None when no component has an enthalpy of fusion).
+    /// Ideal-solubility freezing point \[K\] (None when no component has an enthalpy of fusion).
     pub freezing_point: Option<f64>,
     /// Component controlling the freezing point.
     pub freezing_component: Option<String>,

@@ -20,18 +20,18 @@ use super::{input, liquid_grid, range_limits, RangeLimits, TableError, TableOpti
 /// Properties of a fuel vapour (no ambient gas mixed in) and its diffusion in the ambient gas.
 #[derive(Debug, Clone, Serialize)]
 pub struct VaporState {
-    /// Vapour mass fractions [-].
+    /// Vapour mass fractions \[-\].
     pub mass_fractions: Vec<f64>,
-    /// Mean molar mass [kg/mol].
+    /// Mean molar mass \[kg/mol\].
     pub molar_mass: f64,
-    /// Ideal-gas heat capacity, mass-fraction weighted [J/(kg·K)].
+    /// Ideal-gas heat capacity, mass-fraction weighted \[J/(kg·K)\].
     pub cp: f64,
-    /// Viscosity by Wilke [Pa·s].
+    /// Viscosity by Wilke \[Pa·s\].
     pub viscosity: f64,
-    /// Conductivity by Wassiljewa–Mason–Saxena [W/(m·K)].
+    /// Conductivity by Wassiljewa–Mason–Saxena \[W/(m·K)\].
     pub conductivity: f64,
     /// Diffusion coefficient in the ambient gas: mass-fraction-weighted binary Fuller coefficients, each
-    /// combined over the gas species by Blanc's law (as the droplet film model lumps them) [m²/s].
+    /// combined over the gas species by Blanc's law (as the droplet film model lumps them) \[m²/s\].
     pub diffusivity: f64,
 }
 
@@ -58,7 +58,7 @@ pub fn vapor_state(components: &[Arc<Component>], vapor_mass_fractions: &[f64], 
 }
 
 /// Liquid mass diffusivity of the mixture as the resolved droplet model uses it: Wilke–Chang with the
-/// mole-averaged molar volume at the normal boiling point as solute and the mixture as solvent [m²/s].
+/// mole-averaged molar volume at the normal boiling point as solute and the mixture as solvent \[m²/s\].
 pub fn mixture_liquid_diffusivity(components: &[Arc<Component>], mole_fractions: &[f64], viscosity: f64, t: f64) -> f64 {
     let w_b = liquid::molar_mass(components, mole_fractions);
     let v_a: f64 = components.iter().zip(mole_fractions).map(|(c, x)| x * c.molar_volume_at_boiling()).sum();
@@ -113,16 +113,16 @@ pub struct MixtureRow {
     /// Liquid state (`props::liquid::state`).
     #[serde(flatten)]
     pub liquid: liquid::LiquidState,
-    /// Latent heat per kg of equilibrium vapour [J/kg].
+    /// Latent heat per kg of equilibrium vapour \[J/kg\].
     pub latent_heat_equilibrium_vapor_J_kg: f64,
-    /// Liquid mass diffusivity [m²/s].
+    /// Liquid mass diffusivity \[m²/s\].
     pub liquid_diffusivity_m2_s: f64,
     /// Equilibrium vapour at this temperature.
     #[serde(skip)]
     pub vapor: VaporState,
-    /// Specific enthalpy of the liquid (reference: liquid at 298.15 K) [J/kg].
+    /// Specific enthalpy of the liquid (reference: liquid at 298.15 K) \[J/kg\].
     pub liquid_enthalpy_J_kg: f64,
-    /// Specific enthalpy of the liquid's composition as a vapour, liquid enthalpy + latent heat [J/kg].
+    /// Specific enthalpy of the liquid's composition as a vapour, liquid enthalpy + latent heat \[J/kg\].
     pub vapor_enthalpy_J_kg: f64,
     /// Validity flag.
     pub validity: Validity,
@@ -160,7 +160,7 @@ impl MixtureRow {
     }
 }
 
-/// Mass-weighted liquid heat capacity Σ w_i cp_i of mass fractions `w` at `t` (the `props::liquid::state` rule) [J/(kg·K)].
+/// Mass-weighted liquid heat capacity Σ w_i cp_i of mass fractions `w` at `t` (the `props::liquid::state` rule) \[J/(kg·K)\].
 pub fn mixture_liquid_cp(components: &[Arc<Component>], w: &[f64], t: f64) -> f64 {
     components.iter().zip(w).map(|(c, w)| w * c.liquid_heat_capacity(t)).sum()
 }
@@ -201,9 +201,9 @@ pub struct MixtureTable {
     pub label: String,
     /// The liquid (name, components, mass fractions).
     pub fuel: Fuel,
-    /// Evaporated fraction of the parent fuel for a residue table [-].
+    /// Evaporated fraction of the parent fuel for a residue table \[-\].
     pub evaporated_fraction: Option<f64>,
-    /// Table pressure [Pa].
+    /// Table pressure \[Pa\].
     pub pressure: f64,
     /// Ambient-gas label.
     pub gas: String,
@@ -214,7 +214,7 @@ pub struct MixtureTable {
     /// Rows.
     pub rows: Vec<MixtureRow>,
     /// Largest departure of the vapour enthalpy column from the ideal-gas enthalpy path of the liquid's
-    /// composition as a vapour (Σ w_i cp_ig,i), relative to the latent heat ([`super::enthalpy::ideal_gas_gap`]) [-].
+    /// composition as a vapour (Σ w_i cp_ig,i), relative to the latent heat ([`super::enthalpy::ideal_gas_gap`]) \[-\].
     pub ideal_gas_enthalpy_gap: f64,
 }
 

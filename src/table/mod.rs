@@ -35,26 +35,26 @@ pub use validity::{describe_excursions, extrapolated_properties, grade, range_ex
 use fit::{fit_piecewise, PolyFit};
 
 /// Mole fraction of the liquid above or near its critical temperature beyond which a row is flagged near-critical,
-/// and above which a component counts as major (the surrogate's fit range) [-].
+/// and above which a component counts as major (the surrogate's fit range) \[-\].
 pub const MAJOR_MOLE_FRACTION: f64 = 0.01;
-/// Rows above this fraction of a major component's critical temperature are flagged near-critical [-].
+/// Rows above this fraction of a major component's critical temperature are flagged near-critical \[-\].
 pub const NEAR_CRITICAL_FRACTION: f64 = 0.9;
-/// Without a bubble point the default table ends at this fraction of the pseudo-critical temperature [-].
+/// Without a bubble point the default table ends at this fraction of the pseudo-critical temperature \[-\].
 pub const END_CRITICAL_FRACTION: f64 = 0.95;
 /// Highest temperature a table may reach, as a fraction of the liquid's pseudo-critical temperature (Kay's
-/// rule); liquid cells of a component table end at this fraction of the component's own Tc [-].
+/// rule); liquid cells of a component table end at this fraction of the component's own Tc \[-\].
 pub const MAX_CRITICAL_FRACTION: f64 = 0.99;
-/// Default start when no component has an enthalpy of fusion (no freezing-point estimate) [K].
+/// Default start when no component has an enthalpy of fusion (no freezing-point estimate) \[K\].
 pub const DEFAULT_START: f64 = 230.0;
-/// The default start never goes below this temperature, even for a lower freezing-point estimate [K].
+/// The default start never goes below this temperature, even for a lower freezing-point estimate \[K\].
 pub const LOWEST_DEFAULT_START: f64 = 200.0;
-/// Lowest temperature a user may ask for [K].
+/// Lowest temperature a user may ask for \[K\].
 pub const MIN_TEMPERATURE: f64 = 150.0;
-/// Highest vapour-table temperature a user may ask for [K].
+/// Highest vapour-table temperature a user may ask for \[K\].
 pub const MAX_VAPOR_TEMPERATURE: f64 = 4000.0;
 /// Largest number of rows in one table.
 pub const MAX_ROWS: usize = 20_000;
-/// Default vapour-table range of the component tables [K].
+/// Default vapour-table range of the component tables \[K\].
 pub const DEFAULT_VAPOR_RANGE: (f64, f64) = (250.0, 1500.0);
 
 /// Errors raised while building tables.
@@ -132,23 +132,23 @@ pub fn fit_component(label: &str, t: &ComponentTable) -> TableFits {
 /// What to tabulate (SI units; the CLI converts options into this).
 #[derive(Debug, Clone)]
 pub struct TableOptions {
-    /// Table pressure [Pa].
+    /// Table pressure \[Pa\].
     pub pressure: f64,
     /// Ambient gas (vapour diffusivities, surrogate runs).
     pub gas: AmbientGas,
-    /// First liquid temperature (None = default) [K].
+    /// First liquid temperature (None = default) \[K\].
     pub from: Option<f64>,
-    /// Last liquid temperature (None = default) [K].
+    /// Last liquid temperature (None = default) \[K\].
     pub to: Option<f64>,
-    /// Temperature step [K].
+    /// Temperature step \[K\].
     pub step: f64,
-    /// First vapour temperature of the component tables [K].
+    /// First vapour temperature of the component tables \[K\].
     pub vapor_from: f64,
-    /// Last vapour temperature of the component tables [K].
+    /// Last vapour temperature of the component tables \[K\].
     pub vapor_to: f64,
     /// Evaporated mass fractions of the weathering residues to tabulate (ascending, each in [0, 1)).
     pub residue_fractions: Vec<f64>,
-    /// Temperature of the open-vessel weathering [K].
+    /// Temperature of the open-vessel weathering \[K\].
     pub residue_temperature: f64,
     /// Surrogate fit (None = skip).
     pub surrogate: Option<surrogate::SurrogateOptions>,

@@ -37,11 +37,11 @@ use super::{range_limits, vapor_state, TableError};
 
 /// Source marker of every surrogate value.
 pub const SOURCE: &str = "estimated:surrogate-fit";
-/// Relative tolerance on the lifetime match at the reference condition [-].
+/// Relative tolerance on the lifetime match at the reference condition \[-\].
 pub const LIFETIME_TOLERANCE: f64 = 1e-5;
-/// Relative tolerance on the t10 match at the reference condition [-].
+/// Relative tolerance on the t10 match at the reference condition \[-\].
 pub const T10_TOLERANCE: f64 = 1e-3;
-/// Bracket of the volatility factor f searched for the t10 match [-].
+/// Bracket of the volatility factor f searched for the t10 match \[-\].
 pub const VOLATILITY_BRACKET: (f64, f64) = (1e-3, 1e3);
 /// Number of points of the least-squares fits of the mixture curves.
 pub const FIT_POINTS: usize = 121;
@@ -49,15 +49,15 @@ pub const FIT_POINTS: usize = 121;
 /// A droplet condition for the surrogate fit (SI).
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct ReferenceCondition {
-    /// Ambient gas temperature [K].
+    /// Ambient gas temperature \[K\].
     pub ambient_temperature: f64,
-    /// Ambient pressure [Pa].
+    /// Ambient pressure \[Pa\].
     pub pressure: f64,
-    /// Initial droplet diameter [m].
+    /// Initial droplet diameter \[m\].
     pub diameter: f64,
-    /// Constant relative velocity [m/s].
+    /// Constant relative velocity \[m/s\].
     pub velocity: f64,
-    /// Initial droplet temperature [K].
+    /// Initial droplet temperature \[K\].
     pub droplet_temperature: f64,
 }
 
@@ -67,7 +67,7 @@ impl Default for ReferenceCondition {
     }
 }
 
-/// Default conditions at which the fitted surrogate is compared with the mixture: (ambient T [K], p [Pa]).
+/// Default conditions at which the fitted surrogate is compared with the mixture: (ambient T \[K\], p \[Pa\]).
 pub const DEFAULT_EVALUATION: [(f64, f64); 6] = [(500.0, 1e5), (800.0, 1e5), (1100.0, 1e5), (500.0, 1e6), (800.0, 1e6), (1100.0, 1e6)];
 
 /// How to fit the surrogate and where to report its error.
@@ -88,26 +88,26 @@ impl Default for SurrogateOptions {
 /// The two fitted factors.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct SurrogateParameters {
-    /// Multiplier on the initial liquid's bubble-pressure curve [-].
+    /// Multiplier on the initial liquid's bubble-pressure curve \[-\].
     pub volatility_factor: f64,
-    /// Multiplier on the initial liquid's latent heat [-].
+    /// Multiplier on the initial liquid's latent heat \[-\].
     pub latent_heat_factor: f64,
 }
 
-/// Summary numbers of one droplet run [s, K].
+/// Summary numbers of one droplet run \[s, K\].
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct RunSummary {
-    /// Lifetime (0.1 % of the mass left) [s].
+    /// Lifetime (0.1 % of the mass left) \[s\].
     pub lifetime: Option<f64>,
-    /// Time to 10 % evaporated [s].
+    /// Time to 10 % evaporated \[s\].
     pub t10: Option<f64>,
-    /// Time to 50 % evaporated [s].
+    /// Time to 50 % evaporated \[s\].
     pub t50: Option<f64>,
-    /// Time to 90 % evaporated [s].
+    /// Time to 90 % evaporated \[s\].
     pub t90: Option<f64>,
-    /// End of the heat-up period [s].
+    /// End of the heat-up period \[s\].
     pub heatup_end: Option<f64>,
-    /// Highest surface temperature [K].
+    /// Highest surface temperature \[K\].
     pub max_surface_temperature: f64,
 }
 
@@ -120,9 +120,9 @@ pub struct ConditionComparison {
     pub mixture: RunSummary,
     /// Surrogate.
     pub surrogate: RunSummary,
-    /// Surrogate lifetime / mixture lifetime − 1 [-] (None if either did not evaporate).
+    /// Surrogate lifetime / mixture lifetime − 1 \[-\] (None if either did not evaporate).
     pub lifetime_error: Option<f64>,
-    /// Surrogate t10 / mixture t10 − 1 [-].
+    /// Surrogate t10 / mixture t10 − 1 \[-\].
     pub t10_error: Option<f64>,
 }
 
@@ -131,9 +131,9 @@ pub struct ConditionComparison {
 pub struct SurrogateBasis {
     /// The surrogate with f = g = 1.
     pub base: Component,
-    /// Liquid fit range [K].
+    /// Liquid fit range \[K\].
     pub liquid_range: (f64, f64),
-    /// Vapour fit range [K].
+    /// Vapour fit range \[K\].
     pub vapor_range: (f64, f64),
     /// Largest relative deviation of each fitted curve from the mixture rule over its fit range, by
     /// property key (before the factors).
@@ -157,7 +157,7 @@ pub const DIPPR101_EXPONENTS: [Option<f64>; 5] = [None, Some(2.0), Some(6.0), So
 
 /// Fit ln y = A + B/T + C ln T + D T^E (DIPPR 101) for each exponent of [`DIPPR101_EXPONENTS`]; keep the
 /// candidate with the smallest maximum relative error among those that pass `acceptable` (a shape check,
-/// e.g. monotonic over the range the model may evaluate). Returns [A, B, C, D, E] and the max error.
+/// e.g. monotonic over the range the model may evaluate). Returns \[A, B, C, D, E\] and the max error.
 fn fit_dippr101(ts: &[f64], ys: &[f64], acceptable: impl Fn(&Form) -> bool) -> Result<([f64; 5], f64), TableError> {
     let rhs: Vec<f64> = ys.iter().map(|y| y.ln()).collect();
     let mut best: Option<([f64; 5], f64)> = None;
@@ -189,7 +189,7 @@ fn fit_dippr101(ts: &[f64], ys: &[f64], acceptable: impl Fn(&Form) -> bool) -> R
     best.ok_or_else(|| TableError::Fit("surrogate: no ln-form (DIPPR 101) fit with an acceptable shape".into()))
 }
 
-/// True when `form` is strictly monotonic (increasing if `increasing`) on a fine grid over [lo, hi].
+/// True when `form` is strictly monotonic (increasing if `increasing`) on a fine grid over \[lo, hi\].
 fn monotonic(form: &Form, lo: f64, hi: f64, increasing: bool) -> bool {
     let n = 400;
     let mut prev = form.eval(lo, 0.0, 1e4);
@@ -244,13 +244,13 @@ fn surrogate_id(name: &str) -> String {
     }
 }
 
-/// Root of an increasing function on [lo, hi] (Brent's method, `numerics`); None without a sign change.
+/// Root of an increasing function on \[lo, hi\] (Brent's method, `numerics`); None without a sign change.
 fn increasing_root(f: impl FnMut(f64) -> f64, lo: f64, hi: f64) -> Option<f64> {
     crate::numerics::root::brent(f, lo, hi, Tolerance::relative(1e-12)).ok().map(|r| r.x)
 }
 
 impl SurrogateBasis {
-    /// Fit the mixture curves of `fuel`'s initial liquid over `liquid_range` and `vapor_range` [K]; the
+    /// Fit the mixture curves of `fuel`'s initial liquid over `liquid_range` and `vapor_range` \[K\]; the
     /// Fuller diffusion volume is matched in `gas`.
     pub fn new(fuel: &Fuel, gas: &AmbientGas, liquid_range: (f64, f64), vapor_range: (f64, f64)) -> Result<Self, TableError> {
         let comps = &fuel.components;
@@ -406,7 +406,7 @@ pub struct Surrogate {
 
 impl Surrogate {
     /// The latent-heat scaling cells of a surrogate-table row with latent heat `latent_heat` (None outside the
-    /// liquid range): the factor g, the unscaled latent heat L/g and the excess L − L/g [-, J/kg, J/kg].
+    /// liquid range): the factor g, the unscaled latent heat L/g and the excess L − L/g \[-, J/kg, J/kg\].
     pub fn scaling_cells(&self, latent_heat: Option<f64>) -> [Option<f64>; 3] {
         let g = self.parameters.latent_heat_factor;
         match latent_heat {

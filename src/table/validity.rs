@@ -71,11 +71,11 @@ pub struct RowValidity {
     pub validity: Validity,
     /// Property keys evaluated outside their valid range by some component.
     pub extrapolated_properties: Vec<&'static str>,
-    /// Mole fraction of the liquid above its own critical temperature [-].
+    /// Mole fraction of the liquid above its own critical temperature \[-\].
     pub supercritical_share: f64,
-    /// Mole fraction of the liquid between 0.9 Tc and Tc of its own [-].
+    /// Mole fraction of the liquid between 0.9 Tc and Tc of its own \[-\].
     pub near_critical_share: f64,
-    /// Mole fraction of the liquid with some property (among the keys graded) outside its valid range [-].
+    /// Mole fraction of the liquid with some property (among the keys graded) outside its valid range \[-\].
     pub extrapolated_share: f64,
 }
 

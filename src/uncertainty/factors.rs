@@ -61,7 +61,7 @@ pub struct Factor {
 
 impl Factor {
     /// Sampled value of the factor for a standard draw z: the condition value (SI), the composition factor or
-    /// the property factor [-].
+    /// the property factor \[-\].
     pub fn value(&self, z: f64) -> f64 {
         match &self.kind {
             FactorKind::Condition { key, nominal, spread } => {

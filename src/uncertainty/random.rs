@@ -13,7 +13,7 @@ pub fn mix64(mut z: u64) -> u64 {
     z ^ (z >> 31)
 }
 
-/// FNV-1a hash of a name [-]: a stable key for a factor, independent of which other factors exist.
+/// FNV-1a hash of a name \[-\]: a stable key for a factor, independent of which other factors exist.
 pub fn name_key(name: &str) -> u64 {
     let mut h: u64 = 0xcbf2_9ce4_8422_2325;
     for b in name.bytes() {

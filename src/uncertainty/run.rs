@@ -50,7 +50,7 @@ pub const RESIDUE_KEYS: [(&str, &str); 6] = [
     ("dcn", "DCN"),
 ];
 
-/// Evaporated fraction at which the residue outputs of the sensitivity ranking are taken [-].
+/// Evaporated fraction at which the residue outputs of the sensitivity ranking are taken \[-\].
 pub const RANKED_RESIDUE_FRACTION: f64 = 0.5;
 
 /// Outputs ranked by sensitivity: (column name, description).
@@ -76,9 +76,9 @@ pub struct Settings {
     pub threads: usize,
     /// Points of the common time grid.
     pub grid_points: usize,
-    /// End of the time grid as a multiple of the deterministic lifetime [-].
+    /// End of the time grid as a multiple of the deterministic lifetime \[-\].
     pub grid_extent: f64,
-    /// Evaporated fractions of the residue bands [-].
+    /// Evaporated fractions of the residue bands \[-\].
     pub residue_fractions: Vec<f64>,
     /// Options of the residue indicators.
     pub indicator_options: IndicatorOptions,
@@ -135,7 +135,7 @@ pub struct SampleRecord {
     pub t50: Option<f64>,
     /// Highest surface temperature \[K\].
     pub max_surface_temperature: Option<f64>,
-    /// (d/d0)² on the time grid (0 after the droplet is gone) [-].
+    /// (d/d0)² on the time grid (0 after the droplet is gone) \[-\].
     pub d2: Vec<Option<f64>>,
     /// Surface temperature on the time grid (none after the droplet is gone) \[K\].
     pub surface_temperature: Vec<Option<f64>>,
@@ -159,24 +159,24 @@ impl SampleRecord {
 pub struct HistoryBands {
     /// Grid times \[s\].
     pub time: Vec<f64>,
-    /// Grid times over the deterministic lifetime [-].
+    /// Grid times over the deterministic lifetime \[-\].
     pub normalised_time: Vec<f64>,
-    /// (d/d0)² percentiles 5/50/95 [-].
+    /// (d/d0)² percentiles 5/50/95 \[-\].
     pub d2: Vec<[Option<f64>; 3]>,
-    /// Deterministic (d/d0)² [-].
+    /// Deterministic (d/d0)² \[-\].
     pub d2_deterministic: Vec<Option<f64>>,
     /// Surface-temperature percentiles 5/50/95 over the droplets still present, where at least half are \[K\].
     pub surface_temperature: Vec<[Option<f64>; 3]>,
     /// Deterministic surface temperature \[K\].
     pub surface_temperature_deterministic: Vec<Option<f64>>,
-    /// Fraction of the successful samples whose droplet is still present [-].
+    /// Fraction of the successful samples whose droplet is still present \[-\].
     pub present_fraction: Vec<f64>,
 }
 
 /// Percentile bands of the residue indicators against evaporated fraction.
 #[derive(Debug, Clone, Serialize)]
 pub struct ResidueBands {
-    /// Evaporated fractions [-].
+    /// Evaporated fractions \[-\].
     pub fractions: Vec<f64>,
     /// Per fraction, per indicator of [`RESIDUE_KEYS`]: percentiles 5/50/95 (SI).
     pub bands: Vec<[[Option<f64>; 3]; 6]>,

@@ -6,10 +6,10 @@ use crate::numerics::linalg;
 
 use serde::Serialize;
 
-/// The percentiles every band reports [%].
+/// The percentiles every band reports \[%\].
 pub const PERCENTILES: [f64; 3] = [5.0, 50.0, 95.0];
 
-/// Percentile `q` [%] of sorted finite values: linear interpolation between order statistics at position
+/// Percentile `q` \[%\] of sorted finite values: linear interpolation between order statistics at position
 /// (n − 1) q/100 (Hyndman & Fan 1996, definition 7); `None` for no values.
 pub fn percentile_sorted(sorted: &[f64], q: f64) -> Option<f64> {
     match sorted.len() {
@@ -121,7 +121,7 @@ pub fn spearman(x: &[Option<f64>], y: &[Option<f64>]) -> Option<f64> {
 
 /// Adjusted coefficient of determination of a least-squares fit of the ranks of `y` on the ranks of the
 /// columns of `x` (standardised rank regression): the share of the output's rank variance the inputs explain
-/// together, corrected for the fit's degrees of freedom, 1 − (1 − R²)(n − 1)/(n − m − 1), held in [0, 1].
+/// together, corrected for the fit's degrees of freedom, 1 − (1 − R²)(n − 1)/(n − m − 1), held in \[0, 1\].
 /// For one column it is the adjusted square of Spearman's coefficient. Pairs with a missing or non-finite
 /// value anywhere are skipped; `None` when fewer than m + 3 remain or the columns are degenerate.
 pub fn rank_r2(x: &[Vec<f64>], y: &[Option<f64>]) -> Option<f64> {

@@ -33,13 +33,13 @@ pub enum Quantity {
     Pressure,
     /// Length \[m\].
     Length,
-    /// Velocity [m/s].
+    /// Velocity \[m/s\].
     Velocity,
     /// Time \[s\].
     Time,
     /// Dimensionless number.
     Dimensionless,
-    /// Mass density [kg/m³].
+    /// Mass density \[kg/m³\].
     Density,
 }
 

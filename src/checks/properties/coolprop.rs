@@ -23,7 +23,7 @@ struct PropertySpec {
     /// Judge the whole window, also where the library extends the published correlation (the extension
     /// methods are what is checked), and dilute-gas rows above the EOS T_max.
     whole_window: bool,
-    /// Dilute-gas window [K] (liquid properties use Tb − 60 K … 0.85 Tc).
+    /// Dilute-gas window \[K\] (liquid properties use Tb − 60 K … 0.85 Tc).
     gas_window: (f64, f64),
 }
 

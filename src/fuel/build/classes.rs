@@ -24,7 +24,7 @@ use super::{fuel_file_text, input_error, read_back, BuildError, BuiltFuel, Compo
 pub const MAX_STRUCTURE_DISTANCE: u32 = 4;
 /// Carbon numbers accepted in a table (the design range is C6–C22).
 pub const CARBON_RANGE: std::ops::RangeInclusive<u32> = 5..=30;
-/// How far the table total may be from 100 % before it is refused (it is renormalised within this) [%].
+/// How far the table total may be from 100 % before it is refused (it is renormalised within this) \[%\].
 pub const SUM_TOLERANCE_PERCENT: f64 = 10.0;
 
 /// The classes a table may use, in display order.
@@ -100,7 +100,7 @@ pub struct ClassTable {
     pub name: String,
     /// Description.
     pub description: String,
-    /// Mass percent per cell, as given (not renormalised) [%].
+    /// Mass percent per cell, as given (not renormalised) \[%\].
     pub cells: BTreeMap<(HydrocarbonClass, u32), f64>,
     /// Per-cell overrides of the mapping rule: library component id.
     pub map: BTreeMap<(HydrocarbonClass, u32), String>,
@@ -270,7 +270,7 @@ impl ClassTable {
         Ok(())
     }
 
-    /// Sum of the cells [%].
+    /// Sum of the cells \[%\].
     pub fn total_percent(&self) -> f64 {
         self.cells.values().sum()
     }
@@ -335,7 +335,7 @@ pub struct CellRow {
     pub class: HydrocarbonClass,
     /// Carbon number.
     pub carbon_number: u32,
-    /// Mass percent after renormalisation [%].
+    /// Mass percent after renormalisation \[%\].
     pub mass_percent: f64,
     /// Component id used.
     pub component: String,
@@ -350,11 +350,11 @@ pub struct CellRow {
 pub struct ClassReport {
     /// One row per non-empty cell.
     pub cells: Vec<CellRow>,
-    /// Mass mapped to library components [%].
+    /// Mass mapped to library components \[%\].
     pub library_mass_percent: f64,
-    /// Mass given to estimated components [%].
+    /// Mass given to estimated components \[%\].
     pub estimated_mass_percent: f64,
-    /// The table total before renormalisation [%].
+    /// The table total before renormalisation \[%\].
     pub table_total_percent: f64,
     /// Notices.
     pub notes: Vec<String>,

@@ -41,7 +41,7 @@ pub struct DistillationCurve {
     pub kind: CurveKind,
     /// (volume % recovered, temperature \[K\]), increasing.
     pub points: Vec<(f64, f64)>,
-    /// 15 °C density given in the file [kg/m³].
+    /// 15 °C density given in the file \[kg/m³\].
     pub density_15c: Option<f64>,
     /// Where the curve came from.
     pub origin: String,
@@ -82,7 +82,7 @@ fn parse_density(text: &str, context: &str) -> Result<f64, BuildError> {
     check_density(rho, context)
 }
 
-/// Check a 15 °C density is a plausible liquid-fuel density [kg/m³].
+/// Check a 15 °C density is a plausible liquid-fuel density \[kg/m³\].
 pub fn check_density(rho: f64, context: &str) -> Result<f64, BuildError> {
     if !(rho.is_finite() && (550.0..=1100.0).contains(&rho)) {
         return Err(input_error(context, format!("density {rho} kg/m³ is outside 550–1100 kg/m³")));

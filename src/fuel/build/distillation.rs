@@ -83,7 +83,7 @@ pub enum CutFit {
 pub struct DistillationOptions {
     /// Fuel name (default: the curve's).
     pub name: Option<String>,
-    /// 15 °C density [kg/m³] (overrides the file's).
+    /// 15 °C density \[kg/m³\] (overrides the file's).
     pub density_15c: Option<f64>,
     /// Number of pseudo-components.
     pub pseudo_components: usize,
@@ -105,7 +105,7 @@ impl Default for DistillationOptions {
 pub const DEFAULT_PSEUDO_COMPONENTS: usize = 12;
 /// Allowed numbers of pseudo-components.
 pub const PSEUDO_RANGE: std::ops::RangeInclusive<usize> = 3..=60;
-/// Calibration points lie between these percentages recovered [%].
+/// Calibration points lie between these percentages recovered \[%\].
 pub const CALIBRATION_RANGE: (f64, f64) = (5.0, 95.0);
 /// Calibration stops when every residual is below this \[K\].
 pub const CALIBRATION_TOLERANCE: f64 = 0.05;
@@ -118,31 +118,31 @@ pub const CALIBRATION_ITERATIONS: usize = 30;
 pub struct CutRow {
     /// Component id.
     pub id: String,
-    /// Cut start [% recovered].
+    /// Cut start \[% recovered\].
     pub from_percent: f64,
-    /// Cut end [% recovered].
+    /// Cut end \[% recovered\].
     pub to_percent: f64,
     /// Volume-average TBP of the cut before calibration \[K\].
     pub tbp_K: f64,
     /// Boiling point used \[K\].
     pub boiling_point_K: f64,
-    /// Specific gravity 60/60 °F [-].
+    /// Specific gravity 60/60 °F \[-\].
     pub specific_gravity: f64,
-    /// Molar mass [kg/mol].
+    /// Molar mass \[kg/mol\].
     pub molar_mass_kg_mol: f64,
     /// Critical temperature \[K\].
     pub critical_temperature_K: f64,
     /// Critical pressure \[Pa\].
     pub critical_pressure_Pa: f64,
-    /// Acentric factor [-].
+    /// Acentric factor \[-\].
     pub acentric_factor: f64,
     /// Formula as text.
     pub formula: String,
-    /// Hydrogen mass fraction [-].
+    /// Hydrogen mass fraction \[-\].
     pub hydrogen_mass_fraction: f64,
-    /// Lower heating value [J/kg].
+    /// Lower heating value \[J/kg\].
     pub lhv_J_kg: f64,
-    /// Cetane number estimate [-].
+    /// Cetane number estimate \[-\].
     pub cetane_number: f64,
 }
 
@@ -168,11 +168,11 @@ pub struct CurvePoint {
 pub struct DistillationReport {
     /// Curve kind of the input.
     pub curve: CurveKind,
-    /// Target 15 °C density [kg/m³].
+    /// Target 15 °C density \[kg/m³\].
     pub target_density_kg_m3: f64,
-    /// Density of the built fuel at 15 °C (volume additivity) [kg/m³].
+    /// Density of the built fuel at 15 °C (volume additivity) \[kg/m³\].
     pub built_density_kg_m3: f64,
-    /// Watson factor shared by the cuts [-].
+    /// Watson factor shared by the cuts \[-\].
     pub watson_k: f64,
     /// Cut fit mode.
     pub fit: CutFit,
@@ -196,7 +196,7 @@ fn interp_flat(points: &[(f64, f64)], x: f64) -> f64 {
     interp::linear(points, x, Extrapolation::Hold).unwrap_or(0.0)
 }
 
-/// Volume-average of a piecewise-linear curve over [a, b] (exact for the linear pieces: the breakpoints are
+/// Volume-average of a piecewise-linear curve over \[a, b\] (exact for the linear pieces: the breakpoints are
 /// included as nodes).
 fn average(points: &[(f64, f64)], a: f64, b: f64) -> f64 {
     let mut xs = vec![a, b];
@@ -209,7 +209,7 @@ fn average(points: &[(f64, f64)], a: f64, b: f64) -> f64 {
     s / (b - a)
 }
 
-/// Rackett Z_RA that makes the Spencer–Danner density equal `rho` at `t` [-].
+/// Rackett Z_RA that makes the Spencer–Danner density equal `rho` at `t` \[-\].
 fn rackett_z_for(rho: f64, t: f64, tc: f64, pc: f64, molar_mass: f64) -> f64 {
     let tr = (t / tc).min(crate::props::pure::MAX_REDUCED_TEMPERATURE);
     (molar_mass * pc / (rho * GAS_CONSTANT * tc)).powf(1.0 / (1.0 + (1.0 - tr).powf(2.0 / 7.0)))

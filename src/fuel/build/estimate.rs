@@ -37,7 +37,7 @@ impl GroupMethod {
     }
 }
 
-/// Constantinou & Gani (1994) first-order contributions (tb1, tc1, pc1 [bar^-0.5], vc1 [m³/kmol]) of the
+/// Constantinou & Gani (1994) first-order contributions (tb1, tc1, pc1 \[bar^-0.5\], vc1 \[m³/kmol\]) of the
 /// acyclic alkane groups, as recalled in the physics notes (B.11, M: they reproduce n-alkane data closely).
 const CG_GROUPS: [(&str, f64, f64, f64, f64); 4] = [
     ("CH3", 0.8894, 1.6781, 0.019904, 0.07504),
@@ -46,7 +46,7 @@ const CG_GROUPS: [(&str, f64, f64, f64, f64); 4] = [
     ("C", 0.2878, 4.8823, -0.010404, -0.00034),
 ];
 
-/// Constantinou–Gani first-order estimates (Tb \[K\], Tc \[K\], pc \[Pa\], Vc [m³/mol]) for groups among
+/// Constantinou–Gani first-order estimates (Tb \[K\], Tc \[K\], pc \[Pa\], Vc \[m³/mol\]) for groups among
 /// CH3 CH2 CH C; None when another group is present.
 pub fn constantinou_gani(groups: &joback::Groups) -> Option<(f64, f64, f64, f64)> {
     let mut s = [0.0; 4];
@@ -172,7 +172,7 @@ pub fn minimum_carbon_number(class: HydrocarbonClass) -> Option<u32> {
 
 /// Representative molecule of a class at carbon number `n`, as Joback groups, and its name:
 /// n-alkane = CnH2n+2; iso-alkane = 2-methyl-(n−1)-alkane; monocycloalkane = n-alkylcyclohexane;
-/// dicycloalkane = bicyclo[3.3.0]octane (C8), hydrindane (C9), decalin (C10), n-alkyl-decalin (C11+);
+/// dicycloalkane = bicyclo\[3.3.0\]octane (C8), hydrindane (C9), decalin (C10), n-alkyl-decalin (C11+);
 /// alkylbenzene = n-alkylbenzene; cycloaromatic = indane (C9), tetralin (C10), n-alkyl-tetralin on the
 /// aromatic ring (C11+); diaromatic = naphthalene (C10), n-alkyl-naphthalene (C11+).
 pub fn representative_groups(class: HydrocarbonClass, n: u32) -> Option<(Vec<(&'static Group, u32)>, String)> {

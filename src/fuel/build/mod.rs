@@ -95,7 +95,7 @@ impl Value {
 /// An ideal-gas heat capacity polynomial cp = Σ c_k T^k in J/(mol·K) (DIPPR 100 form).
 #[derive(Debug, Clone, PartialEq, serde::Serialize)]
 pub struct CpPolynomial {
-    /// Coefficients c0..c3 [J/(mol·K), T in K].
+    /// Coefficients c0..c3 \[J/(mol·K), T in K\].
     pub coefficients: Vec<f64>,
     /// Lowest temperature of use \[K\].
     pub t_min: f64,
@@ -235,12 +235,12 @@ fn write_csp(s: &mut String, header: &str, source: &str, what: &str) {
     let _ = writeln!(s, "\n{header}\nmodel = \"corresponding-states\"\nsource = {}\nnote = {}", toml_str(source), toml_str(what));
 }
 
-/// Molar mass of a formula with conventional atomic weights (C 12.011, H 1.008, O 15.999) [kg/mol].
+/// Molar mass of a formula with conventional atomic weights (C 12.011, H 1.008, O 15.999) \[kg/mol\].
 pub fn formula_molar_mass(carbon: u32, hydrogen: u32, oxygen: u32) -> f64 {
     12.011e-3 * f64::from(carbon) + 1.008e-3 * f64::from(hydrogen) + 15.999e-3 * f64::from(oxygen)
 }
 
-/// Lower heating value of a liquid from its formula and liquid enthalpy of formation at 298.15 K [J/kg]
+/// Lower heating value of a liquid from its formula and liquid enthalpy of formation at 298.15 K \[J/kg\]
 /// (CODATA ΔHf CO2(g) −393.51, H2O(g) −241.826 kJ/mol; water leaves as vapour).
 pub fn lhv_from_formation(carbon: u32, hydrogen: u32, liquid_formation_enthalpy: f64, molar_mass: f64) -> f64 {
     let products = f64::from(carbon) * -393.51e3 + f64::from(hydrogen) / 2.0 * -241.826e3;
@@ -265,7 +265,7 @@ pub fn kebab_id(name: &str) -> String {
 pub struct CompositionLine {
     /// Component id (library or embedded).
     pub id: String,
-    /// Fraction on the file's basis [-].
+    /// Fraction on the file's basis \[-\].
     pub fraction: f64,
     /// Comment written after the line.
     pub comment: String,

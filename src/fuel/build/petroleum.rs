@@ -20,20 +20,20 @@
 use crate::numerics::interp::{self, Extrapolation};
 use crate::data::GAS_CONSTANT;
 
-/// Density of water at 60 °F used to turn a 15 °C density into a specific gravity [kg/m³].
+/// Density of water at 60 °F used to turn a 15 °C density into a specific gravity \[kg/m³\].
 pub const WATER_DENSITY_60F: f64 = 999.0;
 
-/// Specific gravity 60/60 °F from a density at 15 °C [-] (SG ≈ ρ15 / 999.0 kg/m³).
+/// Specific gravity 60/60 °F from a density at 15 °C \[-\] (SG ≈ ρ15 / 999.0 kg/m³).
 pub fn specific_gravity(density_15c: f64) -> f64 {
     density_15c / WATER_DENSITY_60F
 }
 
-/// Watson characterisation factor K_W = (1.8 Tb)^(1/3) / SG [-] (Tb in K, i.e. the cube root of Tb in °R).
+/// Watson characterisation factor K_W = (1.8 Tb)^(1/3) / SG \[-\] (Tb in K, i.e. the cube root of Tb in °R).
 pub fn watson_k(tb: f64, sg: f64) -> f64 {
     (1.8 * tb).cbrt() / sg
 }
 
-/// Specific gravity of a cut with boiling point `tb` \[K\] at a given Watson factor [-].
+/// Specific gravity of a cut with boiling point `tb` \[K\] at a given Watson factor \[-\].
 pub fn sg_from_watson(tb: f64, k_w: f64) -> f64 {
     (1.8 * tb).cbrt() / k_w
 }
@@ -45,12 +45,12 @@ pub struct CutConstants {
     pub critical_temperature: f64,
     /// Critical pressure \[Pa\].
     pub critical_pressure: f64,
-    /// Molar mass [kg/mol].
+    /// Molar mass \[kg/mol\].
     pub molar_mass: f64,
 }
 
 /// Riazi & Daubert (1980), Hydrocarbon Processing 59(3) 115: θ = a Tb^b SG^c with Tb in K;
-/// Tc \[K\], pc \[bar\], W [g/mol]. Returned in SI.
+/// Tc \[K\], pc \[bar\], W \[g/mol\]. Returned in SI.
 pub fn riazi_daubert_1980(tb: f64, sg: f64) -> CutConstants {
     let tc = 19.06232 * tb.powf(0.58848) * sg.powf(0.3596);
     let pc_bar = 5.53027e7 * tb.powf(-2.3125) * sg.powf(2.3201);
@@ -59,7 +59,7 @@ pub fn riazi_daubert_1980(tb: f64, sg: f64) -> CutConstants {
 }
 
 /// Riazi & Daubert (1987), Ind. Eng. Chem. Res. 26, 755: θ = a exp(b Tb + c SG + d Tb SG) Tb^e SG^f with Tb
-/// in K; W [g/mol], Tc \[K\], pc \[bar\]. Returned in SI.
+/// in K; W \[g/mol\], Tc \[K\], pc \[bar\]. Returned in SI.
 pub fn riazi_daubert_1987(tb: f64, sg: f64) -> CutConstants {
     let f = |a: f64, b: f64, c: f64, d: f64, e: f64, g: f64| a * (b * tb + c * sg + d * tb * sg).exp() * tb.powf(e) * sg.powf(g);
     let w = f(42.965, 2.097e-4, -7.78712, 2.08476e-3, 1.26007, 4.98308);
@@ -68,12 +68,12 @@ pub fn riazi_daubert_1987(tb: f64, sg: f64) -> CutConstants {
     CutConstants { critical_temperature: tc, critical_pressure: pc_bar * 1e5, molar_mass: w * 1e-3 }
 }
 
-/// Edmister (1958) acentric factor ω = (3/7) log10(pc / 1 atm) / (Tc/Tb − 1) − 1 [-].
+/// Edmister (1958) acentric factor ω = (3/7) log10(pc / 1 atm) / (Tc/Tb − 1) − 1 \[-\].
 pub fn edmister_acentric_factor(tb: f64, tc: f64, pc: f64) -> f64 {
     3.0 / 7.0 * (pc / 101_325.0).log10() / (tc / tb - 1.0) - 1.0
 }
 
-/// Critical molar volume from the Lee & Kesler (1975) critical compressibility Zc = 0.2905 − 0.085 ω [m³/mol].
+/// Critical molar volume from the Lee & Kesler (1975) critical compressibility Zc = 0.2905 − 0.085 ω \[m³/mol\].
 pub fn lee_kesler_critical_volume(tc: f64, pc: f64, omega: f64) -> f64 {
     (0.2905 - 0.085 * omega) * GAS_CONSTANT * tc / pc
 }
@@ -119,8 +119,8 @@ fn interp_held(points: &[(f64, f64)], x: f64) -> f64 {
     interp::linear(points, x, Extrapolation::Hold).unwrap_or(0.0)
 }
 
-/// Differences (percent, TBP − D86 [K]) at the tabulated percentages inside the curve's range: the curve
-/// (sorted (percent, T [K]) points) is interpolated linearly to each tabulated percentage and converted there
+/// Differences (percent, TBP − D86 \[K\]) at the tabulated percentages inside the curve's range: the curve
+/// (sorted (percent, T \[K\]) points) is interpolated linearly to each tabulated percentage and converted there
 /// with the Riazi–Daubert (1986) law (`forward` = the curve is D86, else it is TBP and the law is inverted).
 fn tabulated_differences(points: &[(f64, f64)], forward: bool) -> Vec<(f64, f64)> {
     let (lo, hi) = (points[0].0, points[points.len() - 1].0);
@@ -162,7 +162,7 @@ pub fn tbp_curve_to_d86(points: &[(f64, f64)]) -> Vec<(f64, f64)> {
     points.iter().map(|(p, t)| (*p, t - interp_held(&d, *p))).collect()
 }
 
-/// Riazi (1986) carbon-to-hydrogen weight ratio of a petroleum fraction [-] (Tb in K):
+/// Riazi (1986) carbon-to-hydrogen weight ratio of a petroleum fraction \[-\] (Tb in K):
 /// CH = 8.7743e-10 exp(7.176e-3 Tb + 30.06242 SG − 7.35e-3 Tb SG) Tb^−0.98445 SG^−18.2753.
 pub fn riazi_carbon_hydrogen_ratio(tb: f64, sg: f64) -> f64 {
     8.7743e-10 * (7.176e-3 * tb + 30.06242 * sg - 7.35e-3 * tb * sg).exp() * tb.powf(-0.98445) * sg.powf(-18.2753)
@@ -186,19 +186,19 @@ pub fn kesler_lee_cp_coefficients(k_w: f64, omega: f64, molar_mass: f64) -> ([f6
     (p, vertex)
 }
 
-/// Channiwala & Parikh (2002) higher heating value from the elemental mass percentages (C, H, O) [J/kg]:
-/// HHV [MJ/kg] = 0.3491 C + 1.1783 H − 0.1034 O (S, N and ash taken as zero).
+/// Channiwala & Parikh (2002) higher heating value from the elemental mass percentages (C, H, O) \[J/kg\]:
+/// HHV \[MJ/kg\] = 0.3491 C + 1.1783 H − 0.1034 O (S, N and ash taken as zero).
 pub fn channiwala_parikh_hhv(carbon_percent: f64, hydrogen_percent: f64, oxygen_percent: f64) -> f64 {
     (0.3491 * carbon_percent + 1.1783 * hydrogen_percent - 0.1034 * oxygen_percent) * 1e6
 }
 
-/// Lower heating value from the higher one and the hydrogen mass fraction [J/kg]: LHV = HHV − 2.442 MJ/kg ×
+/// Lower heating value from the higher one and the hydrogen mass fraction \[J/kg\]: LHV = HHV − 2.442 MJ/kg ×
 /// 8.937 w_H (water formed leaves as vapour; latent heat of water at 25 °C).
 pub fn lhv_from_hhv(hhv: f64, hydrogen_mass_fraction: f64) -> f64 {
     hhv - 2.442e6 * 8.937 * hydrogen_mass_fraction
 }
 
-/// ASTM D976 calculated cetane index (two-variable, SI form) from the 15 °C density [kg/m³] and the
+/// ASTM D976 calculated cetane index (two-variable, SI form) from the 15 °C density \[kg/m³\] and the
 /// mid-boiling temperature \[K\]: CCI = 454.74 − 1641.416 D + 774.74 D² − 0.554 B + 97.803 (log10 B)²,
 /// D in g/mL, B in °C. Intended for distillate fuels (about 30–60 CN); outside that, an extrapolation.
 pub fn astm_d976_cetane_index(density_15c: f64, mid_boiling_point: f64) -> f64 {
@@ -207,7 +207,7 @@ pub fn astm_d976_cetane_index(density_15c: f64, mid_boiling_point: f64) -> f64 {
     454.74 - 1641.416 * d + 774.74 * d * d - 0.554 * b + 97.803 * b.log10().powi(2)
 }
 
-/// Won (1986) melting point of the n-paraffin of molar mass `molar_mass` [kg/mol]:
+/// Won (1986) melting point of the n-paraffin of molar mass `molar_mass` \[kg/mol\]:
 /// Tm = 374.5 + 0.02617 W − 20172/W (W in g/mol) \[K\].
 pub fn won_n_paraffin_melting_point(molar_mass: f64) -> f64 {
     let w = molar_mass * 1e3;

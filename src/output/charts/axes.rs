@@ -57,7 +57,7 @@ pub(super) fn padded_range(values: impl Iterator<Item = f64>, pad: f64, from_zer
     (lo2, hi + pad * span)
 }
 
-/// Time axis scale for a largest time [s]: (factor, unit).
+/// Time axis scale for a largest time \[s\]: (factor, unit).
 pub fn time_scale(max_time: f64) -> (f64, &'static str) {
     if max_time < 2e-4 {
         (1e6, "µs")

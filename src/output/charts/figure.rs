@@ -59,7 +59,7 @@ pub fn run_color(i: usize) -> RGBColor {
     PALETTE[i % PALETTE.len()]
 }
 
-/// `color` blended with white (share of the colour in [0, 1]): a legend swatch for a translucent band.
+/// `color` blended with white (share of the colour in \[0, 1\]): a legend swatch for a translucent band.
 pub fn lighter(color: RGBColor, share: f64) -> RGBColor {
     let m = |c: u8| (f64::from(c) * share + 255.0 * (1.0 - share)).round().clamp(0.0, 255.0) as u8;
     RGBColor(m(color.0), m(color.1), m(color.2))

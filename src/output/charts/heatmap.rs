@@ -3,7 +3,7 @@
 #[allow(unused_imports)]
 use super::*;
 
-/// Sequential colour scale (dark blue → teal → green → yellow) at t in [0, 1].
+/// Sequential colour scale (dark blue → teal → green → yellow) at t in \[0, 1\].
 pub(super) fn heat_color(t: f64) -> RGBColor {
     const ANCHORS: [(u8, u8, u8); 5] = [(38, 24, 96), (36, 94, 150), (30, 150, 138), (118, 192, 84), (246, 222, 62)];
     let t = if t.is_finite() { t.clamp(0.0, 1.0) } else { 0.0 };

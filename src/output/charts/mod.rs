@@ -183,7 +183,7 @@ pub struct Chart {
     pub legend_title: String,
     /// Legend entries, top to bottom.
     pub legend: Vec<LegendEntry>,
-    /// Image size [px].
+    /// Image size \[px\].
     pub size: (u32, u32),
 }
 
@@ -194,11 +194,11 @@ pub struct GridMap {
     pub title: String,
     /// Subtitle, may be empty.
     pub subtitle: String,
-    /// x-axis label with unit, e.g. "ambient temperature [K]".
+    /// x-axis label with unit, e.g. "ambient temperature \[K\]".
     pub x_label: String,
-    /// y-axis label with unit, e.g. "initial diameter [µm]".
+    /// y-axis label with unit, e.g. "initial diameter \[µm\]".
     pub y_label: String,
-    /// Label of the mapped value with unit, e.g. "lifetime [ms]".
+    /// Label of the mapped value with unit, e.g. "lifetime \[ms\]".
     pub value_label: String,
     /// The swept x values, increasing, in display units.
     pub x: Vec<f64>,

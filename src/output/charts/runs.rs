@@ -79,7 +79,7 @@ pub(super) fn single_or_overlay(runs: &[LabelledRun], title: &str, subtitle: &st
     }
 }
 
-/// (d/d0)² against t/d0² [s/mm²], one curve per run.
+/// (d/d0)² against t/d0² \[s/mm²\], one curve per run.
 pub fn d2_chart(runs: &[LabelledRun], stem: &str, subtitle: &str) -> Result<Chart, OutputError> {
     let series = overlay(runs, |run| {
         let h = &run.history;
@@ -110,7 +110,7 @@ pub fn surface_temperature_chart(runs: &[LabelledRun], stem: &str, subtitle: &st
     Ok(single_or_overlay(runs, "Droplet surface temperature", subtitle, stem, panel))
 }
 
-/// Evaporated fraction [%] against time, one curve per run.
+/// Evaporated fraction \[%\] against time, one curve per run.
 pub fn evaporated_fraction_chart(runs: &[LabelledRun], stem: &str, subtitle: &str) -> Result<Chart, OutputError> {
     let (f, unit) = time_scale(max_time(runs));
     let series = overlay(runs, |run| Ok(run_points(run, &run.history.numbers("time_s")?, &run.history.numbers("evaporated_fraction")?, f, 100.0, 0.0)))?;

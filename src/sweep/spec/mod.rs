@@ -134,9 +134,9 @@ pub struct SweepFuel {
 /// Model options of a sweep (the same for every case).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct ModelOptions {
-    /// Reference-state weight of the film (1/3 rule) [-].
+    /// Reference-state weight of the film (1/3 rule) \[-\].
     pub reference_weight: f64,
-    /// Remaining mass fraction that counts as evaporated [-].
+    /// Remaining mass fraction that counts as evaporated \[-\].
     pub end_mass_fraction: f64,
 }
 

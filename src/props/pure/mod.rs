@@ -4,173 +4,23 @@
 use crate::data::component::{Extensions, WilhoitCoefficients};
 use crate::data::{Component, Correlation, Form, HydrocarbonClass, GAS_CONSTANT};
 
-/// Highest reduced temperature at which corresponding-states liquid forms are evaluated.
-pub const MAX_REDUCED_TEMPERATURE: f64 = 0.99;
 
-/// Neufeld et al. (1972) collision integral for viscosity, Ω_v(T*).
-#[inline]
-pub fn neufeld_omega_viscosity(t_star: f64) -> f64 {
-    1.16145 * t_star.powf(-0.14874) + 0.52487 * (-0.77320 * t_star).exp() + 2.16178 * (-2.43787 * t_star).exp()
-}
-
-/// Neufeld et al. (1972) collision integral for diffusion, Ω_D(T*).
-#[inline]
-pub fn neufeld_omega_diffusion(t_star: f64) -> f64 {
-    1.06036 / t_star.powf(0.15610) + 0.19300 / (0.47635 * t_star).exp() + 1.03587 / (1.52996 * t_star).exp() + 1.76474 / (3.89411 * t_star).exp()
-}
-
-/// Ambrose–Walton corresponding-states vapour pressure [Pa] (Ambrose & Walton 1989; Poling et al. 2001 eq. 7-4.1).
-pub fn ambrose_walton_vapor_pressure(t: f64, tc: f64, pc: f64, omega: f64) -> f64 {
-    let tr = (t / tc).min(1.0);
-    let tau = 1.0 - tr;
-    let tau15 = tau * tau.sqrt(); // τ^1.5 and τ^2.5 from one square root
-    let tau5 = tau.powi(5);
-    let f = |a: [f64; 4]| (a[0] * tau + a[1] * tau15 + a[2] * tau15 * tau + a[3] * tau5) / tr;
-    let f0 = f([-5.97616, 1.29874, -0.60394, -1.06841]);
-    let f1 = f([-5.03365, 1.11505, -5.41217, -7.46628]);
-    let f2 = f([-0.64771, 2.41539, -4.26979, 3.25259]);
-    pc * (f0 + omega * f1 + omega * omega * f2).exp()
-}
-
-/// Lee–Kesler vapour pressure [Pa] (Lee & Kesler 1975).
-pub fn lee_kesler_vapor_pressure(t: f64, tc: f64, pc: f64, omega: f64) -> f64 {
-    let tr = (t / tc).min(1.0);
-    let f0 = 5.92714 - 6.09648 / tr - 1.28862 * tr.ln() + 0.169347 * tr.powi(6);
-    let f1 = 15.2518 - 15.6875 / tr - 13.4721 * tr.ln() + 0.43577 * tr.powi(6);
-    pc * (f0 + omega * f1).exp()
-}
-
-/// Acentric factor that makes the Lee–Kesler vapour pressure pass through (tb, 1 atm) (Lee & Kesler 1975).
-pub fn lee_kesler_acentric_factor(tb: f64, tc: f64, pc: f64) -> f64 {
-    let tr = tb / tc;
-    let f0 = 5.92714 - 6.09648 / tr - 1.28862 * tr.ln() + 0.169347 * tr.powi(6);
-    let f1 = 15.2518 - 15.6875 / tr - 13.4721 * tr.ln() + 0.43577 * tr.powi(6);
-    ((101_325.0 / pc).ln() - f0) / f1
-}
-
-/// Spencer–Danner modified Rackett saturated-liquid density [kg/m³]; `z_ra` defaults to Yamada–Gunn.
-pub fn rackett_density(t: f64, tc: f64, pc: f64, omega: f64, molar_mass: f64, z_ra: Option<f64>) -> f64 {
-    let z = z_ra.unwrap_or(0.29056 - 0.08775 * omega);
-    let tr = (t / tc).min(MAX_REDUCED_TEMPERATURE);
-    let v = GAS_CONSTANT * tc / pc * z.powf(1.0 + (1.0 - tr).powf(2.0 / 7.0));
-    molar_mass / v
-}
-
-/// Riedel latent heat at the normal boiling point [J/mol] (Riedel 1954; Poling et al. 2001 eq. 7-10.2).
-pub fn riedel_latent_heat_at_boiling(tb: f64, tc: f64, pc: f64) -> f64 {
-    let tbr = tb / tc;
-    1.093 * GAS_CONSTANT * tb * ((pc / 1e5).ln() - 1.013) / (0.930 - tbr)
-}
-
-/// Watson scaling of a latent heat from (t1, l1) to t (Watson 1943), exponent 0.38.
-pub fn watson_latent_heat(t: f64, t1: f64, l1: f64, tc: f64) -> f64 {
-    let tr = (t / tc).min(1.0);
-    let tr1 = t1 / tc;
-    l1 * ((1.0 - tr) / (1.0 - tr1)).max(0.0).powf(0.38)
-}
-
-/// Rowlinson–Bondi liquid heat capacity [J/(mol·K)] from the ideal-gas value (Poling et al. 2001 eq. 6-6.4).
-pub fn rowlinson_bondi_cp(cp_ideal_molar: f64, t: f64, tc: f64, omega: f64) -> f64 {
-    let tr = (t / tc).min(0.98);
-    let x = 1.0 - tr;
-    cp_ideal_molar + GAS_CONSTANT * (1.586 + 0.49 / x + omega * (4.2775 + 6.3 * x.powf(1.0 / 3.0) / tr + 0.4355 / x))
-}
-
-/// Letsou–Stiel liquid viscosity [Pa·s], valid about 0.76 < Tr < 0.98 (Letsou & Stiel 1973, SI form).
-pub fn letsou_stiel_viscosity(t: f64, tc: f64, pc: f64, omega: f64, molar_mass: f64) -> f64 {
-    let tr = (t / tc).min(0.98);
-    let xi = 2173.424 * tc.powf(1.0 / 6.0) / (molar_mass * 1e3).sqrt() / pc.powf(2.0 / 3.0);
-    let xi0 = (1.5174 - 2.135 * tr + 0.75 * tr * tr) * 1e-5;
-    let xi1 = (4.2552 - 7.674 * tr + 3.4 * tr * tr) * 1e-5;
-    (xi0 + omega * xi1) / xi
-}
-
-/// Liquid viscosity [Pa·s]: Letsou–Stiel above Tr = 0.76, Lewis–Squires extrapolation from that anchor below.
-pub fn estimated_liquid_viscosity(t: f64, tc: f64, pc: f64, omega: f64, molar_mass: f64) -> f64 {
-    let t_anchor = 0.76 * tc;
-    if t >= t_anchor {
-        return letsou_stiel_viscosity(t, tc, pc, omega, molar_mass);
-    }
-    // Lewis & Squires (1934): mu^-0.2661 = mu_ref^-0.2661 + (T - T_ref)/233, mu in cP (Poling et al. 2001 eq. 9-10.4).
-    let mu_ref_cp = letsou_stiel_viscosity(t_anchor, tc, pc, omega, molar_mass) * 1e3;
-    let x = mu_ref_cp.powf(-0.2661) + (t - t_anchor) / 233.0;
-    let x = x.max(0.05);
-    x.powf(-1.0 / 0.2661) * 1e-3
-}
-
-/// Sato–Riedel liquid thermal conductivity [W/(m·K)] (Reid, Prausnitz & Poling 1987 eq. 10-9.5).
-pub fn sato_riedel_conductivity(t: f64, tb: f64, tc: f64, molar_mass: f64) -> f64 {
-    let tr = (t / tc).min(MAX_REDUCED_TEMPERATURE);
-    let tbr = tb / tc;
-    1.1053 / (molar_mass * 1e3).sqrt() * (3.0 + 20.0 * (1.0 - tr).powf(2.0 / 3.0)) / (3.0 + 20.0 * (1.0 - tbr).powf(2.0 / 3.0))
-}
-
-/// Brock–Bird surface tension [N/m] (Brock & Bird 1955; Poling et al. 2001 eq. 12-3.5).
-pub fn brock_bird_surface_tension(t: f64, tb: f64, tc: f64, pc: f64) -> f64 {
-    let tr = t / tc;
-    if tr >= 1.0 {
-        return 0.0;
-    }
-    let tbr = tb / tc;
-    let pc_bar = pc / 1e5;
-    let q = 0.1196 * (1.0 + tbr * (pc_bar / 1.01325).ln() / (1.0 - tbr)) - 0.279;
-    (pc_bar.powf(2.0 / 3.0) * tc.powf(1.0 / 3.0) * q * (1.0 - tr).powf(11.0 / 9.0) * 1e-3).max(0.0)
-}
-
-/// Chung et al. (1988) low-pressure gas viscosity [Pa·s] for a non-polar molecule.
-pub fn chung_gas_viscosity(t: f64, tc: f64, vc: f64, omega: f64, molar_mass: f64) -> f64 {
-    let t_star = 1.2593 * t / tc;
-    let fc = 1.0 - 0.2756 * omega;
-    // 40.785 Fc sqrt(M T) / (Vc^(2/3) Ω) in µP with M in g/mol and Vc in cm³/mol
-    let mu_micropoise = 40.785 * fc * (molar_mass * 1e3 * t).sqrt() / (vc * 1e6).powf(2.0 / 3.0) / neufeld_omega_viscosity(t_star);
-    mu_micropoise * 1e-7
-}
-
-/// Chung et al. (1984) low-pressure gas conductivity [W/(m·K)] from viscosity and cv.
-#[allow(clippy::approx_constant)] // 0.6366 is the published Chung et al. coefficient, not 2/π
-pub fn chung_gas_conductivity(t: f64, tc: f64, omega: f64, molar_mass: f64, viscosity: f64, cp_ideal_molar: f64) -> f64 {
-    let cv_r = cp_ideal_molar / GAS_CONSTANT - 1.0;
-    let alpha = cv_r - 1.5;
-    let beta = 0.7862 - 0.7109 * omega + 1.3168 * omega * omega;
-    let tr = t / tc;
-    let z = 2.0 + 10.5 * tr * tr;
-    let psi = 1.0 + alpha * ((0.215 + 0.28288 * alpha - 1.061 * beta + 0.26665 * z) / (0.6366 + beta * z + 1.061 * alpha * beta));
-    3.75 * psi * viscosity * GAS_CONSTANT / molar_mass
-}
-
-/// Liquid viscosity from Joback groups below Tr = 0.70, Letsou–Stiel above Tr = 0.76, log-linear blend between;
-/// without usable groups, Letsou–Stiel with the Lewis–Squires extrapolation below Tr = 0.76.
-pub fn estimated_viscosity_with_groups(t: f64, c: &Component) -> f64 {
-    let (tc, pc, omega, w) = (c.critical_temperature(), c.critical_pressure(), c.acentric_factor(), c.molar_mass());
-    let groups = &c.joback_groups;
-    let joback = |t: f64| super::joback::liquid_viscosity(groups, w, t);
-    let (t_lo, t_hi) = (0.70 * tc, 0.76 * tc);
-    match joback(t.min(t_lo)) {
-        None => estimated_liquid_viscosity(t, tc, pc, omega, w),
-        Some(_) if t >= t_hi => letsou_stiel_viscosity(t, tc, pc, omega, w),
-        Some(j) if t <= t_lo => j,
-        Some(_) => {
-            let a = joback(t_lo).unwrap_or(1e-3).ln();
-            let b = letsou_stiel_viscosity(t_hi, tc, pc, omega, w).ln();
-            let s = (t - t_lo) / (t_hi - t_lo);
-            (a + s * (b - a)).exp()
-        }
-    }
-}
+mod methods;
+pub use methods::*;
 
 /// Reduced temperature cap of the takeover from a published liquid-viscosity fit to the Hildebrand fluidity law.
 pub const FLUIDITY_TAKEOVER_REDUCED: f64 = 0.70;
-/// The fluidity law passes through the published fit at the takeover and this far below it [K].
+/// The fluidity law passes through the published fit at the takeover and this far below it \[K\].
 pub const FLUIDITY_SPAN: f64 = 60.0;
-/// Reduced temperatures between which the fluidity law is blended log-linearly into Letsou–Stiel [-].
+/// Reduced temperatures between which the fluidity law is blended log-linearly into Letsou–Stiel \[-\].
 pub const LETSOU_STIEL_BLEND: (f64, f64) = (0.80, 1.00);
-/// The published vapour-conductivity correlation is used up to this multiple of Tc (and its t_max) [-].
+/// The published vapour-conductivity correlation is used up to this multiple of Tc (and its t_max) \[-\].
 pub const VAPOR_CONDUCTIVITY_FIT_LIMIT: f64 = 1.1;
-/// The density-scaled liquid conductivity is checked against reference correlations up to this Tr [-].
+/// The density-scaled liquid conductivity is checked against reference correlations up to this Tr \[-\].
 pub const LIQUID_CONDUCTIVITY_CHECKED_TO: f64 = 0.90;
-/// Temperatures [K] over which the Wilhoit continuation of ideal-gas cp was checked (docs/property-methods.md).
+/// Temperatures \[K\] over which the Wilhoit continuation of ideal-gas cp was checked (docs/property-methods.md).
 pub const WILHOIT_RANGE: (f64, f64) = (50.0, 1500.0);
-/// Upper end [K] of the checked range of the vapour transport extensions (they use the Wilhoit cp).
+/// Upper end \[K\] of the checked range of the vapour transport extensions (they use the Wilhoit cp).
 pub const GAS_TRANSPORT_CHECKED_TO: f64 = 1500.0;
 
 /// Where a property rests on published ground (see [`Component::valid_range`]).
@@ -178,9 +28,9 @@ pub const GAS_TRANSPORT_CHECKED_TO: f64 = 1500.0;
 pub struct ValidRange {
     /// Property key as in the component file.
     pub key: &'static str,
-    /// Lowest temperature [K].
+    /// Lowest temperature \[K\].
     pub low: f64,
-    /// Highest temperature [K].
+    /// Highest temperature \[K\].
     pub high: f64,
     /// The method(s) used over the range.
     pub method: &'static str,
@@ -196,13 +46,13 @@ pub struct RangeExcursion {
     pub property: &'static str,
     /// Method(s) over the valid range.
     pub method: &'static str,
-    /// Lower end of the valid range [K].
+    /// Lower end of the valid range \[K\].
     pub valid_from_K: f64,
-    /// Upper end of the valid range [K].
+    /// Upper end of the valid range \[K\].
     pub valid_to_K: f64,
-    /// How far below the lower end the property was used [K] (0: not below).
+    /// How far below the lower end the property was used \[K\] (0: not below).
     pub below_K: f64,
-    /// How far above the upper end the property was used [K] (0: not above).
+    /// How far above the upper end the property was used \[K\] (0: not above).
     pub above_K: f64,
 }
 
@@ -235,8 +85,8 @@ pub fn merge_excursions(list: impl IntoIterator<Item = RangeExcursion>) -> Vec<R
     out
 }
 
-/// Wilhoit (1975) ideal-gas heat capacity [J/(mol·K)]: cp = cp0 + (cp∞ − cp0) y² [1 + (y − 1)(a0 + a1 y + a2 y²)],
-/// y = T/(T + B), for `w` = (B, [a0, a1, a2], cp0, cp∞).
+/// Wilhoit (1975) ideal-gas heat capacity \[J/(mol·K)\]: cp = cp0 + (cp∞ − cp0) y² \[1 + (y − 1)(a0 + a1 y + a2 y²)\],
+/// y = T/(T + B), for `w` = (B, \[a0, a1, a2\], cp0, cp∞).
 #[inline]
 pub fn wilhoit_cp(t: f64, w: WilhoitCoefficients) -> f64 {
     let (b, a, cp0, cp_inf) = w;
@@ -310,7 +160,7 @@ pub fn fit_extensions(c: &Component) -> Extensions {
     Extensions { fluidity: fit_fluidity(c), wilhoit: fit_component_wilhoit(c), chung_viscosity_factor: chung_viscosity_factor(c.critical_volume(), c.acentric_factor(), c.molar_mass()) }
 }
 
-/// The temperature-independent factor of [`chung_gas_viscosity`]: μ = factor · sqrt(T) / Ω_v(1.2593 T/Tc) [Pa·s/K^½].
+/// The temperature-independent factor of [`chung_gas_viscosity`]: μ = factor · sqrt(T) / Ω_v(1.2593 T/Tc) \[Pa·s/K^½\].
 pub fn chung_viscosity_factor(vc: f64, omega: f64, molar_mass: f64) -> f64 {
     let fc = 1.0 - 0.2756 * omega;
     40.785 * fc * (molar_mass * 1e3).sqrt() / (vc * 1e6).powf(2.0 / 3.0) * 1e-7
@@ -353,7 +203,7 @@ fn fit_component_wilhoit(c: &Component) -> Option<WilhoitCoefficients> {
     fit_wilhoit(&ts, &cps, f.carbon + f.hydrogen + f.oxygen).map(|(w, _)| w)
 }
 
-/// Upper end of the temperatures where the published vapour-conductivity correlation of `c` is used [K].
+/// Upper end of the temperatures where the published vapour-conductivity correlation of `c` is used \[K\].
 pub fn vapor_conductivity_fit_limit(c: &Component) -> f64 {
     c.vapor_conductivity_fit_limit()
 }
@@ -446,7 +296,7 @@ impl Component {
         }
     }
 
-    /// Saturation (vapour) pressure at `t` [Pa].
+    /// Saturation (vapour) pressure at `t` \[Pa\].
     pub fn vapor_pressure(&self, t: f64) -> f64 {
         self.kernel_or(VAPOR_PRESSURE, t, || self.direct_vapor_pressure(t)) * self.property_scales[VAPOR_PRESSURE]
     }
@@ -455,7 +305,7 @@ impl Component {
         Self::published(&self.vapor_pressure, t).unwrap_or_else(|| ambrose_walton_vapor_pressure(t, self.critical_temperature(), self.critical_pressure(), self.acentric_factor()))
     }
 
-    /// Saturated liquid density at `t` [kg/m³].
+    /// Saturated liquid density at `t` \[kg/m³\].
     pub fn liquid_density(&self, t: f64) -> f64 {
         self.kernel_or(LIQUID_DENSITY, t, || self.unscaled_liquid_density(t)) * self.property_scales[LIQUID_DENSITY]
     }
@@ -468,12 +318,12 @@ impl Component {
         })
     }
 
-    /// Liquid density at 15 °C [kg/m³]: the published value when the file has one, else the correlation.
+    /// Liquid density at 15 °C \[kg/m³\]: the published value when the file has one, else the correlation.
     pub fn density_15c(&self) -> f64 {
         self.constants.density_15c.as_ref().map(|d| d.value).unwrap_or_else(|| self.liquid_density(288.15))
     }
 
-    /// Latent heat of vaporisation at `t` [J/kg].
+    /// Latent heat of vaporisation at `t` \[J/kg\].
     pub fn latent_heat(&self, t: f64) -> f64 {
         self.kernel_or(LATENT_HEAT, t, || self.direct_latent_heat(t)) * self.property_scales[LATENT_HEAT]
     }
@@ -486,7 +336,7 @@ impl Component {
         })
     }
 
-    /// Liquid heat capacity at `t` [J/(kg·K)].
+    /// Liquid heat capacity at `t` \[J/(kg·K)\].
     pub fn liquid_heat_capacity(&self, t: f64) -> f64 {
         self.kernel_or(LIQUID_HEAT_CAPACITY, t, || self.direct_liquid_heat_capacity(t)) * self.property_scales[LIQUID_HEAT_CAPACITY]
     }
@@ -498,7 +348,7 @@ impl Component {
         })
     }
 
-    /// Liquid dynamic viscosity at `t` [Pa·s]: the published correlation up to the takeover temperature
+    /// Liquid dynamic viscosity at `t` \[Pa·s\]: the published correlation up to the takeover temperature
     /// (`min(t_max, Tb, 0.70 Tc)`; `t_max` for oxygenates), then the Hildebrand fluidity law fitted to it,
     /// blended log-linearly into Letsou–Stiel from 0.80 Tc (docs/property-methods.md).
     pub fn liquid_viscosity(&self, t: f64) -> f64 {
@@ -530,7 +380,7 @@ impl Component {
         }
     }
 
-    /// Liquid thermal conductivity at `t` [W/(m·K)]: the published correlation inside its range; above it,
+    /// Liquid thermal conductivity at `t` \[W/(m·K)\]: the published correlation inside its range; above it,
     /// k/ρ held at its value at the upper limit (density scaling); below it and without coefficients,
     /// Sato–Riedel (anchored).
     pub fn liquid_conductivity(&self, t: f64) -> f64 {
@@ -548,7 +398,7 @@ impl Component {
         }
     }
 
-    /// Surface tension at `t` [N/m].
+    /// Surface tension at `t` \[N/m\].
     pub fn surface_tension(&self, t: f64) -> f64 {
         self.kernel_or(SURFACE_TENSION, t, || self.direct_surface_tension(t)) * self.property_scales[SURFACE_TENSION]
     }
@@ -557,7 +407,7 @@ impl Component {
         Self::liquid_property(&self.surface_tension, t, |t| brock_bird_surface_tension(t, self.normal_boiling_point(), self.critical_temperature(), self.critical_pressure()))
     }
 
-    /// Ideal-gas heat capacity at `t` [J/(kg·K)] (the component file must give coefficients); a polynomial is
+    /// Ideal-gas heat capacity at `t` \[J/(kg·K)\] (the component file must give coefficients); a polynomial is
     /// continued outside its range by the Wilhoit form fitted to it (rising to the classical limit).
     pub fn ideal_gas_heat_capacity(&self, t: f64) -> f64 {
         self.kernel_or(IDEAL_GAS_HEAT_CAPACITY, t, || self.unscaled_ideal_gas_heat_capacity(t)) * self.property_scales[IDEAL_GAS_HEAT_CAPACITY]
@@ -579,7 +429,7 @@ impl Component {
         }
     }
 
-    /// Ideal-gas heat capacity [J/(kg·K)], low-pressure vapour viscosity [Pa·s] and conductivity [W/(m·K)] at
+    /// Ideal-gas heat capacity \[J/(kg·K)\], low-pressure vapour viscosity \[Pa·s\] and conductivity \[W/(m·K)\] at
     /// `t`, as the three methods give them (one kernel segment look-up; direct evaluation reuses the viscosity
     /// and heat capacity in the Chung et al. conductivity).
     #[inline]
@@ -595,7 +445,7 @@ impl Component {
         (cp * s[IDEAL_GAS_HEAT_CAPACITY], mu * s[VAPOR_VISCOSITY], kv * s[VAPOR_CONDUCTIVITY])
     }
 
-    /// Low-pressure vapour viscosity at `t` [Pa·s].
+    /// Low-pressure vapour viscosity at `t` \[Pa·s\].
     pub fn vapor_viscosity(&self, t: f64) -> f64 {
         self.kernel_or(VAPOR_VISCOSITY, t, || self.unscaled_vapor_viscosity(t)) * self.property_scales[VAPOR_VISCOSITY]
     }
@@ -622,13 +472,13 @@ impl Component {
         self.chung_conductivity_from(t, self.unscaled_vapor_viscosity(t), self.unscaled_ideal_gas_heat_capacity(t))
     }
 
-    /// Chung et al. conductivity at `t` from the unscaled vapour viscosity and ideal-gas cp [J/(kg·K)] there.
+    /// Chung et al. conductivity at `t` from the unscaled vapour viscosity and ideal-gas cp \[J/(kg·K)\] there.
     #[inline]
     fn chung_conductivity_from(&self, t: f64, viscosity: f64, cp_mass: f64) -> f64 {
         chung_gas_conductivity(t, self.critical_temperature(), self.acentric_factor(), self.molar_mass(), viscosity, cp_mass * self.molar_mass())
     }
 
-    /// Low-pressure vapour thermal conductivity at `t` [W/(m·K)]: the published correlation from its lower
+    /// Low-pressure vapour thermal conductivity at `t` \[W/(m·K)\]: the published correlation from its lower
     /// limit to min(t_max, 1.1 Tc); outside, the Chung et al. temperature dependence (with this component's
     /// vapour viscosity and ideal-gas cp) anchored at the nearest end.
     pub fn vapor_conductivity(&self, t: f64) -> f64 {
@@ -667,14 +517,14 @@ impl Component {
         }
     }
 
-    /// Upper end of the temperatures where the published vapour-conductivity correlation is used [K].
+    /// Upper end of the temperatures where the published vapour-conductivity correlation is used \[K\].
     #[inline]
     fn vapor_conductivity_fit_limit(&self) -> f64 {
         let c = &self.vapor_conductivity;
         (VAPOR_CONDUCTIVITY_FIT_LIMIT * self.critical_temperature()).min(c.t_max).max(c.t_min)
     }
 
-    /// Temperature range [K] over which property `index` (in [`Component::correlations`] order) rests on a
+    /// Temperature range \[K\] over which property `index` (in [`Component::correlations`] order) rests on a
     /// published correlation inside its range or on a published extension method inside the range it was
     /// stated or checked for, with a short name of the method used there (docs/property-methods.md, "Ranges").
     pub fn valid_range(&self, index: usize) -> ValidRange {
@@ -721,7 +571,7 @@ impl Component {
             .collect()
     }
 
-    /// Fuller diffusion-volume sum [-]: the file's value, else atomic volumes of Fuller et al. (1966).
+    /// Fuller diffusion-volume sum \[-\]: the file's value, else atomic volumes of Fuller et al. (1966).
     pub fn diffusion_volume(&self) -> f64 {
         self.constants.diffusion_volume.as_ref().map(|d| d.value).unwrap_or_else(|| {
             let f = self.formula;
@@ -729,12 +579,12 @@ impl Component {
         })
     }
 
-    /// Liquid molar volume at the normal boiling point [m³/mol].
+    /// Liquid molar volume at the normal boiling point \[m³/mol\].
     pub fn molar_volume_at_boiling(&self) -> f64 {
         self.molar_mass() / self.liquid_density(self.normal_boiling_point())
     }
 
-    /// Hydrogen mass fraction of the molecule [-], from the formula (for a petroleum fraction the formula's mass
+    /// Hydrogen mass fraction of the molecule \[-\], from the formula (for a petroleum fraction the formula's mass
     /// may differ slightly from the fraction's molar mass; the formula carries the composition).
     pub fn hydrogen_mass_fraction(&self) -> f64 {
         let f = self.formula;

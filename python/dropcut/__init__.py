@@ -265,7 +265,8 @@ class Droplet:
     define the droplet and its liquid model (``diameter``, ``droplet_temperature``, ``liquid_mixing``,
     ``liquid_heat``, ``injected`` to let drag slow the droplet, ``rtol``, …); its first far field is their
     ``ambient_temperature`` and ``pressure``. Radiation and a supporting fibre are refused (a solver's radiation
-    model owns that heat). ``velocity``: the droplet's velocity vector [m/s] (default: ``velocity`` along x).
+    model owns that heat). ``velocity`` is the condition (slip speed, or the injection speed with ``injected``);
+    ``velocity_vector``: the droplet's velocity as 3 components [m/s] (default: ``velocity`` along x).
 
     Example::
 
@@ -274,9 +275,10 @@ class Droplet:
             ex = d.advance(1e-4, temperature=900.0, pressure=2e5)
     """
 
-    def __init__(self, fuel: FuelLike, *, velocity: Optional[Sequence[float]] = None, **conditions: Union[Quantity, bool, None]) -> None:
+    def __init__(self, fuel: FuelLike, *, velocity_vector: Optional[Sequence[float]] = None, **conditions: Union[Quantity, bool, None]) -> None:
         """Make the droplet (see the class documentation)."""
-        self._native = _native.Droplet(_fuel(fuel), conditions, None if velocity is None else [float(v) for v in velocity])
+        vector = None if velocity_vector is None else [float(v) for v in velocity_vector]
+        self._native = _native.Droplet(_fuel(fuel), conditions, vector)
 
     def advance(
         self,

@@ -406,17 +406,17 @@ fn vector3(v: Option<Vec<f64>>, what: &str) -> PyResult<Option<[f64; 3]>> {
 impl PyDroplet {
     /// A droplet of `fuel` made under `conditions` (the simulate conditions: diameter, droplet temperature, liquid
     /// model, `injected`, …); its first far field is the conditions' ambient temperature and pressure at rest.
-    /// `velocity`: the droplet's velocity vector [m/s] (default: the `velocity` condition along x).
+    /// `velocity_vector`: the droplet's velocity as 3 components [m/s] (default: the `velocity` condition along x).
     #[new]
-    #[pyo3(signature = (fuel, conditions=None, velocity=None))]
-    fn new(fuel: &PyFuel, conditions: Option<&Bound<'_, PyDict>>, velocity: Option<Vec<f64>>) -> PyResult<Self> {
+    #[pyo3(signature = (fuel, conditions=None, velocity_vector=None))]
+    fn new(fuel: &PyFuel, conditions: Option<&Bound<'_, PyDict>>, velocity_vector: Option<Vec<f64>>) -> PyResult<Self> {
         let inputs = condition_inputs(&fuel.lib, &fuel.fuel, conditions)?;
         let speed = match inputs.motion {
             model::Motion::Fixed { velocity } | model::Motion::Injected { velocity } => velocity,
         };
-        let velocity = vector3(velocity, "velocity")?.unwrap_or([speed, 0.0, 0.0]);
+        let velocity = vector3(velocity_vector, "velocity_vector")?.unwrap_or([speed, 0.0, 0.0]);
         if velocity.iter().any(|v| !v.is_finite()) {
-            return Err(input_err(format!("velocity: {velocity:?} m/s must be finite")));
+            return Err(input_err(format!("velocity_vector: {velocity:?} m/s must be finite")));
         }
         let mut stepper = model::Stepper::new(&inputs).map_err(py_err)?;
         let far_field = model::FarField::new(inputs.ambient_temperature, inputs.pressure);

@@ -211,7 +211,7 @@ def test_unknown_component_is_the_command_line_message() -> None:
 
 @pytest.mark.parametrize("diameter", [-50e-6, "-50um", 0.0])
 def test_negative_or_zero_diameter_is_refused(diameter) -> None:
-    with pytest.raises(dropcut.DropcutError, match=r"^--diameter: .*must be positive"):
+    with pytest.raises(dropcut.DropcutError, match=r"^--diameter = .*must be positive"):
         dropcut.simulate("demo-wide", diameter=diameter)
 
 

@@ -311,25 +311,24 @@ impl DormandPrince {
     }
 }
 
-/// Find t in [t_a, t_b] (within the last step) where `g(dense(t))` crosses zero, by bisection to `tol`.
+/// Find t in [t_a, t_b] (within the last step) where `g(dense(t))` crosses zero, by Brent's method (`numerics::root`) to `tol`; the step's end when the interpolant has no sign change.
 pub fn locate_event(stepper: &DormandPrince, mut g: impl FnMut(&[f64]) -> f64, buf: &mut [f64], tol: f64) -> f64 {
-    let (mut a, mut b) = (stepper.t_old, stepper.t);
-    stepper.dense(a, buf);
-    let ga = g(buf);
-    for _ in 0..200 {
-        if b - a <= tol {
-            break;
-        }
-        let m = 0.5 * (a + b);
-        stepper.dense(m, buf);
-        let gm = g(buf);
-        if (gm > 0.0) == (ga > 0.0) {
-            a = m;
-        } else {
-            b = m;
-        }
+    let (a, b) = (stepper.t_old, stepper.t);
+    let tolerance = crate::numerics::root::Tolerance::absolute(tol);
+    let root = crate::numerics::root::brent(
+        |t| {
+            stepper.dense(t, buf);
+            g(buf)
+        },
+        a,
+        b,
+        tolerance,
+    );
+    match root {
+        Ok(r) => r.x,
+        // no sign change on the interpolant (the event lies at an end) or a non-finite value: the step's end
+        Err(e) => e.best().unwrap_or(b),
     }
-    0.5 * (a + b)
 }
 
 #[cfg(test)]

@@ -129,30 +129,11 @@ pub fn fit_wilhoit(t: &[f64], cp: &[f64], atoms: u32) -> Option<(WilhoitCoeffici
     best
 }
 
-/// Solve a 3×3 linear system by Gaussian elimination with partial pivoting.
-fn solve3(mut m: [[f64; 3]; 3], mut r: [f64; 3]) -> Option<[f64; 3]> {
-    for col in 0..3 {
-        let p = (col..3).max_by(|a, b| m[*a][col].abs().total_cmp(&m[*b][col].abs()))?;
-        if m[p][col].abs() < 1e-300 {
-            return None;
-        }
-        m.swap(col, p);
-        r.swap(col, p);
-        for row in col + 1..3 {
-            let f = m[row][col] / m[col][col];
-            let pivot = m[col];
-            for (v, p) in m[row].iter_mut().zip(pivot).skip(col) {
-                *v -= f * p;
-            }
-            r[row] -= f * r[col];
-        }
-    }
-    let mut x = [0.0; 3];
-    for i in (0..3).rev() {
-        let s: f64 = (i + 1..3).map(|k| m[i][k] * x[k]).sum();
-        x[i] = (r[i] - s) / m[i][i];
-    }
-    x.iter().all(|v| v.is_finite()).then_some(x)
+/// Solve a 3×3 linear system (LU with partial pivoting, `numerics`).
+fn solve3(m: [[f64; 3]; 3], r: [f64; 3]) -> Option<[f64; 3]> {
+    let a: Vec<f64> = m.iter().flatten().copied().collect();
+    let x = crate::numerics::linalg::solve(&a, &r, 3)?;
+    Some([x[0], x[1], x[2]])
 }
 
 /// Fit the extensions of a component's published correlations (see [`Extensions`]).

@@ -93,7 +93,7 @@ pub fn check_history_times(times: &[f64]) -> Result<(), super::ModelError> {
 /// final row) and keeps none itself: the run's [`super::RunResult`] holds them.
 #[derive(Debug, Default, Clone)]
 pub struct RowsAt {
-    /// Requested times [s], ascending.
+    /// Requested times \[s\], ascending.
     pub times: Vec<f64>,
 }
 
@@ -122,7 +122,7 @@ pub(crate) enum RunRows<T> {
     Steps(ThinnedHistory<T>),
     /// Rows at requested times: `times[next..]` are still due.
     AtTimes {
-        /// Requested times [s], ascending.
+        /// Requested times \[s\], ascending.
         times: Vec<f64>,
         /// First time still due.
         next: usize,

@@ -255,6 +255,11 @@ pub struct SimulateArgs {
     /// Also print the summary as JSON on stdout.
     #[arg(long)]
     pub json: bool,
+    /// History rows at these times instead of at every integrator step, from the integrator's continuous
+    /// extension (well-mixed) or steps landing on them (resolved): START:STEP:END (e.g. 0:0.1ms:20ms) or a list
+    /// (1ms,2ms,5ms); the first row, regime changes and the final row stay.
+    #[arg(long, value_name = "TIMES", allow_hyphen_values = true)]
+    pub history_times: Option<String>,
     /// Do not draw charts.
     #[arg(long)]
     pub no_plots: bool,
@@ -394,6 +399,11 @@ pub struct CompareArgs {
     /// above; gas=air;n2 and ambient-vapor with ';' between values).
     #[arg(long, value_name = "OPTION=V1,V2,...")]
     pub vary: Option<String>,
+    /// History rows at these times instead of at every integrator step, from the integrator's continuous
+    /// extension (well-mixed) or steps landing on them (resolved): START:STEP:END (e.g. 0:0.1ms:20ms) or a list
+    /// (1ms,2ms,5ms); the first row, regime changes and the final row stay.
+    #[arg(long, value_name = "TIMES", allow_hyphen_values = true)]
+    pub history_times: Option<String>,
     /// Output folder.
     #[arg(long, default_value = "dropcut-out/compare")]
     pub out: PathBuf,

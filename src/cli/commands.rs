@@ -5,7 +5,7 @@ use std::path::Path;
 use serde::Serialize;
 
 use super::args::{Cli, Command, FuelAction, ResidueArgs, SimulateArgs};
-use super::common::{notice, out_dir, out_file, parse_q, progress, stdout_write, write_droplet_residue};
+use super::common::{notice, out_dir, out_file, parse_history_times, parse_q, progress, stdout_write, write_droplet_residue};
 use super::conditions::{droplet_inputs, ConditionArgs};
 use super::plot;
 use super::CliError;
@@ -213,12 +213,15 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
         notice(n);
     }
     let inp = droplet_inputs(lib, fuel, &args.condition)?;
+    let history_times = args.history_times.as_deref().map(parse_history_times).transpose()?;
     out_dir(&args.out)?;
     // a bad limits file stops the command before the run, not after it has written half of its files
     let limits = load_limits(args.limits.as_deref())?;
     progress(&format!("simulating {} ...", inp.fuel.name));
-    let mut rec = model::guard::RowsOnly;
-    let run = model::simulate(&inp, &mut rec)?;
+    let run = match history_times {
+        Some(times) => model::simulate(&inp, &mut model::guard::RowsAt { times })?,
+        None => model::simulate(&inp, &mut model::guard::RowsOnly)?,
+    };
     // history, summary and residue replace the earlier run's files together or not at all
     output::together(|| -> Result<(), CliError> {
         output::history::write_run(&args.out, &inp, &run)?;

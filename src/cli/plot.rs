@@ -284,6 +284,7 @@ fn unique(label: String, taken: &mut Vec<String>) -> String {
 /// `dropcut compare FUEL... [--vary OPTION=V1,V2,...]`.
 pub(super) fn compare(lib: &Library, args: &CompareArgs) -> Result<(), CliError> {
     let vary = args.vary.as_deref().map(|v| parse_vary(v, args.condition.registry())).transpose()?;
+    let history_times = args.history_times.as_deref().map(super::common::parse_history_times).transpose()?;
     let runs_per_fuel = vary.as_ref().map(|v| v.values.len()).unwrap_or(1);
     if args.fuels.len() * runs_per_fuel < 2 {
         return Err(CliError::input("compare needs two or more fuels, or one fuel with --vary OPTION=V1,V2,..."));
@@ -347,8 +348,11 @@ pub(super) fn compare(lib: &Library, args: &CompareArgs) -> Result<(), CliError>
     output::ensure_dir(&args.out)?;
     for (label, dir, inp) in &plan {
         progress(&format!("compare: {label} ..."));
-        let mut rec = model::guard::RowsOnly;
-        let run = model::simulate(inp, &mut rec).map_err(|e| {
+        let run = match &history_times {
+            Some(times) => model::simulate(inp, &mut model::guard::RowsAt { times: times.clone() }),
+            None => model::simulate(inp, &mut model::guard::RowsOnly),
+        }
+        .map_err(|e| {
             let c: CliError = e.into();
             CliError { code: c.code, message: format!("{label}: {}", c.message) }
         })?;

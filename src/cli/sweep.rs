@@ -221,7 +221,8 @@ mod tests {
             }
         }
         let sim = cmd.find_subcommand("simulate").expect("simulate subcommand");
-        let not_conditions = ["out", "json", "no-plots", "limits", "components", "help", "version"];
+        // output choices, not conditions (--history-times: the rows written, docs/model.md §5)
+        let not_conditions = ["out", "json", "no-plots", "limits", "history-times", "components", "help", "version"];
         for arg in sim.get_arguments() {
             if let Some(long) = arg.get_long() {
                 if !not_conditions.contains(&long) {

@@ -68,6 +68,126 @@ pub struct RowsOnly;
 
 impl Observer for RowsOnly {}
 
+/// Most requested history times a run accepts (each becomes a full row held in memory).
+pub const MAX_HISTORY_TIMES: usize = 100_000;
+
+/// Check requested history times (see [`Observer::history_times`]): finite, ≥ 0, strictly ascending, at most
+/// [`MAX_HISTORY_TIMES`]; the error names the option `history-times`.
+pub fn check_history_times(times: &[f64]) -> Result<(), super::ModelError> {
+    let bad = |value: String, reason: &str| Err(super::ModelError::Input { field: "history-times", value, reason: reason.into() });
+    if times.len() > MAX_HISTORY_TIMES {
+        return bad(format!("{} times", times.len()), &format!("at most {MAX_HISTORY_TIMES} times (each is a full history row)"));
+    }
+    for (k, t) in times.iter().enumerate() {
+        if !t.is_finite() || *t < 0.0 {
+            return bad(if t.is_finite() { format!("{t:.6e} s") } else { "a non-finite time".into() }, "times must be finite and not negative");
+        }
+        if k > 0 && *t <= times[k - 1] {
+            return bad(format!("{:.6e} s after {:.6e} s", t, times[k - 1]), "times must be strictly ascending");
+        }
+    }
+    Ok(())
+}
+
+/// An observer that asks for history rows at the given times only (plus the first row, regime changes and the
+/// final row) and keeps none itself: the run's [`super::RunResult`] holds them.
+#[derive(Debug, Default, Clone)]
+pub struct RowsAt {
+    /// Requested times \[s\], ascending.
+    pub times: Vec<f64>,
+}
+
+impl Observer for RowsAt {
+    fn history_times(&self) -> &[f64] {
+        &self.times
+    }
+}
+
+/// What a history row of a run driver stands for.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub(crate) enum RowKind {
+    /// An ordinary accepted step.
+    Step,
+    /// The first row, a regime change or the final row: kept in every mode.
+    Event,
+    /// A row at a requested time.
+    Sample,
+}
+
+/// The history of a run driver: every accepted step (thinned past [`MAX_HISTORY_ROWS`]), or rows at requested
+/// times (dense output or exact landing) plus the event rows, in time order.
+#[derive(Debug)]
+pub(crate) enum RunRows<T> {
+    /// A row at every accepted step.
+    Steps(ThinnedHistory<T>),
+    /// Rows at requested times: `times[next..]` are still due.
+    AtTimes {
+        /// Requested times \[s\], ascending.
+        times: Vec<f64>,
+        /// First time still due.
+        next: usize,
+        /// Rows so far.
+        rows: Vec<T>,
+    },
+}
+
+impl<T> RunRows<T> {
+    /// Rows at every step when `times` is empty, else at `times` (a time 0 is served by the first row).
+    pub(crate) fn new(times: &[f64]) -> Self {
+        if times.is_empty() {
+            return RunRows::Steps(ThinnedHistory::new());
+        }
+        let next = times.iter().take_while(|t| **t <= 0.0).count();
+        RunRows::AtTimes { times: times.to_vec(), next, rows: vec![] }
+    }
+
+    /// True when rows are taken at requested times.
+    pub(crate) fn sampling(&self) -> bool {
+        matches!(self, RunRows::AtTimes { .. })
+    }
+
+    /// The next requested time still due.
+    pub(crate) fn peek(&self) -> Option<f64> {
+        match self {
+            RunRows::Steps(_) => None,
+            RunRows::AtTimes { times, next, .. } => times.get(*next).copied(),
+        }
+    }
+
+    /// Take the next requested time if it is before `upto` (or at it, with `inclusive`).
+    pub(crate) fn take_due(&mut self, upto: f64, inclusive: bool) -> Option<f64> {
+        let t = self.peek()?;
+        if t < upto || (inclusive && t == upto) {
+            if let RunRows::AtTimes { next, .. } = self {
+                *next += 1;
+            }
+            return Some(t);
+        }
+        None
+    }
+
+    /// Offer a row of the given kind: every row goes in when stepping; at requested times the step rows are
+    /// left out.
+    pub(crate) fn push(&mut self, row: T, kind: RowKind) {
+        match self {
+            RunRows::Steps(h) => h.push(row),
+            RunRows::AtTimes { rows, .. } => {
+                if kind != RowKind::Step {
+                    rows.push(row);
+                }
+            }
+        }
+    }
+
+    /// The rows kept, in time order.
+    pub(crate) fn into_rows(self) -> Vec<T> {
+        match self {
+            RunRows::Steps(h) => h.into_rows(),
+            RunRows::AtTimes { rows, .. } => rows,
+        }
+    }
+}
+
 /// Steps after which a run is checked for stagnation (a healthy run takes a few thousand at most).
 pub const STAGNATION_CHECK_STEPS: u64 = 100_000;
 
@@ -136,6 +256,36 @@ mod tests {
             h.push(row(k as f64));
         }
         assert_eq!(h.into_rows().len(), 100);
+    }
+
+    #[test]
+    fn requested_times_are_checked_and_taken_in_order() {
+        assert!(check_history_times(&[0.0, 1e-3, 2e-3]).is_ok());
+        assert!(check_history_times(&[]).is_ok());
+        for bad in [vec![-1e-3], vec![2e-3, 1e-3], vec![1e-3, 1e-3], vec![f64::NAN], vec![f64::INFINITY]] {
+            let e = check_history_times(&bad).unwrap_err().to_string();
+            assert!(e.starts_with("history-times = "), "{e}");
+            assert!(!e.contains("NaN") && !e.contains("inf"), "{e}");
+        }
+        let many: Vec<f64> = (0..=MAX_HISTORY_TIMES).map(|k| k as f64).collect();
+        assert!(check_history_times(&many).unwrap_err().to_string().contains("at most 100000"));
+        // time 0 is served by the first row; due times are taken once, in order, up to a bound
+        let mut r: RunRows<f64> = RunRows::new(&[0.0, 1.0, 2.0, 3.0]);
+        assert!(r.sampling());
+        assert_eq!(r.peek(), Some(1.0));
+        assert_eq!(r.take_due(2.0, false), Some(1.0));
+        assert_eq!(r.take_due(2.0, false), None);
+        assert_eq!(r.take_due(2.0, true), Some(2.0));
+        r.push(0.5, RowKind::Step);
+        r.push(2.5, RowKind::Event);
+        r.push(3.0, RowKind::Sample);
+        assert_eq!(r.into_rows(), vec![2.5, 3.0]);
+        // without times every row goes in
+        let mut r: RunRows<f64> = RunRows::new(&[]);
+        assert!(!r.sampling() && r.take_due(1.0, true).is_none());
+        r.push(0.5, RowKind::Step);
+        r.push(1.0, RowKind::Event);
+        assert_eq!(r.into_rows(), vec![0.5, 1.0]);
     }
 
     #[test]

@@ -76,6 +76,12 @@ pub trait Observer {
     fn wants_rows(&self) -> bool {
         true
     }
+    /// Times \[s\] at which the run's history holds rows instead of at every accepted step (ascending, finite,
+    /// ≥ 0; see [`super::guard::check_history_times`]); empty (the default): a row at every accepted step. The
+    /// first row (t = 0), regime changes and the final row (end of life, time limit, stop) are kept either way.
+    fn history_times(&self) -> &[f64] {
+        &[]
+    }
 }
 
 /// An observer that keeps every row.

@@ -12,6 +12,7 @@ use crate::props::liquid;
 pub use crate::props::diffusion::wilke_chang;
 
 use super::film::{circulation_factor, Film, FilmResult};
+use super::guard::{RowKind, RunRows};
 use super::history::{HistoryRow, Observer, Profile, Regime, RunOutcome, RunResult, Status};
 use super::inputs::{integration_failure, validity_notes, DropletInputs, LiquidHeat, LiquidMixing, Motion};
 use super::integrator::Stats;
@@ -562,7 +563,7 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
     let tol = step_tolerance(inp.rtol);
     let mut dt = first_step(inp.initial_diameter);
     let mut stats = Stats::default();
-    let mut history = super::guard::ThinnedHistory::new();
+    let mut history = RunRows::new(observer.history_times());
     let mut stagnation = super::guard::StagnationGuard::default();
     let wants_rows = observer.wants_rows();
     let first = model.row(&state, m0, inp.initial_diameter);
@@ -577,7 +578,7 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
     };
     observer.on_step(&first);
     if wants_rows {
-        history.push(first);
+        history.push(first, RowKind::Event);
     }
     log.keep_profiles(&mut model, &state, m0);
     let mut boiling_stop = false;
@@ -589,7 +590,15 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
             return Err(ModelError::Integration { time: state.time, reason });
         }
         dt = dt.min(inp.max_time - state.time).max(1e-15);
-        let (new, err) = match attempt_step(&mut model, &state, &mut dt, tol, m0, &mut stats) {
+        // Rows at requested times come from steps that land on them exactly (this scheme has no continuous
+        // extension): a step that would pass the next requested time, or end within 1 % of a step short of
+        // it, is cut or stretched to end there; the step after it starts again from the controller's proposal.
+        let proposal = dt;
+        let landing = history.peek().filter(|tk| *tk > state.time && state.time + 1.01 * dt >= *tk);
+        if let Some(tk) = landing {
+            dt = tk - state.time;
+        }
+        let (mut new, err) = match attempt_step(&mut model, &state, &mut dt, tol, m0, &mut stats) {
             Attempt::Accepted(new, err) => (new, err),
             Attempt::Retry => continue,
             Attempt::Boiling => {
@@ -610,13 +619,20 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
             log.lifetime = Some(crossing_time(state.time, dt, rem_prev, rem_now, inp.end_mass_fraction));
             log.status = Status::Evaporated;
         }
+        let landed = landing.filter(|tk| dt == *tk - state.time);
+        if let Some(tk) = landed {
+            new.time = tk;
+        }
         state = new;
         let row = model.row(&state, m0, inp.initial_diameter);
         log.watch.observe(&model.comps, &row.surface_liquid_mass_fractions, &row, state.time);
         log.keep_profiles(&mut model, &state, m0);
         let stop = observer.on_step(&row);
+        let event = finished || stop || state.time >= inp.max_time * (1.0 - 1e-12);
+        // requested times this step passed without landing (only in a step that ended the run) get no row
+        while history.take_due(state.time, true).is_some() {}
         if wants_rows {
-            history.push(row);
+            history.push(row, if event { RowKind::Event } else if landed.is_some() { RowKind::Sample } else { RowKind::Step });
         }
         if finished {
             break;
@@ -628,7 +644,7 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         if state.time >= inp.max_time * (1.0 - 1e-12) {
             break;
         }
-        dt = grown_step(dt, tol, err);
+        dt = if landed.is_some() { grown_step(dt, tol, err).max(proposal) } else { grown_step(dt, tol, err) };
     }
     stats.rhs_calls = model.film_calls;
     let outcome = resolved_outcome(inp, &mut model, &state, m0, log.status, boiling_stop, notes, &log, stats);

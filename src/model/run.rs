@@ -11,6 +11,7 @@ use super::ModelError;
 /// outcome, history and profiles; `observer` sees every accepted step.
 pub fn simulate(inp: &DropletInputs, observer: &mut dyn Observer) -> Result<RunResult, ModelError> {
     check_inputs(inp)?;
+    super::guard::check_history_times(observer.history_times())?;
     if inp.liquid.non_equilibrium {
         // Run the equilibrium case as well and say when the Langmuir–Knudsen correction matters (> 1 % lifetime).
         let mut eq = inp.clone();

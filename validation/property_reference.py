@@ -33,6 +33,9 @@ import sys
 import tomllib
 
 import chemicals
+
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+from chemicals_tables import load, num  # noqa: E402
 import CoolProp
 import CoolProp.CoolProp as CP
 from chemicals.volume import volume_VDI_PPDS
@@ -40,7 +43,6 @@ from chemicals.viscosity import PPDS9
 
 ROOT = os.path.normpath(os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."))
 OUT = os.path.join(ROOT, "validation", "handbook", "density_viscosity.csv")
-DATA = os.path.dirname(chemicals.__file__)
 R = 8.314462618
 
 COOLPROP = {"n-hexane": "n-Hexane", "n-heptane": "n-Heptane", "n-octane": "n-Octane", "n-nonane": "n-Nonane",
@@ -55,25 +57,6 @@ PAPERS = {
     "540-84-1": [(298.15, 687.70, 0.501, "luning-prak-2014")],
     "142-82-5": [(298.15, 679.61, 0.389, "luning-prak-2014")],
 }
-
-
-def load(rel):
-    d = {}
-    with open(os.path.join(DATA, rel), encoding="utf-8", errors="replace") as fh:
-        r = csv.reader(fh, delimiter="\t")
-        head = [h.strip() for h in next(r)]
-        for row in r:
-            if row:
-                d.setdefault(row[0].strip(), []).append(dict(zip(head, [x.strip() for x in row])))
-    return d
-
-
-def num(x):
-    try:
-        v = float(x)
-    except (TypeError, ValueError):
-        return None
-    return v if math.isfinite(v) else None
 
 
 TAB = {

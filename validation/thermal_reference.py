@@ -21,8 +21,8 @@ Rows (id, property, temperature, value in J/mol or J/mol/K, source id, asserted,
     Gharagheizi value at 298.15 K, reported only, to show how far the estimate is from what is published.
   * liquid heat capacity at 298.15 K, Poling, Prausnitz & O'Connell 5th ed. Appendix A (Cp liquid at
     298.15 K), where the coefficients came from the CRC Handbook or Zabransky; asserted within 2 %. Both
-    compilations draw on the same calorimetric literature, so this row checks the transcription chain more
-    than the measurement (said in docs/validation.md).
+    compilations draw on the same calorimetric literature, so this row mostly checks that the values were
+    copied correctly, not the measurement itself (said in docs/validation.md).
 
 Only the data files of chemicals 1.5.2 are read (plus chemicals.phase_change.Alibakhshi, the published
 equation); the component files decide which rows are independent (src/checks/properties/thermal.rs skips a
@@ -31,36 +31,18 @@ row whose source id equals the component's own coefficient source).
 import csv
 import datetime
 import glob
-import math
 import os
 import sys
 import tomllib
 
 import chemicals
+
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+from chemicals_tables import load, num  # noqa: E402
 from chemicals.phase_change import Alibakhshi
 
 ROOT = os.path.normpath(os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."))
 OUT = os.path.join(ROOT, "validation", "handbook", "thermal.csv")
-DATA = os.path.dirname(chemicals.__file__)
-
-
-def load(rel):
-    d = {}
-    with open(os.path.join(DATA, rel), encoding="utf-8", errors="replace") as fh:
-        r = csv.reader(fh, delimiter="\t")
-        head = [h.strip() for h in next(r)]
-        for row in r:
-            if row:
-                d.setdefault(row[0].strip(), []).append(dict(zip(head, [x.strip() for x in row])))
-    return d
-
-
-def num(x):
-    try:
-        v = float(x)
-    except (TypeError, ValueError):
-        return None
-    return v if math.isfinite(v) else None
 
 
 def main():

@@ -3,6 +3,7 @@
 //! h_V,i(T_s) = h_L,i(T_s) + L_i(T_s) in this reference.
 
 use crate::data::Component;
+use crate::numerics::quadrature::{gauss_legendre, GAUSS2};
 
 /// Reference temperature of the liquid enthalpies \[K\] (pure liquid at 298.15 K has h = 0).
 pub const REFERENCE_TEMPERATURE: f64 = 298.15;
@@ -13,19 +14,7 @@ const PANEL: f64 = 10.0;
 /// Change of the liquid's specific enthalpy from `t_a` to `t_b` \[J/kg\]: ∫ c_pL dT by two-point Gauss–Legendre
 /// on panels of at most 10 K (exact for a cubic c_p; far below 1e-9 relative for the library's correlations).
 pub fn liquid_enthalpy_change(c: &Component, t_a: f64, t_b: f64) -> f64 {
-    let span = t_b - t_a;
-    if span == 0.0 {
-        return 0.0;
-    }
-    let panels = (span.abs() / PANEL).ceil().max(1.0);
-    let width = span / panels;
-    let offset = 0.5 * width / 3f64.sqrt();
-    let mut sum = 0.0;
-    for k in 0..panels as usize {
-        let mid = t_a + (k as f64 + 0.5) * width;
-        sum += c.liquid_heat_capacity(mid - offset) + c.liquid_heat_capacity(mid + offset);
-    }
-    0.5 * width * sum
+    gauss_legendre(|t| c.liquid_heat_capacity(t), t_a, t_b, PANEL, &GAUSS2)
 }
 
 /// Liquid specific enthalpy at `t` relative to the liquid at [`REFERENCE_TEMPERATURE`] \[J/kg\].

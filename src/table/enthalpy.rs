@@ -10,31 +10,16 @@
 //! latent-heat and heat-capacity correlations are not mutually consistent (Kirchhoff's relation); the tables
 //! report that difference ([`ideal_gas_gap`]).
 
-/// Temperature of the reference state (liquid, zero enthalpy) \[K\].
-pub const REFERENCE_TEMPERATURE: f64 = 298.15;
+use crate::numerics::quadrature::{gauss_legendre, GAUSS5};
+
+pub use crate::props::enthalpy::REFERENCE_TEMPERATURE;
 
 /// Widest panel of the Gauss–Legendre quadrature \[K\].
 const PANEL: f64 = 5.0;
 
-/// Five-point Gauss–Legendre nodes and weights on \[−1, 1\] (Abramowitz & Stegun, Table 25.4).
-const GAUSS5: [(f64, f64); 5] = [
-    (0.0, 0.568_888_888_888_888_9),
-    (-0.538_469_310_105_683, 0.478_628_670_499_366_5),
-    (0.538_469_310_105_683, 0.478_628_670_499_366_5),
-    (-0.906_179_845_938_664, 0.236_926_885_056_189),
-    (0.906_179_845_938_664, 0.236_926_885_056_189),
-];
-
 /// ∫ f dT from `a` to `b` (either order) by five-point Gauss–Legendre on equal panels of at most 5 K.
 pub fn integrate(f: &dyn Fn(f64) -> f64, a: f64, b: f64) -> f64 {
-    let n = ((b - a).abs() / PANEL).ceil().max(1.0) as usize;
-    let h = (b - a) / n as f64;
-    (0..n)
-        .map(|k| {
-            let mid = a + (k as f64 + 0.5) * h;
-            GAUSS5.iter().map(|(x, w)| w * f(mid + 0.5 * h * x)).sum::<f64>() * 0.5 * h
-        })
-        .sum()
+    gauss_legendre(f, a, b, PANEL, &GAUSS5)
 }
 
 /// h(T_k) = ∫ cp dT from [`REFERENCE_TEMPERATURE`] to each of the ascending temperatures `ts`, accumulated row to

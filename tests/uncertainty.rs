@@ -48,6 +48,8 @@ n-heptane = 0
 each-component = "0%"
 [properties]
 scale = 0
+[indicator-inputs]
+scale = 0
 "#,
     );
     let mut inp = inputs("test-heptane-decane", 20e-6);
@@ -103,7 +105,7 @@ fn first(r: &uncertainty::UncertaintyRun, output: &str) -> String {
 fn a_single_perturbed_input_ranks_first() {
     let inp = inputs("test-heptane-decane", 20e-6);
     let st = settings(60, Method::MonteCarlo);
-    let off = "[properties]\nenabled = false\n";
+    let off = "[properties]\nenabled = false\n[indicator-inputs]\nenabled = false\n";
     for (cond, name) in [("ambient-temperature = \"20K\"", "ambient-temperature"), ("diameter = \"5%\"", "diameter"), ("pressure = \"5%\"", "pressure")] {
         let r = uncertainty::run(&inp, &spec(&format!("{off}[conditions]\n{cond}\n")), &st, None).unwrap();
         assert_eq!(first(&r, "lifetime_s"), name);
@@ -111,7 +113,7 @@ fn a_single_perturbed_input_ranks_first() {
         assert!(top.r2.unwrap() > 0.5 && top.spearman.unwrap().abs() > 0.7, "{top:?}");
     }
     // only vapour pressures: the other nine properties set to zero uncertainty
-    let only_vp = "[properties]\nliquid-density = 0\nlatent-heat = 0\nliquid-heat-capacity = 0\nliquid-viscosity = 0\nliquid-conductivity = 0\nsurface-tension = 0\nideal-gas-heat-capacity = 0\nvapor-viscosity = 0\nvapor-conductivity = 0\n";
+    let only_vp = "[properties]\nliquid-density = 0\nlatent-heat = 0\nliquid-heat-capacity = 0\nliquid-viscosity = 0\nliquid-conductivity = 0\nsurface-tension = 0\nideal-gas-heat-capacity = 0\nvapor-viscosity = 0\nvapor-conductivity = 0\n[indicator-inputs]\nenabled = false\n";
     let r = uncertainty::run(&inp, &spec(only_vp), &st, None).unwrap();
     assert!(r.factors.iter().all(|f| f.name.starts_with("vapor-pressure:")), "{:?}", r.factors.iter().map(|f| &f.name).collect::<Vec<_>>());
     for o in ["lifetime_s", "residue50_dcn", "residue50_flash_point_K"] {
@@ -122,6 +124,27 @@ fn a_single_perturbed_input_ranks_first() {
     let r = uncertainty::run(&wide, &spec(&format!("{off}[composition]\naromatics = 0.2\n")), &settings(40, Method::LatinHypercube), None).unwrap();
     assert_eq!(r.factors.len(), 1);
     assert_eq!(first(&r, "residue50_dcn"), "composition:aromatics");
+}
+
+/// Only the flash-point and cetane inputs perturbed (their standard uncertainties from
+/// validation/estimator_spread.csv): the lifetime is untouched, the residue's flash-point band is about as wide
+/// as a published flash point is known to (±1.645 × 2.33 K for two published values), and each input type ranks
+/// first for its own indicator.
+#[test]
+fn indicator_inputs_widen_only_their_indicators() {
+    let inp = inputs("test-heptane-decane", 20e-6);
+    let r = uncertainty::run(&inp, &spec("[properties]\nenabled = false\n"), &settings(200, Method::LatinHypercube), None).unwrap();
+    assert_eq!(r.factors.len(), 4, "{:?}", r.factors.iter().map(|f| &f.name).collect::<Vec<_>>());
+    let det = r.deterministic.lifetime.unwrap();
+    assert!(r.samples.iter().all(|s| s.lifetime.unwrap().to_bits() == det.to_bits()));
+    let at50 = Settings::default().residue_fractions.iter().position(|f| (f - 0.5).abs() < 1e-12);
+    let mut fp: Vec<f64> = r.samples.iter().filter_map(|s| s.ranked_output(2, at50)).collect();
+    fp.sort_by(f64::total_cmp);
+    let width = fp[fp.len() * 95 / 100] - fp[fp.len() * 5 / 100];
+    // the residue is mostly n-decane, whose published flash point has sd 2.33 K: 5–95 % width about 7.7 K
+    assert!(width > 4.0 && width < 12.0, "flash-point band {width} K");
+    assert_eq!(first(&r, "residue50_flash_point_K"), "input:flash-point");
+    assert_eq!(first(&r, "residue50_dcn"), "input:cetane-number");
 }
 
 /// Percentile estimates converge: doubling N from 400 to 800 moves the 5 % and 95 % lifetime percentiles by

@@ -446,7 +446,8 @@ pub struct UncertaintyArgs {
     /// Seed of the random draws (the same seed gives the same files whatever the thread count).
     #[arg(long, default_value = "1", value_name = "S", allow_hyphen_values = true)]
     pub seed: String,
-    /// Uncertainty file (TOML: \[conditions\], \[composition\], \[properties\]; see docs/uncertainty.md).
+    /// Uncertainty file (TOML: \[conditions\], \[composition\], \[properties\], \[indicator-inputs\]; see
+    /// docs/uncertainty.md).
     #[arg(long, value_name = "FILE")]
     pub uncertainty: Option<PathBuf>,
     /// Condition spreads, e.g. ambient-temperature=10K,pressure=2% (normal standard deviations; % = relative);
@@ -463,6 +464,10 @@ pub struct UncertaintyArgs {
     /// Distribution of the property factors; replaces the file's choice.
     #[arg(long, value_enum)]
     pub property_distribution: Option<PropertyDistributionArg>,
+    /// Multiply the standard uncertainties of the components' flash points and cetane numbers (published
+    /// values and estimates; 0 = exact); replaces the file's scale.
+    #[arg(long, value_name = "X", allow_hyphen_values = true)]
+    pub indicator_input_scale: Option<String>,
     /// Sampling design.
     #[arg(long, value_enum, default_value = "monte-carlo")]
     pub method: SamplingArg,

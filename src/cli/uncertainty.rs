@@ -43,6 +43,10 @@ fn read_spec(lib: &Library, args: &UncertaintyArgs) -> Result<UncertaintySpec, C
         let x = parse_q("property-scale", text, Quantity::Dimensionless)?;
         spec.set_property_scale(x, "--property-scale")?;
     }
+    if let Some(text) = &args.indicator_input_scale {
+        let x = parse_q("indicator-input-scale", text, Quantity::Dimensionless)?;
+        spec.set_indicator_input_scale(x, "--indicator-input-scale")?;
+    }
     if let Some(d) = args.property_distribution {
         spec.properties.distribution = match d {
             PropertyDistributionArg::Normal => Distribution::Normal,

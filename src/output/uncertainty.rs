@@ -164,6 +164,14 @@ fn factor_column(f: &crate::uncertainty::Factor) -> String {
             let (prop, comp) = f.name.split_once(':').unwrap_or((&f.name, ""));
             format!("{}_factor_{comp}", prop.replace('-', "_"))
         }
+        FactorKind::IndicatorInput { input, .. } => {
+            let comp = f.name.split_once(':').map_or("", |(_, c)| c);
+            let unit = match input {
+                crate::uncertainty::IndicatorInput::FlashPoint => "K",
+                crate::uncertainty::IndicatorInput::CetaneNumber => "CN",
+            };
+            format!("{}_{comp}_{unit}", input.key().replace('-', "_"))
+        }
     }
 }
 
@@ -402,11 +410,14 @@ impl LabelledBands {
 }
 
 /// A sensitivity input as a reader says it: `property:vapor-pressure` → "vapour pressure (all components)",
-/// `composition:aromatics` → "aromatics share", `ambient-temperature` → "ambient temperature".
+/// `input:flash-point` → "flash points (all components)", `composition:aromatics` → "aromatics share",
+/// `ambient-temperature` → "ambient temperature".
 pub fn readable_input(name: &str) -> String {
     let words = |s: &str| s.replace(['-', '_'], " ").replace("vapor", "vapour");
     if let Some(p) = name.strip_prefix("property:") {
         format!("{} (all components)", words(p))
+    } else if let Some(p) = name.strip_prefix("input:") {
+        format!("{}s (all components)", words(p))
     } else if let Some(c) = name.strip_prefix("composition:") {
         format!("{c} share")
     } else if let Some((p, c)) = name.split_once(':') {

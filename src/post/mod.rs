@@ -7,6 +7,7 @@
 
 pub mod droplet;
 pub mod indicators;
+pub mod input_spread;
 pub mod limits;
 pub mod mixture_rules;
 pub mod rayleigh;

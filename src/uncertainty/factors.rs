@@ -5,7 +5,10 @@
 use std::sync::Arc;
 
 use crate::conditions::Value;
+use crate::data::Sourced;
 use crate::model::DropletInputs;
+use crate::post::input_spread;
+use crate::post::mixture_rules::component_flash_point;
 
 use super::random::name_key;
 use super::spec::{property_keys, CompositionTarget, ConditionKey, Distribution, UncertaintySpec};
@@ -43,7 +46,40 @@ pub enum FactorKind {
         /// Relative uncertainty (the stated one × scale, or the override × scale).
         uncertainty: f64,
     },
+    /// A pure-component input of the flash-point or cetane indicator: the value is nominal + sd·z.
+    IndicatorInput {
+        /// Component position in the fuel.
+        component: usize,
+        /// Which input.
+        input: IndicatorInput,
+        /// Nominal value (K or CN units).
+        nominal: f64,
+        /// Absolute standard uncertainty × scale (K or CN units).
+        sd: f64,
+    },
 }
+
+/// Which pure-component input of an indicator a [`FactorKind::IndicatorInput`] shifts.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum IndicatorInput {
+    /// The closed-cup flash point (published, or the boiling-point estimate) \[K\].
+    FlashPoint,
+    /// The cetane number \[CN units\].
+    CetaneNumber,
+}
+
+impl IndicatorInput {
+    /// Key used in factor names: `flash-point` or `cetane-number`.
+    pub fn key(self) -> &'static str {
+        match self {
+            IndicatorInput::FlashPoint => "flash-point",
+            IndicatorInput::CetaneNumber => "cetane-number",
+        }
+    }
+}
+
+/// Loader bounds of a cetane number: a shifted value is held inside them.
+const CETANE_BOUNDS: (f64, f64) = (-20.0, 150.0);
 
 /// One uncertain input.
 #[derive(Debug, Clone, PartialEq)]
@@ -80,6 +116,13 @@ impl Factor {
                 Distribution::LogNormal => (uncertainty * z).exp(),
                 _ => (1.0 + uncertainty * z).max(MIN_PROPERTY_FACTOR),
             },
+            FactorKind::IndicatorInput { input, nominal, sd, .. } => {
+                let v = nominal + sd * z;
+                match input {
+                    IndicatorInput::FlashPoint => v.max(1.0),
+                    IndicatorInput::CetaneNumber => v.clamp(CETANE_BOUNDS.0, CETANE_BOUNDS.1),
+                }
+            }
         }
     }
 
@@ -89,15 +132,18 @@ impl Factor {
             FactorKind::Condition { .. } => "condition",
             FactorKind::Composition { .. } => "composition",
             FactorKind::Property { .. } => "property",
+            FactorKind::IndicatorInput { .. } => "indicator-input",
         }
     }
 
-    /// Stated spread in the factor's own terms (SI for conditions, relative otherwise).
+    /// Stated spread in the factor's own terms (SI for conditions, K or CN units for indicator inputs,
+    /// relative otherwise).
     pub fn spread(&self) -> f64 {
         match &self.kind {
             FactorKind::Condition { spread, .. } => *spread,
             FactorKind::Composition { spread, .. } => *spread,
             FactorKind::Property { uncertainty, .. } => *uncertainty,
+            FactorKind::IndicatorInput { sd, .. } => *sd,
         }
     }
 }
@@ -196,6 +242,19 @@ pub fn resolve(spec: &UncertaintySpec, nominal: &DropletInputs) -> Result<(Vec<F
             }
         }
     }
+    let q = &spec.indicator_inputs;
+    if q.enabled && q.scale > 0.0 {
+        for (i, c) in comps.iter().enumerate() {
+            let inputs = [
+                (IndicatorInput::FlashPoint, component_flash_point(c).0, input_spread::flash_point_sd(c).0),
+                (IndicatorInput::CetaneNumber, c.constants.cetane_number.value, input_spread::cetane_sd(c).0),
+            ];
+            for (input, nominal, sd) in inputs {
+                let name = format!("{}:{}", input.key(), c.id);
+                factors.push(Factor { stream: name_key(&name), name, distribution: Distribution::Normal, kind: FactorKind::IndicatorInput { component: i, input, nominal, sd: sd * q.scale } });
+            }
+        }
+    }
     Ok((factors, notices))
 }
 
@@ -206,6 +265,8 @@ pub fn perturbed(nominal: &DropletInputs, factors: &[Factor], z: &[f64]) -> Drop
     let n = inp.fuel.components.len();
     let mut composition: Option<Vec<f64>> = None;
     let mut scales: Vec<Option<[f64; 10]>> = vec![None; n];
+    let mut flash_points: Vec<Option<f64>> = vec![None; n];
+    let mut cetane_numbers: Vec<Option<f64>> = vec![None; n];
     for (f, &zk) in factors.iter().zip(z) {
         let v = f.value(zk);
         match &f.kind {
@@ -220,6 +281,10 @@ pub fn perturbed(nominal: &DropletInputs, factors: &[Factor], z: &[f64]) -> Drop
                 let s = scales[*component].get_or_insert(nominal.fuel.components[*component].property_scales);
                 s[*property] *= v;
             }
+            FactorKind::IndicatorInput { component, input, .. } => match input {
+                IndicatorInput::FlashPoint => flash_points[*component] = Some(v),
+                IndicatorInput::CetaneNumber => cetane_numbers[*component] = Some(v),
+            },
         }
     }
     if let Some(w) = composition {
@@ -229,9 +294,23 @@ pub fn perturbed(nominal: &DropletInputs, factors: &[Factor], z: &[f64]) -> Drop
         }
     }
     for (i, s) in scales.into_iter().enumerate() {
-        if let Some(s) = s {
-            inp.fuel.components[i] = Arc::new(nominal.fuel.components[i].with_property_scales(s));
+        if s.is_none() && flash_points[i].is_none() && cetane_numbers[i].is_none() {
+            continue;
         }
+        let base = &nominal.fuel.components[i];
+        let mut c = match s {
+            Some(s) => base.with_property_scales(s),
+            None => (**base).clone(),
+        };
+        if let Some(t) = flash_points[i] {
+            // an estimated flash point becomes a sample value with the estimate's own marker
+            let source = c.constants.flash_point.as_ref().map_or_else(|| "estimated:butler-1956".to_string(), |f| f.source.clone());
+            c.constants.flash_point = Some(Sourced { value: t, source, uncertainty: None, note: None, kind: None });
+        }
+        if let Some(cn) = cetane_numbers[i] {
+            c.constants.cetane_number.value = cn;
+        }
+        inp.fuel.components[i] = Arc::new(c);
     }
     inp
 }

@@ -10,9 +10,9 @@ pub mod run;
 pub mod spec;
 pub mod stats;
 
-pub use factors::{perturbed, resolve, Factor, FactorKind};
+pub use factors::{perturbed, resolve, Factor, FactorKind, IndicatorInput};
 pub use run::{overlaps, run, Method, Overlap, SampleRecord, SampleStatus, Settings, UncertaintyRun, RANKED_OUTPUTS, RESIDUE_KEYS};
-pub use spec::{CompositionTarget, ConditionKey, Distribution, PropertySettings, Spread, UncertaintySpec};
+pub use spec::{CompositionTarget, ConditionKey, Distribution, IndicatorInputSettings, PropertySettings, Spread, UncertaintySpec};
 pub use stats::{Statistics, PERCENTILES};
 
 use thiserror::Error;

@@ -14,7 +14,7 @@ use crate::model::{simulate, DropletInputs, HistoryRow, RunResult};
 use crate::post::droplet::{residues_along_history, Layer};
 use crate::post::{residue_table, IndicatorOptions};
 
-use super::factors::{perturbed, resolve, Factor, FactorKind};
+use super::factors::{perturbed, resolve, Factor, FactorKind, IndicatorInput};
 use super::random::{counter_uniform, mix64, truncated_normal, Xoshiro256};
 use super::spec::{property_keys, Distribution, UncertaintySpec};
 use super::stats::{above_noise, percentile_sorted, rank_r2, sorted_finite, spearman, Statistics, PERCENTILES};
@@ -544,7 +544,7 @@ fn sensitivity_inputs(factors: &[Factor], samples: &[SampleRecord], nominal: &Dr
         match f.kind {
             FactorKind::Condition { .. } => out.push(SensitivityInput { name: f.name.clone(), kind: "condition", values: samples.iter().map(|s| f.value(s.z[k])).collect(), members: vec![k] }),
             FactorKind::Composition { .. } => out.push(SensitivityInput { name: f.name.clone(), kind: "composition", values: samples.iter().map(|s| f.value(s.z[k])).collect(), members: vec![k] }),
-            FactorKind::Property { .. } => {}
+            FactorKind::Property { .. } | FactorKind::IndicatorInput { .. } => {}
         }
     }
     let w = &nominal.fuel.mass_fractions;
@@ -563,6 +563,23 @@ fn sensitivity_inputs(factors: &[Factor], samples: &[SampleRecord], nominal: &Dr
         }
         let values = samples.iter().map(|s| members.iter().map(|(k, wk)| wk * s.z[*k]).sum::<f64>() / total).collect();
         out.push(SensitivityInput { name: format!("property:{key}"), kind: "property-type", values, members: members.iter().map(|(k, _)| *k).collect() });
+    }
+    // the flash-point and cetane inputs, each as one mass-fraction-weighted mean draw like a property type
+    for input in [IndicatorInput::FlashPoint, IndicatorInput::CetaneNumber] {
+        let members: Vec<(usize, f64)> = factors
+            .iter()
+            .enumerate()
+            .filter_map(|(k, f)| match f.kind {
+                FactorKind::IndicatorInput { component, input: which, .. } if which == input => Some((k, w[component])),
+                _ => None,
+            })
+            .collect();
+        let total: f64 = members.iter().map(|(_, w)| w).sum();
+        if members.is_empty() || total <= 0.0 {
+            continue;
+        }
+        let values = samples.iter().map(|s| members.iter().map(|(k, wk)| wk * s.z[*k]).sum::<f64>() / total).collect();
+        out.push(SensitivityInput { name: format!("input:{}", input.key()), kind: "property-type", values, members: members.iter().map(|(k, _)| *k).collect() });
     }
     out
 }

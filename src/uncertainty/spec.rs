@@ -193,6 +193,22 @@ impl Default for PropertySettings {
     }
 }
 
+/// How the pure-component inputs of the flash-point and cetane indicators (published values and estimates)
+/// are perturbed; their standard uncertainties come from [`crate::post::input_spread`].
+#[derive(Debug, Clone, PartialEq)]
+pub struct IndicatorInputSettings {
+    /// Perturb them at all.
+    pub enabled: bool,
+    /// Multiplier on every standard uncertainty (1 = as measured; 0 = exact).
+    pub scale: f64,
+}
+
+impl Default for IndicatorInputSettings {
+    fn default() -> Self {
+        IndicatorInputSettings { enabled: true, scale: 1.0 }
+    }
+}
+
 /// Everything that is uncertain.
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct UncertaintySpec {
@@ -202,6 +218,8 @@ pub struct UncertaintySpec {
     pub composition: BTreeMap<CompositionTarget, Spread>,
     /// Property settings.
     pub properties: PropertySettings,
+    /// Flash-point and cetane inputs.
+    pub indicator_inputs: IndicatorInputSettings,
 }
 
 /// Property keys in `Component::correlations` order.
@@ -209,7 +227,7 @@ pub fn property_keys() -> [&'static str; 10] {
     DEFAULT_UNCERTAINTY.map(|(k, _, _)| k)
 }
 
-const TOP_KEYS: [&str; 3] = ["conditions", "composition", "properties"];
+const TOP_KEYS: [&str; 4] = ["conditions", "composition", "properties", "indicator-inputs"];
 const SPREAD_KEYS: [&str; 4] = ["sd", "relative-sd", "half-width", "relative-half-width"];
 /// Largest relative spread of a condition or composition entry.
 pub const MAX_RELATIVE: f64 = 1.0;
@@ -347,6 +365,11 @@ impl UncertaintySpec {
                     toml::Value::Table(t) => spec.properties = parse_properties(t, file)?,
                     other => return Err(spec_err(file, "properties", format!("must be true, false or a table, found {other}"))),
                 },
+                "indicator-inputs" => match v {
+                    toml::Value::Boolean(b) => spec.indicator_inputs.enabled = *b,
+                    toml::Value::Table(t) => spec.indicator_inputs = parse_indicator_inputs(t, file)?,
+                    other => return Err(spec_err(file, "indicator-inputs", format!("must be true, false or a table, found {other}"))),
+                },
                 other => return Err(spec_err(file, other, format!("unknown key (known: {})", TOP_KEYS.join(", ")))),
             }
         }
@@ -380,6 +403,15 @@ impl UncertaintySpec {
         Ok(())
     }
 
+    /// Set the scale of the flash-point and cetane input uncertainties (0 makes them exact).
+    pub fn set_indicator_input_scale(&mut self, scale: f64, option: &str) -> Result<(), UncertaintyError> {
+        if !(scale.is_finite() && (0.0..=MAX_SCALE).contains(&scale)) {
+            return Err(UncertaintyError::Input { what: option.to_string(), message: format!("{scale} must be between 0 and {MAX_SCALE}") });
+        }
+        self.indicator_inputs.scale = scale;
+        Ok(())
+    }
+
     /// Set the property-uncertainty scale (0 turns property perturbation off).
     pub fn set_property_scale(&mut self, scale: f64, option: &str) -> Result<(), UncertaintyError> {
         if !(scale.is_finite() && (0.0..=MAX_SCALE).contains(&scale)) {
@@ -390,6 +422,27 @@ impl UncertaintySpec {
     }
 }
 
+fn scale_value(v: &toml::Value, file: &str, field: &str) -> Result<f64, UncertaintyError> {
+    let s = v.as_float().or_else(|| v.as_integer().map(|i| i as f64)).ok_or_else(|| spec_err(file, field, format!("must be a number, found {v}")))?;
+    if !(s.is_finite() && (0.0..=MAX_SCALE).contains(&s)) {
+        return Err(spec_err(file, field, format!("{s} must be between 0 and {MAX_SCALE}")));
+    }
+    Ok(s)
+}
+
+fn parse_indicator_inputs(t: &toml::Table, file: &str) -> Result<IndicatorInputSettings, UncertaintyError> {
+    let mut p = IndicatorInputSettings::default();
+    for (k, v) in t {
+        let field = format!("indicator-inputs.{k}");
+        match k.as_str() {
+            "enabled" => p.enabled = v.as_bool().ok_or_else(|| spec_err(file, &field, format!("must be true or false, found {v}")))?,
+            "scale" => p.scale = scale_value(v, file, &field)?,
+            _ => return Err(spec_err(file, &field, "unknown key (known: enabled, scale)")),
+        }
+    }
+    Ok(p)
+}
+
 fn parse_properties(t: &toml::Table, file: &str) -> Result<PropertySettings, UncertaintyError> {
     let keys = property_keys();
     let mut p = PropertySettings::default();
@@ -397,13 +450,7 @@ fn parse_properties(t: &toml::Table, file: &str) -> Result<PropertySettings, Unc
         let field = format!("properties.{k}");
         match k.as_str() {
             "enabled" => p.enabled = v.as_bool().ok_or_else(|| spec_err(file, &field, format!("must be true or false, found {v}")))?,
-            "scale" => {
-                let s = v.as_float().or_else(|| v.as_integer().map(|i| i as f64)).ok_or_else(|| spec_err(file, &field, format!("must be a number, found {v}")))?;
-                if !(s.is_finite() && (0.0..=MAX_SCALE).contains(&s)) {
-                    return Err(spec_err(file, &field, format!("{s} must be between 0 and {MAX_SCALE}")));
-                }
-                p.scale = s;
-            }
+            "scale" => p.scale = scale_value(v, file, &field)?,
             "distribution" => {
                 p.distribution = match v.as_str() {
                     Some("normal") => Distribution::Normal,

@@ -652,6 +652,9 @@ def joback_viscosity_slope(groups):
     return sum(ETA_A[g] * n for g, n in groups.items()) - 597.82
 
 
+PPDS_C_MARGIN = 20.0  # K below the PPDS viscosity parameter C where a coefficient set ends
+
+
 def liquid_viscosity(cas, comp=None, k=None):
     p = perry("p313", cas, 5)
     if p:
@@ -662,9 +665,17 @@ def liquid_viscosity(cas, comp=None, k=None):
     r = first(T["vdimu"], cas, "A", "B", "C", "D", "E")
     if r and k:
         A, B, C, D, E = r
-        return sec("ppds-viscosity", [A, B, C, D, E], "Pa*s", k["Tm"], k["Tb"], "vdi-heat-atlas-ppds",
-                   note="VDI Heat Atlas PPDS equation 9, mu = E exp(A x^(1/3) + B x^(4/3)), x = (C - T)/(T - D); "
-                        "chemicals does not carry the validity range: t-min/t-max set to Tm..Tb here")
+        # the form needs x > 0 (T < C), and near C the slope of x^(1/3) diverges: a coefficient set whose C lies
+        # below Tb (n-hexylbenzene: C = 423.3 K) ends PPDS_C_MARGIN below C, where the fluidity law takes over
+        t_max = k["Tb"]
+        note = ("VDI Heat Atlas PPDS equation 9, mu = E exp(A x^(1/3) + B x^(4/3)), x = (C - T)/(T - D); "
+                "chemicals does not carry the validity range: t-min/t-max set to Tm..Tb here")
+        if C - PPDS_C_MARGIN < t_max:
+            t_max = C - PPDS_C_MARGIN
+            note = ("VDI Heat Atlas PPDS equation 9, mu = E exp(A x^(1/3) + B x^(4/3)), x = (C - T)/(T - D); "
+                    f"chemicals does not carry the validity range: t-min set to Tm, t-max to C - {PPDS_C_MARGIN:g} K "
+                    "(C lies below Tb and the form's slope diverges at T = C)")
+        return sec("ppds-viscosity", [A, B, C, D, E], "Pa*s", k["Tm"], t_max, "vdi-heat-atlas-ppds", note=note)
     for key, src in (("vn3", "viswanath-natarajan-1989"), ("dp3", "dutt-prasad-viswanath-2007")):
         r = first(T[key], cas, "A", "B", "C", "Tmin", "Tmax")
         if r:

@@ -652,7 +652,29 @@ def joback_viscosity_slope(groups):
     return sum(ETA_A[g] * n for g, n in groups.items()) - 597.82
 
 
-PPDS_C_MARGIN = 20.0  # K below the PPDS viscosity parameter C where a coefficient set ends
+PPDS_TURN_MARGIN = 100.0  # K below the minimum of a PPDS viscosity curve where a coefficient set ends
+PPDS_D_MARGIN = 30.0  # K above the pole D of a PPDS viscosity curve where a coefficient set starts
+
+
+def ppds_viscosity_shape(A, B, C, D, E, t_lo, t_hi):
+    """On a 1 K scan of [t_lo, t_hi]: the first temperature from which the PPDS viscosity curve falls faster in
+    ln mu than just below it (None if never), and the first where it stops falling (None if never)."""
+    def ln_mu(t):
+        x = (C - t) / (t - D)
+        r = math.copysign(abs(x) ** (1 / 3), x)
+        return math.log(E) + A * r + B * r ** 4
+    steepens = turn = None
+    t = t_lo
+    drops = []
+    while t + 1 <= t_hi:
+        drops.append((t, ln_mu(t) - ln_mu(t + 1)))
+        t += 1
+    for (t0, d0), (t1, d1) in zip(drops, drops[1:]):
+        if turn is None and d1 <= 0:
+            turn = t1
+        if steepens is None and t0 > t_lo + 30 and d1 > d0:
+            steepens = t0
+    return steepens, turn
 
 
 def liquid_viscosity(cas, comp=None, k=None):
@@ -665,17 +687,27 @@ def liquid_viscosity(cas, comp=None, k=None):
     r = first(T["vdimu"], cas, "A", "B", "C", "D", "E")
     if r and k:
         A, B, C, D, E = r
-        # the form needs x > 0 (T < C), and near C the slope of x^(1/3) diverges: a coefficient set whose C lies
-        # below Tb (n-hexylbenzene: C = 423.3 K) ends PPDS_C_MARGIN below C, where the fluidity law takes over
-        t_max = k["Tb"]
-        note = ("VDI Heat Atlas PPDS equation 9, mu = E exp(A x^(1/3) + B x^(4/3)), x = (C - T)/(T - D); "
-                "chemicals does not carry the validity range: t-min/t-max set to Tm..Tb here")
-        if C - PPDS_C_MARGIN < t_max:
-            t_max = C - PPDS_C_MARGIN
-            note = ("VDI Heat Atlas PPDS equation 9, mu = E exp(A x^(1/3) + B x^(4/3)), x = (C - T)/(T - D); "
-                    f"chemicals does not carry the validity range: t-min set to Tm, t-max to C - {PPDS_C_MARGIN:g} K "
-                    "(C lies below Tb and the form's slope diverges at T = C)")
-        return sec("ppds-viscosity", [A, B, C, D, E], "Pa*s", k["Tm"], t_max, "vdi-heat-atlas-ppds", note=note)
+        # A liquid's viscosity falls ever more slowly as it warms (Andrade: d ln mu/dT = -B/T^2). A PPDS set whose
+        # curve instead starts to fall faster (its parameter C, where the slope diverges, is near: n-hexylbenzene,
+        # C = 423.3 K) ends where that begins; one whose curve turns up (the naphthalenes) ends PPDS_TURN_MARGIN
+        # below the turn. Above t-max the fluidity law takes over (src/props/pure).
+        form = "VDI Heat Atlas PPDS equation 9, mu = E exp(A x^(1/3) + B x^(4/3)), x = (C - T)/(T - D); chemicals does not carry the validity range: "
+        # the form has a pole at T = D: a set whose D lies near the melting point starts PPDS_D_MARGIN above D
+        t_min, low = k["Tm"], "t-min set to Tm"
+        if D + PPDS_D_MARGIN > t_min:
+            t_min, low = round(D + PPDS_D_MARGIN, 2), f"t-min {PPDS_D_MARGIN:g} K above the pole of the form at D = {D:g} K"
+        t_max, high = k["Tb"], "t-max to Tb"
+        steepens, turn = ppds_viscosity_shape(A, B, C, D, E, t_min, min(t_max, C - 1.0))
+        if turn is not None and turn - PPDS_TURN_MARGIN < t_max:
+            t_max = round(turn - PPDS_TURN_MARGIN, 2)
+            high = (f"t-max {PPDS_TURN_MARGIN:g} K below {turn:.1f} K, where the fitted curve stops falling "
+                    "(a judgement: it flattens well before)")
+        elif steepens is not None and steepens < t_max:
+            t_max = round(steepens, 2)
+            high = ("t-max where the fitted curve starts to fall faster with temperature, unlike a liquid's "
+                    f"(its slope diverges at C = {C:g} K)")
+        note = form + low + ", " + high
+        return sec("ppds-viscosity", [A, B, C, D, E], "Pa*s", t_min, t_max, "vdi-heat-atlas-ppds", note=note)
     for key, src in (("vn3", "viswanath-natarajan-1989"), ("dp3", "dutt-prasad-viswanath-2007")):
         r = first(T[key], cas, "A", "B", "C", "Tmin", "Tmax")
         if r:

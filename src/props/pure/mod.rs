@@ -655,6 +655,26 @@ mod tests {
         assert!(kv(1500.0) > kv(1000.0));
     }
 
+    /// Every library component's liquid viscosity falls smoothly from its melting point to 0.9 Tc: no 2 K step
+    /// changes ln μ by more than 3 times its neighbours' mean change (n-hexylbenzene stepped 22 % at 423 K, where
+    /// its PPDS coefficient set passes its parameter C).
+    #[test]
+    fn library_liquid_viscosities_have_no_steps() {
+        let lib = crate::data::Library::embedded().unwrap();
+        for c in lib.components() {
+            let (lo, hi) = (c.constants.melting_point.value + 2.0, 0.9 * c.critical_temperature());
+            let ts: Vec<f64> = (0..).map(|i| lo + 2.0 * f64::from(i)).take_while(|t| *t <= hi).collect();
+            let d: Vec<f64> = ts.windows(2).map(|w| (c.liquid_viscosity(w[1]) / c.liquid_viscosity(w[0])).ln()).collect();
+            if let Some(k) = d.iter().position(|x| *x >= 0.0) {
+                panic!("{}: viscosity rises from {} to {} K", c.id, ts[k], ts[k + 1]);
+            }
+            for k in 1..d.len() - 1 {
+                let neighbours = 0.5 * (d[k - 1] + d[k + 1]);
+                assert!(d[k] > 3.0 * neighbours, "{}: step at {} K ({:.3} vs {:.3})", c.id, ts[k], d[k], neighbours);
+            }
+        }
+    }
+
     /// Valid ranges: the published range widened by the extension methods; CSP forms start at the melting point.
     #[test]
     fn valid_ranges() {

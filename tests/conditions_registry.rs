@@ -128,7 +128,7 @@ fn a_new_condition_needs_only_a_registry_entry() {
     assert!(SweepSpec::parse(spec, "spec.toml", Path::new(""), &lib).unwrap_err().to_string().contains("unknown condition 'film-reference-weight'"));
 
     // uncertainty spreads: from a file and from the command line; the factor perturbs the new field
-    let u = UncertaintySpec::parse_with("properties = false\n[conditions]\nfilm-reference-weight = \"10%\"\n", "u.toml", &lib, registry).unwrap();
+    let u = UncertaintySpec::parse_with("properties = false\nindicator-inputs = false\n[conditions]\nfilm-reference-weight = \"10%\"\n", "u.toml", &lib, registry).unwrap();
     let key = ConditionKey::parse_in(registry, "film-reference-weight").unwrap();
     assert!(u.conditions.contains_key(&key));
     let nominal = dropcut::conditions::build_inputs(registry, fuel, &lib, &[]).unwrap();

@@ -548,38 +548,28 @@ fn sensitivity_inputs(factors: &[Factor], samples: &[SampleRecord], nominal: &Dr
         }
     }
     let w = &nominal.fuel.mass_fractions;
+    // a group of per-component factors as one input: their standard draws averaged with the mass fractions
+    let mut group = |name: String, member_of: &dyn Fn(&FactorKind) -> Option<usize>| {
+        let members: Vec<(usize, f64)> = factors.iter().enumerate().filter_map(|(k, f)| member_of(&f.kind).map(|c| (k, w[c]))).collect();
+        let total: f64 = members.iter().map(|(_, w)| w).sum();
+        if members.is_empty() || total <= 0.0 {
+            return;
+        }
+        let values = samples.iter().map(|s| members.iter().map(|(k, wk)| wk * s.z[*k]).sum::<f64>() / total).collect();
+        out.push(SensitivityInput { name, kind: "property-type", values, members: members.iter().map(|(k, _)| *k).collect() });
+    };
     for (p, key) in property_keys().iter().enumerate() {
-        let members: Vec<(usize, f64)> = factors
-            .iter()
-            .enumerate()
-            .filter_map(|(k, f)| match f.kind {
-                FactorKind::Property { component, property, .. } if property == p => Some((k, w[component])),
-                _ => None,
-            })
-            .collect();
-        let total: f64 = members.iter().map(|(_, w)| w).sum();
-        if members.is_empty() || total <= 0.0 {
-            continue;
-        }
-        let values = samples.iter().map(|s| members.iter().map(|(k, wk)| wk * s.z[*k]).sum::<f64>() / total).collect();
-        out.push(SensitivityInput { name: format!("property:{key}"), kind: "property-type", values, members: members.iter().map(|(k, _)| *k).collect() });
+        group(format!("property:{key}"), &|kind| match *kind {
+            FactorKind::Property { component, property, .. } if property == p => Some(component),
+            _ => None,
+        });
     }
-    // the flash-point and cetane inputs, each as one mass-fraction-weighted mean draw like a property type
+    // the flash-point and cetane inputs, each like a property type
     for input in [IndicatorInput::FlashPoint, IndicatorInput::CetaneNumber] {
-        let members: Vec<(usize, f64)> = factors
-            .iter()
-            .enumerate()
-            .filter_map(|(k, f)| match f.kind {
-                FactorKind::IndicatorInput { component, input: which, .. } if which == input => Some((k, w[component])),
-                _ => None,
-            })
-            .collect();
-        let total: f64 = members.iter().map(|(_, w)| w).sum();
-        if members.is_empty() || total <= 0.0 {
-            continue;
-        }
-        let values = samples.iter().map(|s| members.iter().map(|(k, wk)| wk * s.z[*k]).sum::<f64>() / total).collect();
-        out.push(SensitivityInput { name: format!("input:{}", input.key()), kind: "property-type", values, members: members.iter().map(|(k, _)| *k).collect() });
+        group(format!("input:{}", input.key()), &|kind| match *kind {
+            FactorKind::IndicatorInput { component, input: which, .. } if which == input => Some(component),
+            _ => None,
+        });
     }
     out
 }

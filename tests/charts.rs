@@ -376,3 +376,61 @@ fn resolved_runs_get_a_radial_profile_chart() {
     ok(&["simulate", "test-heptane-decane", "--diameter", "10um", "--out", p(&dir)]);
     assert!(!dir.join("profiles.csv").exists() && !dir.join("chart_radial_profiles.svg").exists() && !dir.join("chart_radial_profiles.png").exists());
 }
+
+/// The RGB pixels of a PNG: (width, height, bytes).
+fn decode_png(path: &Path) -> (usize, usize, Vec<u8>) {
+    let decoder = png::Decoder::new(std::io::BufReader::new(std::fs::File::open(path).unwrap()));
+    let mut reader = decoder.read_info().unwrap();
+    let mut buf = vec![0; reader.output_buffer_size()];
+    let info = reader.next_frame(&mut buf).unwrap();
+    assert_eq!(info.color_type, png::ColorType::Rgb, "{}", path.display());
+    buf.truncate(info.buffer_size());
+    (info.width as usize, info.height as usize, buf)
+}
+
+/// Charts are drawn on a supersampled canvas: the SVG keeps the image size with a finer viewBox (coordinates in
+/// tenths of a pixel, text at the same size), the PNG is anti-aliased (pixels blended between a line's colour
+/// and the white background along the sloped d² curve), and axis and grid lines stay on whole pixels.
+#[test]
+fn lines_are_drawn_at_sub_pixel_positions() {
+    let dir = scratch("subpixel");
+    small_run(&dir, "test-heptane-decane");
+    let svg = std::fs::read_to_string(dir.join("chart_d2.svg")).unwrap();
+    let root = &svg[..svg.find('>').unwrap()];
+    let attr = |name: &str| -> Vec<f64> {
+        let at = root.find(&format!(" {name}=\"")).unwrap_or_else(|| panic!("{root}")) + name.len() + 3;
+        root[at..at + root[at..].find('"').unwrap()].split(' ').map(|v| v.parse().unwrap()).collect()
+    };
+    let (width, height, view) = (attr("width")[0], attr("height")[0], attr("viewBox"));
+    assert_eq!((width, height), (1000.0, 620.0), "{root}");
+    let k = view[2] / width;
+    assert!(k >= 4.0 && view[3] / height == k && view[0] == 0.0 && view[1] == 0.0, "{root}");
+    // the d² curve: its points in image pixels are not all whole numbers
+    let curve = svg.split("<polyline").find(|p| p.contains("stroke=\"#1F5FA8\"")).expect("the run's curve");
+    let points = &curve[curve.find("points=\"").unwrap() + 8..];
+    let coords: Vec<f64> = points[..points.find('"').unwrap()].split([' ', ',']).filter(|v| !v.is_empty()).map(|v| v.parse::<f64>().unwrap() / k).collect();
+    assert!(coords.len() > 20);
+    let fractional = coords.iter().filter(|c| (*c - c.round()).abs() > 1e-9).count();
+    assert!(fractional * 2 > coords.len(), "{fractional} of {} coordinates are off the pixel grid", coords.len());
+    // the title keeps its visual size: 28 px (plotters writes font-size = size / 1.24)
+    let title = svg.split("<text").find(|t| t.contains("Normalised droplet size")).unwrap();
+    let size: f64 = title[title.find("font-size=\"").unwrap() + 11..].split('"').next().unwrap().parse().unwrap();
+    assert!((size / k * 1.24 - 28.0).abs() < 1e-9, "font-size {size}");
+
+    let (w, h, rgb) = decode_png(&dir.join("chart_d2.png"));
+    assert_eq!((w, h), (1000, 620));
+    // pixels that blend the curve's colour (31, 95, 168) with white, at 10–90 % of the colour
+    let line = [31.0, 95.0, 168.0];
+    let blends = rgb
+        .chunks_exact(3)
+        .filter(|p| {
+            let share: Vec<f64> = (0..3).map(|c| (255.0 - f64::from(p[c])) / (255.0 - line[c])).collect();
+            share.iter().all(|s| (s - share[2]).abs() < 0.08) && share[2] > 0.1 && share[2] < 0.9
+        })
+        .count();
+    assert!(blends > 200, "only {blends} anti-aliased pixels along the curve");
+    // a horizontal grid line is one pixel high: full grey in its row, white above and below, left of the legend
+    let px = |x: usize, y: usize| [rgb[(y * w + x) * 3], rgb[(y * w + x) * 3 + 1], rgb[(y * w + x) * 3 + 2]];
+    let grid = (60..h - 60).find(|&y| (300..320).all(|x| px(x, y) == [218, 218, 218])).expect("a whole-pixel grid line");
+    assert!((300..320).all(|x| px(x, grid - 1) != [218, 218, 218] && px(x, grid + 1) != [218, 218, 218]));
+}

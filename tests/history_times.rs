@@ -143,3 +143,65 @@ fn regime_rows_stay_and_compare_takes_the_option() {
         assert_rows_at_grid(&cmp.join(fuel), 1e-3);
     }
 }
+
+/// The `#` metadata line of a history.csv that says how its rows were taken.
+fn rows_note(dir: &Path) -> String {
+    let text = std::fs::read_to_string(dir.join("history.csv")).unwrap();
+    let notes: Vec<&str> = text.lines().filter(|l| l.starts_with("# rows: ")).collect();
+    assert_eq!(notes.len(), 1, "{text:.600}");
+    notes[0].to_string()
+}
+
+/// history.csv says whether its rows are at requested times (and which) or at integrator steps.
+#[test]
+fn history_metadata_says_how_rows_were_taken() {
+    let dir = scratch("history_times", "metadata");
+    let steps = dir.join("steps");
+    ok(&["simulate", "test-heptane-decane", "--diameter", "10um", "--no-plots", "--out", p(&steps)]);
+    assert_eq!(rows_note(&steps), "# rows: one per accepted integrator step (adaptive; not evenly spaced in time)");
+    let listed = dir.join("listed");
+    ok(&["simulate", "test-heptane-decane", "--diameter", "10um", "--no-plots", "--out", p(&listed), "--history-times", "0.1ms,0.2ms,0.5ms"]);
+    let note = rows_note(&listed);
+    assert!(note.starts_with("# rows: at requested times (dense output of the integrator) plus the first row"), "{note}");
+    assert!(note.contains("requested t = 0.0001, 0.0002, 0.0005 s"), "{note}");
+    let grid = dir.join("grid");
+    ok(&["simulate", "test-heptane-decane", "--diameter", "10um", "--no-plots", "--out", p(&grid), "--history-times", "0:0.01ms:2ms", "--liquid-mixing", "diffusion"]);
+    let note = rows_note(&grid);
+    assert!(note.contains("(steps landed exactly on each time)") && note.contains("requested 201 times from t = 0 s to 0.002 s every 1e-5 s"), "{note}");
+    // `plot` reads the file back with its new line
+    ok(&["plot", p(&grid)]);
+}
+
+/// `[output] history-times` in a sweep spec: the case histories have rows at those times (and say so), the
+/// times enter the spec's fingerprint (a resume with other times is refused), and the summary rows are the same
+/// with and without `--histories`.
+#[test]
+fn sweep_specs_take_history_times() {
+    let dir = scratch("history_times", "sweep");
+    let spec = |times: &str| format!("fuels = [\"test-heptane-decane\"]\n[conditions]\ndiameter = [\"10um\", \"12um\"]\n[output]\nhistory-times = {times}\n");
+    std::fs::write(dir.join("grid.toml"), spec("\"0:0.05ms:5ms\"")).unwrap();
+    std::fs::write(dir.join("list.toml"), spec("[\"0.1ms\", 0.0002, \"300us\"]")).unwrap();
+    std::fs::write(dir.join("plain.toml"), "fuels = [\"test-heptane-decane\"]\n[conditions]\ndiameter = [\"10um\", \"12um\"]\n").unwrap();
+    let with = dir.join("with");
+    ok(&["sweep", p(&dir.join("grid.toml")), "--out", p(&with), "--histories"]);
+    for case in ["0", "1"] {
+        let case_dir = with.join("cases").join(case);
+        assert_rows_at_grid(&case_dir, 0.05e-3);
+        assert!(rows_note(&case_dir).contains("101 times from t = 0 s to 0.005 s every 5e-5 s"), "{}", rows_note(&case_dir));
+    }
+    let without = dir.join("without");
+    ok(&["sweep", p(&dir.join("grid.toml")), "--out", p(&without)]);
+    let summary = |d: &Path| std::fs::read_to_string(d.join("summary.csv")).unwrap();
+    assert_eq!(summary(&with), summary(&without), "histories on or off, the same summary");
+    let list = dir.join("list");
+    ok(&["sweep", p(&dir.join("list.toml")), "--out", p(&list), "--histories"]);
+    let (h, rows) = history(&list.join("cases").join("0"));
+    let times: Vec<f64> = rows.iter().map(|r| r[column(&h, "time_s")]).collect();
+    assert_eq!(&times[..4], &[0.0, 1e-4, 2e-4, 3e-4]);
+    // another set of times is another spec: a resume is refused, naming the spec change
+    for other in ["list.toml", "plain.toml"] {
+        let out = common::run(&["sweep", p(&dir.join(other)), "--out", p(&with), "--resume", "--histories"]);
+        assert_eq!(out.status.code(), Some(2), "{other}");
+        assert!(String::from_utf8_lossy(&out.stderr).contains("another spec"), "{}", String::from_utf8_lossy(&out.stderr));
+    }
+}

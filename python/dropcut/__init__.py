@@ -216,7 +216,9 @@ class SimulationResult:
         return f"<dropcut.SimulationResult: {len(self.history)} history rows, lifetime {self.summary.get('lifetime_s')} s>"
 
 
-def simulate(fuel: FuelLike, *, limits: Optional[str] = None, **conditions: Union[Quantity, bool, None]) -> SimulationResult:
+def simulate(
+    fuel: FuelLike, *, limits: Optional[str] = None, history_times: Union[str, Sequence[Quantity], None] = None, **conditions: Union[Quantity, bool, None]
+) -> SimulationResult:
     """Heat and evaporate one droplet of ``fuel``; the same run as ``dropcut simulate``.
 
     Conditions are the ``simulate`` options with ``_`` for ``-`` (``ambient_temperature``, ``pressure``, ``gas``,
@@ -226,11 +228,15 @@ def simulate(fuel: FuelLike, *, limits: Optional[str] = None, **conditions: Unio
     ``fibre_diameter``, ``fibre_conductivity``, ``fibre_stems``, ``activity``), with the command line's defaults
     for those not given (or given as None). Quantities are SI floats or strings with units (``"800K"``).
     ``limits``: ``"aviation"`` or a limits file, for the in-window columns of ``residue``.
+    ``history_times``: history rows at these times instead of at every integrator step, as ``--history-times``:
+    a string ``"START:STEP:END"`` or ``"T1,T2,..."`` (``"0:0.5ms:20ms"``), or a sequence of times (SI seconds
+    or strings with units); the first row, regime changes and the end-of-life row are kept, and the history's
+    metadata line ``rows: ...`` says which times were requested.
 
     Returns a :class:`SimulationResult` (``.history`` DataFrame with the columns of history.csv, ``.summary``
     dict as summary.json, ``.residue`` DataFrame as residue.csv).
     """
-    return SimulationResult(_native.simulate(_fuel(fuel), conditions, limits))
+    return SimulationResult(_native.simulate(_fuel(fuel), conditions, limits, history_times))
 
 
 class Exchange:

@@ -1,6 +1,6 @@
 """Type stubs of dropcut._native, the Rust extension behind the dropcut package (use the package, not this)."""
 
-from typing import Any, Callable, Dict, List, Mapping, Optional, Union
+from typing import Any, Callable, Dict, List, Mapping, Optional, Sequence, Union
 
 Quantity = Union[float, int, str]
 TableDict = Dict[str, Any]  # {"metadata": [str], "columns": [str], "data": {column: [float] | [str]}}
@@ -66,7 +66,9 @@ def components_json(components: Optional[str] = None) -> str:
 def read_table(path: str) -> TableDict:
     """A CSV file written by dropcut as a table dict."""
 
-def simulate(fuel: Fuel, conditions: Optional[Mapping[str, Any]] = None, limits: Optional[str] = None) -> Dict[str, Any]:
+def simulate(
+    fuel: Fuel, conditions: Optional[Mapping[str, Any]] = None, limits: Optional[str] = None, history_times: Union[str, Sequence[Quantity], None] = None
+) -> Dict[str, Any]:
     """One droplet run: {history, residue, profiles, summary_json, notes}."""
 
 def residue(

@@ -511,22 +511,44 @@ impl PyDroplet {
 // ---------------------------------------------------------------------------------------------------------------
 // Runs.
 
+/// Requested history times as `--history-times` takes them: a string (`"0:0.5ms:20ms"`, `"1ms,2ms"`) or a sequence
+/// of times (numbers in seconds or strings with units); errors name the option as the command line does.
+fn history_times(value: &Bound<'_, PyAny>) -> PyResult<Vec<f64>> {
+    if let Ok(text) = value.extract::<String>() {
+        return model::guard::parse_history_times(&text).map_err(|e| match e {
+            model::guard::HistoryTimesError::Time(message) => input_err(format!("--history-times: {message}")),
+            other => input_err(format!("--history-times {}", other.detail())),
+        });
+    }
+    let items: Vec<Bound<'_, PyAny>> = value.try_iter().map_err(|_| PyTypeError::new_err(format!("history_times: expected a string or a sequence of times, found {}", value.get_type().name().map(|n| n.to_string()).unwrap_or_default())))?.collect::<PyResult<_>>()?;
+    if items.is_empty() {
+        return Err(input_err("--history-times: the list is empty (give None for a row at every integrator step)"));
+    }
+    let times = items.iter().map(|t| quantity(t, "history-times", Quantity::Time)).collect::<PyResult<Vec<f64>>>()?;
+    model::guard::check_times(&times).map_err(|e| input_err(format!("--history-times {}", e.detail())))?;
+    Ok(times)
+}
+
 /// One droplet run: returns {history, residue, profiles (None unless resolved), summary_json, notes, inputs}.
+/// `history_times`: history rows at these times (see [`history_times`]) instead of at every integrator step.
 #[pyfunction]
-#[pyo3(signature = (fuel, conditions=None, limits=None))]
-fn simulate<'py>(py: Python<'py>, fuel: &PyFuel, conditions: Option<&Bound<'py, PyDict>>, limits: Option<&str>) -> PyResult<Bound<'py, PyDict>> {
+#[pyo3(signature = (fuel, conditions=None, limits=None, history_times=None))]
+fn simulate<'py>(py: Python<'py>, fuel: &PyFuel, conditions: Option<&Bound<'py, PyDict>>, limits: Option<&str>, history_times: Option<&Bound<'py, PyAny>>) -> PyResult<Bound<'py, PyDict>> {
     let inp = condition_inputs(&fuel.lib, &fuel.fuel, conditions)?;
     let limits = self::limits(limits)?;
+    let times = history_times.filter(|t| !t.is_none()).map(self::history_times).transpose()?;
     let (run, residue) = py
         .detach(|| -> Result<_, CliError> {
-            let mut rec = model::guard::RowsOnly;
-            let run = model::simulate(&inp, &mut rec)?;
+            let run = match times {
+                Some(times) => model::simulate(&inp, &mut model::guard::RowsAt { times })?,
+                None => model::simulate(&inp, &mut model::guard::RowsOnly)?,
+            };
             let residue = droplet_residue(&inp, &run, limits.as_ref())?;
             Ok((run, residue))
         })
         .map_err(py_err)?;
     let d = PyDict::new(py);
-    d.set_item("history", table_dict(py, &output::history::history_table(&inp, &run.history).map_err(py_err)?, "history.csv")?)?;
+    d.set_item("history", table_dict(py, &output::history::history_table(&inp, &run.history, &run.row_times).map_err(py_err)?, "history.csv")?)?;
     d.set_item("residue", table_dict(py, &residue, "residue.csv")?)?;
     if run.profiles.is_empty() {
         d.set_item("profiles", py.None())?;

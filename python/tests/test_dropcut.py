@@ -88,6 +88,31 @@ def test_simulate_equals_the_binary(tmp_path: Path) -> None:
     assert r.summary["lifetime_s"] > 0
 
 
+def test_history_times_equal_the_binary(tmp_path: Path) -> None:
+    cli("simulate", "demo-wide", *CASE_CLI, "--no-plots", "--out", str(tmp_path), "--history-times", "0:0.5ms:20ms")
+    fuel = dropcut.Fuel.load("demo-wide")
+    r = dropcut.simulate(fuel, history_times="0:0.5ms:20ms", **CASE)
+    assert_frame_equals_file(r.history, tmp_path / "history.csv")
+    assert any(m.startswith("rows: at requested times") for m in r.history.attrs["metadata"])
+    # a sequence of SI seconds or strings with units: the same rows as the comma list
+    cli("simulate", "demo-wide", *CASE_CLI, "--no-plots", "--out", str(tmp_path / "list"), "--history-times", "0.5ms,1ms,1.5ms")
+    listed = dropcut.simulate(fuel, history_times=[5e-4, "1ms", "1.5ms"], **CASE)
+    assert_frame_equals_file(listed.history, tmp_path / "list" / "history.csv")
+    assert listed.history["time_s"].tolist()[:4] == [0.0, 5e-4, 1e-3, 1.5e-3]
+    # without it: a row at every integrator step, and the metadata says so
+    plain = dropcut.simulate(fuel, history_times=None, **CASE)
+    assert any(m.startswith("rows: one per accepted integrator step") for m in plain.history.attrs["metadata"])
+    for bad, message in [("0:0ms:1ms", "^--history-times '0:0ms:1ms': the step"), ([2e-3, 1e-3], "^--history-times = .*strictly ascending"), ([], "^--history-times: the list is empty"), (["1ms", "2mm"], "^--history-times: ")]:
+        with pytest.raises(dropcut.DropcutError, match=message):
+            dropcut.simulate(fuel, history_times=bad, **CASE)
+    with pytest.raises(TypeError):
+        dropcut.simulate(fuel, history_times=5, **CASE)
+    expected = cli_error("simulate", "demo-wide", "--history-times", "2ms,1ms", "--no-plots", "--out", "/nonexistent/never")
+    with pytest.raises(dropcut.DropcutError) as e:
+        dropcut.simulate(fuel, history_times="2ms,1ms")
+    assert str(e.value) == expected
+
+
 def test_si_floats_and_unit_strings_give_the_same_run() -> None:
     fuel = dropcut.Fuel.load("demo-narrow")
     a = dropcut.simulate(fuel, ambient_temperature=900.0, pressure=1e6, diameter=30e-6, max_time=1)

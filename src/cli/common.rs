@@ -86,43 +86,13 @@ pub(super) fn write_droplet_residue(dir: &Path, inp: &DropletInputs, run: &model
 
 /// `--history-times`: `START:STEP:END` (every STEP from START up to END inclusive) or a comma list `T1,T2,...`,
 /// each a time with its unit (`ms`, `us`, `s`); checked (finite, ≥ 0, strictly ascending, a positive step, at
-/// most [`model::guard::MAX_HISTORY_TIMES`] times) before any run, the error naming the option and the value.
+/// most [`model::guard::MAX_HISTORY_TIMES`] times) before any run, the error naming the option and the value
+/// (the parser is [`model::guard::parse_history_times`], shared with sweep specs).
 pub(super) fn parse_history_times(text: &str) -> Result<Vec<f64>, CliError> {
-    const OPTION: &str = "history-times";
-    let fail = |reason: String| CliError::input(format!("--{OPTION} '{}': {reason}", text.trim()));
-    let time = |part: &str| parse_q(OPTION, part, Quantity::Time);
-    let parts: Vec<&str> = text.split(':').collect();
-    let times = if parts.len() == 3 && !text.contains(',') {
-        let (start, step, end) = (time(parts[0])?, time(parts[1])?, time(parts[2])?);
-        if step <= 0.0 {
-            return Err(fail("the step (START:STEP:END) must be positive".into()));
-        }
-        if start < 0.0 || end < start {
-            return Err(fail("START:STEP:END needs 0 ≤ START ≤ END".into()));
-        }
-        // count first (a tiny step must not allocate gigabytes); the end is included within rounding
-        let count = ((end - start) / step * (1.0 + 1e-12)).floor() + 1.0;
-        if !(count <= model::guard::MAX_HISTORY_TIMES as f64) {
-            return Err(fail(format!("gives {count:.3e} times; at most {} (a full row each)", model::guard::MAX_HISTORY_TIMES)));
-        }
-        // START + k·STEP rounded to 12 significant digits: 0:0.25ms:20ms gives 0.01475, not 0.014750000000000001
-        (0..count as usize).map(|k| round_significant(start + k as f64 * step)).collect()
-    } else if parts.len() == 1 {
-        let items: Vec<&str> = text.split(',').collect();
-        if items.len() > model::guard::MAX_HISTORY_TIMES {
-            return Err(fail(format!("{} times; at most {} (a full row each)", items.len(), model::guard::MAX_HISTORY_TIMES)));
-        }
-        items.iter().map(|p| time(p)).collect::<Result<Vec<f64>, CliError>>()?
-    } else {
-        return Err(fail("give START:STEP:END (e.g. 0:0.1ms:20ms) or a comma list (e.g. 1ms,2ms,5ms)".into()));
-    };
-    model::guard::check_history_times(&times).map_err(CliError::from)?;
-    Ok(times)
-}
-
-/// `x` rounded to 12 significant digits (a decimal grid point computed in binary floating point).
-fn round_significant(x: f64) -> f64 {
-    format!("{x:.11e}").parse().unwrap_or(x)
+    model::guard::parse_history_times(text).map_err(|e| match e {
+        model::guard::HistoryTimesError::Time(message) => CliError::input(format!("--history-times: {message}")),
+        other => CliError::input(format!("--history-times {}", other.detail())),
+    })
 }
 
 #[cfg(test)]

@@ -30,6 +30,11 @@ impl<T> ThinnedHistory<T> {
         ThinnedHistory { rows: vec![], stride: 1, count: 0, last: None }
     }
 
+    /// Accepted steps per kept row (1 until the history is first thinned).
+    pub fn stride(&self) -> usize {
+        self.stride
+    }
+
     /// Offer the row of one accepted step.
     pub fn push(&mut self, row: T) {
         let k = self.count;
@@ -89,6 +94,77 @@ pub fn check_history_times(times: &[f64]) -> Result<(), super::ModelError> {
     Ok(())
 }
 
+/// Why a `history-times` text was refused; [`HistoryTimesError::detail`] is the message after the field name.
+#[derive(Debug, Clone, PartialEq)]
+pub enum HistoryTimesError {
+    /// The text's form: (the text, the reason).
+    Form(String, String),
+    /// A time that does not parse (the unit parser's message names the value).
+    Time(String),
+    /// The times parsed but are not usable (see [`check_history_times`]): (value, reason).
+    Times(String, String),
+}
+
+impl HistoryTimesError {
+    /// The message after the field name: `'TEXT': reason`, the unit parser's message, or `= VALUE: reason`.
+    pub fn detail(&self) -> String {
+        match self {
+            HistoryTimesError::Form(text, reason) => format!("'{text}': {reason}"),
+            HistoryTimesError::Time(message) => message.clone(),
+            HistoryTimesError::Times(value, reason) => format!("= {value}: {reason}"),
+        }
+    }
+}
+
+/// Requested history times from their text, as `--history-times` and a sweep spec's `[output] history-times`
+/// take it: `START:STEP:END` (every STEP from START up to END inclusive) or a comma list `T1,T2,...`, each a time
+/// with its unit (`ms`, `us`, `s`); checked like [`check_history_times`]. The grid is counted before it is
+/// built, so a tiny step is refused instead of allocating gigabytes.
+pub fn parse_history_times(text: &str) -> Result<Vec<f64>, HistoryTimesError> {
+    let form = |reason: String| HistoryTimesError::Form(text.trim().to_string(), reason);
+    let time = |part: &str| crate::units::parse(part, crate::units::Quantity::Time).map_err(|e| HistoryTimesError::Time(e.to_string()));
+    let parts: Vec<&str> = text.split(':').collect();
+    let times = if parts.len() == 3 && !text.contains(',') {
+        let (start, step, end) = (time(parts[0])?, time(parts[1])?, time(parts[2])?);
+        if step <= 0.0 {
+            return Err(form("the step (START:STEP:END) must be positive".into()));
+        }
+        if start < 0.0 || end < start {
+            return Err(form("START:STEP:END needs 0 ≤ START ≤ END".into()));
+        }
+        // the end is included within rounding
+        let count = ((end - start) / step * (1.0 + 1e-12)).floor() + 1.0;
+        if !(count <= MAX_HISTORY_TIMES as f64) {
+            return Err(form(format!("gives {count:.3e} times; at most {MAX_HISTORY_TIMES} (a full row each)")));
+        }
+        // START + k·STEP rounded to 12 significant digits: 0:0.25ms:20ms gives 0.01475, not 0.014750000000000001
+        (0..count as usize).map(|k| round_significant(start + k as f64 * step)).collect()
+    } else if parts.len() == 1 {
+        let items: Vec<&str> = text.split(',').collect();
+        if items.len() > MAX_HISTORY_TIMES {
+            return Err(form(format!("{} times; at most {MAX_HISTORY_TIMES} (a full row each)", items.len())));
+        }
+        items.iter().map(|p| time(p)).collect::<Result<Vec<f64>, _>>()?
+    } else {
+        return Err(form("give START:STEP:END (e.g. 0:0.1ms:20ms) or a comma list (e.g. 1ms,2ms,5ms)".into()));
+    };
+    check_times(&times)?;
+    Ok(times)
+}
+
+/// [`check_history_times`] with its refusal as a [`HistoryTimesError`].
+pub fn check_times(times: &[f64]) -> Result<(), HistoryTimesError> {
+    check_history_times(times).map_err(|e| match e {
+        super::ModelError::Input { value, reason, .. } => HistoryTimesError::Times(value, reason),
+        other => HistoryTimesError::Times(String::new(), other.to_string()),
+    })
+}
+
+/// `x` rounded to 12 significant digits (a decimal grid point computed in binary floating point).
+fn round_significant(x: f64) -> f64 {
+    format!("{x:.11e}").parse().unwrap_or(x)
+}
+
 /// An observer that asks for history rows at the given times only (plus the first row, regime changes and the
 /// final row) and keeps none itself: the run's [`super::RunResult`] holds them.
 #[derive(Debug, Default, Clone)]
@@ -98,6 +174,24 @@ pub struct RowsAt {
 }
 
 impl Observer for RowsAt {
+    fn history_times(&self) -> &[f64] {
+        &self.times
+    }
+}
+
+/// An observer with requested history times that keeps no rows: the summary of a run as it is with those times
+/// (the resolved liquid lands its steps on them) without building its history, e.g. for a sweep case whose
+/// history is not written.
+#[derive(Debug, Default, Clone)]
+pub struct TimesWithoutRows {
+    /// Requested times \[s\], ascending.
+    pub times: Vec<f64>,
+}
+
+impl Observer for TimesWithoutRows {
+    fn wants_rows(&self) -> bool {
+        false
+    }
     fn history_times(&self) -> &[f64] {
         &self.times
     }
@@ -179,6 +273,14 @@ impl<T> RunRows<T> {
         }
     }
 
+    /// How the rows were taken.
+    pub(crate) fn row_times(&self) -> super::history::RowTimes {
+        match self {
+            RunRows::Steps(h) => super::history::RowTimes::Steps { stride: h.stride() },
+            RunRows::AtTimes { times, .. } => super::history::RowTimes::Requested(times.clone()),
+        }
+    }
+
     /// The rows kept, in time order.
     pub(crate) fn into_rows(self) -> Vec<T> {
         match self {
@@ -244,12 +346,23 @@ mod tests {
         for k in 0..n {
             h.push(row(k as f64));
         }
+        // rows 0, 8, 16, … (the stride doubled three times) and the last one
+        assert_eq!(h.stride(), 8);
         let rows = h.into_rows();
         assert!(rows.len() <= MAX_HISTORY_ROWS + 1, "{}", rows.len());
         assert!(rows.len() >= MAX_HISTORY_ROWS / 2);
         assert_eq!(rows[0], 0.0);
         assert_eq!(*rows.last().unwrap(), (n - 1) as f64);
         assert!(rows.windows(2).all(|w| w[1] > w[0]));
+        // the run's rows say so
+        use super::super::history::RowTimes;
+        let mut r = RunRows::new(&[]);
+        for k in 0..n {
+            r.push(row(k as f64), RowKind::Step);
+        }
+        assert_eq!(r.row_times(), RowTimes::Steps { stride: 8 });
+        assert_eq!(RunRows::<f64>::new(&[]).row_times(), RowTimes::Steps { stride: 1 });
+        assert_eq!(RunRows::<f64>::new(&[1e-3, 2e-3]).row_times(), RowTimes::Requested(vec![1e-3, 2e-3]));
         // a short run keeps every row
         let mut h = ThinnedHistory::new();
         for k in 0..100 {

@@ -164,6 +164,28 @@ pub struct RunResult {
     pub history: Vec<HistoryRow>,
     /// Radial profiles (resolved models only).
     pub profiles: Vec<Profile>,
+    /// How the history rows were taken.
+    pub row_times: RowTimes,
+}
+
+/// How the rows of a run's history were taken (history.csv's metadata says so).
+#[derive(Debug, Clone, PartialEq)]
+pub enum RowTimes {
+    /// A row at every `stride`-th accepted integrator step (1: every step; a long run thins its history by
+    /// doubling the stride, see [`super::guard::MAX_HISTORY_ROWS`]), the final row included.
+    Steps {
+        /// Accepted steps per row.
+        stride: usize,
+    },
+    /// Rows at these requested times \[s\] (those the run reached), plus the first row, regime changes and the
+    /// final row.
+    Requested(Vec<f64>),
+}
+
+impl Default for RowTimes {
+    fn default() -> Self {
+        RowTimes::Steps { stride: 1 }
+    }
 }
 
 /// Energy balance of a uniform-temperature droplet history: Σ over steps |m̄ c̄_p ΔT − Δt · mean(Q_gas + Q_extra −

@@ -18,7 +18,7 @@ pub mod stepping;
 pub mod watch;
 pub mod well_mixed;
 
-pub use history::{HistoryRow, Observer, Regime, RunOutcome, RunResult, Status};
+pub use history::{HistoryRow, Observer, Regime, RowTimes, RunOutcome, RunResult, Status};
 pub use inputs::{DropletInputs, Motion};
 pub use run::simulate;
 pub use stepping::{DropletState, Exchange, FarField, Stepper};

@@ -648,7 +648,7 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
     }
     stats.rhs_calls = model.film_calls;
     let outcome = resolved_outcome(inp, &mut model, &state, m0, log.status, boiling_stop, notes, &log, stats);
-    Ok(RunResult { outcome, history: history.into_rows(), profiles: log.profiles })
+    Ok(RunResult { outcome, row_times: history.row_times(), history: history.into_rows(), profiles: log.profiles })
 }
 
 /// The run summary at the final state: notes, mass balance, crossings, final composition.

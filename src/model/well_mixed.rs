@@ -589,7 +589,7 @@ pub(crate) fn simulate_well_mixed(inp: &DropletInputs, observer: &mut dyn Observ
             return Err(ModelError::Integration { time: stepper.t, reason });
         }
     }
-    Ok(RunResult { outcome: log.outcome(inp, &stepper, m0), history: history.into_rows(), profiles: vec![] })
+    Ok(RunResult { outcome: log.outcome(inp, &stepper, m0), row_times: history.row_times(), history: history.into_rows(), profiles: vec![] })
 }
 
 impl RunLog {

@@ -4,13 +4,14 @@ use std::path::Path;
 
 use serde::Serialize;
 
-use crate::model::{DropletInputs, HistoryRow, Motion};
+use crate::model::{DropletInputs, HistoryRow, Motion, RowTimes};
 
 
 use super::{Cell, CsvTable, OutputError, TOOL_VERSION};
 
-/// Build the history table of a run.
-pub fn history_table(inputs: &DropletInputs, rows: &[HistoryRow]) -> Result<CsvTable, OutputError> {
+/// Build the history table of a run; `row_times` (the run's [`crate::model::RunResult::row_times`]) goes into the
+/// metadata.
+pub fn history_table(inputs: &DropletInputs, rows: &[HistoryRow], row_times: &RowTimes) -> Result<CsvTable, OutputError> {
     let ids: Vec<&str> = inputs.fuel.components.iter().map(|c| c.id.as_str()).collect();
     let mut header: Vec<String> = [
         "time_s",
@@ -58,6 +59,7 @@ pub fn history_table(inputs: &DropletInputs, rows: &[HistoryRow]) -> Result<CsvT
             inputs.ambient_temperature, inputs.pressure, inputs.gas.label, inputs.initial_diameter, inputs.initial_temperature
         ),
         format!("liquid model: species {:?}, heat {:?}, {} radial cells", inputs.liquid.mixing, inputs.liquid.heat, inputs.liquid.nodes).to_lowercase(),
+        row_times_note(inputs, row_times),
         "Yliq_*: (mean) liquid mass fractions; Yvap_*: mass fractions of the vapour leaving the surface at that instant; Ysurf_*: liquid mass fractions at the surface (resolved models)".into(),
     ];
     let d0sq = inputs.initial_diameter * inputs.initial_diameter;
@@ -284,6 +286,45 @@ pub fn profiles_table(inputs: &DropletInputs, profiles: &[crate::model::droplet:
     Ok(t)
 }
 
+/// The metadata line that says how the history rows were taken: at requested times (which, and how they were
+/// reached), or at integrator steps (thinned, if thinned).
+pub fn row_times_note(inputs: &DropletInputs, row_times: &RowTimes) -> String {
+    match row_times {
+        RowTimes::Steps { stride: 1 } => "rows: one per accepted integrator step (adaptive; not evenly spaced in time)".into(),
+        RowTimes::Steps { stride } => format!(
+            "rows: one per {stride} accepted integrator steps (a long run's history is thinned to stay under {} rows; the final row is kept)",
+            crate::model::guard::MAX_HISTORY_ROWS
+        ),
+        RowTimes::Requested(times) => {
+            let how = if inputs.liquid.is_resolved() { "steps landed exactly on each time" } else { "dense output of the integrator" };
+            format!("rows: at requested times ({how}) plus the first row, regime changes and the final row; requested {}; times after the end of the run have no row", describe_times(times))
+        }
+    }
+}
+
+/// A short description of requested times \[s\]: all of them when few, else the grid or the ends.
+fn describe_times(times: &[f64]) -> String {
+    let n = times.len();
+    // times are checked finite (check_history_times)
+    let num = |t: f64| super::fmt_f64(t).unwrap_or_default();
+    let list = |ts: &[f64]| ts.iter().map(|t| num(*t)).collect::<Vec<_>>().join(", ");
+    if n <= 12 {
+        return format!("t = {} s", list(times));
+    }
+    let step = times[1] - times[0];
+    let even = times.windows(2).all(|w| ((w[1] - w[0]) - step).abs() <= 1e-9 * step.abs().max(times[n - 1].abs()));
+    if even {
+        format!("{n} times from t = {} s to {} s every {} s", num(times[0]), num(times[n - 1]), num(round12(step)))
+    } else {
+        format!("{n} times: t = {}, …, {} s", list(&times[..5]), list(&times[n - 2..]))
+    }
+}
+
+/// `x` to 12 significant digits (a grid step computed as a difference of decimals).
+fn round12(x: f64) -> f64 {
+    format!("{x:.11e}").parse().unwrap_or(x)
+}
+
 /// Write history.csv, summary.json and (resolved models) profiles.csv into `dir`, together or not at all
 /// (inside a caller's [`super::together`] group, with the caller's other files).
 pub fn write_run(dir: &Path, inputs: &DropletInputs, result: &crate::model::RunResult) -> Result<(), OutputError> {
@@ -292,7 +333,7 @@ pub fn write_run(dir: &Path, inputs: &DropletInputs, result: &crate::model::RunR
 
 fn write_run_files(dir: &Path, inputs: &DropletInputs, result: &crate::model::RunResult) -> Result<(), OutputError> {
     super::ensure_dir(dir)?;
-    history_table(inputs, &result.history)?.write(&dir.join("history.csv"))?;
+    history_table(inputs, &result.history, &result.row_times)?.write(&dir.join("history.csv"))?;
     if !result.profiles.is_empty() {
         profiles_table(inputs, &result.profiles)?.write(&dir.join("profiles.csv"))?;
     } else {
@@ -300,4 +341,18 @@ fn write_run_files(dir: &Path, inputs: &DropletInputs, result: &crate::model::Ru
         super::remove_output(&dir.join("profiles.csv"))?;
     }
     super::write_json(&dir.join("summary.json"), &Summary::of(inputs, result))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::describe_times;
+
+    #[test]
+    fn requested_times_are_described_briefly() {
+        assert_eq!(describe_times(&[1e-3, 2.5e-3]), "t = 0.001, 0.0025 s");
+        let grid: Vec<f64> = (0..=400).map(|k| format!("{:.11e}", k as f64 * 0.25e-3).parse().unwrap()).collect();
+        assert_eq!(describe_times(&grid), "401 times from t = 0 s to 0.1 s every 0.00025 s");
+        let uneven: Vec<f64> = (1..=20).map(|k| (k * k) as f64 / 1e6).collect();
+        assert_eq!(describe_times(&uneven), "20 times: t = 1e-6, 4e-6, 9e-6, 1.6e-5, 2.5e-5, …, 0.000361, 0.0004 s");
+    }
 }

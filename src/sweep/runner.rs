@@ -246,7 +246,13 @@ fn run_case(spec: &SweepSpec, id: u64, out: &Path, histories: bool, extra: &[Box
         }
     }
     let result = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
-        if histories {
+        // every case, its history written or not, runs with the requested times: the resolved liquid lands its
+        // steps on them, so a summary row is the same with and without --histories
+        if !spec.history_times.is_empty() && histories {
+            model::simulate(&inputs, &mut model::guard::RowsAt { times: spec.history_times.clone() })
+        } else if !spec.history_times.is_empty() {
+            model::simulate(&inputs, &mut model::guard::TimesWithoutRows { times: spec.history_times.clone() })
+        } else if histories {
             model::simulate(&inputs, &mut model::guard::RowsOnly)
         } else {
             model::simulate(&inputs, &mut NoHistory)

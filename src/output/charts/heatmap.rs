@@ -100,13 +100,13 @@ pub(super) fn check_map(m: &GridMap) -> Result<(), String> {
     Ok(())
 }
 
-pub(super) fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &GridMap) -> Result<(), String> {
+pub(super) fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &GridMap, s: Scale) -> Result<(), String> {
     check_map(m)?;
     root.fill(&WHITE).map_err(de)?;
-    let top = draw_title(root, &micrometre_text(&m.title), &micrometre_text(&m.subtitle))?;
+    let top = draw_title(root, &micrometre_text(&m.title), &micrometre_text(&m.subtitle), s)?;
     let (_, body) = root.split_vertically(top);
     let (w, _) = body.dim_in_pixel();
-    let (plot, bar) = body.split_horizontally(w - 130);
+    let (plot, bar) = body.split_horizontally(w - s.px(130));
     let vals: Vec<f64> = m.values.iter().flatten().flatten().copied().collect();
     let scale = colour_scale(&vals);
     let (vmin, vmax) = (scale.low, scale.high);
@@ -127,12 +127,12 @@ pub(super) fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &Gr
     };
     let xlabels = |v: &SegmentValue<i32>| centre_label(v, &m.x, xd);
     let ylabels = |v: &SegmentValue<i32>| centre_label(v, &m.y, yd);
-    let widest = m.y.iter().map(|v| text_width(root, &format_tick(*v, yd), 18)).max().unwrap_or(20);
+    let widest = m.y.iter().map(|v| text_width(root, &format_tick(*v, yd), 18, s)).max().unwrap_or(s.px(20));
     let mut cc = ChartBuilder::on(&plot)
-        .margin(10)
-        .margin_right(16)
-        .x_label_area_size(66)
-        .y_label_area_size(widest + 50)
+        .margin(s.px(10))
+        .margin_right(s.px(16))
+        .x_label_area_size(s.px(66))
+        .y_label_area_size(widest + s.px(50))
         .build_cartesian_2d((0..nx - 1).into_segmented(), (0..ny - 1).into_segmented())
         .map_err(de)?;
     cc.configure_mesh()
@@ -143,13 +143,16 @@ pub(super) fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &Gr
         .y_labels(ny as usize + 1)
         .x_label_formatter(&xlabels)
         .y_label_formatter(&ylabels)
-        .label_style(TextStyle::from((FONT, 18).into_font()).color(&TEXT))
-        .axis_desc_style(TextStyle::from((FONT, 20).into_font()).color(&TEXT))
+        .label_style(s.font(18).color(&TEXT))
+        .axis_desc_style(s.font(20).color(&TEXT))
+        .axis_style(s.line(BLACK, 1))
+        .set_all_tick_mark_size(s.px(TICK_MARK))
         .draw()
         .map_err(de)?;
     let (pw, ph) = cc.plotting_area().dim_in_pixel();
-    let cell_w = pw as f64 / nx as f64;
-    let cell_h = ph as f64 / ny as f64;
+    // cell size in image pixels
+    let cell_w = s.image_px(pw) / nx as f64;
+    let cell_h = s.image_px(ph) / ny as f64;
     let annotate = cell_w >= 46.0 && cell_h >= 22.0;
     for j in 0..ny {
         for i in 0..nx {
@@ -160,12 +163,12 @@ pub(super) fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &Gr
                 None => RGBColor(225, 225, 225),
             };
             cc.draw_series(std::iter::once(Rectangle::new(corners.clone(), color.filled()))).map_err(de)?;
-            cc.draw_series(std::iter::once(Rectangle::new(corners, WHITE.stroke_width(1)))).map_err(de)?;
+            cc.draw_series(std::iter::once(Rectangle::new(corners, s.line(WHITE, 1)))).map_err(de)?;
             if annotate {
                 let text = v.map(|v| format_tick(v, cell_decimals)).unwrap_or_else(|| "n/a".into());
                 let light = v.map(|v| ((v - vmin) / (vmax - vmin)).clamp(0.0, 1.0) < 0.55).unwrap_or(false);
                 let size = if cell_w >= 70.0 && cell_h >= 30.0 { 18 } else { 14 };
-                let st = TextStyle::from((FONT, size).into_font()).color(if light { &WHITE } else { &TEXT }).pos(Pos::new(HPos::Center, VPos::Center));
+                let st = s.font(size).color(if light { &WHITE } else { &TEXT }).pos(Pos::new(HPos::Center, VPos::Center));
                 cc.draw_series(std::iter::once(Text::new(text, (SegmentValue::CenterOf(i), SegmentValue::CenterOf(j)), st))).map_err(de)?;
             }
         }
@@ -173,15 +176,25 @@ pub(super) fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &Gr
     // colour bar
     let vd = tick_decimals((vmin, vmax), 6);
     let fv = move |v: &f64| format_tick(*v, vd);
-    let mut cb = ChartBuilder::on(&bar).margin_top(10).margin_bottom(76).margin_left(4).margin_right(4).y_label_area_size(0).right_y_label_area_size(92).build_cartesian_2d(0f64..1.0, vmin..vmax).map_err(de)?;
+    let mut cb = ChartBuilder::on(&bar)
+        .margin_top(s.px(10))
+        .margin_bottom(s.px(76))
+        .margin_left(s.px(4))
+        .margin_right(s.px(4))
+        .y_label_area_size(0)
+        .right_y_label_area_size(s.px(92))
+        .build_cartesian_2d(0f64..1.0, vmin..vmax)
+        .map_err(de)?;
     cb.configure_mesh()
         .disable_mesh()
         .disable_x_axis()
         .y_labels(6)
         .y_label_formatter(&fv)
         .y_desc(&m.value_label)
-        .label_style(TextStyle::from((FONT, 17).into_font()).color(&TEXT))
-        .axis_desc_style(TextStyle::from((FONT, 18).into_font()).color(&TEXT))
+        .label_style(s.font(17).color(&TEXT))
+        .axis_desc_style(s.font(18).color(&TEXT))
+        .axis_style(s.line(BLACK, 1))
+        .set_all_tick_mark_size(s.px(TICK_MARK))
         .draw()
         .map_err(de)?;
     let steps = 100;
@@ -191,16 +204,17 @@ pub(super) fn draw_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &Gr
         Rectangle::new([(0.0, a), (1.0, b)], heat_color((k as f64 + 0.5) / steps as f64).filled())
     }))
     .map_err(de)?;
-    let (_, bh) = bar.dim_in_pixel();
-    let note = TextStyle::from((FONT, 14).into_font()).color(&TEXT).pos(Pos::new(HPos::Left, VPos::Center));
+    let bh = s.image_px(bar.dim_in_pixel().1) as i32;
+    let at = |x: i32, y: i32| (s.at(x), s.at(y));
+    let note = s.font(14).color(&TEXT).pos(Pos::new(HPos::Left, VPos::Center));
     for (k, (count, word)) in [(scale.above, "above"), (scale.below, "below")].into_iter().filter(|(c, _)| *c > 0).enumerate() {
         let text = format!("{count} cell{} {word} scale", if count == 1 { "" } else { "s" });
-        bar.draw_text(&text, &note, (6, bh as i32 - 66 + 16 * k as i32)).map_err(de)?;
+        bar.draw_text(&text, &note, at(6, bh - 66 + 16 * k as i32)).map_err(de)?;
     }
     if m.values.iter().flatten().any(|v| v.is_none()) {
-        let st = TextStyle::from((FONT, 16).into_font()).color(&TEXT).pos(Pos::new(HPos::Left, VPos::Center));
-        bar.draw(&Rectangle::new([(6, bh as i32 - 44), (24, bh as i32 - 26)], RGBColor(225, 225, 225).filled())).map_err(de)?;
-        bar.draw_text("n/a: no value", &st, (30, bh as i32 - 35)).map_err(de)?;
+        let st = s.font(16).color(&TEXT).pos(Pos::new(HPos::Left, VPos::Center));
+        bar.draw(&Rectangle::new([at(6, bh - 44), at(24, bh - 26)], RGBColor(225, 225, 225).filled())).map_err(de)?;
+        bar.draw_text("n/a: no value", &st, at(30, bh - 35)).map_err(de)?;
     }
     Ok(())
 }

@@ -19,6 +19,7 @@ mod axes;
 mod figure;
 mod heatmap;
 mod profiles;
+mod raster;
 mod runs;
 mod table_charts;
 mod text;
@@ -30,6 +31,7 @@ pub use text::*;
 pub use profiles::*;
 pub use runs::*;
 pub use table_charts::*;
+use raster::*;
 
 use super::{write_replace, OutputError};
 
@@ -39,6 +41,8 @@ const FONT: &str = "sans-serif";
 pub const MAX_COMPONENTS_UNGROUPED: usize = 8;
 /// Curves are thinned to at most this many points (evenly spaced rows, first and last kept).
 const MAX_POINTS: usize = 800;
+/// Length of the axis tick marks \[image px\] (plotters' default, set explicitly so it scales with the canvas).
+const TICK_MARK: u32 = 5;
 
 const TEXT: RGBColor = RGBColor(34, 34, 34);
 const MUTED: RGBColor = RGBColor(96, 96, 96);

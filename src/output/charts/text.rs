@@ -171,25 +171,27 @@ pub(super) fn truncate_label(s: &str, max_chars: usize) -> String {
     }
 }
 
-pub(super) fn text_width<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, text: &str, size: u32) -> u32 {
-    root.estimate_text_size(text, &TextStyle::from((FONT, size).into_font())).map(|(w, _)| w).unwrap_or(8 * text.len() as u32)
+/// Width of `text` at `size` image pixels, in canvas pixels.
+pub(super) fn text_width<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, text: &str, size: u32, s: Scale) -> u32 {
+    root.estimate_text_size(text, &s.font(size)).map(|(w, _)| w).unwrap_or(s.px(8 * text.len() as u32))
 }
 
-pub(super) fn draw_title<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, title: &str, subtitle: &str) -> Result<u32, String> {
+/// Title and subtitle centred at the top; returns the height they take, in canvas pixels.
+pub(super) fn draw_title<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, title: &str, subtitle: &str, s: Scale) -> Result<u32, String> {
     let (w, _) = root.dim_in_pixel();
-    let title_style = TextStyle::from((FONT, 28).into_font().style(FontStyle::Bold)).color(&TEXT).pos(Pos::new(HPos::Center, VPos::Top));
-    root.draw_text(title, &title_style, (w as i32 / 2, 10)).map_err(de)?;
+    let title_style = s.bold(28).color(&TEXT).pos(Pos::new(HPos::Center, VPos::Top));
+    root.draw_text(title, &title_style, (w as i32 / 2, s.at(10))).map_err(de)?;
     if subtitle.is_empty() {
-        return Ok(50);
+        return Ok(s.px(50));
     }
     let mut sub = subtitle.to_string();
     let mut size = 19;
-    while text_width(root, &sub, size) + 40 > w && size > 14 {
+    while text_width(root, &sub, size, s) + s.px(40) > w && size > 14 {
         size -= 1;
     }
-    while text_width(root, &sub, size) + 40 > w && sub.chars().count() > 10 {
+    while text_width(root, &sub, size, s) + s.px(40) > w && sub.chars().count() > 10 {
         sub = truncate_label(&sub, sub.chars().count() - 4);
     }
-    root.draw_text(&sub, &TextStyle::from((FONT, size).into_font()).color(&MUTED).pos(Pos::new(HPos::Center, VPos::Top)), (w as i32 / 2, 48)).map_err(de)?;
-    Ok(80)
+    root.draw_text(&sub, &s.font(size).color(&MUTED).pos(Pos::new(HPos::Center, VPos::Top)), (w as i32 / 2, s.at(48))).map_err(de)?;
+    Ok(s.px(80))
 }

@@ -27,7 +27,7 @@ pub(super) const RANGE_KEYS: [&str; 4] = ["from", "to", "steps", "scale"];
 pub(super) const MODEL_KEYS: [&str; 2] = ["reference-weight", "end-mass-fraction"];
 /// Smallest `model.end-mass-fraction` accepted (a remaining diameter of 1 % of the initial one).
 pub const MIN_END_MASS_FRACTION: f64 = 1e-6;
-pub(super) const OUTPUT_KEYS: [&str; 2] = ["histories", "residue-indicators"];
+pub(super) const OUTPUT_KEYS: [&str; 3] = ["histories", "residue-indicators", "history-times"];
 /// Largest number of cases a spec may describe.
 pub const MAX_CASES: u64 = 1_000_000_000_000;
 /// Largest `steps` of one range.
@@ -153,6 +153,9 @@ pub struct SweepSpec {
     pub histories: bool,
     /// Add the residual-liquid indicator columns (the `[output] residue-indicators` option, default true).
     pub residue_indicators: bool,
+    /// Times \[s\] of the case history rows (the `[output] history-times` option); empty: a row at every
+    /// integrator step. Part of the spec's fingerprint, since with the resolved liquid it also moves the steps.
+    pub history_times: Vec<f64>,
     fuels: Vec<SweepFuel>,
     values: Vec<Values>,
     groups: Vec<Vec<usize>>,
@@ -288,13 +291,13 @@ impl SweepSpec {
             t.reference_weight = model.reference_weight;
             t.end_mass_fraction = model.end_mass_fraction;
         }
-        let (histories, residue_indicators) = sections::parse_output(&ctx, table.get("output"))?;
+        let (histories, residue_indicators, history_times) = sections::parse_output(&ctx, table.get("output"))?;
 
         let mut count: u64 = fuels.len() as u64;
         for g in &groups {
             count = count.checked_mul(values[g[0]].len()).filter(|c| *c <= MAX_CASES).ok_or_else(|| ctx.err("conditions", format!("the spec describes more than {MAX_CASES} cases")))?;
         }
-        let mut spec = SweepSpec { file: file.to_string(), name, description, fuels, values, groups, model, histories, residue_indicators, count, fingerprint: String::new(), registry, templates };
+        let mut spec = SweepSpec { file: file.to_string(), name, description, fuels, values, groups, model, histories, residue_indicators, history_times, count, fingerprint: String::new(), registry, templates };
         spec.fingerprint = spec.compute_fingerprint();
         Ok(spec)
     }
@@ -329,7 +332,8 @@ impl SweepSpec {
         self.count
     }
 
-    /// A 16-hex-digit hash of everything that defines the cases (fuels and compositions, values, model options).
+    /// A 16-hex-digit hash of everything that defines the cases (fuels and compositions, values, model options,
+    /// requested history times).
     pub fn fingerprint(&self) -> &str {
         &self.fingerprint
     }
@@ -346,6 +350,10 @@ impl SweepSpec {
             s.push_str(&format!("group {:?}\n", g));
         }
         s.push_str(&format!("model {:?} {:?}\n", self.model.reference_weight, self.model.end_mass_fraction));
+        // only when given, so the fingerprints of specs without it stay as they were
+        if !self.history_times.is_empty() {
+            s.push_str(&format!("history-times {:?}\n", self.history_times));
+        }
         let mut h: u64 = 0xcbf29ce484222325;
         for b in s.bytes() {
             h ^= u64::from(b);

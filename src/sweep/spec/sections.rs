@@ -149,9 +149,11 @@ pub(super) fn parse_model(ctx: &Ctx, v: Option<&toml::Value>) -> Result<ModelOpt
     Ok(m)
 }
 
-pub(super) fn parse_output(ctx: &Ctx, v: Option<&toml::Value>) -> Result<(bool, bool), SweepError> {
-    let (mut histories, mut residue) = (false, true);
-    let Some(v) = v else { return Ok((histories, residue)) };
+/// The `[output]` section: (histories, residue indicators, requested history times \[s\], empty for rows at
+/// integrator steps).
+pub(super) fn parse_output(ctx: &Ctx, v: Option<&toml::Value>) -> Result<(bool, bool, Vec<f64>), SweepError> {
+    let (mut histories, mut residue, mut times) = (false, true, vec![]);
+    let Some(v) = v else { return Ok((histories, residue, times)) };
     let toml::Value::Table(t) = v else {
         return Err(ctx.err("output", format!("expected a table [output], found {}", type_name(v))));
     };
@@ -160,6 +162,10 @@ pub(super) fn parse_output(ctx: &Ctx, v: Option<&toml::Value>) -> Result<(bool, 
         let slot = match key.as_str() {
             "histories" => &mut histories,
             "residue-indicators" => &mut residue,
+            "history-times" => {
+                times = parse_history_times(ctx, &field, v)?;
+                continue;
+            }
             _ => return Err(unknown_key(ctx, &field, key, &OUTPUT_KEYS)),
         };
         match v {
@@ -167,5 +173,36 @@ pub(super) fn parse_output(ctx: &Ctx, v: Option<&toml::Value>) -> Result<(bool, 
             other => return Err(ctx.err(field, format!("expected true or false, found {}", show(other)))),
         }
     }
-    Ok((histories, residue))
+    Ok((histories, residue, times))
+}
+
+/// `[output] history-times`: a string as `--history-times` takes it (`"0:0.5ms:20ms"`, `"1ms,2ms,5ms"`) or a list
+/// of times (strings with units, plain numbers in seconds); checked like the option.
+fn parse_history_times(ctx: &Ctx, field: &str, v: &toml::Value) -> Result<Vec<f64>, SweepError> {
+    use crate::model::guard::{self, HistoryTimesError};
+    let refuse = |e: HistoryTimesError| match e {
+        HistoryTimesError::Times(value, reason) => ctx.err(field, format!("{value}: {reason}")),
+        other => ctx.err(field, other.detail()),
+    };
+    match v {
+        toml::Value::String(text) => guard::parse_history_times(text).map_err(refuse),
+        toml::Value::Array(items) => {
+            if items.is_empty() {
+                return Err(ctx.err(field, "the list is empty (leave the key out for a row at every integrator step)"));
+            }
+            let mut times = Vec::with_capacity(items.len().min(guard::MAX_HISTORY_TIMES + 1));
+            for (i, item) in items.iter().enumerate() {
+                let at = format!("{field}[{i}]");
+                times.push(match item {
+                    toml::Value::String(text) => crate::units::parse(text, crate::units::Quantity::Time).map_err(|e| ctx.err(&at, e.to_string()))?,
+                    toml::Value::Integer(n) => *n as f64,
+                    toml::Value::Float(x) => *x,
+                    other => return Err(ctx.err(at, format!("expected a time (\"5ms\", or a number in seconds), found {}", show(other)))),
+                });
+            }
+            guard::check_times(&times).map_err(refuse)?;
+            Ok(times)
+        }
+        other => Err(ctx.err(field, format!("expected \"START:STEP:END\", \"T1,T2,...\" or a list of times, found {}", show(other)))),
+    }
 }

@@ -199,3 +199,33 @@ fn errors_name_the_field() {
         }
     }
 }
+
+#[test]
+fn history_times_are_an_output_setting_in_the_fingerprint() {
+    let base = "fuels = [\"n-decane\"]\n[conditions]\ndiameter = [\"20um\", \"30um\"]\n";
+    let with = |times: &str| parse(&format!("{base}[output]\nhistory-times = {times}\n")).unwrap();
+    let plain = parse(base).unwrap();
+    assert!(plain.history_times.is_empty());
+    let grid = with("\"0:0.5ms:2ms\"");
+    assert_eq!(grid.history_times, vec![0.0, 0.5e-3, 1e-3, 1.5e-3, 2e-3]);
+    assert_eq!(with("[\"0.5ms\", 0.001, \"1500us\"]").history_times, vec![0.5e-3, 1e-3, 1.5e-3]);
+    assert_eq!(with("[1, 2]").history_times, vec![1.0, 2.0]);
+    // the times enter the fingerprint; a spec without them keeps the fingerprint it always had
+    assert_ne!(grid.fingerprint(), plain.fingerprint());
+    assert_ne!(grid.fingerprint(), with("\"0:0.5ms:2.5ms\"").fingerprint());
+    assert_eq!(grid.fingerprint(), with("\"0:0.5ms:2ms\"").fingerprint());
+    assert_eq!(plain.fingerprint(), parse(&format!("{base}[output]\nhistories = true\n")).unwrap().fingerprint());
+    for (times, expect) in [
+        ("\"0:0ms:2ms\"", "output.history-times: '0:0ms:2ms': the step (START:STEP:END) must be positive"),
+        ("\"2ms,1ms\"", "output.history-times: 1.000000e-3 s after 2.000000e-3 s: times must be strictly ascending"),
+        ("[\"1ms\", \"2mm\"]", "output.history-times[1]"),
+        ("[\"1ms\", true]", "output.history-times[1]: expected a time"),
+        ("[]", "output.history-times: the list is empty"),
+        ("true", "output.history-times: expected \"START:STEP:END\""),
+        ("[-1.0]", "output.history-times: -1.000000e0 s: times must be finite and not negative"),
+    ] {
+        let e = parse(&format!("{base}[output]\nhistory-times = {times}\n")).unwrap_err().to_string();
+        assert!(e.contains(expect), "{times}: {e}");
+        assert!(!e.contains('\n'), "{e}");
+    }
+}

@@ -63,6 +63,10 @@ fn main() {
         }
         other => panic!("unknown case {other}"),
     };
+    if args.get(1).map(String::as_str) == Some("trace") {
+        trace(&inp);
+        return;
+    }
     let mut last = None;
     for _ in 0..repeats {
         last = Some(black_box(simulate(&inp, &mut NoHistory).unwrap()));
@@ -74,4 +78,27 @@ fn main() {
             o.lifetime, o.t10, o.t50, o.t90, o.max_surface_temperature, o.stats
         );
     }
+}
+
+/// Accepted and rejected steps of a well-mixed life (the run's integrator settings, no events), one line per
+/// accepted step: time, step, rejections before it, remaining mass fraction, temperature.
+fn trace(inp: &DropletInputs) {
+    use dropcut::model::droplet::WellMixed;
+    use dropcut::model::integrator::{DormandPrince, Tolerances};
+    let (mut sys, y0) = WellMixed::new(inp);
+    let n = inp.fuel.len();
+    let m0: f64 = y0[..n].iter().sum();
+    let mut atol = vec![inp.rtol * 1e-3 * m0; 2 * n + 2];
+    atol[n] = inp.rtol;
+    atol[n + 1] = inp.rtol * y0[n + 1].max(1.0) * 1e-3;
+    let mut dp = DormandPrince::new(&mut sys, 0.0, &y0, Tolerances { rtol: inp.rtol, atol }, 0.0, inp.max_time / 20.0);
+    println!("first step proposed {:e}", dp.proposed_step());
+    let mut rejected = 0;
+    while dp.y[..n].iter().sum::<f64>() / m0 > inp.end_mass_fraction {
+        dp.step(&mut sys).unwrap();
+        let r = dp.stats.rejected - rejected;
+        rejected = dp.stats.rejected;
+        println!("t {:.6e} h {:.3e} rej {r} rem {:.6e} T {:.3}", dp.t, dp.h_last, dp.y[..n].iter().sum::<f64>() / m0, dp.y[n]);
+    }
+    println!("{:?}", dp.stats);
 }

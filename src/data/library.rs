@@ -77,7 +77,8 @@ fn scan_names(header: &str) -> Option<ComponentNames> {
         let (key, value) = line.split_once('=')?;
         let (key, value) = (key.trim(), value.trim());
         let bare = !key.is_empty() && key.bytes().all(|b| b.is_ascii_alphanumeric() || b == b'-' || b == b'_');
-        if !bare || value.contains("\"\"\"") || value.contains("'''") {
+        let multi_line = value.as_bytes().windows(3).any(|w| w == b"\"\"\"" || w == b"'''");
+        if !bare || multi_line {
             return None;
         }
         match key {

@@ -198,24 +198,33 @@ impl RadialGrid {
         }
         let g_s = g_scale * self.factors[n];
         let scale_old = m_old / dt;
-        for (k, input) in inputs.iter().enumerate() {
-            let col = &mut u[k * n..(k + 1) * n];
+        // slices of length n: the sweeps below run without bounds checks (the same operations in the same order)
+        let (a, d, cp, widths) = (&self.a[..n], &self.d[..n], &self.cp[..n], &self.widths[..n]);
+        let (a_last, cp_before_last, b_last) = (a[n - 1], cp[n - 2], self.b[n - 1]);
+        for (col, (input, surface_k)) in u.chunks_exact_mut(n).zip(inputs.iter().zip(surface.iter_mut())) {
             let den = g_s - input.q1;
             let alpha = g_s / den;
             let beta = (input.q0 - input.q1 * input.u_ref) / den;
             // forward sweep of the right-hand side (stored in col)
-            col[0] = scale_old * self.widths[0] * col[0] / self.d[0];
-            for j in 1..n - 1 {
-                col[j] = (scale_old * self.widths[j] * col[j] - self.a[j] * col[j - 1]) / self.d[j];
+            let (first, rest) = col.split_at_mut(1);
+            first[0] = scale_old * widths[0] * first[0] / d[0];
+            let mut prev = first[0];
+            let (inner, last) = rest.split_at_mut(n - 2);
+            for (c, ((&aj, &wj), &dj)) in inner.iter_mut().zip(a[1..n - 1].iter().zip(&widths[1..n - 1]).zip(&d[1..n - 1])) {
+                *c = (scale_old * wj * *c - aj * prev) / dj;
+                prev = *c;
             }
-            let diag_last = self.b[n - 1] + g_s * (1.0 - alpha) + mdot * alpha;
-            let rhs_last = scale_old * self.widths[n - 1] * col[n - 1] - (mdot - g_s) * beta;
-            let piv = diag_last - self.a[n - 1] * self.cp[n - 2];
-            col[n - 1] = (rhs_last - self.a[n - 1] * col[n - 2]) / piv;
-            for j in (0..n - 1).rev() {
-                col[j] -= self.cp[j] * col[j + 1];
+            let diag_last = b_last + g_s * (1.0 - alpha) + mdot * alpha;
+            let rhs_last = scale_old * widths[n - 1] * last[0] - (mdot - g_s) * beta;
+            let piv = diag_last - a_last * cp_before_last;
+            last[0] = (rhs_last - a_last * prev) / piv;
+            let u_last = last[0];
+            let mut next = u_last;
+            for (c, &cpj) in col[..n - 1].iter_mut().zip(&cp[..n - 1]).rev() {
+                *c -= cpj * next;
+                next = *c;
             }
-            surface[k] = alpha * col[n - 1] + beta;
+            *surface_k = alpha * u_last + beta;
         }
     }
 

@@ -226,10 +226,12 @@ impl Model {
         }
         // Liquid inventory per component straight from the conservative solve; the evaporated masses are what
         // left it (so liquid + evaporated = initial holds exactly), and cell sums are renormalised to 1.
+        // (iterators over whole columns and strided rows: the same sums in the same order, without bounds checks)
         let mut total_mass = 0.0;
+        let widths = &self.ygrid.widths[..ny];
         for i in 0..n {
-            let inventory: f64 = m_used * (0..ny).map(|j| self.ygrid.widths[j] * next.y[i * ny + j]).sum::<f64>();
-            let before: f64 = s.mass * (0..ny).map(|j| self.ygrid.widths[j] * s.y[i * ny + j]).sum::<f64>();
+            let inventory: f64 = m_used * widths.iter().zip(&next.y[i * ny..(i + 1) * ny]).map(|(w, y)| w * y).sum::<f64>();
+            let before: f64 = s.mass * widths.iter().zip(&s.y[i * ny..(i + 1) * ny]).map(|(w, y)| w * y).sum::<f64>();
             next.evaporated[i] = s.evaporated[i] + (before - inventory);
             next.inventory[i] = s.inventory[i] - (before - inventory);
             total_mass += next.inventory[i];
@@ -237,10 +239,10 @@ impl Model {
         let _ = mdot_a;
         next.mass = total_mass;
         for j in 0..ny {
-            let sum: f64 = (0..n).map(|i| next.y[i * ny + j]).sum();
+            let sum: f64 = next.y[j..].iter().step_by(ny).take(n).sum();
             if sum > 0.0 {
-                for i in 0..n {
-                    next.y[i * ny + j] /= sum;
+                for v in next.y[j..].iter_mut().step_by(ny).take(n) {
+                    *v /= sum;
                 }
             }
         }

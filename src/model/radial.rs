@@ -102,33 +102,26 @@ impl RadialGrid {
     }
 
     /// Tridiagonal coefficients (a, b, c) of all rows for diffusion plus the grid-relative advection of a
-    /// receding surface, without the surface exchange of the last row.
+    /// receding surface, without the surface exchange of the last row. Each inner face is evaluated once and
+    /// added to its two cells (the inner-face term of a cell before its outer-face term, as row by row).
     fn assemble(&mut self, m_new: f64, dt: f64, g_scale: f64, mdot: f64) {
         let n = self.len();
-        for j in 0..n {
-            let mut diag = m_new * self.widths[j] / dt;
-            let mut lower = 0.0;
-            let mut upper = 0.0;
-            // inner face a = j (between cell j−1 and j), outer face b = j+1; flow = mass crossing outward
-            if j > 0 {
-                let g = g_scale * self.factors[j];
-                let flow = self.faces[j] * mdot;
-                let w = self.advected_inner_weight(j, flow, g);
-                // inflow through a: J_a + flow·u_a, J_a = g (u_{j−1} − u_j), u_a = w u_{j−1} + (1 − w) u_j
-                lower -= g + flow * w;
-                diag += g - flow * (1.0 - w);
-            }
-            if j + 1 < n {
-                let g = g_scale * self.factors[j + 1];
-                let flow = self.faces[j + 1] * mdot;
-                let w = self.advected_inner_weight(j + 1, flow, g);
-                // outflow through b: J_b + flow·u_b, J_b = g (u_j − u_{j+1}), u_b = w u_j + (1 − w) u_{j+1}
-                diag += g + flow * w;
-                upper += -g + flow * (1.0 - w);
-            }
-            self.a[j] = lower;
-            self.b[j] = diag;
-            self.c[j] = upper;
+        for ((a, b), (c, width)) in self.a[..n].iter_mut().zip(&mut self.b[..n]).zip(self.c[..n].iter_mut().zip(&self.widths[..n])) {
+            *a = 0.0;
+            *b = m_new * width / dt;
+            *c = 0.0;
+        }
+        // face f between cell f−1 and cell f; flow = mass crossing outward
+        for f in 1..n {
+            let g = g_scale * self.factors[f];
+            let flow = self.faces[f] * mdot;
+            let w = self.advected_inner_weight(f, flow, g);
+            // outflow of cell f−1 through its outer face: J + flow·u_f, J = g (u_{f−1} − u_f), u_f = w u_{f−1} + (1 − w) u_f
+            self.b[f - 1] += g + flow * w;
+            self.c[f - 1] += -g + flow * (1.0 - w);
+            // inflow of cell f through its inner face
+            self.a[f] -= g + flow * w;
+            self.b[f] += g - flow * (1.0 - w);
         }
     }
 

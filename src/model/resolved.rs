@@ -69,6 +69,8 @@ pub(crate) struct Model {
     kappa: Vec<f64>,
     inputs: Vec<SurfaceInput>,
     molar_volume_b: Vec<f64>,
+    /// Σ over species of the cell mass fractions, per cell (scratch of a step).
+    cell_sums: Vec<f64>,
     film_calls: u64,
 }
 
@@ -238,10 +240,16 @@ impl Model {
         }
         let _ = mdot_a;
         next.mass = total_mass;
-        for j in 0..ny {
-            let sum: f64 = next.y[j..].iter().step_by(ny).take(n).sum();
-            if sum > 0.0 {
-                for v in next.y[j..].iter_mut().step_by(ny).take(n) {
+        self.cell_sums.clear();
+        self.cell_sums.resize(ny, 0.0);
+        for column in next.y.chunks_exact(ny).take(n) {
+            for (sum, v) in self.cell_sums.iter_mut().zip(column) {
+                *sum += v;
+            }
+        }
+        for column in next.y.chunks_exact_mut(ny).take(n) {
+            for (v, &sum) in column.iter_mut().zip(&self.cell_sums) {
+                if sum > 0.0 {
                     *v /= sum;
                 }
             }
@@ -431,6 +439,7 @@ impl Model {
             rates: vec![0.0; n],
             kappa: vec![0.0; n],
             inputs: vec![SurfaceInput { q0: 0.0, q1: 0.0, u_ref: 0.0 }; n],
+            cell_sums: vec![0.0; ny],
             film_calls: 0,
         };
         let state = State {

@@ -296,15 +296,17 @@ impl std::fmt::Debug for KernelSlot {
 }
 
 /// Coefficients that continue published correlations past their ranges (docs/property-methods.md), fitted
-/// to the published correlations themselves by `crate::props::pure::fit_extensions`.
-#[derive(Debug, Clone, Copy, PartialEq, Default)]
+/// to the published correlations themselves by `crate::props::pure::fit_extensions` (the Wilhoit fit on first
+/// use: most runs never leave the published ideal-gas cp range).
+#[derive(Debug, Clone, PartialEq, Default)]
 pub struct Extensions {
     /// Hildebrand fluidity law 1/μ = a·V + b above the takeover temperature: (takeover \[K\], a \[1/(Pa·s)/(m³/mol)\],
     /// b \[1/(Pa·s)\]); None when the liquid viscosity has no published coefficients or the fit failed.
     pub fluidity: Option<(f64, f64, f64)>,
     /// Wilhoit ideal-gas cp above the published range: (B \[K\], a0, a1, a2, cp at 0 K \[J/(mol·K)\], classical
-    /// limit \[J/(mol·K)\]); None when the ideal-gas cp is not a polynomial with a finite range.
-    pub wilhoit: Option<WilhoitCoefficients>,
+    /// limit \[J/(mol·K)\]); None when the ideal-gas cp is not a polynomial with a finite range. Fitted on first
+    /// use (`crate::props::pure`, `Component::wilhoit`).
+    pub wilhoit: std::sync::OnceLock<Option<WilhoitCoefficients>>,
     /// Temperature-independent factor of the Chung et al. vapour viscosity of this component \[Pa·s/K^½\].
     pub chung_viscosity_factor: f64,
 }

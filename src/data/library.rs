@@ -36,7 +36,8 @@ struct ComponentNames {
     aliases: Vec<String>,
 }
 
-/// Id and aliases of a component file from the lines before its first table header.
+/// Id and aliases of a component file from the lines before its first table header: by a line scan when every
+/// line there is a one-line `key = value` (as the generated files are), otherwise by the TOML parser.
 fn component_names(text: &str) -> Option<ComponentNames> {
     let mut end = text.len();
     let mut pos = 0;
@@ -47,7 +48,69 @@ fn component_names(text: &str) -> Option<ComponentNames> {
         }
         pos += line.len();
     }
-    toml::from_str(&text[..end]).ok()
+    scan_names(&text[..end]).or_else(|| toml::from_str(&text[..end]).ok())
+}
+
+/// `id` and `aliases` of a header whose lines are blank, comments or one-line `bare-key = value` pairs, with
+/// `id` a basic string and `aliases` a one-line array of basic strings (no escapes); None for anything else (the
+/// TOML parser then decides).
+fn scan_names(header: &str) -> Option<ComponentNames> {
+    /// A basic string without escapes at the start of `s`, and the rest after it.
+    fn string(s: &str) -> Option<(&str, &str)> {
+        let body = s.strip_prefix('"')?;
+        let close = body.find('"')?;
+        let value = &body[..close];
+        (!value.contains('\\')).then_some((value, &body[close + 1..]))
+    }
+    /// Nothing but blanks or a comment.
+    fn empty(rest: &str) -> bool {
+        let rest = rest.trim();
+        rest.is_empty() || rest.starts_with('#')
+    }
+    let mut id = None;
+    let mut aliases = None;
+    for line in header.lines() {
+        let line = line.trim();
+        if line.is_empty() || line.starts_with('#') {
+            continue;
+        }
+        let (key, value) = line.split_once('=')?;
+        let (key, value) = (key.trim(), value.trim());
+        let bare = !key.is_empty() && key.bytes().all(|b| b.is_ascii_alphanumeric() || b == b'-' || b == b'_');
+        let multi_line = value.as_bytes().windows(3).any(|w| w == b"\"\"\"" || w == b"'''");
+        if !bare || multi_line {
+            return None;
+        }
+        match key {
+            "id" => {
+                let (value, rest) = string(value)?;
+                if id.is_some() || !empty(rest) {
+                    return None;
+                }
+                id = Some(value.to_string());
+            }
+            "aliases" => {
+                let mut rest = value.strip_prefix('[')?.trim_start();
+                let mut list = vec![];
+                while !rest.starts_with(']') {
+                    let (item, after) = string(rest)?;
+                    list.push(item.to_string());
+                    rest = after.trim_start();
+                    if let Some(after) = rest.strip_prefix(',') {
+                        rest = after.trim_start();
+                    } else if !rest.starts_with(']') {
+                        return None;
+                    }
+                }
+                if aliases.is_some() || !empty(&rest[1..]) {
+                    return None;
+                }
+                aliases = Some(list);
+            }
+            _ => {}
+        }
+    }
+    Some(ComponentNames { id: id?, aliases: aliases.unwrap_or_default() })
 }
 
 /// All components, gases, sources and named fuel files known to a run.
@@ -283,6 +346,29 @@ mod tests {
             let names = component_names(text).unwrap_or_else(|| panic!("{path}: id not readable"));
             let c = Component::parse(text, path).unwrap();
             assert_eq!((names.id, names.aliases), (c.id.clone(), c.aliases.clone()), "{path}");
+        }
+    }
+
+    /// The line scan of the names agrees with the TOML parser where it answers, and leaves other headers to it.
+    #[test]
+    fn name_scan_agrees_with_toml() {
+        let toml_names = |h: &str| toml::from_str::<ComponentNames>(h).ok().map(|n| (n.id, n.aliases));
+        for header in ["id = \"a\"\naliases = [\"b\", \"c\",]  # x\nformula = { C = 1 }\n", "# c\nid = \"a\" # note\n\naliases = []\n", "id = \"a\"\n"] {
+            let scanned = scan_names(header).map(|n| (n.id, n.aliases));
+            assert!(scanned.is_some(), "{header}");
+            assert_eq!(scanned, toml_names(header), "{header}");
+        }
+        let left_to_toml = [
+            "id = 'a'\n",
+            "\"id\" = \"a\"\n",
+            "id = \"a\\u0062\"\n",
+            "aliases = [\n\"b\"]\nid = \"a\"\n",
+            "id = \"a\"\nid = \"b\"\n",
+            "name = \"\"\"\nid = \"x\"\n\"\"\"\nid = \"a\"\n",
+            "aliases = [\"b\"\nid = \"a\"\n",
+        ];
+        for header in left_to_toml {
+            assert!(scan_names(header).is_none(), "{header}");
         }
     }
 

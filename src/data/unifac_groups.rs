@@ -30,7 +30,9 @@ pub struct Subgroup {
 pub struct UnifacTables {
     /// Subgroups in table order.
     pub subgroups: Vec<Subgroup>,
-    interactions: HashMap<(u32, u32), f64>,
+    /// Interaction parameters, parsed on first use (component files name subgroups; only the UNIFAC activity
+    /// model needs the interactions).
+    interactions: OnceLock<HashMap<(u32, u32), f64>>,
 }
 
 /// Provenance line of the parameter set, for output metadata and docs.
@@ -72,12 +74,15 @@ fn parse() -> UnifacTables {
             area: field(sub_file, *line, f, 5, "Q_k"),
         })
         .collect();
+    UnifacTables { subgroups, interactions: OnceLock::new() }
+}
+
+fn parse_interactions() -> HashMap<(u32, u32), f64> {
     let int_file = "mixtures/unifac/original-unifac-interactions.csv";
-    let interactions = data_rows(INTERACTIONS_CSV, int_file)
+    data_rows(INTERACTIONS_CSV, int_file)
         .iter()
         .map(|(line, f)| ((field(int_file, *line, f, 0, "main group m"), field(int_file, *line, f, 1, "main group n")), field(int_file, *line, f, 2, "a_mn")))
-        .collect();
-    UnifacTables { subgroups, interactions }
+        .collect()
 }
 
 /// The tables, parsed on first use.
@@ -97,7 +102,7 @@ impl UnifacTables {
         if m == n {
             return Some(0.0);
         }
-        self.interactions.get(&(m, n)).copied()
+        self.interactions.get_or_init(parse_interactions).get(&(m, n)).copied()
     }
 }
 

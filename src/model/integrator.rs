@@ -95,6 +95,10 @@ pub struct DormandPrince {
     /// Largest allowed step.
     pub h_max: f64,
     fac_old: f64,
+    /// Length and error of the previous accepted step (0: none since the start or the last reset), for the
+    /// predictive controller.
+    h_acc: f64,
+    err_acc: f64,
 }
 
 /// Why a step failed.
@@ -134,6 +138,8 @@ impl DormandPrince {
             fsal_ready: false,
             h_max,
             fac_old: 1e-4,
+            h_acc: 0.0,
+            err_acc: 0.0,
         };
         sys.rhs(t0, &s.y, &mut s.k[0]);
         s.stats.rhs_calls += 1;
@@ -176,7 +182,8 @@ impl DormandPrince {
     /// Take one accepted step (retrying internally after rejections); returns the new time.
     ///
     /// Step control: PI controller of Hairer's DOPRI5 (β = 0.04, safety 0.9, growth ≤ 10×, shrink ≤ 5× after an
-    /// accepted step); after a rejection the step shrinks by at most [`MAX_SHRINK_AFTER_REJECTION`] and the step
+    /// accepted step), or Gustafsson's predictive controller from the last two accepted steps where that gives
+    /// the smaller step (Hairer & Wanner, Solving ODEs II, §IV.8); after a rejection the step shrinks by at most [`MAX_SHRINK_AFTER_REJECTION`] and the step
     /// that follows the next acceptance does not grow (Hairer, Nørsett & Wanner, Solving ODEs I, §II.4).
     pub fn step<S: OdeSystem>(&mut self, sys: &mut S) -> Result<f64, StepError> {
         let n = self.n;
@@ -251,6 +258,15 @@ impl DormandPrince {
             let mut h_new = h / fac;
             if err <= 1.0 {
                 self.fac_old = err.max(1e-4);
+                if self.h_acc > 0.0 {
+                    // Gustafsson's predictive controller (Hairer & Wanner, Solving ODEs II, §IV.8, as in RADAU5),
+                    // taken when smaller: an error growing from step to step (a droplet's last stretch, where
+                    // m ~ (τ − t)^{3/2}) shrinks the step before it fails instead of after.
+                    let fac_pred = (self.h_acc / h * (err * err / self.err_acc).powf(0.2) / 0.9).clamp(0.1, 5.0);
+                    h_new = h_new.min(h / fac_pred);
+                }
+                self.h_acc = h;
+                self.err_acc = err.max(1e-2);
                 if rejected_here {
                     h_new = h_new.min(h);
                 }
@@ -303,6 +319,7 @@ impl DormandPrince {
         sys.rhs(t, &self.y, &mut self.k[0]);
         self.stats.rhs_calls += 1;
         self.h = (self.h * 0.1).max(1e-12);
+        self.h_acc = 0.0;
     }
 
     /// Next step size the controller proposes \[s\].

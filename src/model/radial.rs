@@ -102,33 +102,26 @@ impl RadialGrid {
     }
 
     /// Tridiagonal coefficients (a, b, c) of all rows for diffusion plus the grid-relative advection of a
-    /// receding surface, without the surface exchange of the last row.
+    /// receding surface, without the surface exchange of the last row. Each inner face is evaluated once and
+    /// added to its two cells (the inner-face term of a cell before its outer-face term, as row by row).
     fn assemble(&mut self, m_new: f64, dt: f64, g_scale: f64, mdot: f64) {
         let n = self.len();
-        for j in 0..n {
-            let mut diag = m_new * self.widths[j] / dt;
-            let mut lower = 0.0;
-            let mut upper = 0.0;
-            // inner face a = j (between cell j−1 and j), outer face b = j+1; flow = mass crossing outward
-            if j > 0 {
-                let g = g_scale * self.factors[j];
-                let flow = self.faces[j] * mdot;
-                let w = self.advected_inner_weight(j, flow, g);
-                // inflow through a: J_a + flow·u_a, J_a = g (u_{j−1} − u_j), u_a = w u_{j−1} + (1 − w) u_j
-                lower -= g + flow * w;
-                diag += g - flow * (1.0 - w);
-            }
-            if j + 1 < n {
-                let g = g_scale * self.factors[j + 1];
-                let flow = self.faces[j + 1] * mdot;
-                let w = self.advected_inner_weight(j + 1, flow, g);
-                // outflow through b: J_b + flow·u_b, J_b = g (u_j − u_{j+1}), u_b = w u_j + (1 − w) u_{j+1}
-                diag += g + flow * w;
-                upper += -g + flow * (1.0 - w);
-            }
-            self.a[j] = lower;
-            self.b[j] = diag;
-            self.c[j] = upper;
+        for ((a, b), (c, width)) in self.a[..n].iter_mut().zip(&mut self.b[..n]).zip(self.c[..n].iter_mut().zip(&self.widths[..n])) {
+            *a = 0.0;
+            *b = m_new * width / dt;
+            *c = 0.0;
+        }
+        // face f between cell f−1 and cell f; flow = mass crossing outward
+        for f in 1..n {
+            let g = g_scale * self.factors[f];
+            let flow = self.faces[f] * mdot;
+            let w = self.advected_inner_weight(f, flow, g);
+            // outflow of cell f−1 through its outer face: J + flow·u_f, J = g (u_{f−1} − u_f), u_f = w u_{f−1} + (1 − w) u_f
+            self.b[f - 1] += g + flow * w;
+            self.c[f - 1] += -g + flow * (1.0 - w);
+            // inflow of cell f through its inner face
+            self.a[f] -= g + flow * w;
+            self.b[f] += g - flow * (1.0 - w);
         }
     }
 
@@ -198,24 +191,33 @@ impl RadialGrid {
         }
         let g_s = g_scale * self.factors[n];
         let scale_old = m_old / dt;
-        for (k, input) in inputs.iter().enumerate() {
-            let col = &mut u[k * n..(k + 1) * n];
+        // slices of length n: the sweeps below run without bounds checks (the same operations in the same order)
+        let (a, d, cp, widths) = (&self.a[..n], &self.d[..n], &self.cp[..n], &self.widths[..n]);
+        let (a_last, cp_before_last, b_last) = (a[n - 1], cp[n - 2], self.b[n - 1]);
+        for (col, (input, surface_k)) in u.chunks_exact_mut(n).zip(inputs.iter().zip(surface.iter_mut())) {
             let den = g_s - input.q1;
             let alpha = g_s / den;
             let beta = (input.q0 - input.q1 * input.u_ref) / den;
             // forward sweep of the right-hand side (stored in col)
-            col[0] = scale_old * self.widths[0] * col[0] / self.d[0];
-            for j in 1..n - 1 {
-                col[j] = (scale_old * self.widths[j] * col[j] - self.a[j] * col[j - 1]) / self.d[j];
+            let (first, rest) = col.split_at_mut(1);
+            first[0] = scale_old * widths[0] * first[0] / d[0];
+            let mut prev = first[0];
+            let (inner, last) = rest.split_at_mut(n - 2);
+            for (c, ((&aj, &wj), &dj)) in inner.iter_mut().zip(a[1..n - 1].iter().zip(&widths[1..n - 1]).zip(&d[1..n - 1])) {
+                *c = (scale_old * wj * *c - aj * prev) / dj;
+                prev = *c;
             }
-            let diag_last = self.b[n - 1] + g_s * (1.0 - alpha) + mdot * alpha;
-            let rhs_last = scale_old * self.widths[n - 1] * col[n - 1] - (mdot - g_s) * beta;
-            let piv = diag_last - self.a[n - 1] * self.cp[n - 2];
-            col[n - 1] = (rhs_last - self.a[n - 1] * col[n - 2]) / piv;
-            for j in (0..n - 1).rev() {
-                col[j] -= self.cp[j] * col[j + 1];
+            let diag_last = b_last + g_s * (1.0 - alpha) + mdot * alpha;
+            let rhs_last = scale_old * widths[n - 1] * last[0] - (mdot - g_s) * beta;
+            let piv = diag_last - a_last * cp_before_last;
+            last[0] = (rhs_last - a_last * prev) / piv;
+            let u_last = last[0];
+            let mut next = u_last;
+            for (c, &cpj) in col[..n - 1].iter_mut().zip(&cp[..n - 1]).rev() {
+                *c -= cpj * next;
+                next = *c;
             }
-            surface[k] = alpha * col[n - 1] + beta;
+            *surface_k = alpha * u_last + beta;
         }
     }
 

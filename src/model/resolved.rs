@@ -69,6 +69,8 @@ pub(crate) struct Model {
     kappa: Vec<f64>,
     inputs: Vec<SurfaceInput>,
     molar_volume_b: Vec<f64>,
+    /// Σ over species of the cell mass fractions, per cell (scratch of a step).
+    cell_sums: Vec<f64>,
     film_calls: u64,
 }
 
@@ -226,21 +228,29 @@ impl Model {
         }
         // Liquid inventory per component straight from the conservative solve; the evaporated masses are what
         // left it (so liquid + evaporated = initial holds exactly), and cell sums are renormalised to 1.
+        // (iterators over whole columns and strided rows: the same sums in the same order, without bounds checks)
         let mut total_mass = 0.0;
+        let widths = &self.ygrid.widths[..ny];
         for i in 0..n {
-            let inventory: f64 = m_used * (0..ny).map(|j| self.ygrid.widths[j] * next.y[i * ny + j]).sum::<f64>();
-            let before: f64 = s.mass * (0..ny).map(|j| self.ygrid.widths[j] * s.y[i * ny + j]).sum::<f64>();
+            let inventory: f64 = m_used * widths.iter().zip(&next.y[i * ny..(i + 1) * ny]).map(|(w, y)| w * y).sum::<f64>();
+            let before: f64 = s.mass * widths.iter().zip(&s.y[i * ny..(i + 1) * ny]).map(|(w, y)| w * y).sum::<f64>();
             next.evaporated[i] = s.evaporated[i] + (before - inventory);
             next.inventory[i] = s.inventory[i] - (before - inventory);
             total_mass += next.inventory[i];
         }
         let _ = mdot_a;
         next.mass = total_mass;
-        for j in 0..ny {
-            let sum: f64 = (0..n).map(|i| next.y[i * ny + j]).sum();
-            if sum > 0.0 {
-                for i in 0..n {
-                    next.y[i * ny + j] /= sum;
+        self.cell_sums.clear();
+        self.cell_sums.resize(ny, 0.0);
+        for column in next.y.chunks_exact(ny).take(n) {
+            for (sum, v) in self.cell_sums.iter_mut().zip(column) {
+                *sum += v;
+            }
+        }
+        for column in next.y.chunks_exact_mut(ny).take(n) {
+            for (v, &sum) in column.iter_mut().zip(&self.cell_sums) {
+                if sum > 0.0 {
+                    *v /= sum;
                 }
             }
         }
@@ -429,6 +439,7 @@ impl Model {
             rates: vec![0.0; n],
             kappa: vec![0.0; n],
             inputs: vec![SurfaceInput { q0: 0.0, q1: 0.0, u_ref: 0.0 }; n],
+            cell_sums: vec![0.0; ny],
             film_calls: 0,
         };
         let state = State {

@@ -243,6 +243,36 @@ fn fit(c: &Component, property: usize, seg: &Segment) -> Poly {
     fit_function(&|t| c.unscaled_direct(property, t), property == VAPOR_PRESSURE, seg)
 }
 
+/// Cosines of the Chebyshev interpolation, computed once per process (the same expressions, hence the same
+/// bits, as evaluating them at every fit).
+struct ChebyshevTable {
+    /// Nodes x_k = cos(π (k + ½)/N).
+    nodes: [f64; COEFFICIENTS],
+    /// cos(π j (k + ½)/N), `cosines[j][k]`.
+    cosines: [[f64; COEFFICIENTS]; COEFFICIENTS],
+    /// Extrema cos(π k/N), k = 0..=N.
+    extrema: [f64; COEFFICIENTS + 1],
+}
+
+/// The process-wide [`ChebyshevTable`].
+fn chebyshev_table() -> &'static ChebyshevTable {
+    static TABLE: OnceLock<ChebyshevTable> = OnceLock::new();
+    TABLE.get_or_init(|| {
+        const N: usize = COEFFICIENTS;
+        let mut t = ChebyshevTable { nodes: [0.0; N], cosines: [[0.0; N]; N], extrema: [0.0; N + 1] };
+        for k in 0..N {
+            t.nodes[k] = (std::f64::consts::PI * (k as f64 + 0.5) / N as f64).cos();
+            for j in 0..N {
+                t.cosines[j][k] = (std::f64::consts::PI * j as f64 * (k as f64 + 0.5) / N as f64).cos();
+            }
+        }
+        for k in 0..=N {
+            t.extrema[k] = (std::f64::consts::PI * k as f64 / N as f64).cos();
+        }
+        t
+    })
+}
+
 /// Chebyshev interpolant of `direct` (of ln `direct` when `log`) on `seg`, in monomials of u, and checked.
 fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
     const N: usize = COEFFICIENTS;
@@ -257,10 +287,10 @@ fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
     };
     let failed = Poly { c: [0.0; N], ok: false };
     // Chebyshev coefficients from values at the nodes x_k = cos(π (k + ½)/N)
+    let table = chebyshev_table();
     let mut f = [0.0; N];
     for (k, fk) in f.iter_mut().enumerate() {
-        let x = (std::f64::consts::PI * (k as f64 + 0.5) / N as f64).cos();
-        *fk = value(seg.mid + half * x);
+        *fk = value(seg.mid + half * table.nodes[k]);
         if !fk.is_finite() {
             return failed;
         }
@@ -269,7 +299,7 @@ fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
     for (j, aj) in a.iter_mut().enumerate() {
         let mut s = 0.0;
         for (k, fk) in f.iter().enumerate() {
-            s += fk * (std::f64::consts::PI * j as f64 * (k as f64 + 0.5) / N as f64).cos();
+            s += fk * table.cosines[j][k];
         }
         *aj = 2.0 / N as f64 * s;
     }
@@ -297,8 +327,7 @@ fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
     }
     let poly = Poly { c: c_out, ok: true };
     // check at the N + 1 Chebyshev extrema (ends included), where the interpolation error peaks
-    for k in 0..=N {
-        let u = (std::f64::consts::PI * k as f64 / N as f64).cos();
+    for &u in &table.extrema {
         let t = (seg.mid + half * u).clamp(seg.lo, seg.hi);
         let direct = direct(t);
         let v = horner(&poly, (t - seg.mid) * seg.inv_half);

@@ -138,7 +138,7 @@ fn solve3(m: [[f64; 3]; 3], r: [f64; 3]) -> Option<[f64; 3]> {
 
 /// Fit the extensions of a component's published correlations (see [`Extensions`]).
 pub fn fit_extensions(c: &Component) -> Extensions {
-    Extensions { fluidity: fit_fluidity(c), wilhoit: fit_component_wilhoit(c), chung_viscosity_factor: chung_viscosity_factor(c.critical_volume(), c.acentric_factor(), c.molar_mass()) }
+    Extensions { fluidity: fit_fluidity(c), wilhoit: std::sync::OnceLock::new(), chung_viscosity_factor: chung_viscosity_factor(c.critical_volume(), c.acentric_factor(), c.molar_mass()) }
 }
 
 /// The temperature-independent factor of [`chung_gas_viscosity`]: μ = factor · sqrt(T) / Ω_v(1.2593 T/Tc) \[Pa·s/K^½\].
@@ -247,6 +247,11 @@ impl Component {
     #[inline]
     pub fn extensions(&self) -> &Extensions {
         self.extensions.get_or_init(|| fit_extensions(self))
+    }
+
+    /// The Wilhoit continuation of the published ideal-gas cp (fitted on first use; None without one).
+    pub fn wilhoit(&self) -> Option<WilhoitCoefficients> {
+        *self.extensions().wilhoit.get_or_init(|| fit_component_wilhoit(self))
     }
 
     /// Unscaled property `index` at `t` from this copy's kernel when it has one and it serves `t`, else direct.
@@ -401,7 +406,7 @@ impl Component {
         if t >= c.t_min && t <= c.t_max {
             return Self::published(c, t).unwrap_or(0.0);
         }
-        match self.extensions().wilhoit {
+        match self.wilhoit() {
             Some(w) => {
                 let edge = t.clamp(c.t_min, c.t_max);
                 c.eval(edge) * wilhoit_cp(t, w) / wilhoit_cp(edge, w)
@@ -523,7 +528,7 @@ impl Component {
             LIQUID_CONDUCTIVITY => (liquid_low, LIQUID_CONDUCTIVITY_CHECKED_TO * tc, if estimated { "Sato-Riedel" } else { "published; density scaling beyond" }),
             SURFACE_TENSION => (liquid_low, tc, if estimated { "Brock-Bird" } else { "published; Brock-Bird shape beyond" }),
             IDEAL_GAS_HEAT_CAPACITY => match c.form {
-                Form::Dippr100(_) if self.extensions().wilhoit.is_some() => (WILHOIT_RANGE.0.min(c.t_min), WILHOIT_RANGE.1.max(c.t_max), "published; Wilhoit beyond"),
+                Form::Dippr100(_) if self.wilhoit().is_some() => (WILHOIT_RANGE.0.min(c.t_min), WILHOIT_RANGE.1.max(c.t_max), "published; Wilhoit beyond"),
                 _ => (c.t_min, c.t_max, "published"),
             },
             _ => {
@@ -541,6 +546,11 @@ impl Component {
     pub fn outside_valid_ranges(&self, from: f64, to: f64, keys: &[&str]) -> Vec<RangeExcursion> {
         (0..10)
             .filter_map(|k| {
+                // every valid range of the ideal-gas cp holds its published range: inside it, no Wilhoit fit is needed
+                let published = &self.ideal_gas_heat_capacity;
+                if k == IDEAL_GAS_HEAT_CAPACITY && from >= published.t_min && to <= published.t_max {
+                    return None;
+                }
                 let r = self.valid_range(k);
                 if !keys.contains(&r.key) {
                     return None;

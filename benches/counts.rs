@@ -1,0 +1,104 @@
+//! Instruction-count driver (no timing): runs one benchmark case a given number of times so that a
+//! load-independent counter (`valgrind --tool=cachegrind --cache-sim=no`) measures its work. The per-life cost
+//! is the difference between two repeat counts divided by their difference (set-up and library parse cancel).
+//!
+//! Run: `cargo bench --bench counts --no-run`, then
+//! `valgrind --tool=cachegrind --cache-sim=no target/release/deps/counts-* CASE REPEATS` with CASE one of
+//! `wm1`, `wm10`, `wm50`, `res20x40`, `sweep10`.
+use std::hint::black_box;
+
+use dropcut::data::Library;
+use dropcut::fuel::{Basis, Fuel};
+use dropcut::model::droplet::{LiquidHeat, LiquidMixing, NoHistory};
+use dropcut::model::{simulate, DropletInputs, Motion};
+use dropcut::props::gas::AmbientGas;
+
+/// The fuels and inputs of benches/droplet.rs.
+fn fuel(lib: &Library, n: usize) -> Fuel {
+    let comps: Vec<_> = lib.components().iter().filter(|c| c.class != dropcut::data::HydrocarbonClass::Oxygenate).take(n).cloned().collect();
+    let k = comps.len();
+    Fuel::from_fractions("bench", comps, &vec![1.0 / k as f64; k], Basis::Mass).unwrap()
+}
+
+const FIFTY_CELLS: &str = "\
+carbon_number,n-alkane,iso-alkane,monocycloalkane,dicycloalkane,alkylbenzene,cycloaromatic,diaromatic
+C7,0.5,,0.4,,0.6,,
+C8,1.0,0.5,0.8,,1.2,,
+C9,3.0,2.0,3.0,0.5,3.5,,
+C10,6.5,5.5,4.0,2.5,3.0,1.0,0.5
+C11,6.0,5.5,3.5,2.0,2.0,1.2,1.0
+C12,5.5,5.5,2.5,1.5,1.2,0.8,0.5
+C13,4.0,4.5,1.5,1.0,0.6,0.4,0.2
+C14,2.5,3.0,0.8,0.5,,,
+C15,1.2,1.5,,,,,
+C16,0.5,0.8,,,,,
+C17,0.3,0.4,,,,,
+";
+
+fn inputs_of(fuel: Fuel, lib: &Library) -> DropletInputs {
+    let mut inp = DropletInputs::new(fuel, AmbientGas::air(lib).unwrap(), 800.0, 101_325.0, 50e-6, 300.0);
+    inp.motion = Motion::Fixed { velocity: 5.0 };
+    inp
+}
+
+fn main() {
+    let args: Vec<String> = std::env::args().skip(1).filter(|a| a != "--bench").collect();
+    let case = args.first().map(String::as_str).unwrap_or("wm10");
+    let repeats: usize = args.get(1).and_then(|s| s.parse().ok()).unwrap_or(1);
+    let lib = Library::embedded().unwrap();
+    let inp = match case {
+        "wm1" => inputs_of(fuel(&lib, 1), &lib),
+        "wm10" => inputs_of(fuel(&lib, 10), &lib),
+        "wm50" => {
+            let table = dropcut::fuel::build::classes::ClassTable::parse_csv(FIFTY_CELLS, "bench", "bench-fifty").unwrap();
+            let built = dropcut::fuel::build::classes::build_from_classes(&table, &lib, &Default::default()).unwrap();
+            inputs_of(built.fuel, &lib)
+        }
+        "res20x40" => {
+            let mut inp = inputs_of(fuel(&lib, 20), &lib);
+            inp.liquid.mixing = LiquidMixing::Diffusion;
+            inp.liquid.heat = LiquidHeat::Conduction;
+            inp.liquid.nodes = 40;
+            inp
+        }
+        other => panic!("unknown case {other}"),
+    };
+    if args.get(1).map(String::as_str) == Some("trace") {
+        trace(&inp);
+        return;
+    }
+    let mut last = None;
+    for _ in 0..repeats {
+        last = Some(black_box(simulate(&inp, &mut NoHistory).unwrap()));
+    }
+    if let Some(r) = last {
+        let o = &r.outcome;
+        println!(
+            "{case}: lifetime {:?} t10 {:?} t50 {:?} t90 {:?} Tmax {:?} stats {:?}",
+            o.lifetime, o.t10, o.t50, o.t90, o.max_surface_temperature, o.stats
+        );
+    }
+}
+
+/// Accepted and rejected steps of a well-mixed life (the run's integrator settings, no events), one line per
+/// accepted step: time, step, rejections before it, remaining mass fraction, temperature.
+fn trace(inp: &DropletInputs) {
+    use dropcut::model::droplet::WellMixed;
+    use dropcut::model::integrator::{DormandPrince, Tolerances};
+    let (mut sys, y0) = WellMixed::new(inp);
+    let n = inp.fuel.len();
+    let m0: f64 = y0[..n].iter().sum();
+    let mut atol = vec![inp.rtol * 1e-3 * m0; 2 * n + 2];
+    atol[n] = inp.rtol;
+    atol[n + 1] = inp.rtol * y0[n + 1].max(1.0) * 1e-3;
+    let mut dp = DormandPrince::new(&mut sys, 0.0, &y0, Tolerances { rtol: inp.rtol, atol }, 0.0, inp.max_time / 20.0);
+    println!("first step proposed {:e}", dp.proposed_step());
+    let mut rejected = 0;
+    while dp.y[..n].iter().sum::<f64>() / m0 > inp.end_mass_fraction {
+        dp.step(&mut sys).unwrap();
+        let r = dp.stats.rejected - rejected;
+        rejected = dp.stats.rejected;
+        println!("t {:.6e} h {:.3e} rej {r} rem {:.6e} T {:.3}", dp.t, dp.h_last, dp.y[..n].iter().sum::<f64>() / m0, dp.y[n]);
+    }
+    println!("{:?}", dp.stats);
+}

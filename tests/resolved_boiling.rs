@@ -99,8 +99,8 @@ fn resolved_droplet_under_strong_radiation_evaporates_to_the_end() {
 /// evaporating (one and two components), boiling under radiation in cold air and leaving it, flashed at the
 /// bubble point, a two-component droplet boiling with a rising bubble point (conduction only), and a moving
 /// droplet with circulation (conduction only). A two-component droplet with liquid species diffusion heated by
-/// strong radiation does not reach the regime: its surface composition stalls the step control just below the
-/// bubble point (docs/model.md §5, open).
+/// strong radiation stops a few kelvin below the bubble point: its surface composition stalls the step control
+/// there (docs/model.md §5, open).
 #[test]
 fn resolved_energy_balance_closes_in_every_regime() {
     let lib = Library::embedded().unwrap();

@@ -426,6 +426,8 @@ const CASES: &[Case] = &[
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--liquid-conductivity-factor", "nan"], ["--liquid-conductivity-factor", "not a finite number"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--correlation", "whitaker"], ["--correlation", "whitaker", "clift"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--injected", "--velocity", "20", "--drag", "stokes"], ["--drag", "stokes", "yuen-chen"]),
+    case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--vapour-diffusion", "binary"], ["--vapour-diffusion", "binary", "mixture", "species"]),
+    case!(["sweep", "@spec-vapour-diffusion-unknown.toml", "--out", "{out}"], ["conditions.vapour-diffusion", "stefan-maxwell", "mixture"]),
     // ------------------------------------------------------------------ liquid activity model (UNIFAC)
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--activity", "raoult"], ["--activity", "raoult", "unifac"]),
     case!(["--components", "%comp-unifac-unknown-group.toml", "components"], ["unifac-groups.CH9", "unknown original-UNIFAC subgroup 'CH9'"]),

@@ -1,5 +1,6 @@
 //! No allocation in right-hand sides: a counting global allocator around one well-mixed right-hand-side
-//! evaluation (evaporating and boiling regimes) with the ideal liquid and with UNIFAC activity coefficients.
+//! evaluation (evaporating and boiling regimes) with the ideal liquid and with UNIFAC activity coefficients, and
+//! with per-component vapour diffusivities.
 
 use std::alloc::{GlobalAlloc, Layout, System};
 use std::sync::atomic::{AtomicUsize, Ordering};
@@ -8,6 +9,7 @@ use dropcut::data::Library;
 use dropcut::fuel::Fuel;
 use dropcut::model::droplet::WellMixed;
 use dropcut::model::integrator::OdeSystem;
+use dropcut::model::film::VapourDiffusion;
 use dropcut::model::DropletInputs;
 use dropcut::props::activity::ActivityModel;
 use dropcut::props::gas::AmbientGas;
@@ -42,10 +44,12 @@ fn allocations(f: impl FnOnce()) -> usize {
 #[test]
 fn well_mixed_rhs_does_not_allocate() {
     let lib = Library::embedded().unwrap();
-    for activity in [ActivityModel::Ideal, ActivityModel::Unifac] {
+    let cases = [(ActivityModel::Ideal, VapourDiffusion::Mixture), (ActivityModel::Unifac, VapourDiffusion::Mixture), (ActivityModel::Ideal, VapourDiffusion::Species)];
+    for (activity, vapour) in cases {
         let fuel = Fuel::resolve("demo-blend", &lib).unwrap();
         let mut inp = DropletInputs::new(fuel, AmbientGas::air(&lib).unwrap(), 800.0, 101_325.0, 50e-6, 300.0);
         inp.liquid.activity = activity;
+        inp.vapour_diffusion = vapour;
         let (mut sys, y0) = WellMixed::new(&inp);
         let mut dy = vec![0.0; y0.len()];
         sys.rhs(0.0, &y0, &mut dy); // warm-up (first-use initialisation of shared tables)
@@ -57,7 +61,7 @@ fn well_mixed_rhs_does_not_allocate() {
             sys.rhs(0.0, &y0, &mut dy);
             sys.rhs(0.0, &y1, &mut dy);
         });
-        assert_eq!(count, 0, "{} right-hand side allocated {count} times", activity.as_str());
+        assert_eq!(count, 0, "{} / {} right-hand side allocated {count} times", activity.as_str(), vapour.as_str());
         assert!(dy.iter().all(|v| v.is_finite()));
     }
 }

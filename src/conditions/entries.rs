@@ -4,7 +4,7 @@
 use std::sync::Arc;
 
 use crate::model::droplet::{LiquidHeat, LiquidMixing};
-use crate::model::film::{DragLaw, Radiation, SupportFibre};
+use crate::model::film::{DragLaw, Radiation, SupportFibre, VapourDiffusion};
 use crate::model::{Motion, TransferCorrelation};
 use crate::props::activity::{Activity, ActivityModel};
 use crate::units::Quantity;
@@ -15,6 +15,8 @@ use super::{Condition, GasValue, Kind, Range, Value, VaporValue, MIN_LIQUID_FACT
 pub const CORRELATIONS: [&str; 2] = ["clift", "ranz-marshall"];
 /// Words of `drag`.
 pub const DRAG_LAWS: [&str; 2] = ["yuen-chen", "blowing"];
+/// Words of `vapour-diffusion`.
+pub const VAPOUR_DIFFUSION: [&str; 2] = ["mixture", "species"];
 /// Words of `liquid-mixing`.
 pub const LIQUID_MIXING: [&str; 2] = ["well-mixed", "diffusion"];
 /// Words of `liquid-heat`.
@@ -29,7 +31,7 @@ pub const FIBRE_WORDS: [&str; 1] = ["none"];
 const LIQUID_FACTOR_NOTE: &str = "the liquid layers would grow thinner than the radial grid can follow and the run stalls or fails";
 
 /// Every run condition, in the order of sweep case ids and summary columns.
-pub static CONDITIONS: [Condition; 24] = [
+pub static CONDITIONS: [Condition; 25] = [
     Condition {
         key: "ambient-temperature",
         column: "ambient_temperature_K",
@@ -482,6 +484,27 @@ pub static CONDITIONS: [Condition; 24] = [
             Ok(())
         },
         get: |i| Some(Value::Choice(i.liquid.activity.as_str())),
+    },
+    Condition {
+        key: "vapour-diffusion",
+        column: "vapour_diffusion",
+        kind: Kind::Choice(&VAPOUR_DIFFUSION),
+        unit: "",
+        default: "mixture",
+        range: Range::NONE,
+        below_min: "",
+        help: "Vapour diffusivity in the per-component evaporation rates: mixture (one mixture-averaged value) or species (each component's own binary diffusivity in the ambient gas, common Stefan flow).",
+        example: "species",
+        long_help_only: false,
+        set: |i, v| {
+            i.vapour_diffusion = match word(v)? {
+                "mixture" => VapourDiffusion::Mixture,
+                "species" => VapourDiffusion::Species,
+                other => return Err(unknown_word(other, &VAPOUR_DIFFUSION)),
+            };
+            Ok(())
+        },
+        get: |i| Some(Value::Choice(i.vapour_diffusion.as_str())),
     },
 ];
 

@@ -23,7 +23,7 @@ use crate::model::DropletInputs;
 use crate::props::gas::AmbientGas;
 use crate::units::{self, Quantity};
 
-pub use entries::{ACTIVITY_MODELS, CONDITIONS, CORRELATIONS, DRAG_LAWS, FIBRE_WORDS, LIQUID_HEAT, LIQUID_MIXING, RADIATION_WORDS};
+pub use entries::{ACTIVITY_MODELS, CONDITIONS, CORRELATIONS, DRAG_LAWS, FIBRE_WORDS, LIQUID_HEAT, LIQUID_MIXING, RADIATION_WORDS, VAPOUR_DIFFUSION};
 pub use vapor::{vapor_fractions, VaporPair, VaporValue};
 
 /// Smallest liquid diffusivity or conductivity factor accepted: below it the concentration or temperature layer

@@ -7,6 +7,10 @@ use crate::data::{Component, GAS_CONSTANT};
 use crate::numerics::root::{brent_from, Tolerance};
 use crate::props::activity::Activity;
 use crate::props::gas::{wilke_phi, AmbientGas};
+
+mod species;
+
+pub use super::extra_heat::{churchill_bernstein, ExtraHeat, Radiation, SupportFibre, STEFAN_BOLTZMANN};
 use crate::props::{liquid, PropertyError};
 
 /// Correlation for the Nusselt and Sherwood numbers of a non-evaporating sphere.
@@ -113,6 +117,29 @@ impl DragLaw {
     }
 }
 
+/// How the vapour diffusivity enters the per-component evaporation rates.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, serde::Serialize, serde::Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum VapourDiffusion {
+    /// One mixture-averaged diffusivity D_g = Σ (Y_s,i/Y_F,s) D_i for every component (Abramzon & Sirignano 1989
+    /// with the single-diffusivity species fractions ε_i of Sazhin 2006).
+    #[default]
+    Mixture,
+    /// Each component diffuses with its own binary diffusivity D_i in the ambient gas through the common Stefan
+    /// flow: ṁ = 2π ρ_g D_i r_s Sh*_i ln(1 + B_M,i), B_M,i = (Y_s,i − Y_∞,i)/(ε_i − Y_s,i), Σ ε_i = 1 (docs/model.md §3).
+    Species,
+}
+
+impl VapourDiffusion {
+    /// Name as used on the command line and in sweep files.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            VapourDiffusion::Mixture => "mixture",
+            VapourDiffusion::Species => "species",
+        }
+    }
+}
+
 /// Fixed inputs of the film model for one fuel in one ambient.
 #[derive(Debug, Clone)]
 pub struct FilmSetup {
@@ -138,80 +165,8 @@ pub struct FilmSetup {
     pub drag: DragLaw,
     /// Liquid activity model prepared for `components` (ideal: Raoult's law), with its work buffers.
     pub activity: Activity,
-}
-
-/// Thermal radiation exchanged between the droplet and an enclosure (the gas itself is transparent).
-#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
-pub struct Radiation {
-    /// Black-body temperature of the surroundings \[K\]; None: at the ambient gas temperature (furnace walls at
-    /// the gas temperature), so it follows the gas temperature in sweeps and uncertainty samples.
-    pub temperature: Option<f64>,
-    /// Absorption efficiency of the droplet, also its emissivity (Kirchhoff, grey body) \[-\], 0–1.
-    pub absorption_efficiency: f64,
-}
-
-/// A fibre that suspends the droplet, conducting heat in from the hot gas like an infinite fin.
-#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
-pub struct SupportFibre {
-    /// Fibre diameter \[m\].
-    pub diameter: f64,
-    /// Thermal conductivity of the fibre material \[W/(m·K)\].
-    pub conductivity: f64,
-    /// Number of fibre stems leaving the droplet (1 for a fibre ending in the droplet, 2 for one through it).
-    pub stems: u32,
-}
-
-/// Optional heat paths into the liquid besides the gas film.
-#[derive(Debug, Clone, Copy, PartialEq, Default, serde::Serialize)]
-pub struct ExtraHeat {
-    /// Radiation from the surroundings, if any.
-    pub radiation: Option<Radiation>,
-    /// Supporting fibre, if any.
-    pub fibre: Option<SupportFibre>,
-}
-
-/// Nusselt number of a circular cylinder in cross-flow, Churchill & Bernstein (1977, J. Heat Transfer 99:300):
-/// Nu = 0.3 + 0.62 Re^½ Pr^⅓ / \[1 + (0.4/Pr)^⅔\]^¼ · \[1 + (Re/282 000)^⅝\]^⅘ (a lower bound for Re·Pr < 0.2).
-pub fn churchill_bernstein(re: f64, pr: f64) -> f64 {
-    0.3 + 0.62 * re.sqrt() * pr.cbrt() / (1.0 + (0.4 / pr).powf(2.0 / 3.0)).powf(0.25) * (1.0 + (re / 282_000.0).powf(5.0 / 8.0)).powf(0.8)
-}
-
-/// Stefan–Boltzmann constant \[W/(m²·K⁴)\] (CODATA 2018, exact in the 2019 SI).
-pub const STEFAN_BOLTZMANN: f64 = 5.670_374_419e-8;
-
-impl ExtraHeat {
-    /// True when no extra heat path is set.
-    pub fn is_none(&self) -> bool {
-        self.radiation.is_none() && self.fibre.is_none()
-    }
-
-    /// Net radiative heat absorbed by a grey sphere of diameter `d` at `t_s` in a black enclosure \[W\]:
-    /// Q = Q_abs π d² σ (T_rad⁴ − T_s⁴) (incident power on a sphere in an isotropic field is π d² σ T⁴).
-    pub fn radiation_heat(&self, t_s: f64, d: f64, t_inf: f64) -> f64 {
-        match self.radiation {
-            Some(r) => {
-                let t_rad = r.temperature.unwrap_or(t_inf);
-                r.absorption_efficiency * std::f64::consts::PI * d * d * STEFAN_BOLTZMANN * (t_rad.powi(4) - t_s.powi(4))
-            }
-            None => 0.0,
-        }
-    }
-
-    /// Heat conducted in along the fibre stems \[W\]: infinite fin, Q = n sqrt(h P k A_c) (T∞ − T_s)
-    /// (Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, eq. 3.80 — number from memory), h from the
-    /// Churchill–Bernstein cylinder correlation (ibid. eq. 7.54, from memory) with gas properties at the mean of T∞ and T_s.
-    pub fn fibre_heat(&self, gas: &crate::props::gas::AmbientGas, pressure: f64, t_inf: f64, t_s: f64, speed: f64) -> f64 {
-        let Some(f) = self.fibre else { return 0.0 };
-        let t_film = 0.5 * (t_inf + t_s);
-        let (cp, mu, k) = gas.transport(t_film);
-        let rho = pressure * gas.molar_mass / (GAS_CONSTANT * t_film);
-        let re = rho * speed.abs() * f.diameter / mu;
-        let pr = cp * mu / k;
-        let h = churchill_bernstein(re, pr) * k / f.diameter;
-        let perimeter = std::f64::consts::PI * f.diameter;
-        let area = 0.25 * std::f64::consts::PI * f.diameter * f.diameter;
-        f64::from(f.stems) * (h * perimeter * f.conductivity * area).sqrt() * (t_inf - t_s)
-    }
+    /// Mixture-averaged or per-component vapour diffusivities in the species rates.
+    pub vapour_diffusion: VapourDiffusion,
 }
 
 /// Results of one film evaluation (all SI).
@@ -267,6 +222,8 @@ pub struct Film {
     pub surface_mass: Vec<f64>,
     /// Per-component evaporation rates \[kg/s\].
     pub species_rate: Vec<f64>,
+    /// Per-component film conductances G_i = 2π ρ_g D_i r_s Sh*_i of the last species-diffusivity evaluation \[kg/s\].
+    species_conductance: Vec<f64>,
     ambient_density: f64,
     ambient_vapor_total: f64,
     surface_mole_eq: Vec<f64>,
@@ -295,6 +252,7 @@ impl Film {
             surface_mole: vec![0.0; n],
             surface_mass: vec![0.0; n],
             species_rate: vec![0.0; n],
+            species_conductance: vec![0.0; n],
             ambient_density,
             ambient_vapor_total: y_inf,
             surface_mole_eq: vec![0.0; n],
@@ -352,6 +310,29 @@ impl Film {
         if boiling_latent.is_none() {
             r.heat_to_liquid += q_extra;
         }
+        r
+    }
+
+    /// Heat-limited boiling of a liquid whose surface sits at its hold temperature `t_s` while `heat_inward` \[W\] is
+    /// conducted from the surface into the liquid interior (resolved liquid): the rate follows
+    /// ṁ Σ ε_i L_i = Q_gas + Q_rad + Q_fib − heat_inward, the vapour leaving with the equilibrium composition ε_i of
+    /// the surface liquid `x`. `heat_to_liquid` of the result is the heat entering the liquid at its surface
+    /// (`heat_inward` while the balance has a root; less when even ṁ = 0 cannot supply it).
+    #[allow(clippy::too_many_arguments)]
+    pub fn evaluate_boiling(&mut self, x: &[f64], t_s: f64, d: f64, speed: f64, latent: &[f64], heat_inward: f64) -> FilmResult {
+        let sum_x = self.surface_equilibrium(x, t_s);
+        let y_fs: f64 = self.surface_mass.iter().sum();
+        let l_eff = if y_fs > 0.0 && sum_x > 0.0 { self.surface_mass.iter().zip(latent).map(|(y, l)| y / y_fs * l).sum() } else { latent.iter().copied().fold(0.0, f64::max) };
+        let extra = self.setup.extra_heat;
+        let q_extra = if extra.is_none() {
+            0.0
+        } else {
+            extra.radiation_heat(t_s, d, self.setup.ambient_temperature) + extra.fibre_heat(&self.setup.gas, self.setup.pressure, self.setup.ambient_temperature, t_s, speed)
+        };
+        self.non_equilibrium_factor = 1.0;
+        let mut r = self.evaluate_surface(x, t_s, d, speed, latent, Some(l_eff), sum_x, q_extra - heat_inward);
+        r.heat_extra = q_extra;
+        r.heat_to_liquid += heat_inward;
         r
     }
 
@@ -575,22 +556,42 @@ impl Film {
         let y_fs_c = y_fs.min(1.0 - 1e-12);
         let b_m = (y_fs_c - y_finf) / (1.0 - y_fs_c);
         let sh_star = 2.0 + (sh0 - 2.0) / film_correction(b_m);
-        let g = 2.0 * std::f64::consts::PI * rho_g * d_eff * r * sh_star;
-        let ratio = log1p_over(b_m);
+        let species = s.vapour_diffusion == VapourDiffusion::Species && {
+            let film = species::SpeciesFilm { fuller: &self.fuller, surface: &self.surface_mass, ambient: &s.ambient_vapor, correlation: s.correlation };
+            species::species_rates(&film, &mut self.species_conductance, &mut self.species_rate, re, mu_g, rho_g, r, t175 / p, b_m, 1.0 - y_fs_c)
+        };
         let mut mdot = 0.0;
         let mut q_latent = 0.0;
-        for i in 0..n {
-            let rate = g * ratio * ((1.0 + b_m) * self.surface_mass[i] - s.ambient_vapor[i]);
-            self.species_rate[i] = rate;
-            mdot += rate;
-            q_latent += rate * latent[i];
+        if species {
+            for i in 0..n {
+                mdot += self.species_rate[i];
+                q_latent += self.species_rate[i] * latent[i];
+            }
+        } else {
+            let g = 2.0 * std::f64::consts::PI * rho_g * d_eff * r * sh_star;
+            let ratio = log1p_over(b_m);
+            for i in 0..n {
+                let rate = g * ratio * ((1.0 + b_m) * self.surface_mass[i] - s.ambient_vapor[i]);
+                self.species_rate[i] = rate;
+                mdot += rate;
+                q_latent += rate * latent[i];
+            }
         }
         // Heat transfer: B_T = (1+B_M)^φ − 1, φ = (cp_F/cp_g)(Sh*/Nu*)/Le, Nu* via F(B_T): fixed point.
         let lewis = k_g / (rho_g * cp_g * d_eff);
         let ln_1p_bm = b_m.ln_1p();
         let phi_base = (cp_f / cp_g) * sh_star / lewis;
         // h(B) = (1+B_M)^φ(B) − 1; at Re = 0 (Nu0 = 2) φ does not depend on B and one evaluation is exact.
-        let h = |b: f64| -> f64 { (phi_base / (2.0 + (nu0 - 2.0) / film_correction(b)) * ln_1p_bm).exp_m1() };
+        // with per-component diffusivities the same relation is written with the rate itself:
+        // ln(1 + B_T) = ṁ c_pF/(2π k_g r_s Nu*) (with one diffusivity this is φ ln(1 + B_M))
+        let heat_number = mdot * cp_f / (2.0 * std::f64::consts::PI * k_g * r);
+        let h = |b: f64| -> f64 {
+            if species {
+                (heat_number / (2.0 + (nu0 - 2.0) / film_correction(b))).exp_m1()
+            } else {
+                (phi_base / (2.0 + (nu0 - 2.0) / film_correction(b)) * ln_1p_bm).exp_m1()
+            }
+        };
         // start from the previous call's B_T (successive calls are close in state), else from B_M
         let start = if self.last_spalding_heat.is_finite() && self.last_spalding_heat > -0.5 && nu0 != 2.0 { self.last_spalding_heat } else { b_m };
         let mut b_t = h(start);
@@ -661,43 +662,6 @@ mod tests {
         }
     }
 
-    /// Grey-body radiation: 0.5 π (1 mm)² σ (1000⁴ − 300⁴) = 0.0883486 W (hand value); none without the option.
-    #[test]
-    fn radiation_heat_hand_value() {
-        let mut extra = ExtraHeat::default();
-        assert_eq!(extra.radiation_heat(300.0, 1e-3, 800.0), 0.0);
-        extra.radiation = Some(Radiation { temperature: Some(1000.0), absorption_efficiency: 0.5 });
-        assert!((extra.radiation_heat(300.0, 1e-3, 800.0) / 0.088_348_566 - 1.0).abs() < 1e-7);
-        assert!(extra.radiation_heat(1000.0, 1e-3, 800.0).abs() < 1e-15, "no net exchange at equal temperatures");
-        assert!(extra.radiation_heat(1200.0, 1e-3, 800.0) < 0.0, "a hotter droplet loses heat");
-        extra.radiation = Some(Radiation { temperature: None, absorption_efficiency: 0.5 });
-        assert!((extra.radiation_heat(300.0, 1e-3, 1000.0) / 0.088_348_566 - 1.0).abs() < 1e-7, "None = the gas temperature");
-    }
-
-    /// Churchill–Bernstein check values from the worked examples of the `ht` package documentation
-    /// (Nu_cylinder_Churchill_Bernstein): Re 120, Pr 0.71 → 5.65356; Re 6071, Pr 0.7 → 40.6371.
-    #[test]
-    fn churchill_bernstein_published_examples() {
-        assert!((churchill_bernstein(120.0, 0.71) / 5.65356 - 1.0).abs() < 1e-5);
-        assert!((churchill_bernstein(6071.0, 0.7) / 40.6371 - 1.0).abs() < 1e-5);
-        assert_eq!(churchill_bernstein(0.0, 0.7), 0.3);
-    }
-
-    /// Fibre fin: still gas gives the Churchill–Bernstein floor Nu = 0.3, so h ∝ 1/d_f and Q ∝ d_f; Q ∝ stems.
-    #[test]
-    fn fibre_heat_scaling() {
-        let lib = crate::data::Library::embedded().unwrap();
-        let gas = crate::props::gas::AmbientGas::air(&lib).unwrap();
-        let fibre = |d: f64, stems: u32| ExtraHeat { radiation: None, fibre: Some(SupportFibre { diameter: d, conductivity: 1.4, stems }) };
-        let q = fibre(100e-6, 1).fibre_heat(&gas, 101_325.0, 800.0, 350.0, 0.0);
-        let (_, _, k) = gas.transport(575.0);
-        let h = 0.3 * k / 100e-6;
-        let expected = (h * std::f64::consts::PI * 100e-6 * 1.4 * 0.25 * std::f64::consts::PI * 1e-8).sqrt() * 450.0;
-        assert!((q / expected - 1.0).abs() < 1e-12, "{q} vs {expected}");
-        assert!((fibre(100e-6, 2).fibre_heat(&gas, 101_325.0, 800.0, 350.0, 0.0) / q - 2.0).abs() < 1e-12);
-        assert!((fibre(400e-6, 1).fibre_heat(&gas, 101_325.0, 800.0, 350.0, 0.0) / q - 4.0).abs() < 1e-12);
-        assert!(fibre(100e-6, 1).fibre_heat(&gas, 101_325.0, 800.0, 350.0, 5.0) > q, "gas flow raises h");
-    }
 }
 
 #[cfg(test)]
@@ -719,6 +683,7 @@ mod boiling_tests {
             extra_heat,
             drag: DragLaw::YuenChen,
             activity: Activity::ideal(1),
+            vapour_diffusion: VapourDiffusion::Mixture,
         })
     }
 

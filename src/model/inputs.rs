@@ -6,7 +6,7 @@ use crate::props::activity::{Activity, ActivityModel};
 use crate::props::gas::AmbientGas;
 use crate::props::liquid;
 
-use super::film::{DragLaw, ExtraHeat, FilmSetup, TransferCorrelation};
+use super::film::{DragLaw, ExtraHeat, FilmSetup, TransferCorrelation, VapourDiffusion};
 use super::ModelError;
 
 /// Relative motion between droplet and gas.
@@ -62,6 +62,8 @@ pub struct DropletInputs {
     pub extra_heat: ExtraHeat,
     /// Drag law of the evaporating droplet (used with `Motion::Injected`).
     pub drag: DragLaw,
+    /// Mixture-averaged or per-component vapour diffusivities in the species rates of the film.
+    pub vapour_diffusion: VapourDiffusion,
     /// Pure-component properties from per-component kernels (default) or by direct evaluation.
     pub properties: crate::props::kernels::PropertyEvaluation,
 }
@@ -139,6 +141,7 @@ impl DropletInputs {
             liquid: LiquidOptions::default(),
             extra_heat: ExtraHeat::default(),
             drag: DragLaw::default(),
+            vapour_diffusion: VapourDiffusion::default(),
             properties: Default::default(),
         }
     }
@@ -163,6 +166,7 @@ impl DropletInputs {
             non_equilibrium: self.liquid.non_equilibrium,
             extra_heat: self.extra_heat,
             drag: self.drag,
+            vapour_diffusion: self.vapour_diffusion,
             activity: Activity::new(self.liquid.activity, &self.fuel.components).unwrap_or_else(|e| panic!("--activity {}: {e}", self.liquid.activity.as_str())),
         }
     }

@@ -2,10 +2,11 @@
 //! side, their shared inputs, history rows and watches, the integrator, the run driver (`simulate`) and the
 //! stepping API for Lagrangian solvers (`stepping`).
 //!
-//! Inside the layer: inputs, history, watch, film, integrator, radial ← well_mixed, resolved ← run, stepping
+//! Inside the layer: inputs, history, watch, extra_heat, film, integrator, radial ← well_mixed, resolved ← run, stepping
 //! (no module imports one to its right; `droplet` only re-exports the paths of earlier versions).
 
 pub mod droplet;
+pub mod extra_heat;
 pub mod film;
 pub mod guard;
 pub mod history;

@@ -18,8 +18,11 @@ use super::inputs::{integration_failure, validity_notes, DropletInputs, LiquidHe
 use super::integrator::Stats;
 use super::radial::{RadialGrid, SurfaceInput};
 use super::watch::RunWatch;
-use super::well_mixed::{adiabatic_flash, BOILING_THRESHOLD};
+use super::well_mixed::{adiabatic_flash, boiling_hold_temperature, BOILING_THRESHOLD};
 use super::ModelError;
+
+mod boiling;
+pub(crate) use boiling::RegimeSwitch;
 
 /// Evaluated-evaporated-fraction levels at which radial profiles are kept.
 pub const PROFILE_LEVELS: [f64; 7] = [0.0, 0.1, 0.25, 0.5, 0.75, 0.9, 0.95];
@@ -45,6 +48,11 @@ pub(crate) struct State {
     pub(crate) surface_y: Vec<f64>,
     /// Surface temperature \[K\].
     pub(crate) surface_t: f64,
+    /// In the heat-limited boiling regime (surface held at the hold temperature of its composition).
+    pub(crate) boiling: bool,
+    /// Heat entering the liquid at its surface over the last step \[W\] (conducted inward, or stored by a
+    /// uniform-temperature liquid); the boiling balance of a uniform-temperature liquid starts from it.
+    pub(crate) heat_inward: f64,
 }
 
 /// The resolved-liquid model of one fuel in one far field, with its grids and scratch buffers.
@@ -133,12 +141,13 @@ impl Model {
     }
 
     /// Circulation factors (χ_heat, χ_species) of Abramzon & Sirignano (1989) from the gas-side shear.
-    fn circulation(&self, f: &FilmResult, liq: &Liquid, speed: f64, radius: f64) -> (f64, f64) {
+    /// `blowing`: the Spalding number of the film's blowing (B_M while evaporating, B_T while boiling).
+    fn circulation(&self, f: &FilmResult, liq: &Liquid, speed: f64, radius: f64, blowing: f64) -> (f64, f64) {
         let re = f.reynolds;
         if re <= 0.0 || speed == 0.0 {
             return (1.0, 1.0);
         }
-        let c_f = 12.69 * re.powf(-2.0 / 3.0) / (1.0 + f.spalding_mass.max(0.0));
+        let c_f = 12.69 * re.powf(-2.0 / 3.0) / (1.0 + blowing.max(0.0));
         let u_s = speed.abs() / 32.0 * (f.film_viscosity / liq.viscosity) * re * c_f;
         let re_l = 2.0 * liq.density * u_s * radius / liq.viscosity;
         let pr_l = liq.cp * liq.viscosity / liq.conductivity;
@@ -153,29 +162,50 @@ impl Model {
         let radius = 0.5 * (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
         let area = 4.0 * std::f64::consts::PI * radius * radius;
         let surface = s.surface_y.clone();
-        let f0 = self.film_at(&surface, s.surface_t, s.mass, liq.density, s.velocity);
-        if f0.surface_vapor_mole_fraction >= BOILING_THRESHOLD {
-            return Err("boiling".into());
+        if s.boiling {
+            let (f0, hold, g_t, g_y) = self.boiling_film(s, &liq, radius);
+            return Ok(StepStart { liq, radius, f0, rates0: self.rates.clone(), dq: 0.0, g_t, g_y, t_lin: hold });
         }
-        let rates0 = self.rates.clone();
-        // dQ_L/dT_s by a one-sided difference
-        let dt_s = 0.01;
-        let f1 = self.film_at(&surface, s.surface_t + dt_s, s.mass, liq.density, s.velocity);
-        let dq = (f1.heat_to_liquid - f0.heat_to_liquid) / dt_s;
-        self.rates.copy_from_slice(&rates0);
-        let (chi_t, chi_y) = self.circulation(&f0, &liq, s.velocity, radius);
+        // Q_L(T_s) is linearised about the surface temperature that balances conduction from the outer cell,
+        // cp G_s (T_s − T_N) = Q_L(T_s), found by Newton iterations (the surface half cell holds no heat, so a
+        // step of any length starts from it; linearising about a stale value would leave the step-doubling
+        // error estimate with a part that does not shrink with the step).
+        let nt = self.tgrid.len();
+        let mut t_lin = s.surface_t;
         let rho2a2_over_m = liq.density * liq.density * area * area / s.mass;
-        let g_t = rho2a2_over_m * chi_t * liq.conductivity / (liq.density * liq.cp);
-        let g_y = rho2a2_over_m * chi_y * liq.diffusivity;
-        Ok(StepStart { liq, radius, f0, rates0, dq, g_t, g_y })
+        let mut newton = 0;
+        loop {
+            let f0 = self.film_at(&surface, t_lin, s.mass, liq.density, s.velocity);
+            let rates0 = self.rates.clone();
+            // dQ_L/dT_s by a one-sided difference
+            let dt_s = 0.01;
+            let f1 = self.film_at(&surface, t_lin + dt_s, s.mass, liq.density, s.velocity);
+            let dq = (f1.heat_to_liquid - f0.heat_to_liquid) / dt_s;
+            self.rates.copy_from_slice(&rates0);
+            let (chi_t, chi_y) = self.circulation(&f0, &liq, s.velocity, radius, f0.spalding_mass);
+            let g_t = rho2a2_over_m * chi_t * liq.conductivity / (liq.density * liq.cp);
+            let g_y = rho2a2_over_m * chi_y * liq.diffusivity;
+            newton += 1;
+            if nt > 1 && !self.fixed_temperature && newton < 6 {
+                let g_s = liq.cp * g_t * self.tgrid.face_factor(nt);
+                let t_n = s.temp[nt - 1];
+                let balanced = (g_s * t_n + f0.heat_to_liquid - dq * t_lin) / (g_s - dq);
+                if balanced.is_finite() && (balanced - t_lin).abs() > 1e-3 {
+                    t_lin = balanced.clamp(t_lin - 20.0, t_lin + 20.0);
+                    continue;
+                }
+            }
+            return Ok(StepStart { liq, radius, f0, rates0, dq, g_t, g_y, t_lin });
+        }
     }
 
     /// One linearly implicit Euler step of length dt from `s`, whose start data are `st`.
     fn step(&mut self, s: &State, st: &StepStart, dt: f64) -> Result<State, String> {
         let n = self.n;
         let ny = self.ny();
-        let StepStart { liq, radius, f0, rates0, dq, g_t, g_y } = st;
+        let StepStart { liq, radius, f0, rates0, dq, g_t, g_y, t_lin } = st;
         let (liq, radius, f0, dq, g_t, g_y) = (liq, *radius, *f0, *dq, *g_t, *g_y);
+        let mut hold = *t_lin;
         let mut next = s.clone();
         // Surface coupling, iterated: each species leaves at κ_i u_s,i with κ_i = ṁ_i/Y_s,i from the film at the
         // latest surface state (implicit in the surface value; prescribed rate when condensing), the advective
@@ -191,12 +221,26 @@ impl Model {
                 return Err("mass would become negative".into());
             }
             next.temp.copy_from_slice(&s.temp);
-            let input_t = SurfaceInput { q0: f0.heat_to_liquid / liq.cp, q1: dq / liq.cp, u_ref: s.surface_t };
+            let input_t = if s.boiling {
+                // surface held at the hold temperature: a transfer coefficient far above every conductance
+                let stiff = 1e9 * (s.mass / dt + g_t * self.tgrid.face_factor(self.tgrid.len()) + mdot_a.abs());
+                SurfaceInput { q0: 0.0, q1: -stiff, u_ref: hold }
+            } else {
+                SurfaceInput { q0: f0.heat_to_liquid / liq.cp, q1: dq / liq.cp, u_ref: *t_lin }
+            };
             next.surface_t = if self.fixed_temperature {
                 s.surface_t
             } else {
                 self.tgrid.implicit_step(&mut next.temp, s.mass, m_new, dt, g_t, mdot_a, input_t)
             };
+            next.heat_inward = if self.fixed_temperature { f0.heat_to_liquid } else { liq.cp * self.inward_per_cp(s, &next, m_new, dt, g_t, mdot_a) };
+            if s.boiling {
+                next.surface_t = hold;
+                // the boiling rate with the heat this temperature solution conducts inward (consistent energy)
+                let sy = film_surface.clone();
+                self.boiling_film_at(&sy, hold, m_new, liq.density, s.velocity, next.heat_inward);
+                film_rates.copy_from_slice(&self.rates);
+            }
             for i in 0..n {
                 let implicit = film_rates[i] > 0.0 && film_surface[i] > 1e-300;
                 self.kappa[i] = if implicit { film_rates[i] / film_surface[i] } else { 0.0 };
@@ -220,7 +264,12 @@ impl Model {
             if iteration == 0 {
                 // refresh the film at the new surface state (one Picard pass)
                 let sy = next.surface_y.clone();
-                self.film_at(&sy, next.surface_t, m_new, liq.density, s.velocity);
+                if s.boiling {
+                    hold = self.hold_temperature(&sy);
+                    self.boiling_film_at(&sy, hold, m_new, liq.density, s.velocity, next.heat_inward);
+                } else {
+                    self.film_at(&sy, next.surface_t, m_new, liq.density, s.velocity);
+                }
                 film_rates.copy_from_slice(&self.rates);
                 film_surface.copy_from_slice(&next.surface_y);
                 mdot_a = film_rates.iter().sum();
@@ -269,7 +318,12 @@ impl Model {
     fn row(&mut self, s: &State, m0: f64, d0: f64) -> HistoryRow {
         let liq = self.liquid(s);
         let sy = s.surface_y.clone();
-        let f = self.film_at(&sy, s.surface_t, s.mass, liq.density, s.velocity);
+        let f = if s.boiling {
+            let radius = 0.5 * (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
+            self.boiling_film(s, &liq, radius).0
+        } else {
+            self.film_at(&sy, s.surface_t, s.mass, liq.density, s.velocity)
+        };
         let mdot = f.evaporation_rate;
         let vapor: Vec<f64> = if mdot.abs() > 1e-300 {
             self.rates.iter().map(|r| r / mdot).collect()
@@ -289,7 +343,7 @@ impl Model {
             film: f,
             liquid_mass_fractions: self.w_mean.clone(),
             vapor_mass_fractions: vapor,
-            regime: Regime::Evaporating,
+            regime: if s.boiling { Regime::Boiling } else { Regime::Evaporating },
             mean_temperature: self.tgrid.mean(&s.temp),
             center_temperature: s.temp[0],
             surface_liquid_mass_fractions: s.surface_y.clone(),
@@ -328,6 +382,8 @@ struct StepStart {
     dq: f64,
     g_t: f64,
     g_y: f64,
+    /// Surface temperature the heat input is linearised about (the hold temperature in the boiling regime) \[K\].
+    t_lin: f64,
 }
 
 fn combine(a: &State, b: &State) -> State {
@@ -346,6 +402,8 @@ fn combine(a: &State, b: &State) -> State {
         velocity: 2.0 * a.velocity - b.velocity,
         surface_y,
         surface_t: 2.0 * a.surface_t - b.surface_t,
+        boiling: a.boiling,
+        heat_inward: 2.0 * a.heat_inward - b.heat_inward,
     }
 }
 
@@ -396,19 +454,17 @@ impl Model {
         let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
         let x0 = inp.fuel.mole_fractions();
         let t_bubble0 = film.bubble_point(&x0).unwrap_or(f64::INFINITY);
+        let t_hold0 = boiling_hold_temperature(&comps, &mut film.setup.activity, &x0, inp.pressure).unwrap_or(f64::INFINITY);
         let mut masses: Vec<f64> = w0.iter().map(|w| w * m0).collect();
         let mut t_start = t0;
-        let mut note = None;
-        if !inp.fixed_temperature && t0 >= t_bubble0 - 1e-9 {
-            let (m_left, tb) = adiabatic_flash(&comps, &mut film.setup.activity, w0, t0, m0, inp.pressure, inp.end_mass_fraction);
+        let mut flash = None;
+        if !inp.fixed_temperature && t0 >= t_hold0 - 1e-9 {
+            // as the well-mixed liquid: flash down to the hold temperature, then boil if the heat holds it there
+            let (m_left, tb) = adiabatic_flash(&comps, &mut film.setup.activity, w0, t0, m0, BOILING_THRESHOLD * inp.pressure, inp.end_mass_fraction);
             let total: f64 = m_left.iter().sum();
-            note = Some(format!(
-                "initial temperature {t0:.2} K is above the bubble point {t_bubble0:.2} K: {:.3} % of the mass flashed at injection; the resolved liquid starts at {:.2} K just below the bubble point",
-                100.0 * (1.0 - total / m0),
-                tb - 0.5
-            ));
+            flash = Some((100.0 * (1.0 - total / m0), tb));
             masses = m_left;
-            t_start = tb - 0.5;
+            t_start = tb;
         }
         let mass: f64 = masses.iter().sum();
         let velocity0 = match inp.motion {
@@ -442,7 +498,7 @@ impl Model {
             cell_sums: vec![0.0; ny],
             film_calls: 0,
         };
-        let state = State {
+        let mut state = State {
             time: 0.0,
             mass,
             y,
@@ -452,7 +508,17 @@ impl Model {
             velocity: velocity0,
             surface_y: w_start,
             surface_t: t_start,
+            boiling: false,
+            heat_inward: 0.0,
         };
+        let mut model = model;
+        let note = flash.map(|(percent, tb)| {
+            state.boiling = model.hold_margin(&state) > 0.0;
+            format!(
+                "initial temperature {t0:.2} K is at or above the bubble point ({t_bubble0:.2} K at the ambient pressure; the boiling regime holds Σ X_s = {BOILING_THRESHOLD}, {t_hold0:.2} K): {percent:.3} % of the mass flashed at injection (adiabatic flash) down to {tb:.2} K, {}",
+                if state.boiling { "then heat-limited boiling" } else { "where the net heat cannot hold it at the bubble point: it evaporates below it (no boiling)" }
+            )
+        });
         Ok((model, state, m0, note))
     }
 
@@ -485,12 +551,10 @@ pub(crate) fn grown_step(dt: f64, tol: f64, err: f64) -> f64 {
 
 /// The outcome of one step attempt.
 pub(crate) enum Attempt {
-    /// Accepted: the new state (at `time + dt`) and its error norm.
-    Accepted(State, f64),
+    /// Accepted: the new state (at `time + dt`), its error norm and the regime change at its end, if any.
+    Accepted(State, f64, Option<RegimeSwitch>),
     /// Rejected: try again with the reduced `dt`.
     Retry,
-    /// The surface reached the bubble point: this model has no boiling regime.
-    Boiling,
     /// The step size fell to the round-off limit (reason).
     Failed(String),
 }
@@ -508,12 +572,9 @@ pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: 
         (Ok(f), Ok(h)) => (f, h),
         (Err(e), _) | (_, Err(e)) => {
             stats.rejected += 1;
-            if e == "boiling" && *dt < 1e-12 {
-                return Attempt::Boiling;
-            }
             *dt *= 0.25;
             if *dt < 1e-14 {
-                return if e == "boiling" { Attempt::Boiling } else { Attempt::Failed(e) };
+                return Attempt::Failed(e);
             }
             return Attempt::Retry;
         }
@@ -521,6 +582,10 @@ pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: 
     let err = error_norm(&half, &full, m0);
     if err > tol {
         stats.rejected += 1;
+        if *dt < 1e-14 {
+            // the one-step and two-half-step surface states still differ as the step vanishes
+            return Attempt::Failed(format!("the step-doubling error {err:.3e} does not shrink with the step"));
+        }
         *dt *= (0.9 * (tol / err).sqrt()).clamp(0.1, 0.9);
         return Attempt::Retry;
     }
@@ -531,8 +596,15 @@ pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: 
         *dt *= 0.25;
         return Attempt::Retry;
     }
+    if let Some(factor) = model.overshoot(state, &new) {
+        stats.rejected += 1;
+        *dt *= factor;
+        return Attempt::Retry;
+    }
+    let switch = model.update_regime(&mut new);
     stats.steps += 1;
-    Attempt::Accepted(new, err)
+    stats.rhs_calls = model.film_calls;
+    Attempt::Accepted(new, err, switch)
 }
 
 /// Time inside the step from `a` to `b` (remaining fractions `rem_a` > `level` ≥ `rem_b`) where the remaining
@@ -551,9 +623,36 @@ struct RunLog {
     lifetime: Option<f64>,
     profiles: Vec<Profile>,
     next_profile: usize,
+    boiling_onset: Option<f64>,
+    boiling_entries: usize,
+    boiling_exits: usize,
+    notes: Vec<String>,
 }
 
 impl RunLog {
+    /// Count a regime change at `time` and note the first onset and exit.
+    fn regime_changed(&mut self, switch: RegimeSwitch, time: f64) {
+        match switch {
+            RegimeSwitch::Onset { hold_temperature } => {
+                self.boiling_entries += 1;
+                if self.boiling_onset.is_none() {
+                    self.boiling_onset = Some(time);
+                    self.notes.push(format!(
+                        "surface reached the bubble point of the surface liquid (held at {hold_temperature:.2} K, where Σ X_s = {BOILING_THRESHOLD}) at t = {time:.4e} s: heat-limited boiling regime while the net heat holds it there"
+                    ));
+                }
+            }
+            RegimeSwitch::Exit { temperature } => {
+                self.boiling_exits += 1;
+                if self.boiling_exits == 1 {
+                    self.notes.push(format!(
+                        "at t = {time:.4e} s the net heat into the surface no longer holds it at the bubble point ({temperature:.2} K): it leaves the boiling regime and evaporates below it"
+                    ));
+                }
+            }
+        }
+    }
+
     /// Keep the profiles of every level the evaporated fraction has passed.
     fn keep_profiles(&mut self, model: &mut Model, state: &State, m0: f64) {
         while self.next_profile < PROFILE_LEVELS.len() && PROFILE_LEVELS[self.next_profile] <= 1.0 - state.mass / m0 {
@@ -571,6 +670,7 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
     let (mut model, mut state, m0, flash_note) = Model::prepare(inp)?;
     let mut notes = validity_notes(inp);
     notes.extend(flash_note);
+    let boiling_onset = state.boiling.then_some(0.0);
     let tol = step_tolerance(inp.rtol);
     let mut dt = first_step(inp.initial_diameter);
     let mut stats = Stats::default();
@@ -586,13 +686,16 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         lifetime: None,
         profiles: vec![],
         next_profile: 0,
+        boiling_onset,
+        boiling_entries: usize::from(boiling_onset.is_some()),
+        boiling_exits: 0,
+        notes,
     };
     observer.on_step(&first);
     if wants_rows {
         history.push(first, RowKind::Event);
     }
     log.keep_profiles(&mut model, &state, m0);
-    let mut boiling_stop = false;
     loop {
         if stats.steps > 1_000_000 {
             return Err(ModelError::Integration { time: state.time, reason: "more than 1 000 000 steps".into() });
@@ -610,12 +713,13 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
             dt = tk - state.time;
         }
         let (mut new, err) = match attempt_step(&mut model, &state, &mut dt, tol, m0, &mut stats) {
-            Attempt::Accepted(new, err) => (new, err),
-            Attempt::Retry => continue,
-            Attempt::Boiling => {
-                boiling_stop = true;
-                break;
+            Attempt::Accepted(new, err, switch) => {
+                if let Some(switch) = switch {
+                    log.regime_changed(switch, new.time);
+                }
+                (new, err)
             }
+            Attempt::Retry => continue,
             Attempt::Failed(e) => return Err(integration_failure(inp, state.time, state.surface_t, &format!("the step size fell to the round-off limit ({e})"))),
         };
         let rem_prev = state.mass / m0;
@@ -658,27 +762,22 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         dt = if landed.is_some() { grown_step(dt, tol, err).max(proposal) } else { grown_step(dt, tol, err) };
     }
     stats.rhs_calls = model.film_calls;
-    let outcome = resolved_outcome(inp, &mut model, &state, m0, log.status, boiling_stop, notes, &log, stats);
+    let outcome = resolved_outcome(inp, &mut model, &state, m0, log.status, &mut log, stats);
     Ok(RunResult { outcome, row_times: history.row_times(), history: history.into_rows(), profiles: log.profiles })
 }
 
 /// The run summary at the final state: notes, mass balance, crossings, final composition.
 #[allow(clippy::too_many_arguments)]
-fn resolved_outcome(inp: &DropletInputs, model: &mut Model, state: &State, m0: f64, mut status: Status, boiling_stop: bool, mut notes: Vec<String>, log: &RunLog, stats: Stats) -> RunOutcome {
+fn resolved_outcome(inp: &DropletInputs, model: &mut Model, state: &State, m0: f64, status: Status, log: &mut RunLog, stats: Stats) -> RunOutcome {
     let n = inp.fuel.len();
     let w0 = &inp.fuel.mass_fractions;
-    if boiling_stop {
-        notes.push(format!(
-            "the droplet surface reached the bubble point at t = {:.4e} s; the resolved-liquid model has no boiling regime and stops there (use --liquid-mixing well-mixed --liquid-heat uniform for the heat-limited boiling regime)",
-            state.time
-        ));
+    let mut notes = std::mem::take(&mut log.notes);
+    if log.boiling_entries > 1 || log.boiling_exits > 1 {
+        notes.push(format!("the droplet entered the boiling regime {} time(s) and left it {} time(s)", log.boiling_entries, log.boiling_exits));
     }
     log.watch.push_notes(&model.comps, inp.correlation, &mut notes);
-    if status == Status::TimeLimit && !boiling_stop {
+    if status == Status::TimeLimit {
         notes.push(format!("time limit {:.4e} s reached with {:.2} % of the mass evaporated", inp.max_time, 100.0 * (1.0 - state.mass / m0)));
-    }
-    if boiling_stop {
-        status = Status::Stopped;
     }
     let mut mass_err: f64 = 0.0;
     model.mean_composition(state);
@@ -696,7 +795,7 @@ fn resolved_outcome(inp: &DropletInputs, model: &mut Model, state: &State, m0: f
         t90: log.crossing[2],
         heatup_end: log.watch.heatup_end,
         max_surface_temperature: log.watch.max_surface_temperature,
-        boiling_onset: None,
+        boiling_onset: log.boiling_onset,
         end_time: state.time,
         final_evaporated_fraction: 1.0 - state.mass / m0,
         regime_notes: notes,

@@ -571,7 +571,7 @@ impl Stepper {
                 carried = Some(h);
             }
             match resolved::attempt_step(model, &to, &mut step, tol, m0, &mut stats) {
-                resolved::Attempt::Accepted(new, err) => {
+                resolved::Attempt::Accepted(new, err, _) => {
                     let (rem_prev, rem_now) = (to.mass / m0, new.mass / m0);
                     if rem_now <= end {
                         finished_at = Some(resolved::crossing_time(to.time, step, rem_prev, rem_now, end));
@@ -582,12 +582,6 @@ impl Stepper {
                 resolved::Attempt::Retry => {
                     h = step;
                     carried = None;
-                }
-                resolved::Attempt::Boiling => {
-                    return Err(ModelError::Integration {
-                        time: to.time,
-                        reason: "the droplet surface reached the bubble point; the resolved-liquid model has no boiling regime (use the well-mixed liquid)".into(),
-                    })
                 }
                 resolved::Attempt::Failed(e) => return Err(super::inputs::integration_failure(&self.inputs, to.time, to.surface_t, &format!("the step size fell to the round-off limit ({e})"))),
             }
@@ -658,5 +652,7 @@ fn interpolate(a: &resolved::State, b: &resolved::State, t: f64) -> resolved::St
         velocity: a.velocity + s * (b.velocity - a.velocity),
         surface_y: mix(&a.surface_y, &b.surface_y),
         surface_t: a.surface_t + s * (b.surface_t - a.surface_t),
+        boiling: if s < 1.0 { a.boiling } else { b.boiling },
+        heat_inward: a.heat_inward + s * (b.heat_inward - a.heat_inward),
     }
 }

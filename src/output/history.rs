@@ -134,6 +134,8 @@ pub struct InputEcho {
     pub liquid_model: String,
     /// Far-field fuel-vapour mass fractions.
     pub ambient_vapor_mass_fractions: Vec<(String, f64)>,
+    /// Vapour diffusivity in the species rates: "mixture" (one averaged value) or "species" (per component).
+    pub vapour_diffusion: String,
     /// Radiation and supporting-fibre heat (absent for a free droplet in a transparent gas).
     #[serde(skip_serializing_if = "crate::model::film::ExtraHeat::is_none")]
     pub extra_heat: crate::model::film::ExtraHeat,
@@ -167,6 +169,7 @@ impl InputEcho {
             )
             .to_lowercase(),
             ambient_vapor_mass_fractions: if inp.ambient_vapor.is_empty() { vec![] } else { ids().zip(inp.ambient_vapor.iter().copied()).collect() },
+            vapour_diffusion: inp.vapour_diffusion.as_str().into(),
             extra_heat: inp.extra_heat,
         }
     }

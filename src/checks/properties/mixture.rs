@@ -94,6 +94,7 @@ fn raoult_surface_checks(lib: &Library) -> Vec<CheckResult> {
         extra_heat: Default::default(),
         drag: Default::default(),
         activity: crate::props::activity::Activity::ideal(2), // Raoult's law, as the worked check
+        vapour_diffusion: Default::default(),
     };
     let mut film = Film::new(setup);
     let x = [0.5, 0.5]; // equimolar liquid

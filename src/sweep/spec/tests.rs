@@ -103,6 +103,7 @@ fn case_order_is_the_registry_order() {
         "fibre-stems",
         "drag",
         "activity",
+        "vapour-diffusion",
     ];
     let registry: Vec<&str> = CONDITIONS.iter().map(|c| c.key).collect();
     assert_eq!(registry[..keys.len()], keys);

@@ -22,6 +22,8 @@ use super::well_mixed::{adiabatic_flash, boiling_hold_temperature, BOILING_THRES
 use super::ModelError;
 
 mod boiling;
+mod run_log;
+use run_log::{resolved_outcome, RunLog};
 pub(crate) use boiling::RegimeSwitch;
 
 /// Evaluated-evaporated-fraction levels at which radial profiles are kept.
@@ -615,53 +617,6 @@ pub(crate) fn crossing_time(a_time: f64, dt: f64, rem_a: f64, rem_b: f64, level:
 
 // ---- Run driver: a whole droplet life over the integration core ----
 
-/// Bookkeeping of a resolved run between steps.
-struct RunLog {
-    watch: RunWatch,
-    crossing: [Option<f64>; 3],
-    status: Status,
-    lifetime: Option<f64>,
-    profiles: Vec<Profile>,
-    next_profile: usize,
-    boiling_onset: Option<f64>,
-    boiling_entries: usize,
-    boiling_exits: usize,
-    notes: Vec<String>,
-}
-
-impl RunLog {
-    /// Count a regime change at `time` and note the first onset and exit.
-    fn regime_changed(&mut self, switch: RegimeSwitch, time: f64) {
-        match switch {
-            RegimeSwitch::Onset { hold_temperature } => {
-                self.boiling_entries += 1;
-                if self.boiling_onset.is_none() {
-                    self.boiling_onset = Some(time);
-                    self.notes.push(format!(
-                        "surface reached the bubble point of the surface liquid (held at {hold_temperature:.2} K, where Σ X_s = {BOILING_THRESHOLD}) at t = {time:.4e} s: heat-limited boiling regime while the net heat holds it there"
-                    ));
-                }
-            }
-            RegimeSwitch::Exit { temperature } => {
-                self.boiling_exits += 1;
-                if self.boiling_exits == 1 {
-                    self.notes.push(format!(
-                        "at t = {time:.4e} s the net heat into the surface no longer holds it at the bubble point ({temperature:.2} K): it leaves the boiling regime and evaporates below it"
-                    ));
-                }
-            }
-        }
-    }
-
-    /// Keep the profiles of every level the evaporated fraction has passed.
-    fn keep_profiles(&mut self, model: &mut Model, state: &State, m0: f64) {
-        while self.next_profile < PROFILE_LEVELS.len() && PROFILE_LEVELS[self.next_profile] <= 1.0 - state.mass / m0 {
-            self.profiles.push(model.profile(state, m0));
-            self.next_profile += 1;
-        }
-    }
-}
-
 /// Remaining-fraction levels whose times the outcome reports (t10, t50, t90).
 const LEVELS: [f64; 3] = [0.9, 0.5, 0.1];
 
@@ -766,42 +721,3 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
     Ok(RunResult { outcome, row_times: history.row_times(), history: history.into_rows(), profiles: log.profiles })
 }
 
-/// The run summary at the final state: notes, mass balance, crossings, final composition.
-#[allow(clippy::too_many_arguments)]
-fn resolved_outcome(inp: &DropletInputs, model: &mut Model, state: &State, m0: f64, status: Status, log: &mut RunLog, stats: Stats) -> RunOutcome {
-    let n = inp.fuel.len();
-    let w0 = &inp.fuel.mass_fractions;
-    let mut notes = std::mem::take(&mut log.notes);
-    if log.boiling_entries > 1 || log.boiling_exits > 1 {
-        notes.push(format!("the droplet entered the boiling regime {} time(s) and left it {} time(s)", log.boiling_entries, log.boiling_exits));
-    }
-    log.watch.push_notes(&model.comps, inp.correlation, &mut notes);
-    if status == Status::TimeLimit {
-        notes.push(format!("time limit {:.4e} s reached with {:.2} % of the mass evaporated", inp.max_time, 100.0 * (1.0 - state.mass / m0)));
-    }
-    let mut mass_err: f64 = 0.0;
-    model.mean_composition(state);
-    for i in 0..n {
-        let initial = m0 * w0[i];
-        if initial > 0.0 {
-            mass_err = mass_err.max((state.inventory[i] + state.evaporated[i] - initial).abs() / initial);
-        }
-    }
-    RunOutcome {
-        status,
-        lifetime: log.lifetime,
-        t10: log.crossing[0],
-        t50: log.crossing[1],
-        t90: log.crossing[2],
-        heatup_end: log.watch.heatup_end,
-        max_surface_temperature: log.watch.max_surface_temperature,
-        boiling_onset: log.boiling_onset,
-        end_time: state.time,
-        final_evaporated_fraction: 1.0 - state.mass / m0,
-        regime_notes: notes,
-        stats,
-        mass_balance_error: mass_err,
-        evaporated_mass: state.evaporated.clone(),
-        final_liquid_mass_fractions: model.w_mean.clone(),
-    }
-}

@@ -75,7 +75,12 @@ fn species_rates_are_consistent_and_favour_the_faster_vapour() {
         assert!((sum - 1.0).abs() < 1e-9, "t = {}: Σ ε = {sum}", r.time);
     }
     // vapour composition at 20 % evaporated
-    let at20 = |rows: &[HistoryRow]| rows.iter().find(|r| r.evaporated_fraction >= 0.2).unwrap().vapor_mass_fractions.clone();
+    let at20 = |rows: &[HistoryRow]| {
+        let k = rows.iter().position(|r| r.evaporated_fraction >= 0.2).unwrap();
+        let (a, b) = (&rows[k - 1], &rows[k]);
+        let s = (0.2 - a.evaporated_fraction) / (b.evaporated_fraction - a.evaporated_fraction);
+        a.vapor_mass_fractions.iter().zip(&b.vapor_mass_fractions).map(|(x, y)| (1.0 - s) * x + s * y).collect::<Vec<f64>>()
+    };
     let (vm, vs) = (at20(&rm), at20(&rs));
     eprintln!("n-heptane/n-dodecane 50/50, 800 K: lifetime {lm:.5e} (mixture) vs {ls:.5e} s (species); vapour at 20 % evaporated {vm:?} vs {vs:?}");
     let light = fuel_index(&lib, "n-heptane");
@@ -93,7 +98,14 @@ fn demo_wide_vapour_composition_and_lifetime() {
     let mut out = vec![];
     for mode in [VapourDiffusion::Mixture, VapourDiffusion::Species] {
         let (life, rows) = run(&inputs(&lib, fuel.clone(), 800.0, 50e-6, mode));
-        let at = |f: f64| rows.iter().find(|r| r.evaporated_fraction >= f).map(|r| mean_w(&r.vapor_mass_fractions)).unwrap();
+        // interpolated linearly in evaporated fraction between the rows around f (the rows sit wherever the
+        // integrator stepped, so the first row past f alone would move with the step sequence)
+        let at = |f: f64| {
+            let k = rows.iter().position(|r| r.evaporated_fraction >= f).unwrap();
+            let (a, b) = (&rows[k - 1], &rows[k]);
+            let s = (f - a.evaporated_fraction) / (b.evaporated_fraction - a.evaporated_fraction);
+            (1.0 - s) * mean_w(&a.vapor_mass_fractions) + s * mean_w(&b.vapor_mass_fractions)
+        };
         let (w10, w50, w90) = (at(0.1), at(0.5), at(0.9));
         eprintln!("demo-wide {}: lifetime {:.4} ms, vapour mean molar mass at 10/50/90 % evaporated {:.2}/{:.2}/{:.2} g/mol", mode.as_str(), 1e3 * life, 1e3 * w10, 1e3 * w50, 1e3 * w90);
         out.push((life, w10, w50, w90));

@@ -8,38 +8,11 @@
 use std::hint::black_box;
 
 use dropcut::data::Library;
-use dropcut::fuel::{Basis, Fuel};
 use dropcut::model::droplet::{LiquidHeat, LiquidMixing, NoHistory};
-use dropcut::model::{simulate, DropletInputs, Motion};
-use dropcut::props::gas::AmbientGas;
+use dropcut::model::{simulate, DropletInputs};
 
-/// The fuels and inputs of benches/droplet.rs.
-fn fuel(lib: &Library, n: usize) -> Fuel {
-    let comps: Vec<_> = lib.components().iter().filter(|c| c.class != dropcut::data::HydrocarbonClass::Oxygenate).take(n).cloned().collect();
-    let k = comps.len();
-    Fuel::from_fractions("bench", comps, &vec![1.0 / k as f64; k], Basis::Mass).unwrap()
-}
-
-const FIFTY_CELLS: &str = "\
-carbon_number,n-alkane,iso-alkane,monocycloalkane,dicycloalkane,alkylbenzene,cycloaromatic,diaromatic
-C7,0.5,,0.4,,0.6,,
-C8,1.0,0.5,0.8,,1.2,,
-C9,3.0,2.0,3.0,0.5,3.5,,
-C10,6.5,5.5,4.0,2.5,3.0,1.0,0.5
-C11,6.0,5.5,3.5,2.0,2.0,1.2,1.0
-C12,5.5,5.5,2.5,1.5,1.2,0.8,0.5
-C13,4.0,4.5,1.5,1.0,0.6,0.4,0.2
-C14,2.5,3.0,0.8,0.5,,,
-C15,1.2,1.5,,,,,
-C16,0.5,0.8,,,,,
-C17,0.3,0.4,,,,,
-";
-
-fn inputs_of(fuel: Fuel, lib: &Library) -> DropletInputs {
-    let mut inp = DropletInputs::new(fuel, AmbientGas::air(lib).unwrap(), 800.0, 101_325.0, 50e-6, 300.0);
-    inp.motion = Motion::Fixed { velocity: 5.0 };
-    inp
-}
+mod common;
+use common::{fifty, fuel, inputs_of};
 
 fn main() {
     let args: Vec<String> = std::env::args().skip(1).filter(|a| a != "--bench").collect();
@@ -49,11 +22,7 @@ fn main() {
     let inp = match case {
         "wm1" => inputs_of(fuel(&lib, 1), &lib),
         "wm10" => inputs_of(fuel(&lib, 10), &lib),
-        "wm50" => {
-            let table = dropcut::fuel::build::classes::ClassTable::parse_csv(FIFTY_CELLS, "bench", "bench-fifty").unwrap();
-            let built = dropcut::fuel::build::classes::build_from_classes(&table, &lib, &Default::default()).unwrap();
-            inputs_of(built.fuel, &lib)
-        }
+        "wm50" => inputs_of(fifty(&lib), &lib),
         "res20x40" => {
             let mut inp = inputs_of(fuel(&lib, 20), &lib);
             inp.liquid.mixing = LiquidMixing::Diffusion;

@@ -4,7 +4,7 @@
 //! balance recomputed from the recorded history closes in every regime.
 use dropcut::data::Library;
 use dropcut::fuel::{Basis, Fuel};
-use dropcut::model::droplet::{HistoryRow, Recorder, Regime, Status};
+use dropcut::model::droplet::{energy_balance_residual, HistoryRow, Recorder, Regime, Status};
 use dropcut::model::film::{ExtraHeat, Radiation};
 use dropcut::model::inputs::{LiquidHeat, LiquidMixing};
 use dropcut::model::{simulate, DropletInputs, Motion};
@@ -22,33 +22,6 @@ fn resolved(lib: &Library, fuel: &[(&str, f64)], t_inf: f64, d0: f64, t0: f64) -
     inp
 }
 
-/// Energy balance of a resolved-liquid history, recomputed from the recorded rows and independent of the
-/// model's own heat-to-liquid: the liquid's sensible heat (mass-mean temperature) changes as
-/// m c_p dT̄/dt = Q_gas + Q_rad + Q_fib − Σ ṁ_i L_i(T_s) − ṁ c_p (T_s − T̄) (the vapour leaves at the surface
-/// temperature). Σ over steps |stored − trapezoid of the right side|, over Σ Δt · mean |Q_gas + Q_extra| \[-\].
-fn resolved_energy_residual(comps: &[std::sync::Arc<dropcut::data::Component>], rows: &[HistoryRow]) -> f64 {
-    let net = |r: &HistoryRow, cp: f64| -> f64 {
-        let latent: f64 = comps.iter().zip(&r.vapor_mass_fractions).map(|(c, y)| y * r.film.evaporation_rate * c.latent_heat(r.surface_temperature)).sum();
-        r.film.heat_from_gas + r.film.heat_extra - latent - r.film.evaporation_rate * cp * (r.surface_temperature - r.mean_temperature)
-    };
-    let (mut err, mut scale) = (0.0, 0.0);
-    for (a, b) in rows.iter().zip(rows.iter().skip(1)) {
-        let dt = b.time - a.time;
-        if dt <= 0.0 {
-            continue;
-        }
-        let w: Vec<f64> = a.liquid_mass_fractions.iter().zip(&b.liquid_mass_fractions).map(|(p, q)| 0.5 * (p + q)).collect();
-        let cp = liquid::heat_capacity(comps, &w, 0.5 * (a.mean_temperature + b.mean_temperature));
-        let stored = 0.5 * (a.mass + b.mass) * cp * (b.mean_temperature - a.mean_temperature);
-        err += (stored - 0.5 * dt * (net(a, cp) + net(b, cp))).abs();
-        scale += 0.5 * dt * ((a.film.heat_from_gas + a.film.heat_extra).abs() + (b.film.heat_from_gas + b.film.heat_extra).abs());
-    }
-    if scale > 0.0 {
-        err / scale
-    } else {
-        0.0
-    }
-}
 
 fn run(inp: &DropletInputs) -> (dropcut::model::RunResult, Vec<HistoryRow>) {
     let mut rec = Recorder::default();
@@ -133,7 +106,7 @@ fn resolved_energy_balance_closes_in_every_regime() {
         };
         let rows = rec.rows;
         assert_eq!(r.outcome.status, Status::Evaporated, "{name}: {:?}", r.outcome.regime_notes);
-        let residual = resolved_energy_residual(&comps, &rows);
+        let residual = energy_balance_residual(&comps, &rows);
         let boiling = rows.iter().any(|r| r.regime == Regime::Boiling);
         let leaves = rows.windows(2).any(|w| w[0].regime == Regime::Boiling && w[1].regime == Regime::Evaporating);
         boiled += usize::from(boiling);

@@ -188,14 +188,16 @@ impl Default for RowTimes {
     }
 }
 
-/// Energy balance of a uniform-temperature droplet history: Σ over steps |m̄ c̄_p ΔT − Δt · mean(Q_gas + Q_extra −
-/// Σ ṁ_i L_i(T_s))|, divided by Σ Δt · mean|Q_gas + Q_extra| (trapezoids between recorded rows) \[-\]. The heat
-/// terms are recomputed from the recorded gas heat, extra heat, species rates and surface temperature, not taken
+/// Energy balance of a droplet history: the liquid's sensible heat at its mass-mean temperature T̄ changes as
+/// m c_p dT̄/dt = Q_gas + Q_extra − Σ ṁ_i L_i(T_s) − ṁ c_p (T_s − T̄) (the vapour leaves at the surface
+/// temperature; the last term is zero for a uniform droplet, where T̄ = T_s). Returns Σ over steps |m̄ c̄_p ΔT̄ −
+/// Δt · mean(right side)|, divided by Σ Δt · mean|Q_gas + Q_extra| (trapezoids between recorded rows) \[-\]. The
+/// heat terms are recomputed from the recorded gas heat, extra heat, species rates and temperatures, not taken
 /// from the model's own heat-to-liquid, so a regime that holds the temperature while heat flows in shows up.
 pub fn energy_balance_residual(comps: &[std::sync::Arc<crate::data::Component>], rows: &[HistoryRow]) -> f64 {
-    let net = |r: &HistoryRow| -> f64 {
+    let net = |r: &HistoryRow, cp: f64| -> f64 {
         let latent: f64 = comps.iter().zip(&r.vapor_mass_fractions).map(|(c, y)| y * r.film.evaporation_rate * c.latent_heat(r.surface_temperature)).sum();
-        r.film.heat_from_gas + r.film.heat_extra - latent
+        r.film.heat_from_gas + r.film.heat_extra - latent - r.film.evaporation_rate * cp * (r.surface_temperature - r.mean_temperature)
     };
     let (mut err, mut scale) = (0.0, 0.0);
     for (a, b) in rows.iter().zip(rows.iter().skip(1)) {
@@ -204,9 +206,9 @@ pub fn energy_balance_residual(comps: &[std::sync::Arc<crate::data::Component>],
             continue;
         }
         let w: Vec<f64> = a.liquid_mass_fractions.iter().zip(&b.liquid_mass_fractions).map(|(p, q)| 0.5 * (p + q)).collect();
-        let cp = liquid::heat_capacity(comps, &w, 0.5 * (a.surface_temperature + b.surface_temperature));
-        let stored = 0.5 * (a.mass + b.mass) * cp * (b.surface_temperature - a.surface_temperature);
-        err += (stored - 0.5 * dt * (net(a) + net(b))).abs();
+        let cp = liquid::heat_capacity(comps, &w, 0.5 * (a.mean_temperature + b.mean_temperature));
+        let stored = 0.5 * (a.mass + b.mass) * cp * (b.mean_temperature - a.mean_temperature);
+        err += (stored - 0.5 * dt * (net(a, cp) + net(b, cp))).abs();
         scale += 0.5 * dt * ((a.film.heat_from_gas + a.film.heat_extra).abs() + (b.film.heat_from_gas + b.film.heat_extra).abs());
     }
     if scale > 0.0 {

@@ -92,6 +92,13 @@ pub(crate) struct RunWatch {
     max_reynolds: f64,
     /// First time the heat into the liquid fell below 10 % of the gas heat flux \[s\].
     pub(crate) heatup_end: Option<f64>,
+    /// Time and value of |Q_L| − 0.1 |Q_gas| at the last observed row, while the heat-up lasts.
+    heatup_last: (f64, f64),
+}
+
+/// |Q_L| − 0.1 |Q_gas| of a row: the heat-up has ended where it first reaches zero \[W\].
+fn heatup_margin(row: &super::history::HistoryRow) -> f64 {
+    row.film.heat_to_liquid.abs() - 0.1 * row.film.heat_from_gas.abs()
 }
 
 impl RunWatch {
@@ -103,7 +110,8 @@ impl RunWatch {
             critical,
             max_surface_temperature: first.surface_temperature,
             max_reynolds: first.film.reynolds,
-            heatup_end: if first.film.heat_to_liquid.abs() <= 0.1 * first.film.heat_from_gas.abs() { Some(0.0) } else { None },
+            heatup_end: if heatup_margin(first) <= 0.0 { Some(0.0) } else { None },
+            heatup_last: (0.0, heatup_margin(first)),
         }
     }
 
@@ -112,8 +120,16 @@ impl RunWatch {
         self.max_surface_temperature = self.max_surface_temperature.max(row.surface_temperature);
         self.critical.observe(comps, surface_w, row.surface_temperature, time);
         self.max_reynolds = self.max_reynolds.max(row.film.reynolds);
-        if self.heatup_end.is_none() && row.film.heat_to_liquid.abs() <= 0.1 * row.film.heat_from_gas.abs() {
-            self.heatup_end = Some(time);
+        if self.heatup_end.is_none() {
+            // the crossing between the last row and this one, by linear interpolation of the margin (the rows
+            // sit wherever the integrator stepped; the step end alone moved the time by a few per cent)
+            let margin = heatup_margin(row);
+            let (t0, m0) = self.heatup_last;
+            if margin <= 0.0 {
+                let share = if m0 > 0.0 && m0 - margin > 0.0 { m0 / (m0 - margin) } else { 1.0 };
+                self.heatup_end = Some(t0 + share * (time - t0));
+            }
+            self.heatup_last = (time, margin);
         }
     }
 

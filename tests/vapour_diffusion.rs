@@ -60,6 +60,15 @@ fn identical_diffusivities_reproduce_the_mixture_average() {
     }
 }
 
+/// The two history rows around evaporated fraction `f` and the linear weight of the second: values at `f` are
+/// interpolated between them (the rows sit wherever the integrator stepped, so the first row past `f` alone
+/// would move with the step sequence by more than the effects measured here).
+fn around(rows: &[HistoryRow], f: f64) -> (&HistoryRow, &HistoryRow, f64) {
+    let k = rows.iter().position(|r| r.evaporated_fraction >= f).unwrap();
+    let (a, b) = (&rows[k - 1], &rows[k]);
+    (a, b, (f - a.evaporated_fraction) / (b.evaporated_fraction - a.evaporated_fraction))
+}
+
 /// The species rates sum to the total rate at every recorded state (vapour fractions sum to 1), and the
 /// faster-diffusing light vapour (n-heptane, D about 1.5 times n-dodecane's in air by Fuller) takes a larger
 /// share of the vapour than with one mixture-averaged diffusivity, which under-rates it.
@@ -76,9 +85,7 @@ fn species_rates_are_consistent_and_favour_the_faster_vapour() {
     }
     // vapour composition at 20 % evaporated
     let at20 = |rows: &[HistoryRow]| {
-        let k = rows.iter().position(|r| r.evaporated_fraction >= 0.2).unwrap();
-        let (a, b) = (&rows[k - 1], &rows[k]);
-        let s = (0.2 - a.evaporated_fraction) / (b.evaporated_fraction - a.evaporated_fraction);
+        let (a, b, s) = around(rows, 0.2);
         a.vapor_mass_fractions.iter().zip(&b.vapor_mass_fractions).map(|(x, y)| (1.0 - s) * x + s * y).collect::<Vec<f64>>()
     };
     let (vm, vs) = (at20(&rm), at20(&rs));
@@ -98,12 +105,8 @@ fn demo_wide_vapour_composition_and_lifetime() {
     let mut out = vec![];
     for mode in [VapourDiffusion::Mixture, VapourDiffusion::Species] {
         let (life, rows) = run(&inputs(&lib, fuel.clone(), 800.0, 50e-6, mode));
-        // interpolated linearly in evaporated fraction between the rows around f (the rows sit wherever the
-        // integrator stepped, so the first row past f alone would move with the step sequence)
         let at = |f: f64| {
-            let k = rows.iter().position(|r| r.evaporated_fraction >= f).unwrap();
-            let (a, b) = (&rows[k - 1], &rows[k]);
-            let s = (f - a.evaporated_fraction) / (b.evaporated_fraction - a.evaporated_fraction);
+            let (a, b, s) = around(&rows, f);
             (1.0 - s) * mean_w(&a.vapor_mass_fractions) + s * mean_w(&b.vapor_mass_fractions)
         };
         let (w10, w50, w90) = (at(0.1), at(0.5), at(0.9));

@@ -204,6 +204,27 @@ pub(super) fn draw_panel<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, area
     let desc_style = s.font(desc_size).color(&TEXT);
     let (axis, tick) = (s.line(BLACK, 1), s.px(TICK_MARK));
     let (grid_bold, grid_light) = (s.line(GRID_BOLD, 1), s.line(GRID_LIGHT, 1));
+    // the primary axes and grid, the same with or without a secondary °C axis (whose chart type differs)
+    macro_rules! mesh {
+        ($cc:expr, $labels:expr, $descs:expr) => {
+            $cc.configure_mesh()
+                .x_desc(micrometre_text(&p.x_label))
+                .y_desc(micrometre_text(&p.y_label))
+                .x_labels(xn)
+                .y_labels(yn)
+                .x_label_formatter(&fx)
+                .y_label_formatter(&fy)
+                .label_style($labels)
+                .axis_desc_style($descs)
+                .axis_style(axis)
+                .set_all_tick_mark_size(tick)
+                .bold_line_style(grid_bold)
+                .light_line_style(grid_light)
+                .max_light_lines(1)
+                .draw()
+                .map_err(de)?
+        };
+    }
     if p.celsius_axis {
         let cr = (yr.0 - 273.15, yr.1 - 273.15);
         let cd = tick_decimals(cr, yn);
@@ -211,22 +232,7 @@ pub(super) fn draw_panel<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, area
         let widest_c = ticks(cr, yn).iter().map(|v| text_width(root, &fc(v), label_size, s)).max().unwrap_or(s.px(20));
         builder.right_y_label_area_size(widest_c + s.px(desc_size + 22));
         let mut cc = builder.build_cartesian_2d(xr.0..xr.1, yr.0..yr.1).map_err(de)?.set_secondary_coord(xr.0..xr.1, cr.0..cr.1);
-        cc.configure_mesh()
-            .x_desc(micrometre_text(&p.x_label))
-            .y_desc(micrometre_text(&p.y_label))
-            .x_labels(xn)
-            .y_labels(yn)
-            .x_label_formatter(&fx)
-            .y_label_formatter(&fy)
-            .label_style(label_style.clone())
-            .axis_desc_style(desc_style.clone())
-            .axis_style(axis)
-            .set_all_tick_mark_size(tick)
-            .bold_line_style(grid_bold)
-            .light_line_style(grid_light)
-            .max_light_lines(1)
-            .draw()
-            .map_err(de)?;
+        mesh!(cc, label_style.clone(), desc_style.clone());
         cc.configure_secondary_axes()
             .y_desc(p.y_label.replace("[K]", "[°C]"))
             .y_labels(yn)
@@ -240,22 +246,7 @@ pub(super) fn draw_panel<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, area
         draw_series(&mut cc, p, yr, s)?;
     } else {
         let mut cc = builder.build_cartesian_2d(xr.0..xr.1, yr.0..yr.1).map_err(de)?;
-        cc.configure_mesh()
-            .x_desc(micrometre_text(&p.x_label))
-            .y_desc(micrometre_text(&p.y_label))
-            .x_labels(xn)
-            .y_labels(yn)
-            .x_label_formatter(&fx)
-            .y_label_formatter(&fy)
-            .label_style(label_style)
-            .axis_desc_style(desc_style)
-            .axis_style(axis)
-            .set_all_tick_mark_size(tick)
-            .bold_line_style(grid_bold)
-            .light_line_style(grid_light)
-            .max_light_lines(1)
-            .draw()
-            .map_err(de)?;
+        mesh!(cc, label_style, desc_style);
         draw_series(&mut cc, p, yr, s)?;
     }
     Ok(())

@@ -28,6 +28,10 @@ fn ethanol_blend_is_more_volatile_with_unifac() {
     let t10 = |v: &serde_json::Value| v["t10_s"].as_f64().unwrap();
     assert!(t10(&b) < t10(&a), "t10 ideal {} s, unifac {} s", t10(&a), t10(&b));
     assert!(b["input"].to_string().contains("unifac"), "input echo: {}", b["input"]);
+    // the ideal run says that an ethanol blend wants --activity unifac; the UNIFAC run does not
+    let summary = |activity: &str| std::fs::read_to_string(dir.join(activity).join("summary.json")).unwrap();
+    assert!(summary("ideal").contains("contains ethanol and is treated as ideal"), "{}", summary("ideal"));
+    assert!(!summary("unifac").contains("treated as ideal"));
 }
 
 /// Weathering demo-wide in an open vessel removes its aromatics faster with UNIFAC (γ_aromatic > 1 among

@@ -3,8 +3,13 @@
 //! validation/unifac_reference.py) for seven binaries and one ternary. thermo uses the same published parameter
 //! set (the DDBST original-UNIFAC matrix: Hansen et al. 1991, Wittig et al. 2003) that our tables transcribe, so
 //! this checks the equations and the group bookkeeping of the component files, not the parameters.
-//! (b) Published vapour–liquid equilibrium data are not asserted here: see docs/property-methods.md ("Activity
-//! coefficients") for the state of that comparison.
+//! (b) Bubble temperatures of nine binaries at 101.325 kPa (aromatic–paraffin, cycloparaffin–aromatic and
+//! ethanol–hydrocarbon) against CoolProp's multi-fluid mixture model with the binary interaction parameters of
+//! Bell & Lemmon (2016), fitted to experimental mixture data (validation/coolprop/binary_vle.csv, written by
+//! validation/vle_reference.py). That reference is independent of both our UNIFAC parameters and our
+//! pure-component vapour pressures. UNIFAC is asserted within 1.5 K; the ideal liquid (Raoult's law) is
+//! reported beside it, so the report shows what the activity model changes. The measured points themselves
+//! (published VLE tables) could not be read here: see docs/property-methods.md ("Activity coefficients").
 
 use std::sync::Arc;
 
@@ -19,6 +24,9 @@ pub const GROUP_ACTIVITY: &str = "liquid activity coefficients (UNIFAC)";
 pub const TOL_THERMO_GAMMA: f64 = 0.02;
 
 const THERMO_GAMMAS: &str = include_str!("../../validation/thermo/unifac_gammas.csv");
+const COOLPROP_VLE: &str = include_str!("../../validation/coolprop/binary_vle.csv");
+/// Tolerance on bubble temperatures against the mixture reference (the issue's 1.5 K).
+pub const TOL_BUBBLE_K: f64 = 1.5;
 
 /// Library and version named in the reference file header.
 fn thermo_library() -> String {
@@ -69,7 +77,131 @@ pub fn thermo_checks(lib: &Library) -> Vec<CheckResult> {
         .collect()
 }
 
+/// One binary of validation/coolprop/binary_vle.csv: component ids, the reference tags, and per liquid
+/// composition the pressure and the band [lowest, highest] of the references' bubble temperatures.
+struct VleSystem {
+    ids: (String, String),
+    references: Vec<String>,
+    rows: Vec<(f64, f64, f64, f64)>,
+}
+
+fn vle_systems() -> Vec<VleSystem> {
+    let mut systems: Vec<VleSystem> = vec![];
+    let mut reader = csv::ReaderBuilder::new().has_headers(true).comment(Some(b'#')).from_reader(COOLPROP_VLE.as_bytes());
+    for record in reader.records() {
+        let Ok(f) = record else { continue };
+        let num = |i: usize| f.get(i).and_then(|v| v.parse::<f64>().ok()).unwrap_or(f64::NAN);
+        let ids = (f.get(0).unwrap_or("").to_string(), f.get(1).unwrap_or("").to_string());
+        let reference = f.get(6).unwrap_or("").to_string();
+        let (x1, p, t) = (num(2), num(3), num(4));
+        let i = match systems.iter().position(|s| s.ids == ids) {
+            Some(i) => i,
+            None => {
+                systems.push(VleSystem { ids, references: vec![], rows: vec![] });
+                systems.len() - 1
+            }
+        };
+        let s = &mut systems[i];
+        if !s.references.contains(&reference) {
+            s.references.push(reference);
+        }
+        match s.rows.iter_mut().find(|r| r.0 == x1 && r.1 == p) {
+            Some(r) => {
+                r.2 = r.2.min(t);
+                r.3 = r.3.max(t);
+            }
+            None => s.rows.push((x1, p, t, t)),
+        }
+    }
+    systems
+}
+
+/// Largest distance of the bubble temperature with `model` from the references' band over a system's rows,
+/// and where it occurs (x1).
+fn bubble_deviation(comps: &[Arc<Component>], model: ActivityModel, rows: &[(f64, f64, f64, f64)]) -> Result<(f64, f64), String> {
+    let mut activity = Activity::new(model, comps).map_err(|e| e.to_string())?;
+    let mut worst = (-1.0_f64, f64::NAN);
+    for &(x1, p, low, high) in rows {
+        let t = crate::props::liquid::bubble_point_with(comps, &mut activity, &[x1, 1.0 - x1], p).map_err(|e| format!("x1 = {x1}: {e}"))?;
+        let d = if t < low { low - t } else if t > high { t - high } else { 0.0 };
+        if !d.is_finite() {
+            return Err(format!("x1 = {x1}: bubble temperature {t} K"));
+        }
+        if d > worst.0 {
+            worst = (d, x1);
+        }
+    }
+    Ok(worst)
+}
+
+/// Investigated disagreements between UNIFAC and a bubble-temperature reference, (component 1, component 2,
+/// explanation); each must still fail (tests/validation_activity.rs), so a fixed one is taken off the list.
+pub const KNOWN_BUBBLE_FAILURES: &[(&str, &str, &str)] = &[
+    (
+        "m-xylene",
+        "n-octane",
+        "UNIFAC puts this pair 2.8 K below Raoult's law at x1 = 0.5, as it does toluene + n-octane (where the reference agrees within 0.4 K); the fitted mixture model makes m-xylene + n-octane nearly ideal (γ_T 0.993 against 0.980 for toluene + n-octane), so either that fit or UNIFAC's aromatic–paraffin interaction misses for the xylene; the measured data were not readable here",
+    ),
+    (
+        "ethanol",
+        "n-octane",
+        "1.50 K above the one DECHEMA data set at x1 = 0.05 (363.55 against 362.05 K), within 1.5 K elsewhere; at that dilute end the pairs with two DECHEMA data sets differ between themselves by 1.8 K (ethanol + n-heptane), 1.3 K (ethanol + p-xylene) and 4.6 K (ethanol + toluene), more than this miss",
+    ),
+];
+
+fn known_bubble_failure(ids: &(String, String)) -> Option<&'static str> {
+    KNOWN_BUBBLE_FAILURES.iter().find(|k| k.0 == ids.0 && k.1 == ids.1).map(|k| k.2)
+}
+
+/// (b) Bubble temperatures against data-backed references: UNIFAC asserted, the ideal liquid reported.
+pub fn bubble_checks(lib: &Library) -> Vec<CheckResult> {
+    let library = COOLPROP_VLE.lines().find_map(|l| l.strip_prefix("# library: ")).unwrap_or("CoolProp").to_string();
+    let mut out = vec![];
+    for system in vle_systems() {
+        let name = format!("{} + {}", system.ids.0, system.ids.1);
+        let dechema: Vec<&str> = system.references.iter().filter_map(|r| r.strip_prefix("dechema-nrtl ")).collect();
+        let source = if dechema.is_empty() {
+            format!(
+                "{library}: multi-fluid mixture model with the binary interaction parameters of I. H. Bell and E. W. Lemmon, J. Chem. Eng. Data 61 (2016), doi:10.1021/acs.jced.6b00257 (fitted to experimental mixture data); validation/coolprop/binary_vle.csv"
+            )
+        } else {
+            format!(
+                "NRTL with the DECHEMA parameters fitted to isobaric VLE data at 1 atm (DECHEMA Chemistry Data Series, page and volume/part {}; as transcribed in ChemSep's nrtl.ipd, shipped by thermo) and CoolProp pure-fluid vapour pressures; the band spans the listed data sets; {library}; validation/coolprop/binary_vle.csv",
+                dechema.join(", ")
+            )
+        };
+        let label = format!(
+            "bubble temperature of {name} at 101.325 kPa, x1 = {}{}",
+            system.rows.iter().map(|r| format!("{}", r.0)).collect::<Vec<_>>().join("/"),
+            if dechema.len() > 1 { format!(", distance from the band of {} data sets", dechema.len()) } else { String::new() }
+        );
+        let comps: Option<Vec<Arc<Component>>> = [&system.ids.0, &system.ids.1].iter().map(|id| lib.component(id).cloned()).collect();
+        let Some(comps) = comps else {
+            out.push(CheckResult::failed(GROUP_ACTIVITY, label, &source, format!("{name}: component not in the library")));
+            continue;
+        };
+        let ideal = bubble_deviation(&comps, ActivityModel::Ideal, &system.rows);
+        match bubble_deviation(&comps, ActivityModel::Unifac, &system.rows) {
+            Ok((d, x1)) => {
+                let ideal_text = match ideal {
+                    Ok((di, xi)) => format!("ideal liquid (Raoult's law) off by up to {di:.2} K (x1 = {xi}), reported"),
+                    Err(e) => format!("ideal liquid not computed: {e}"),
+                };
+                let mut r = CheckResult::absolute(GROUP_ACTIVITY, format!("{label}: UNIFAC, worst at x1 = {x1}; {ideal_text}"), &source, d, TOL_BUBBLE_K, "K");
+                if let (false, Some(why)) = (r.passed, known_bubble_failure(&system.ids)) {
+                    r.check = format!("{} [{}: {why}]", r.check, crate::checks::properties::KNOWN_FAILURE_MARKER);
+                }
+                out.push(r);
+            }
+            Err(e) => out.push(CheckResult::failed(GROUP_ACTIVITY, label, &source, e)),
+        }
+    }
+    out
+}
+
 /// Every activity-coefficient check, in report order.
 pub fn all(lib: &Library) -> Vec<CheckResult> {
-    thermo_checks(lib)
+    let mut v = thermo_checks(lib);
+    v.extend(bubble_checks(lib));
+    v
 }

@@ -136,7 +136,8 @@ impl Library {
             let shown = format!("mixtures/{path}");
             lib.add_text(path, text, &shown)?;
         }
-        lib.check_sources()?;
+        // the embedded sources file is parsed, and the embedded data's source ids resolved, by `check_all`
+        // (in the tests), not at every start
         Ok(lib)
     }
 
@@ -149,6 +150,7 @@ impl Library {
                 let _ = e.parsed.set(Arc::new(c));
             }
         }
+        self.sources.check_embedded()?;
         self.check_sources()
     }
 
@@ -161,7 +163,7 @@ impl Library {
         } else if rel == "gases.toml" {
             self.gases.extend(parse_gases(text, shown)?);
         } else if rel == "sources.toml" {
-            self.sources.extend(SourceRegistry::parse(text, shown)?);
+            self.sources.extend(SourceRegistry::embedded_lazy(text, "mixtures/sources.toml"));
         } else if !rel.contains('/') {
             let id = rel.trim_end_matches(".toml").to_string();
             self.fuels.insert(id, (shown.to_string(), text.to_string()));
@@ -237,7 +239,7 @@ impl Library {
                         context: format!("{}: {field}.source", c.origin),
                         kind: "source",
                         id: id.clone(),
-                        hint: suggest(&id, self.sources.sources.keys().map(|s| s.as_str())),
+                        hint: suggest(&id, self.sources.ids()),
                     });
                 }
             }
@@ -275,7 +277,7 @@ impl Library {
                     context: format!("{}: {field}.source", c.origin),
                     kind: "source",
                     id: id.clone(),
-                    hint: suggest(&id, self.sources.sources.keys().map(|s| s.as_str())),
+                    hint: suggest(&id, self.sources.ids()),
                 });
             }
         }

@@ -11,14 +11,15 @@ Writes validation/coolprop/binary_vle.csv with one row per binary, liquid compos
    (citation as in CoolProp's CoolPropBibTeXLibrary.bib, key Bell-JCED-2016), fitted to experimental
    mixture data; beta_v = gamma_v = 1, no departure function). reference = "coolprop-bell2016".
 
-2. Ethanol + hydrocarbon pairs: the NRTL equation with the DECHEMA parameters fitted to isobaric VLE data at
-   1 atm, as transcribed in ChemSep's interaction-parameter file nrtl.ipd ("DECHEMA NRTL data @ 1atm",
-   A12 and A21 in cal/mol, alpha12; copyright 2008 H. Kooijman and R. Taylor, Artistic License 2.0),
-   which the thermo package ships (thermo/Interaction Parameters/ChemSep/nrtl.ipd). Every parameter set the
-   file lists for a pair is used (they come from different measured data sets; their comment gives the
-   DECHEMA Chemistry Data Series volume/part and page, e.g. "p459 1/2c"), so the spread between them is the
-   spread between experiments. Pure-component vapour pressures: CoolProp's reference equations of state.
-   reference = "dechema-nrtl <page part>".
+2. Ethanol + hydrocarbon pairs: the NRTL equation with the parameters listed in ChemSep's
+   interaction-parameter file nrtl.ipd as "DECHEMA NRTL data @ 1atm" (A12 and A21 in cal/mol, alpha12;
+   copyright 2008 H. Kooijman and R. Taylor, Artistic License 2.0), which the thermo package ships
+   (thermo/Interaction Parameters/ChemSep/nrtl.ipd). Every parameter set the file lists for a pair is used.
+   Each carries a comment such as "p459 1/2c", which we read as a page and a volume/part of the DECHEMA
+   Chemistry Data Series (our reading, not stated in the file); two sets for one pair with different pages
+   are then fits to different measured data sets, and the spread between them is a measure of the spread
+   between experiments. Pure-component vapour pressures: CoolProp's reference equations of state.
+   reference = "dechema-nrtl <file comment>".
    CoolProp's reducing-function-only mixture model is not used for the ethanol pairs: for them it differs
    from the DECHEMA fits by up to about 6 K in the dilute-ethanol region (ethanol + n-heptane at x1 = 0.05:
    357.6 K against 351.1-352.9 K), a form too simple for that strongly non-ideal liquid.
@@ -173,7 +174,7 @@ def main():
         f.write("#   pressure_Pa: pressure, Pa\n")
         f.write("#   bubble_temperature_K: CoolProp PQ flash at Q = 0 (coolprop rows); bisection to 1e-9 K of the NRTL modified Raoult's law (dechema rows), K\n")
         f.write("#   y1: vapour mole fraction of component 1 at the bubble point, -\n")
-        f.write("#   reference: coolprop-bell2016, or dechema-nrtl <page part> (DECHEMA Chemistry Data Series page and volume/part)\n")
+        f.write("#   reference: coolprop-bell2016, or dechema-nrtl <file comment> (read as page and DECHEMA Chemistry Data Series volume/part)\n")
         w = csv.writer(f, lineterminator="\n")
         w.writerow(["component_1", "component_2", "x1", "pressure_Pa", "bubble_temperature_K", "y1", "reference"])
         w.writerows(rows)

@@ -3,13 +3,15 @@
 //! validation/unifac_reference.py) for seven binaries and one ternary. thermo uses the same published parameter
 //! set (the DDBST original-UNIFAC matrix: Hansen et al. 1991, Wittig et al. 2003) that our tables transcribe, so
 //! this checks the equations and the group bookkeeping of the component files, not the parameters.
-//! (b) Bubble temperatures of nine binaries at 101.325 kPa (aromatic–paraffin, cycloparaffin–aromatic and
-//! ethanol–hydrocarbon) against CoolProp's multi-fluid mixture model with the binary interaction parameters of
-//! Bell & Lemmon (2016), fitted to experimental mixture data (validation/coolprop/binary_vle.csv, written by
-//! validation/vle_reference.py). That reference is independent of both our UNIFAC parameters and our
-//! pure-component vapour pressures. UNIFAC is asserted within 1.5 K; the ideal liquid (Raoult's law) is
-//! reported beside it, so the report shows what the activity model changes. The measured points themselves
-//! (published VLE tables) could not be read here: see docs/property-methods.md ("Activity coefficients").
+//! (b) Bubble temperatures of twelve binaries at 101.325 kPa (validation/coolprop/binary_vle.csv, written by
+//! validation/vle_reference.py): five hydrocarbon pairs against CoolProp's multi-fluid mixture model with the
+//! binary interaction parameters of Bell & Lemmon (2016), fitted to experimental mixture data, and seven
+//! ethanol–hydrocarbon pairs against NRTL with the parameters ChemSep's nrtl.ipd lists as DECHEMA 1-atm data
+//! (the band between two listed data sets where there are two), with CoolProp's pure-fluid vapour pressures.
+//! Both references are independent of our UNIFAC parameters and of our pure-component vapour pressures.
+//! UNIFAC is asserted within 1.5 K; the ideal liquid (Raoult's law) is reported beside it, so the report shows
+//! what the activity model changes. The measured points themselves (published VLE tables) could not be read
+//! here: see docs/property-methods.md ("Activity coefficients").
 
 use std::sync::Arc;
 
@@ -166,7 +168,7 @@ pub fn bubble_checks(lib: &Library) -> Vec<CheckResult> {
             )
         } else {
             format!(
-                "NRTL with the DECHEMA parameters fitted to isobaric VLE data at 1 atm (DECHEMA Chemistry Data Series, page and volume/part {}; as transcribed in ChemSep's nrtl.ipd, shipped by thermo) and CoolProp pure-fluid vapour pressures; the band spans the listed data sets; {library}; validation/coolprop/binary_vle.csv",
+                "NRTL with the DECHEMA parameters at 1 atm as listed in ChemSep's nrtl.ipd (\"DECHEMA NRTL data @ 1atm\", shipped by thermo; file comments {}, read by us as page and DECHEMA Chemistry Data Series volume/part) and CoolProp pure-fluid vapour pressures; the band spans the listed data sets; {library}; validation/coolprop/binary_vle.csv",
                 dechema.join(", ")
             )
         };

@@ -20,7 +20,7 @@ use thiserror::Error;
 use crate::data::Component;
 use crate::props::PropertyError;
 
-pub use indicators::{indicators, CetaneRule, IndicatorOptions, Indicators, RecoveryBasis, ViscosityRule, INDICATOR_KEYS};
+pub use indicators::{indicators, CetaneRule, IndicatorOptions, IndicatorSelection, Indicators, RecoveryBasis, ViscosityRule, INDICATOR_KEYS};
 pub use limits::{LimitFlag, LimitStatus, Limits, LimitsError, CAUTION};
 pub use weathering::{residue_table, weathering_residues, Residue, ResidueRow};
 

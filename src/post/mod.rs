@@ -6,6 +6,7 @@
 //! screening estimate — see [`limits::CAUTION`].
 
 pub mod droplet;
+pub mod indicator_values;
 pub mod indicators;
 pub mod input_spread;
 pub mod limits;

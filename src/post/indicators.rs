@@ -23,7 +23,6 @@
 //! equilibrium flash vaporisation curve is flatter still. Compare T10/T50/T90 with D86 limits as a
 //! screening aid only; the ends of the curve are the least comparable points.
 
-use std::collections::BTreeMap;
 use std::sync::Arc;
 
 use serde::{Deserialize, Serialize};
@@ -33,6 +32,7 @@ use crate::props::activity::{Activity, ActivityModel};
 use crate::props::liquid;
 
 pub use super::mixture_rules::{blend_cetane, butler_flash_point, cetane_basis, component_flash_point, freezing_point, is_measured_dcn, liaw_flash_point, FlashPointOrigin};
+pub use super::indicator_values::{IndicatorSelection, Indicators, INDICATOR_KEYS};
 use super::rayleigh::{self, PathMode};
 use super::{normalised, PostError};
 
@@ -139,7 +139,11 @@ pub struct IndicatorOptions {
     pub max_step: f64,
     /// Liquid activity model of the bubble point, distillation, vapour pressure and flash point.
     pub activity: ActivityModel,
+    /// Indicators to compute (default: all). Unrequested indicators are not computed: they stay `None` with
+    /// no method and no note; the requested ones have exactly the values, methods and notes of a full call.
+    pub selection: IndicatorSelection,
 }
+
 
 impl Default for IndicatorOptions {
     fn default() -> Self {
@@ -151,236 +155,11 @@ impl Default for IndicatorOptions {
             final_fraction: DEFAULT_FINAL_FRACTION,
             max_step: DEFAULT_MAX_STEP,
             activity: ActivityModel::Ideal,
+            selection: IndicatorSelection::ALL,
         }
     }
 }
 
-/// Every numeric indicator key with its SI unit, in table order.
-pub const INDICATOR_KEYS: [(&str, &str); 24] = [
-    ("evaporated_fraction", "-"),
-    ("bubble_point_K", "K"),
-    ("initial_boiling_point_K", "K"),
-    ("t10_K", "K"),
-    ("t20_K", "K"),
-    ("t50_K", "K"),
-    ("t90_K", "K"),
-    ("final_boiling_point_K", "K"),
-    ("vapor_pressure_38C_Pa", "Pa"),
-    ("flash_point_K", "K"),
-    ("density_15C_kg_m3", "kg/m3"),
-    ("kinematic_viscosity_minus40C_m2_s", "m2/s"),
-    ("kinematic_viscosity_minus20C_m2_s", "m2/s"),
-    ("kinematic_viscosity_40C_m2_s", "m2/s"),
-    ("surface_tension_20C_N_m", "N/m"),
-    ("dcn", "-"),
-    ("dcn_not_measured_share", "-"),
-    ("lhv_J_kg", "J/kg"),
-    ("lhv_volume_J_m3", "J/m3"),
-    ("hydrogen_mass_fraction", "-"),
-    ("hc_ratio", "-"),
-    ("aromatics_volume_fraction", "-"),
-    ("molar_mass_kg_mol", "kg/mol"),
-    ("freezing_point_K", "K"),
-];
-
-/// Fuel-quality indicators of one liquid composition. Serialises with snake_case, SI-suffixed keys;
-/// `None` is written as null and `notes` says why.
-#[derive(Debug, Clone, PartialEq, Serialize)]
-#[allow(non_snake_case)]
-pub struct Indicators {
-    /// Evaporated fraction of the parent liquid this composition is the residue of \[-\] (set by callers).
-    pub evaporated_fraction: Option<f64>,
-    /// Bubble point at the distillation pressure (1 atm by default) \[K\].
-    pub bubble_point_K: Option<f64>,
-    /// Initial boiling point of the simulated distillation (= bubble point) \[K\].
-    pub initial_boiling_point_K: Option<f64>,
-    /// Temperature at 10 % evaporated \[K\].
-    pub t10_K: Option<f64>,
-    /// Temperature at 20 % evaporated \[K\].
-    pub t20_K: Option<f64>,
-    /// Temperature at 50 % evaporated \[K\].
-    pub t50_K: Option<f64>,
-    /// Temperature at 90 % evaporated \[K\].
-    pub t90_K: Option<f64>,
-    /// Final boiling point: temperature at `final_fraction` evaporated (99.5 % by default) \[K\].
-    pub final_boiling_point_K: Option<f64>,
-    /// True vapour pressure at 38 °C (Raoult; not a Reid vapour pressure) \[Pa\].
-    pub vapor_pressure_38C_Pa: Option<f64>,
-    /// Closed-cup flash point estimate \[K\].
-    pub flash_point_K: Option<f64>,
-    /// Density at 15 °C \[kg/m³\].
-    pub density_15C_kg_m3: Option<f64>,
-    /// Kinematic viscosity at −40 °C \[m²/s\].
-    pub kinematic_viscosity_minus40C_m2_s: Option<f64>,
-    /// Kinematic viscosity at −20 °C \[m²/s\].
-    pub kinematic_viscosity_minus20C_m2_s: Option<f64>,
-    /// Kinematic viscosity at 40 °C \[m²/s\].
-    pub kinematic_viscosity_40C_m2_s: Option<f64>,
-    /// Surface tension at 20 °C \[N/m\].
-    pub surface_tension_20C_N_m: Option<f64>,
-    /// Derived cetane number by the chosen blending rule \[-\].
-    pub dcn: Option<f64>,
-    /// Share of the DCN's blend weight (the blending rule's fractions) carried by components whose cetane
-    /// value is not a measured derived cetane number: engine CN, estimates, or values recalled from memory \[-\].
-    pub dcn_not_measured_share: Option<f64>,
-    /// Lower heating value, mass basis \[J/kg\].
-    pub lhv_J_kg: Option<f64>,
-    /// Lower heating value per liquid volume at 15 °C \[J/m³\].
-    pub lhv_volume_J_m3: Option<f64>,
-    /// Hydrogen mass fraction \[-\].
-    pub hydrogen_mass_fraction: Option<f64>,
-    /// Hydrogen-to-carbon atom ratio \[-\].
-    pub hc_ratio: Option<f64>,
-    /// Aromatics (alkylbenzenes, cycloaromatics, diaromatics) volume fraction at 15 °C \[-\].
-    pub aromatics_volume_fraction: Option<f64>,
-    /// Mean molar mass \[kg/mol\].
-    pub molar_mass_kg_mol: Option<f64>,
-    /// Freezing point estimate (last crystal to disappear) \[K\].
-    pub freezing_point_K: Option<f64>,
-    /// Pressure of the bubble point and distillation \[Pa\].
-    pub distillation_pressure_Pa: f64,
-    /// Basis of the distillation recovered fraction.
-    pub distillation_basis: RecoveryBasis,
-    /// Evaporated fraction that defines the final boiling point \[-\].
-    pub final_boiling_fraction: f64,
-    /// Viscosity blending rule used.
-    pub viscosity_rule: ViscosityRule,
-    /// Cetane blending rule used.
-    pub cetane_rule: CetaneRule,
-    /// How each indicator was estimated, by key.
-    pub methods: BTreeMap<&'static str, String>,
-    /// Reasons for missing values and caveats (estimated inputs, extrapolations), by key.
-    pub notes: BTreeMap<&'static str, String>,
-}
-
-impl Indicators {
-    /// Value of a numeric indicator by key: `None` for an unknown key, `Some(None)` when not computed.
-    pub fn get(&self, key: &str) -> Option<Option<f64>> {
-        Some(match key {
-            "evaporated_fraction" => self.evaporated_fraction,
-            "bubble_point_K" => self.bubble_point_K,
-            "initial_boiling_point_K" => self.initial_boiling_point_K,
-            "t10_K" => self.t10_K,
-            "t20_K" => self.t20_K,
-            "t50_K" => self.t50_K,
-            "t90_K" => self.t90_K,
-            "final_boiling_point_K" => self.final_boiling_point_K,
-            "vapor_pressure_38C_Pa" => self.vapor_pressure_38C_Pa,
-            "flash_point_K" => self.flash_point_K,
-            "density_15C_kg_m3" => self.density_15C_kg_m3,
-            "kinematic_viscosity_minus40C_m2_s" => self.kinematic_viscosity_minus40C_m2_s,
-            "kinematic_viscosity_minus20C_m2_s" => self.kinematic_viscosity_minus20C_m2_s,
-            "kinematic_viscosity_40C_m2_s" => self.kinematic_viscosity_40C_m2_s,
-            "surface_tension_20C_N_m" => self.surface_tension_20C_N_m,
-            "dcn" => self.dcn,
-            "dcn_not_measured_share" => self.dcn_not_measured_share,
-            "lhv_J_kg" => self.lhv_J_kg,
-            "lhv_volume_J_m3" => self.lhv_volume_J_m3,
-            "hydrogen_mass_fraction" => self.hydrogen_mass_fraction,
-            "hc_ratio" => self.hc_ratio,
-            "aromatics_volume_fraction" => self.aromatics_volume_fraction,
-            "molar_mass_kg_mol" => self.molar_mass_kg_mol,
-            "freezing_point_K" => self.freezing_point_K,
-            _ => return None,
-        })
-    }
-
-    /// Method string of an indicator, if any.
-    pub fn method(&self, key: &str) -> Option<&str> {
-        self.methods.get(key).map(|s| s.as_str())
-    }
-
-    /// SI unit of an indicator key, if the key is known.
-    pub fn unit(key: &str) -> Option<&'static str> {
-        INDICATOR_KEYS.iter().find(|(k, _)| *k == key).map(|(_, u)| *u)
-    }
-
-    fn empty(opts: &IndicatorOptions) -> Self {
-        Indicators {
-            evaporated_fraction: None,
-            bubble_point_K: None,
-            initial_boiling_point_K: None,
-            t10_K: None,
-            t20_K: None,
-            t50_K: None,
-            t90_K: None,
-            final_boiling_point_K: None,
-            vapor_pressure_38C_Pa: None,
-            flash_point_K: None,
-            density_15C_kg_m3: None,
-            kinematic_viscosity_minus40C_m2_s: None,
-            kinematic_viscosity_minus20C_m2_s: None,
-            kinematic_viscosity_40C_m2_s: None,
-            surface_tension_20C_N_m: None,
-            dcn: None,
-            dcn_not_measured_share: None,
-            lhv_J_kg: None,
-            lhv_volume_J_m3: None,
-            hydrogen_mass_fraction: None,
-            hc_ratio: None,
-            aromatics_volume_fraction: None,
-            molar_mass_kg_mol: None,
-            freezing_point_K: None,
-            distillation_pressure_Pa: opts.pressure,
-            distillation_basis: opts.recovery_basis,
-            final_boiling_fraction: opts.final_fraction,
-            viscosity_rule: opts.viscosity_rule,
-            cetane_rule: opts.cetane_rule,
-            methods: BTreeMap::new(),
-            notes: BTreeMap::new(),
-        }
-    }
-
-    fn slot(&mut self, key: &str) -> &mut Option<f64> {
-        match key {
-            "bubble_point_K" => &mut self.bubble_point_K,
-            "initial_boiling_point_K" => &mut self.initial_boiling_point_K,
-            "t10_K" => &mut self.t10_K,
-            "t20_K" => &mut self.t20_K,
-            "t50_K" => &mut self.t50_K,
-            "t90_K" => &mut self.t90_K,
-            "final_boiling_point_K" => &mut self.final_boiling_point_K,
-            "vapor_pressure_38C_Pa" => &mut self.vapor_pressure_38C_Pa,
-            "flash_point_K" => &mut self.flash_point_K,
-            "density_15C_kg_m3" => &mut self.density_15C_kg_m3,
-            "kinematic_viscosity_minus40C_m2_s" => &mut self.kinematic_viscosity_minus40C_m2_s,
-            "kinematic_viscosity_minus20C_m2_s" => &mut self.kinematic_viscosity_minus20C_m2_s,
-            "kinematic_viscosity_40C_m2_s" => &mut self.kinematic_viscosity_40C_m2_s,
-            "surface_tension_20C_N_m" => &mut self.surface_tension_20C_N_m,
-            "dcn" => &mut self.dcn,
-            "dcn_not_measured_share" => &mut self.dcn_not_measured_share,
-            "lhv_J_kg" => &mut self.lhv_J_kg,
-            "lhv_volume_J_m3" => &mut self.lhv_volume_J_m3,
-            "hydrogen_mass_fraction" => &mut self.hydrogen_mass_fraction,
-            "hc_ratio" => &mut self.hc_ratio,
-            "aromatics_volume_fraction" => &mut self.aromatics_volume_fraction,
-            "molar_mass_kg_mol" => &mut self.molar_mass_kg_mol,
-            "freezing_point_K" => &mut self.freezing_point_K,
-            _ => &mut self.evaporated_fraction,
-        }
-    }
-
-    /// Store a value with its method; a non-finite value becomes None with a note.
-    fn set(&mut self, key: &'static str, value: Option<f64>, method: impl Into<String>) {
-        self.methods.insert(key, method.into());
-        match value {
-            Some(v) if v.is_finite() => *self.slot(key) = Some(v),
-            Some(v) => {
-                *self.slot(key) = None;
-                self.note(key, format!("not computed: the estimate was not a finite number ({v})"));
-            }
-            None => *self.slot(key) = None,
-        }
-    }
-
-    fn note(&mut self, key: &'static str, text: impl Into<String>) {
-        let text = text.into();
-        self.notes.entry(key).and_modify(|s| {
-            s.push_str("; ");
-            s.push_str(&text);
-        }).or_insert(text);
-    }
-}
 
 /// Temperatures of the simulated batch (Rayleigh) distillation at `pressure` at each evaporated fraction of
 /// `fractions` (ascending, in [0, 1)) on `basis` \[K\]. `mole_fractions` may contain zeros.
@@ -434,6 +213,7 @@ pub fn indicators(components: &[Arc<Component>], mass_fractions: &[f64], opts: &
     if !(opts.max_step.is_finite() && opts.max_step > 0.0 && opts.max_step <= 1.0) {
         return Err(PostError::Input { what: "distillation step", message: format!("{} must lie in (0, 1]", opts.max_step) });
     }
+    let sel = opts.selection;
     let x = liquid::mass_to_mole(components, &w);
     let vol: Vec<f64> = {
         let v: Vec<f64> = components.iter().zip(&w).map(|(c, w)| w / c.density_15c()).collect();
@@ -442,102 +222,119 @@ pub fn indicators(components: &[Arc<Component>], mass_fractions: &[f64], opts: &
     };
     let mut ind = Indicators::empty(opts);
     let p_text = if (opts.pressure - STANDARD_PRESSURE).abs() < 1e-6 { "1 atm".to_string() } else { format!("{} Pa", opts.pressure) };
+    let raoult_text = match opts.activity {
+        ActivityModel::Ideal => "Raoult's law, Σ x_i p_sat,i(T) = p",
+        ActivityModel::Unifac => "the modified Raoult's law with UNIFAC activity coefficients, Σ x_i γ_i p_sat,i(T) = p",
+    };
 
     // --- bubble point and simulated distillation -------------------------------------------------
     let fb = opts.final_fraction;
     let fractions = [0.0, 0.1, 0.2, 0.5, 0.9, fb];
-    let basis_text = match opts.recovery_basis {
-        RecoveryBasis::Volume => "liquid volume at 15 °C",
-        RecoveryBasis::Mass => "mass",
-        RecoveryBasis::Mole => "moles",
-    };
-    let (liquid_text, raoult_text) = match opts.activity {
-        ActivityModel::Ideal => ("ideal liquid (Raoult)", "Raoult's law, Σ x_i p_sat,i(T) = p"),
-        ActivityModel::Unifac => ("liquid activity coefficients by original UNIFAC", "the modified Raoult's law with UNIFAC activity coefficients, Σ x_i γ_i p_sat,i(T) = p"),
-    };
-    let curve_method = |what: &str| {
-        format!(
-            "simulated single-stage batch (Rayleigh) distillation at {p_text}, {liquid_text}, liquid at its bubble point; {what}, evaporated fraction on a {basis_text} basis; RK4 in −ln(1−F)"
-        )
-    };
-    let near_critical = {
-        let mut act = crate::props::activity::Activity::new(opts.activity, components).ok();
-        match act.as_mut() {
-            Some(a) => liquid::subcritical_bubble_point_with(components, a, &x, opts.pressure).err().filter(|_| liquid::bubble_point(components, &x, opts.pressure).is_ok()),
-            None => None,
-        }
-    };
-    match distillation_temperatures(components, &x, opts.pressure, opts.recovery_basis, &fractions, opts.max_step, opts.activity) {
-        Ok(_) if near_critical.is_some() => {
-            for key in ["bubble_point_K", "initial_boiling_point_K", "t10_K", "t20_K", "t50_K", "t90_K", "final_boiling_point_K"] {
-                ind.set(key, None, curve_method("distillation"));
-                ind.note(key, near_critical.clone().unwrap_or_default());
-            }
-        }
-        Ok(t) => {
-            ind.set("bubble_point_K", Some(t[0]), format!("bubble point at {p_text} by {raoult_text}"));
-            ind.set("initial_boiling_point_K", Some(t[0]), curve_method("IBP = bubble point of the initial liquid"));
-            ind.set("t10_K", Some(t[1]), curve_method("T at 10 % evaporated"));
-            ind.set("t20_K", Some(t[2]), curve_method("T at 20 % evaporated"));
-            ind.set("t50_K", Some(t[3]), curve_method("T at 50 % evaporated"));
-            ind.set("t90_K", Some(t[4]), curve_method("T at 90 % evaporated"));
-            ind.set("final_boiling_point_K", Some(t[5]), curve_method(&format!("FBP defined as T at {:.1} % evaporated", 100.0 * fb)));
-        }
-        Err(e) => {
-            for key in ["bubble_point_K", "initial_boiling_point_K", "t10_K", "t20_K", "t50_K", "t90_K", "final_boiling_point_K"] {
-                ind.set(key, None, curve_method("distillation"));
-                ind.note(key, format!("not computed: {e}"));
+    // the distillation runs through the nodes of the full curve up to the last requested one
+    if let Some(last) = CURVE_KEYS.iter().filter(|(k, _)| sel.contains(k)).map(|(_, node)| *node).max() {
+        let basis_text = match opts.recovery_basis {
+            RecoveryBasis::Volume => "liquid volume at 15 °C",
+            RecoveryBasis::Mass => "mass",
+            RecoveryBasis::Mole => "moles",
+        };
+        let liquid_text = match opts.activity {
+            ActivityModel::Ideal => "ideal liquid (Raoult)",
+            ActivityModel::Unifac => "liquid activity coefficients by original UNIFAC",
+        };
+        let curve_method = |what: &str| {
+            format!(
+                "simulated single-stage batch (Rayleigh) distillation at {p_text}, {liquid_text}, liquid at its bubble point; {what}, evaporated fraction on a {basis_text} basis; {CURVE_INTEGRATION}"
+            )
+        };
+        let requested: Vec<&'static str> = CURVE_KEYS.iter().map(|(k, _)| *k).filter(|k| sel.contains(k)).collect();
+        match distillation_temperatures(components, &x, opts.pressure, opts.recovery_basis, &fractions[..=last], opts.max_step, opts.activity) {
+            Ok(t) => match near_critical(components, &x, opts, t[0]) {
+                Some(reason) => {
+                    for &key in &requested {
+                        ind.set(key, None, curve_method("distillation"));
+                        ind.note(key, reason.clone());
+                    }
+                }
+                None => {
+                    for &key in &requested {
+                        let (value, method) = match key {
+                            "bubble_point_K" => {
+                                ind.set(key, Some(t[0]), format!("bubble point at {p_text} by {raoult_text}"));
+                                continue;
+                            }
+                            "initial_boiling_point_K" => (t[0], curve_method("IBP = bubble point of the initial liquid")),
+                            "t10_K" => (t[1], curve_method("T at 10 % evaporated")),
+                            "t20_K" => (t[2], curve_method("T at 20 % evaporated")),
+                            "t50_K" => (t[3], curve_method("T at 50 % evaporated")),
+                            "t90_K" => (t[4], curve_method("T at 90 % evaporated")),
+                            _ => (t[5], curve_method(&format!("FBP defined as T at {:.1} % evaporated", 100.0 * fb))),
+                        };
+                        ind.set(key, Some(value), method);
+                    }
+                }
+            },
+            Err(e) => {
+                for &key in &requested {
+                    ind.set(key, None, curve_method("distillation"));
+                    ind.note(key, format!("not computed: {e}"));
+                }
             }
         }
     }
 
     // --- vapour pressure at 38 °C ------------------------------------------------------------------
-    let tvp = match Activity::new(opts.activity, components) {
-        Ok(mut act) => Some(act.bubble_pressure(components, &x, T_38C)),
-        Err(_) => None,
-    };
-    ind.set(
-        "vapor_pressure_38C_Pa",
-        tvp,
-        format!("true vapour pressure at 38 °C by {raoult_text} at 38 °C (no air, no vapour/liquid ratio: not a Reid vapour pressure)"),
-    );
+    if sel.contains("vapor_pressure_38C_Pa") {
+        let tvp = match Activity::new(opts.activity, components) {
+            Ok(mut act) => Some(act.bubble_pressure(components, &x, T_38C)),
+            Err(_) => None,
+        };
+        ind.set(
+            "vapor_pressure_38C_Pa",
+            tvp,
+            format!("true vapour pressure at 38 °C by {raoult_text} at 38 °C (no air, no vapour/liquid ratio: not a Reid vapour pressure)"),
+        );
+    }
 
     // --- flash point -------------------------------------------------------------------------------
-    let mut estimated = vec![];
-    let pure_fp: Vec<f64> = components
-        .iter()
-        .zip(&x)
-        .map(|(c, xi)| {
-            let (t, origin) = component_flash_point(c);
-            if origin == FlashPointOrigin::EstimatedButler && *xi > 0.0 {
-                estimated.push(c.id.as_str());
-            }
-            t
-        })
-        .collect();
-    let fp = liaw_flash_point(components, &x, &pure_fp, opts.activity);
-    ind.set(
-        "flash_point_K",
-        fp,
-        match opts.activity {
-            ActivityModel::Ideal => "Liaw et al. (2002) ideal-solution model: Σ x_i p_sat,i(T)/p_sat,i(T_fp,i) = 1 with the components' closed-cup flash points (Le Chatelier + Raoult)",
-            ActivityModel::Unifac => "Liaw et al. (2002) non-ideal model: Σ x_i γ_i p_sat,i(T)/p_sat,i(T_fp,i) = 1 with UNIFAC γ_i and the components' closed-cup flash points (Le Chatelier + modified Raoult)",
-        },
-    );
-    if fp.is_none() {
-        ind.note("flash_point_K", "not computed: no root between the lowest and highest component flash points");
-    }
-    if !estimated.is_empty() {
-        let ids = join_ids(&estimated);
-        ind.note(
+    if sel.contains("flash_point_K") {
+        let mut estimated = vec![];
+        let pure_fp: Vec<f64> = components
+            .iter()
+            .zip(&x)
+            .map(|(c, xi)| {
+                let (t, origin) = component_flash_point(c);
+                if origin == FlashPointOrigin::EstimatedButler && *xi > 0.0 {
+                    estimated.push(c.id.as_str());
+                }
+                t
+            })
+            .collect();
+        let fp = liaw_flash_point(components, &x, &pure_fp, opts.activity);
+        ind.set(
             "flash_point_K",
-            format!("component flash points estimated from the normal boiling point (Butler et al. 1956, T_fp = 0.683 T_b + 14.84 K, from memory) for: {ids}"),
+            fp,
+            match opts.activity {
+                ActivityModel::Ideal => "Liaw et al. (2002) ideal-solution model: Σ x_i p_sat,i(T)/p_sat,i(T_fp,i) = 1 with the components' closed-cup flash points (Le Chatelier + Raoult)",
+                ActivityModel::Unifac => "Liaw et al. (2002) non-ideal model: Σ x_i γ_i p_sat,i(T)/p_sat,i(T_fp,i) = 1 with UNIFAC γ_i and the components' closed-cup flash points (Le Chatelier + modified Raoult)",
+            },
         );
+        if fp.is_none() {
+            ind.note("flash_point_K", "not computed: no root between the lowest and highest component flash points");
+        }
+        if !estimated.is_empty() {
+            let ids = join_ids(&estimated);
+            ind.note(
+                "flash_point_K",
+                format!("component flash points estimated from the normal boiling point (Butler et al. 1956, T_fp = 0.683 T_b + 14.84 K, from memory) for: {ids}"),
+            );
+        }
     }
 
     // --- density at 15 °C ----------------------------------------------------------------------------
     let rho15 = 1.0 / components.iter().zip(&w).map(|(c, w)| w / c.density_15c()).sum::<f64>();
-    ind.set("density_15C_kg_m3", Some(rho15), "ideal volume additivity of the components' 15 °C densities, 1/ρ = Σ w_i/ρ_i");
+    if sel.contains("density_15C_kg_m3") {
+        ind.set("density_15C_kg_m3", Some(rho15), "ideal volume additivity of the components' 15 °C densities, 1/ρ = Σ w_i/ρ_i");
+    }
 
     // --- kinematic viscosities ---------------------------------------------------------------------
     for (key, t, label) in [
@@ -545,6 +342,9 @@ pub fn indicators(components: &[Arc<Component>], mass_fractions: &[f64], opts: &
         ("kinematic_viscosity_minus20C_m2_s", T_MINUS_20C, "−20 °C"),
         ("kinematic_viscosity_40C_m2_s", T_40C, "40 °C"),
     ] {
+        if !sel.contains(key) {
+            continue;
+        }
         let (nu, method) = match opts.viscosity_rule {
             ViscosityRule::GrunbergNissan => {
                 let mu = liquid::viscosity(components, &x, t);
@@ -564,69 +364,124 @@ pub fn indicators(components: &[Arc<Component>], mass_fractions: &[f64], opts: &
     }
 
     // --- surface tension at 20 °C --------------------------------------------------------------------
-    ind.set("surface_tension_20C_N_m", Some(liquid::surface_tension(components, &x, T_20C)), "mole-fraction average of the component surface tensions at 20 °C");
+    if sel.contains("surface_tension_20C_N_m") {
+        ind.set("surface_tension_20C_N_m", Some(liquid::surface_tension(components, &x, T_20C)), "mole-fraction average of the component surface tensions at 20 °C");
+    }
 
     // --- cetane -------------------------------------------------------------------------------------
-    let cn = blend_cetane(components, &w, &x, &vol, opts.cetane_rule);
-    let cn_method = match opts.cetane_rule {
-        CetaneRule::VolumeLinear => "volume-linear blend Σ v_i CN_i of the component cetane numbers (15 °C volume fractions; exact for n-hexadecane/HMN reference blends, ASTM D613 scale)",
-        CetaneRule::MoleLinear => "mole-linear blend Σ x_i CN_i of the component cetane numbers (simple alternative, not a standard rule)",
-        CetaneRule::MassLinear => "mass-linear blend Σ w_i CN_i of the component cetane numbers (simple alternative, not a standard rule)",
-    };
-    ind.set("dcn", Some(cn), cn_method);
-    let weights = match opts.cetane_rule {
-        CetaneRule::VolumeLinear => &vol,
-        CetaneRule::MoleLinear => &x,
-        CetaneRule::MassLinear => &w,
-    };
-    let (share, parts) = cetane_basis(components, weights);
-    ind.set(
-        "dcn_not_measured_share",
-        Some(share),
-        "share of the DCN blend weight carried by components whose value is not a measured derived cetane number (kind CN, kind estimate, or a value from memory or an estimate source)",
-    );
-    if share > 0.0 {
-        ind.note("dcn", format!("{:.1} % of the blend weight rests on values that are not measured DCNs ({parts})", 100.0 * share));
+    if sel.any(&["dcn", "dcn_not_measured_share"]) {
+        let weights = match opts.cetane_rule {
+            CetaneRule::VolumeLinear => &vol,
+            CetaneRule::MoleLinear => &x,
+            CetaneRule::MassLinear => &w,
+        };
+        let (share, parts) = cetane_basis(components, weights);
+        if sel.contains("dcn") {
+            let cn = blend_cetane(components, &w, &x, &vol, opts.cetane_rule);
+            let cn_method = match opts.cetane_rule {
+                CetaneRule::VolumeLinear => "volume-linear blend Σ v_i CN_i of the component cetane numbers (15 °C volume fractions; exact for n-hexadecane/HMN reference blends, ASTM D613 scale)",
+                CetaneRule::MoleLinear => "mole-linear blend Σ x_i CN_i of the component cetane numbers (simple alternative, not a standard rule)",
+                CetaneRule::MassLinear => "mass-linear blend Σ w_i CN_i of the component cetane numbers (simple alternative, not a standard rule)",
+            };
+            ind.set("dcn", Some(cn), cn_method);
+        }
+        if sel.contains("dcn_not_measured_share") {
+            ind.set(
+                "dcn_not_measured_share",
+                Some(share),
+                "share of the DCN blend weight carried by components whose value is not a measured derived cetane number (kind CN, kind estimate, or a value from memory or an estimate source)",
+            );
+        }
+        if share > 0.0 && sel.contains("dcn") {
+            ind.note("dcn", format!("{:.1} % of the blend weight rests on values that are not measured DCNs ({parts})", 100.0 * share));
+        }
     }
 
     // --- heating value, hydrogen, H/C, aromatics, molar mass ---------------------------------------
-    let lhv: f64 = components.iter().zip(&w).map(|(c, w)| w * c.constants.lower_heating_value.value).sum();
-    ind.set("lhv_J_kg", Some(lhv), "mass-weighted component lower heating values (liquid, water as vapour), Σ w_i LHV_i");
-    ind.set("lhv_volume_J_m3", Some(lhv * rho15), "mass-basis LHV × density at 15 °C");
-    let h: f64 = components.iter().zip(&w).map(|(c, w)| w * c.hydrogen_mass_fraction()).sum();
-    ind.set("hydrogen_mass_fraction", Some(h), "from the component formulas, Σ w_i w_H,i");
-    let (hn, cn_atoms) = components.iter().zip(&x).fold((0.0, 0.0), |(a, b), (c, x)| (a + x * f64::from(c.formula.hydrogen), b + x * f64::from(c.formula.carbon)));
-    ind.set("hc_ratio", if cn_atoms > 0.0 { Some(hn / cn_atoms) } else { None }, "atom ratio from the component formulas, Σ x_i H_i / Σ x_i C_i");
-    if cn_atoms <= 0.0 {
-        ind.note("hc_ratio", "not computed: no carbon");
+    if sel.any(&["lhv_J_kg", "lhv_volume_J_m3"]) {
+        let lhv: f64 = components.iter().zip(&w).map(|(c, w)| w * c.constants.lower_heating_value.value).sum();
+        if sel.contains("lhv_J_kg") {
+            ind.set("lhv_J_kg", Some(lhv), "mass-weighted component lower heating values (liquid, water as vapour), Σ w_i LHV_i");
+        }
+        if sel.contains("lhv_volume_J_m3") {
+            ind.set("lhv_volume_J_m3", Some(lhv * rho15), "mass-basis LHV × density at 15 °C");
+        }
     }
-    let arom: f64 = components.iter().zip(&vol).filter(|(c, _)| c.class.is_aromatic()).fold(0.0, |a, (_, v)| a + v);
-    let fractions_vol: f64 = components.iter().zip(&vol).filter(|(c, _)| c.class == crate::data::HydrocarbonClass::PetroleumFraction).fold(0.0, |a, (_, v)| a + v);
-    let arom_method = "liquid volume fraction at 15 °C of the alkylbenzene, cycloaromatic and diaromatic components (composition-based, not a D1319 measurement)";
-    if fractions_vol > 0.0 {
-        ind.set("aromatics_volume_fraction", None, arom_method);
-        ind.note("aromatics_volume_fraction", format!("not computed: {:.1} % of the volume is petroleum-fraction pseudo-components, whose aromatic content is unknown", 100.0 * fractions_vol));
-    } else {
-        ind.set("aromatics_volume_fraction", Some(arom), arom_method);
+    if sel.contains("hydrogen_mass_fraction") {
+        let h: f64 = components.iter().zip(&w).map(|(c, w)| w * c.hydrogen_mass_fraction()).sum();
+        ind.set("hydrogen_mass_fraction", Some(h), "from the component formulas, Σ w_i w_H,i");
     }
-    ind.set("molar_mass_kg_mol", Some(liquid::molar_mass(components, &x)), "mole-fraction average Σ x_i M_i");
+    if sel.contains("hc_ratio") {
+        let (hn, cn_atoms) = components.iter().zip(&x).fold((0.0, 0.0), |(a, b), (c, x)| (a + x * f64::from(c.formula.hydrogen), b + x * f64::from(c.formula.carbon)));
+        ind.set("hc_ratio", if cn_atoms > 0.0 { Some(hn / cn_atoms) } else { None }, "atom ratio from the component formulas, Σ x_i H_i / Σ x_i C_i");
+        if cn_atoms <= 0.0 {
+            ind.note("hc_ratio", "not computed: no carbon");
+        }
+    }
+    if sel.contains("aromatics_volume_fraction") {
+        let arom: f64 = components.iter().zip(&vol).filter(|(c, _)| c.class.is_aromatic()).fold(0.0, |a, (_, v)| a + v);
+        let fractions_vol: f64 = components.iter().zip(&vol).filter(|(c, _)| c.class == crate::data::HydrocarbonClass::PetroleumFraction).fold(0.0, |a, (_, v)| a + v);
+        let arom_method = "liquid volume fraction at 15 °C of the alkylbenzene, cycloaromatic and diaromatic components (composition-based, not a D1319 measurement)";
+        if fractions_vol > 0.0 {
+            ind.set("aromatics_volume_fraction", None, arom_method);
+            ind.note("aromatics_volume_fraction", format!("not computed: {:.1} % of the volume is petroleum-fraction pseudo-components, whose aromatic content is unknown", 100.0 * fractions_vol));
+        } else {
+            ind.set("aromatics_volume_fraction", Some(arom), arom_method);
+        }
+    }
+    if sel.contains("molar_mass_kg_mol") {
+        ind.set("molar_mass_kg_mol", Some(liquid::molar_mass(components, &x)), "mole-fraction average Σ x_i M_i");
+    }
 
     // --- freezing point ------------------------------------------------------------------------------
-    let (tf, controlling, skipped) = freezing_point(components, &x);
-    ind.set(
-        "freezing_point_K",
-        tf,
-        "ideal solid–liquid solubility (Schröder–van Laar, ΔCp neglected): highest T_i = 1/(1/T_m,i − R ln x_i/ΔH_fus,i); no solid solutions",
-    );
-    match (&controlling, tf) {
-        (Some(id), Some(_)) => ind.note("freezing_point_K", format!("controlled by {id}")),
-        _ => ind.note("freezing_point_K", "not computed: no component with an enthalpy of fusion"),
-    }
-    if !skipped.is_empty() {
-        let ids: Vec<&str> = skipped.iter().map(|s| s.as_str()).collect();
-        ind.note("freezing_point_K", format!("skipped for lack of an enthalpy of fusion: {}", join_ids(&ids)));
+    if sel.contains("freezing_point_K") {
+        let (tf, controlling, skipped) = freezing_point(components, &x);
+        ind.set(
+            "freezing_point_K",
+            tf,
+            "ideal solid–liquid solubility (Schröder–van Laar, ΔCp neglected): highest T_i = 1/(1/T_m,i − R ln x_i/ΔH_fus,i); no solid solutions",
+        );
+        match (&controlling, tf) {
+            (Some(id), Some(_)) => ind.note("freezing_point_K", format!("controlled by {id}")),
+            _ => ind.note("freezing_point_K", "not computed: no component with an enthalpy of fusion"),
+        }
+        if !skipped.is_empty() {
+            let ids: Vec<&str> = skipped.iter().map(|s| s.as_str()).collect();
+            ind.note("freezing_point_K", format!("skipped for lack of an enthalpy of fusion: {}", join_ids(&ids)));
+        }
     }
     Ok(ind)
+}
+
+/// Points of the simulated distillation curve: (indicator key, node in the list of evaporated fractions
+/// 0, 0.1, 0.2, 0.5, 0.9, final fraction).
+const CURVE_KEYS: [(&str, usize); 7] = [
+    ("bubble_point_K", 0),
+    ("initial_boiling_point_K", 0),
+    ("t10_K", 1),
+    ("t20_K", 2),
+    ("t50_K", 3),
+    ("t90_K", 4),
+    ("final_boiling_point_K", 5),
+];
+
+/// How the distillation curve is integrated (the end of every curve method string).
+const CURVE_INTEGRATION: &str = "RK4 in −ln(1−F)";
+
+/// Bubble temperatures this close below the pseudo-critical temperature \[K\] are checked with a separate
+/// bracketed bubble-point solve; the distillation's own bubble point agrees with it to about 1e-8 K.
+const NEAR_CRITICAL_MARGIN: f64 = 0.01;
+
+/// Why the curve is not reported when the liquid's bubble point lies at or above its pseudo-critical
+/// temperature ([`liquid::subcritical_bubble_point_with`]), given the distillation's bubble point `t_bubble`;
+/// None when it lies below. For an ideal liquid (one root of Σ x_i p_sat,i(T) = p) a bubble point more than
+/// [`NEAR_CRITICAL_MARGIN`] below the pseudo-critical temperature answers without a second solve.
+fn near_critical(components: &[Arc<Component>], x: &[f64], opts: &IndicatorOptions, t_bubble: f64) -> Option<String> {
+    if opts.activity == ActivityModel::Ideal && t_bubble < liquid::pseudo_critical_temperature(components, x) - NEAR_CRITICAL_MARGIN {
+        return None;
+    }
+    let mut act = Activity::new(opts.activity, components).ok()?;
+    liquid::subcritical_bubble_point_with(components, &mut act, x, opts.pressure).err().filter(|_| liquid::bubble_point(components, x, opts.pressure).is_ok())
 }
 
 #[cfg(test)]
@@ -696,6 +551,48 @@ mod tests {
         }
         // the flash point of a wide cut is far below its IBP
         assert!(ind.flash_point_K.unwrap() < ind.initial_boiling_point_K.unwrap());
+    }
+
+    /// Every requested indicator of a selection has the bits, method and notes of a full call, and nothing
+    /// else is computed: each key alone, the residue sets of `uncertainty` and sweeps, on demo-wide residues
+    /// (weathering at 420 K) with Raoult's law, and one residue with UNIFAC.
+    #[test]
+    fn selection_matches_full_call() {
+        let l = lib();
+        let fuel = Fuel::resolve("demo-wide", &l).unwrap();
+        let residues = crate::post::weathering_residues(&fuel.components, &fuel.mass_fractions, 420.0, &[0.0, 0.2, 0.5, 0.8, 0.95], ActivityModel::Ideal).unwrap();
+        let check = |w: &[f64], base: &IndicatorOptions, keys: &[&str]| {
+            let full = indicators(&fuel.components, w, base).unwrap();
+            let selection = IndicatorSelection::of(keys).unwrap();
+            let part = indicators(&fuel.components, w, &IndicatorOptions { selection, ..base.clone() }).unwrap();
+            for (k, _) in INDICATOR_KEYS.iter().skip(1) {
+                if keys.contains(k) {
+                    assert_eq!(part.get(k).unwrap().map(f64::to_bits), full.get(k).unwrap().map(f64::to_bits), "{k} of {keys:?}");
+                    assert_eq!(part.method(k), full.method(k), "{k}");
+                    assert_eq!(part.notes.get(k), full.notes.get(k), "{k}");
+                } else {
+                    assert_eq!(part.get(k), Some(None), "{k} computed without being requested ({keys:?})");
+                    assert!(part.method(k).is_none() && !part.notes.contains_key(k), "{k}");
+                }
+            }
+        };
+        let ideal = IndicatorOptions::default();
+        let uncertainty_keys = crate::uncertainty::RESIDUE_KEYS.map(|(k, _)| k);
+        for r in &residues {
+            check(&r.mass_fractions, &ideal, &uncertainty_keys);
+            check(&r.mass_fractions, &ideal, &crate::sweep::residue::RESIDUE_KEYS);
+            for (k, _) in INDICATOR_KEYS.iter().skip(1) {
+                check(&r.mass_fractions, &ideal, &[k]);
+            }
+        }
+        let unifac = IndicatorOptions { activity: ActivityModel::Unifac, ..Default::default() };
+        check(&residues[2].mass_fractions, &unifac, &uncertainty_keys);
+        check(&residues[2].mass_fractions, &unifac, &["t20_K", "vapor_pressure_38C_Pa"]);
+        // the selection is a set of known keys
+        assert!(IndicatorSelection::of(&["t50_K", "no_such_key"]).is_err());
+        assert!(IndicatorSelection::default().is_all() && IndicatorSelection::of(&INDICATOR_KEYS.map(|(k, _)| k)).unwrap().is_all());
+        let s = IndicatorSelection::of(&["t50_K"]).unwrap();
+        assert!(s.contains("t50_K") && !s.contains("t90_K") && !s.contains("no_such_key") && !s.is_all());
     }
 
     #[test]

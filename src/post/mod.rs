@@ -6,6 +6,7 @@
 //! screening estimate — see [`limits::CAUTION`].
 
 pub mod droplet;
+pub mod indicator_values;
 pub mod indicators;
 pub mod input_spread;
 pub mod limits;
@@ -20,7 +21,7 @@ use thiserror::Error;
 use crate::data::Component;
 use crate::props::PropertyError;
 
-pub use indicators::{indicators, CetaneRule, IndicatorOptions, Indicators, RecoveryBasis, ViscosityRule, INDICATOR_KEYS};
+pub use indicators::{indicators, CetaneRule, IndicatorOptions, IndicatorSelection, Indicators, RecoveryBasis, ViscosityRule, INDICATOR_KEYS};
 pub use limits::{LimitFlag, LimitStatus, Limits, LimitsError, CAUTION};
 pub use weathering::{residue_table, weathering_residues, Residue, ResidueRow};
 

@@ -13,7 +13,10 @@
 //! directly, so strongly depleted light ends are not stiff), and every requested fraction is a grid node,
 //! so no interpolation is needed. Classical fourth-order Runge–Kutta with equal sub-steps no longer than
 //! `max_step` between requested nodes. At constant pressure each stage solves the bubble point with a
-//! secant iteration in 1/T warm-started from the previous stage (usually 2–3 vapour-pressure sweeps).
+//! secant iteration in 1/T. It starts at the temperature of the previous vapour-pressure sweep, whose
+//! p_sat,i are kept: the residual ln(Σ x_i γ_i p_sat,i/p) of the new composition there is exact and costs no
+//! vapour-pressure evaluation, and the first step uses the slope of the previous solve. On demo-wide that is
+//! about 2.6 sweeps (n vapour pressures each) per stage.
 //!
 //! At constant temperature the K-values are constant and the path has the closed form
 //! `n_i(s) = n_i0 exp(−k_i s)` (`k_i = p_sat,i(T)/max_j p_sat,j(T)`); each requested fraction is reached by
@@ -47,33 +50,60 @@ struct Evaluator<'a> {
     mode: PathMode,
     x: Vec<f64>,
     k: Vec<f64>,
+    /// p_sat,i at `t_swept` \[Pa\] (without γ_i).
+    p_sat: Vec<f64>,
+    /// Temperature of the last vapour-pressure sweep \[K\] (NaN before the first).
+    t_swept: f64,
+    /// Start of the first bubble solve \[K\].
     t_guess: f64,
     slope: f64,
     /// Count of right-hand-side evaluations (for tests and statistics).
     evaluations: usize,
+    /// Count of vapour-pressure sweeps (for tests and statistics).
+    sweeps: usize,
 }
 
 /// Bubble-point residual tolerance on ln(Σ x_i p_sat,i / p); 1e-10 is ~1e-8 K at 450 K.
 const BUBBLE_TOL: f64 = 1e-10;
 
 impl<'a> Evaluator<'a> {
-    /// ln Σ x_i γ_i p_sat,i(t), filling `k` with γ_i p_sat,i(t).
+    /// ln Σ x_i γ_i p_sat,i(t), filling `k` with γ_i p_sat,i(t) (a vapour-pressure sweep at `t`).
     #[inline]
     fn log_bubble_pressure(&mut self, t: f64) -> f64 {
+        self.sweeps += 1;
         let mut s = 0.0;
         let gamma = self.activity.gammas(&self.x, t);
-        for (((c, x), k), g) in self.components.iter().zip(&self.x).zip(self.k.iter_mut()).zip(gamma) {
-            *k = g * c.vapor_pressure(t);
+        for ((((c, x), k), ps), g) in self.components.iter().zip(&self.x).zip(self.k.iter_mut()).zip(self.p_sat.iter_mut()).zip(gamma) {
+            *ps = c.vapor_pressure(t);
+            *k = g * *ps;
+            s += x * *k;
+        }
+        self.t_swept = t;
+        s.ln()
+    }
+
+    /// [`Self::log_bubble_pressure`] of the current `x` at the temperature of the last sweep, from its kept
+    /// vapour pressures (no vapour-pressure evaluation).
+    #[inline]
+    fn log_bubble_pressure_at_last_sweep(&mut self) -> f64 {
+        let mut s = 0.0;
+        let gamma = self.activity.gammas(&self.x, self.t_swept);
+        for (((x, k), ps), g) in self.x.iter().zip(self.k.iter_mut()).zip(&self.p_sat).zip(gamma) {
+            *k = g * ps;
             s += x * *k;
         }
         s.ln()
     }
 
-    /// Bubble temperature of `self.x` at `p`; leaves p_sat,i(T) in `k`.
+    /// Bubble temperature of `self.x` at `p`; leaves γ_i p_sat,i(T) in `k`.
     fn bubble(&mut self, p: f64) -> Result<f64, PostError> {
         let lnp = p.ln();
-        let t0 = self.t_guess;
-        let mut f0 = self.log_bubble_pressure(t0) - lnp;
+        // start where the vapour pressures are known (the last sweep), else at the first guess
+        let (t0, mut f0) = if self.t_swept.is_finite() {
+            (self.t_swept, self.log_bubble_pressure_at_last_sweep() - lnp)
+        } else {
+            (self.t_guess, self.log_bubble_pressure(self.t_guess) - lnp)
+        };
         if f0.abs() < BUBBLE_TOL {
             return Ok(t0);
         }
@@ -132,8 +162,13 @@ impl<'a> Evaluator<'a> {
             }
             PathMode::Isothermal(t) => {
                 // k holds p_sat,i(T) for the ideal liquid (any common scale cancels); γ_i p_sat,i(T) otherwise
+                // (the vapour pressures at the fixed T are kept from the first sweep)
                 if !self.activity.is_ideal() {
-                    self.log_bubble_pressure(t);
+                    if self.t_swept == t {
+                        self.log_bubble_pressure_at_last_sweep();
+                    } else {
+                        self.log_bubble_pressure(t);
+                    }
                 }
                 t
             }
@@ -177,6 +212,28 @@ pub fn integrate(
     max_step: f64,
     activity: ActivityModel,
 ) -> Result<(Vec<PathPoint>, usize), PostError> {
+    integrate_counted(components, x0, weights, mode, fractions, max_step, activity).map(|(points, counts)| (points, counts.evaluations))
+}
+
+/// Work of one [`integrate`] call.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct PathCounts {
+    /// Right-hand-side evaluations.
+    pub evaluations: usize,
+    /// Vapour-pressure sweeps (each evaluates p_sat,i of every component once).
+    pub sweeps: usize,
+}
+
+/// [`integrate`], also returning how many right-hand sides and vapour-pressure sweeps it took.
+pub fn integrate_counted(
+    components: &[Arc<Component>],
+    x0: &[f64],
+    weights: &[f64],
+    mode: PathMode,
+    fractions: &[f64],
+    max_step: f64,
+    activity: ActivityModel,
+) -> Result<(Vec<PathPoint>, PathCounts), PostError> {
     let n = components.len();
     let activity = Activity::new(activity, components).map_err(|e| PostError::Input { what: "activity", message: e.to_string() })?;
     if n == 0 || x0.len() != n || weights.len() != n {
@@ -217,10 +274,13 @@ pub fn integrate(
         mode,
         x: x0.to_vec(),
         k: vec![0.0; n],
+        p_sat: vec![0.0; n],
+        t_swept: f64::NAN,
         t_guess: t_start,
         // Trouton's rule, ΔH/(R T_b) ≈ 10.5, for the first slope of ln p against 1/T
         slope: -10.5 * t_start,
         evaluations: 0,
+        sweeps: 0,
     };
     if let PathMode::Isothermal(t) = mode {
         for (k, c) in ev.k.iter_mut().zip(components) {
@@ -233,7 +293,7 @@ pub fn integrate(
     let total: f64 = x0.iter().sum();
     if let PathMode::Isothermal(t) = mode {
         if ideal {
-            return Ok((isothermal(&ev.k, x0, total, weights, fractions, t), 0));
+            return Ok((isothermal(&ev.k, x0, total, weights, fractions, t), PathCounts { evaluations: 0, sweeps: 0 }));
         }
     }
     let mut ln_n: Vec<f64> = x0.iter().map(|x| (x / total).ln()).collect();
@@ -246,7 +306,6 @@ pub fn integrate(
     let mut phi = 0.0;
     // k1 at the current state and its temperature
     let mut t_here = ev.rhs(&ln_n, &mut k1)?;
-    let mut dt_dphi = 0.0;
     for &f in fractions {
         let phi_target = -(1.0 - f).ln();
         let span = phi_target - phi;
@@ -254,35 +313,28 @@ pub fn integrate(
             let steps = (span / max_step).ceil().max(1.0) as usize;
             let h = span / steps as f64;
             for _ in 0..steps {
-                // temperature guesses for the bubble solves, extrapolated along the path
-                let t1 = t_here;
-                ev.t_guess = t1 + 0.5 * h * dt_dphi;
                 for i in 0..n {
                     stage[i] = ln_n[i] + 0.5 * h * k1[i];
                 }
-                let t2 = ev.rhs(&stage, &mut k2)?;
-                ev.t_guess = t2;
+                ev.rhs(&stage, &mut k2)?;
                 for i in 0..n {
                     stage[i] = ln_n[i] + 0.5 * h * k2[i];
                 }
-                let t3 = ev.rhs(&stage, &mut k3)?;
-                ev.t_guess = t1 + 2.0 * (t3 - t1);
+                ev.rhs(&stage, &mut k3)?;
                 for i in 0..n {
                     stage[i] = ln_n[i] + h * k3[i];
                 }
-                let t4 = ev.rhs(&stage, &mut k4)?;
-                ev.t_guess = t4;
+                ev.rhs(&stage, &mut k4)?;
                 for i in 0..n {
                     ln_n[i] += h / 6.0 * (k1[i] + 2.0 * k2[i] + 2.0 * k3[i] + k4[i]);
                 }
                 t_here = ev.rhs(&ln_n, &mut k1)?;
-                dt_dphi = (t_here - t1) / h;
             }
             phi = phi_target;
         }
         out.push(PathPoint { evaporated_fraction: f, temperature: t_here, mole_fractions: ev.x.clone() });
     }
-    Ok((out, ev.evaluations))
+    Ok((out, PathCounts { evaluations: ev.evaluations, sweeps: ev.sweeps }))
 }
 
 /// Closed-form constant-temperature path: n_i = x0_i exp(−k_i s); `p_sat` holds p_sat,i(T).
@@ -388,6 +440,29 @@ mod tests {
         let tb = liquid::bubble_point(&comps, &[1.0], 101_325.0).unwrap();
         for p in &pts {
             assert!((p.temperature - tb).abs() < 1e-6, "{} vs {tb}", p.temperature);
+        }
+    }
+
+    /// The bubble solves start from the kept vapour pressures of the previous sweep: on demo-wide (the full curve
+    /// and the residue-band curve to 50 %) at most 3 sweeps per right-hand side on average (measured 2.75 and
+    /// 2.92; the full curve took 3.70 when every solve swept first at a temperature extrapolated along the
+    /// path), and every point's temperature matches a bracketed bubble-point solve from scratch to 1e-6 K.
+    #[test]
+    fn bubble_solves_reuse_the_last_sweep() {
+        let l = lib();
+        let fuel = crate::fuel::Fuel::resolve("demo-wide", &l).unwrap();
+        let x = fuel.mole_fractions();
+        let w = basis_weights(&fuel.components, RecoveryBasis::Volume);
+        for fr in [vec![0.0, 0.1, 0.2, 0.5], vec![0.0, 0.1, 0.2, 0.5, 0.9, 0.995]] {
+            let (pts, counts) = integrate_counted(&fuel.components, &x, &w, PathMode::Isobaric(101_325.0), &fr, crate::post::indicators::DEFAULT_MAX_STEP, Default::default()).unwrap();
+            let per_rhs = counts.sweeps as f64 / counts.evaluations as f64;
+            eprintln!("curve to F = {}: {counts:?}, {per_rhs:.2} sweeps per right-hand side", fr[fr.len() - 1]);
+            assert!(per_rhs <= 3.0, "{per_rhs} sweeps per right-hand side ({counts:?})");
+            // each point's bubble temperature from scratch (bracketed solve of the props layer)
+            for p in &pts {
+                let tb = liquid::bubble_point(&fuel.components, &p.mole_fractions, 101_325.0).unwrap();
+                assert!((p.temperature - tb).abs() < 1e-6, "F {}: {} vs {tb}", p.evaporated_fraction, p.temperature);
+            }
         }
     }
 

@@ -3,7 +3,7 @@
 //! by default) of its mass, the heaviest part of the fuel; for a case stopped by `max-time`, what was left then.
 
 use crate::model::{DropletInputs, RunOutcome};
-use crate::post::{indicators, IndicatorOptions};
+use crate::post::{indicators, IndicatorOptions, IndicatorSelection};
 
 use super::summary::ExtraColumns;
 
@@ -37,7 +37,9 @@ impl ExtraColumns for ResidueIndicators {
         if w.len() != inputs.fuel.len() || !(w.iter().sum::<f64>() > 0.0) {
             return none;
         }
-        let options = IndicatorOptions { activity: inputs.liquid.activity, ..self.options.clone() };
+        // only the RESIDUE_KEYS are written: the other indicators are not computed
+        let selection = IndicatorSelection::of(&RESIDUE_KEYS).unwrap_or_default();
+        let options = IndicatorOptions { activity: inputs.liquid.activity, selection, ..self.options.clone() };
         match indicators(&inputs.fuel.components, w, &options) {
             Ok(ind) => RESIDUE_KEYS.iter().map(|k| ind.get(k).flatten()).collect(),
             Err(_) => none,
@@ -55,5 +57,6 @@ mod tests {
         for k in RESIDUE_KEYS {
             assert!(INDICATOR_KEYS.iter().any(|(key, _)| *key == k), "{k}");
         }
+        assert!(IndicatorSelection::of(&RESIDUE_KEYS).is_ok());
     }
 }

@@ -12,7 +12,7 @@ use serde::Serialize;
 use crate::model::droplet::Status;
 use crate::model::{simulate, DropletInputs, HistoryRow, RunResult};
 use crate::post::droplet::{residues_along_history, Layer};
-use crate::post::{residue_table, IndicatorOptions};
+use crate::post::{residue_table, IndicatorOptions, IndicatorSelection};
 
 use super::factors::{perturbed, resolve, Factor, FactorKind, IndicatorInput};
 use super::random::{counter_uniform, mix64, truncated_normal, Xoshiro256};
@@ -344,6 +344,11 @@ fn empty_record(status: SampleStatus, z: Vec<f64>, grid: &[f64], settings: &Sett
     }
 }
 
+/// The indicators of [`RESIDUE_KEYS`] (all of them should a key ever not be an indicator key).
+fn residue_selection() -> IndicatorSelection {
+    IndicatorSelection::of(&RESIDUE_KEYS.map(|(key, _)| key)).unwrap_or_default()
+}
+
 /// A finished droplet run reduced to a record.
 fn reduce(inputs: &DropletInputs, run: &RunResult, z: Vec<f64>, grid: &[f64], settings: &Settings) -> SampleRecord {
     let o = &run.outcome;
@@ -354,7 +359,8 @@ fn reduce(inputs: &DropletInputs, run: &RunResult, z: Vec<f64>, grid: &[f64], se
     let (d2, surface_temperature) = on_grid(&run.history, grid, status == SampleStatus::Evaporated);
     let mut residue = vec![[None; 6]; settings.residue_fractions.len()];
     let residues = residues_along_history(&run.history, &settings.residue_fractions, Layer::Mean);
-    let indicator_options = IndicatorOptions { activity: inputs.liquid.activity, ..settings.indicator_options.clone() };
+    // only the indicators of RESIDUE_KEYS are read: the others are not computed
+    let indicator_options = IndicatorOptions { activity: inputs.liquid.activity, selection: residue_selection(), ..settings.indicator_options.clone() };
     if let Ok(rows) = residue_table(&inputs.fuel.components, &residues, &indicator_options) {
         for row in rows {
             if let Some(j) = settings.residue_fractions.iter().position(|f| *f == row.evaporated_fraction) {

@@ -28,9 +28,10 @@ pub(super) fn save(dir: &Path, stem: &str, title: &str, size: (u32, u32), fig: F
     write_replace(&svg_path, svg.as_bytes())?;
     // PNG: drawn on a canvas PNG_SCALE times larger, then reduced with an area filter (anti-aliasing)
     let png_canvas = PNG_SCALE.canvas(size);
-    let mut canvas = vec![0u8; png_canvas.0 as usize * png_canvas.1 as usize * 3];
+    // allocated white (one pass of memset): the figure's white background fill is then skipped
+    let mut canvas = vec![255u8; png_canvas.0 as usize * png_canvas.1 as usize * 3];
     {
-        let root = CrispText(PixelGrid::new(BitMapBackend::with_buffer(&mut canvas, png_canvas), PNG_SCALE)).into_drawing_area();
+        let root = CrispText(PixelGrid::prefilled(BitMapBackend::with_buffer(&mut canvas, png_canvas), PNG_SCALE, (255, 255, 255))).into_drawing_area();
         draw_figure(&root, &fig, PNG_SCALE).map_err(|m| chart_err(&png_path, m))?;
         root.present().map_err(|e| chart_err(&png_path, de(e)))?;
     }

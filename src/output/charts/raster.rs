@@ -79,10 +79,50 @@ pub(super) fn box_downsample(rgb: &[u8], canvas: (u32, u32), scale: Scale) -> Ve
     }
 }
 
+/// Two passes per image row: the k canvas rows are added byte by byte into 16-bit column sums (a contiguous,
+/// vectorisable loop), then each image pixel adds its k columns. The same integer sums as one pass over each
+/// k × k block, so the same bytes.
 #[inline(always)]
 fn downsample_by(rgb: &[u8], (cw, ch): (usize, usize), k: usize) -> Vec<u8> {
     let (w, h) = (cw / k, ch / k);
     assert_eq!(rgb.len(), cw * ch * 3, "canvas buffer size");
+    if k > 257 {
+        // a 16-bit column sum holds 257 × 255
+        return downsample_blocks(rgb, (cw, ch), k);
+    }
+    let area = (k * k) as u32;
+    let mut out = vec![0u8; w * h * 3];
+    let mut columns = vec![0u16; cw * 3];
+    for y in 0..h {
+        let mut rows = rgb[y * k * cw * 3..(y + 1) * k * cw * 3].chunks_exact(cw * 3);
+        if let Some(first) = rows.next() {
+            for (c, v) in columns.iter_mut().zip(first) {
+                *c = u16::from(*v);
+            }
+        }
+        for row in rows {
+            for (c, v) in columns.iter_mut().zip(row) {
+                *c += u16::from(*v);
+            }
+        }
+        for (o, block) in out[y * w * 3..(y + 1) * w * 3].chunks_exact_mut(3).zip(columns.chunks_exact(3 * k)) {
+            let (mut r, mut g, mut b) = (0u32, 0u32, 0u32);
+            for px in block.chunks_exact(3) {
+                r += u32::from(px[0]);
+                g += u32::from(px[1]);
+                b += u32::from(px[2]);
+            }
+            o[0] = ((r + area / 2) / area) as u8;
+            o[1] = ((g + area / 2) / area) as u8;
+            o[2] = ((b + area / 2) / area) as u8;
+        }
+    }
+    out
+}
+
+/// [`downsample_by`] in one pass over each k × k block (32-bit sums: any k).
+fn downsample_blocks(rgb: &[u8], (cw, ch): (usize, usize), k: usize) -> Vec<u8> {
+    let (w, h) = (cw / k, ch / k);
     let area = (k * k) as u32;
     let mut out = vec![0u8; w * h * 3];
     let mut sums = vec![0u32; w * 3];
@@ -117,12 +157,22 @@ fn downsample_by(rgb: &[u8], (cw, ch): (usize, usize), k: usize) -> Vec<u8> {
 pub(super) struct PixelGrid<DB> {
     inner: DB,
     k: i32,
+    /// The opaque colour the whole canvas still has, if the caller filled it before drawing (see
+    /// [`PixelGrid::prefilled`]); None once anything was drawn.
+    blank: Option<(u8, u8, u8)>,
 }
 
 impl<DB> PixelGrid<DB> {
     /// Wrap a backend whose canvas is `scale` times the image.
     pub(super) fn new(inner: DB, scale: Scale) -> Self {
-        PixelGrid { inner, k: scale.factor() as i32 }
+        PixelGrid { inner, k: scale.factor() as i32, blank: None }
+    }
+
+    /// [`PixelGrid::new`] for a canvas the caller has already filled with the opaque colour `rgb`: filling the
+    /// whole canvas with that colour before anything else is drawn changes nothing and is skipped (a figure's
+    /// white background costs no second pass over the canvas).
+    pub(super) fn prefilled(inner: DB, scale: Scale, rgb: (u8, u8, u8)) -> Self {
+        PixelGrid { inner, k: scale.factor() as i32, blank: Some(rgb) }
     }
 
     /// Nearest whole-pixel canvas coordinate.
@@ -168,9 +218,11 @@ impl<DB: DrawingBackend> DrawingBackend for PixelGrid<DB> {
         self.inner.present()
     }
     fn draw_pixel(&mut self, point: BackendCoord, color: BackendColor) -> Result<(), DrawingErrorKind<Self::ErrorType>> {
+        self.blank = None;
         self.inner.draw_pixel(point, color)
     }
     fn draw_line<S: plotters_backend::BackendStyle>(&mut self, from: BackendCoord, to: BackendCoord, style: &S) -> Result<(), DrawingErrorKind<Self::ErrorType>> {
+        self.blank = None;
         match self.segment_rect(from, to, style.stroke_width()) {
             Some((a, b)) => self.inner.draw_rect(a, b, style, true),
             None => self.inner.draw_line(from, to, style),
@@ -179,8 +231,19 @@ impl<DB: DrawingBackend> DrawingBackend for PixelGrid<DB> {
     fn draw_rect<S: plotters_backend::BackendStyle>(&mut self, upper_left: BackendCoord, bottom_right: BackendCoord, style: &S, fill: bool) -> Result<(), DrawingErrorKind<Self::ErrorType>> {
         let (x0, y0, x1, y1) = (upper_left.0, upper_left.1, bottom_right.0, bottom_right.1);
         if fill {
-            return self.inner.draw_rect((self.snap(x0), self.snap(y0)), (self.snap(x1), self.snap(y1)), style, true);
+            let (a, b) = ((self.snap(x0), self.snap(y0)), (self.snap(x1), self.snap(y1)));
+            if let Some(rgb) = self.blank.take() {
+                let (w, h) = self.inner.get_size();
+                let colour = style.color();
+                if colour.alpha >= 1.0 && colour.rgb == rgb && a.0 <= 0 && a.1 <= 0 && i64::from(b.0) >= i64::from(w) - 1 && i64::from(b.1) >= i64::from(h) - 1 {
+                    // the whole canvas already has this colour
+                    self.blank = Some(rgb);
+                    return Ok(());
+                }
+            }
+            return self.inner.draw_rect(a, b, style, true);
         }
+        self.blank = None;
         // an outline: four sides that do not overlap (a translucent border gets no darker corners)
         let sides = [((x0, y0), (x1, y0)), ((x0, y1), (x1, y1)), ((x0, y0), (x0, y1)), ((x1, y0), (x1, y1))];
         let rects: Option<Vec<_>> = sides.iter().map(|&(a, b)| self.segment_rect(a, b, style.stroke_width())).collect();
@@ -201,6 +264,7 @@ impl<DB: DrawingBackend> DrawingBackend for PixelGrid<DB> {
         }
     }
     fn draw_path<S: plotters_backend::BackendStyle, I: IntoIterator<Item = BackendCoord>>(&mut self, path: I, style: &S) -> Result<(), DrawingErrorKind<Self::ErrorType>> {
+        self.blank = None;
         let points: Vec<BackendCoord> = path.into_iter().collect();
         let rects: Option<Vec<_>> = points.windows(2).map(|p| self.segment_rect(p[0], p[1], style.stroke_width())).collect();
         match rects {
@@ -210,15 +274,19 @@ impl<DB: DrawingBackend> DrawingBackend for PixelGrid<DB> {
         }
     }
     fn draw_circle<S: plotters_backend::BackendStyle>(&mut self, center: BackendCoord, radius: u32, style: &S, fill: bool) -> Result<(), DrawingErrorKind<Self::ErrorType>> {
+        self.blank = None;
         self.inner.draw_circle(center, radius, style, fill)
     }
     fn fill_polygon<S: plotters_backend::BackendStyle, I: IntoIterator<Item = BackendCoord>>(&mut self, vert: I, style: &S) -> Result<(), DrawingErrorKind<Self::ErrorType>> {
+        self.blank = None;
         self.inner.fill_polygon(vert, style)
     }
     fn blit_bitmap(&mut self, pos: BackendCoord, size: (u32, u32), src: &[u8]) -> Result<(), DrawingErrorKind<Self::ErrorType>> {
+        self.blank = None;
         self.inner.blit_bitmap(pos, size, src)
     }
     fn draw_text<TStyle: BackendTextStyle>(&mut self, text: &str, style: &TStyle, pos: BackendCoord) -> Result<(), DrawingErrorKind<Self::ErrorType>> {
+        self.blank = None;
         self.inner.draw_text(text, style, pos)
     }
     fn estimate_text_size<TStyle: BackendTextStyle>(&self, text: &str, style: &TStyle) -> Result<(u32, u32), DrawingErrorKind<Self::ErrorType>> {
@@ -239,6 +307,56 @@ mod tests {
         let out = box_downsample(&rgb, (4, 2), Scale(2));
         // rounded to nearest: (255 × 3 + 0 + 2) / 4 = 191, (200 × 3 + 0 + 2) / 4 = 150, (10 × 3 + 0 + 2) / 4 = 8
         assert_eq!(out, vec![191, 191, 191, 150, 8, 0]);
+    }
+
+    /// The two-pass reduction gives the bytes of the one-pass block sums, for any factor and canvas sizes that
+    /// are not multiples of it.
+    #[test]
+    fn two_pass_reduction_matches_block_sums() {
+        let mut state = 0x2545_F491_4F6C_DD1Du64;
+        for k in 1..=5usize {
+            let (cw, ch) = (7 * k + k / 2 + 1, 5 * k + 1);
+            let rgb: Vec<u8> = (0..cw * ch * 3)
+                .map(|_| {
+                    state ^= state << 13;
+                    state ^= state >> 7;
+                    state ^= state << 17;
+                    (state >> 56) as u8
+                })
+                .collect();
+            assert_eq!(downsample_by(&rgb, (cw, ch), k), downsample_blocks(&rgb, (cw, ch), k), "k = {k}");
+        }
+    }
+
+    /// A canvas allocated white skips the first whole-canvas white fill and ends with the same bytes as a zeroed
+    /// canvas that is filled; any other first fill (another colour, part of the canvas) is drawn.
+    #[test]
+    fn prefilled_canvas_gives_the_same_bytes() {
+        let size = (40u32, 24u32);
+        let draw = |canvas: &mut Vec<u8>, prefilled: bool, background: RGBColor, whole: bool| {
+            let backend = BitMapBackend::with_buffer(canvas, size);
+            let grid = if prefilled { PixelGrid::prefilled(backend, Scale(4), (255, 255, 255)) } else { PixelGrid::new(backend, Scale(4)) };
+            let root = grid.into_drawing_area();
+            let area = if whole { root.clone() } else { root.margin(2, 2, 2, 2) };
+            area.fill(&background).unwrap();
+            root.draw(&Rectangle::new([(3, 3), (20, 11)], RGBColor(200, 10, 0).filled())).unwrap();
+            root.draw(&PathElement::new(vec![(0, 23), (39, 0)], BLACK.stroke_width(4))).unwrap();
+            root.present().unwrap();
+        };
+        for (background, whole) in [(WHITE, true), (BLUE, true), (WHITE, false)] {
+            let mut zeroed = vec![0u8; 40 * 24 * 3];
+            let mut white = vec![255u8; 40 * 24 * 3];
+            draw(&mut zeroed, false, background, whole);
+            draw(&mut white, true, background, whole);
+            if whole {
+                assert!(zeroed == white, "background {background:?}");
+            } else {
+                // the margin keeps the allocation's bytes; the drawn part is the same
+                assert!(zeroed.iter().zip(&white).any(|(a, b)| a != b));
+                let inner = |v: &Vec<u8>| v.chunks(40 * 3).skip(5).take(14).map(|row| row[15..105].to_vec()).collect::<Vec<_>>();
+                assert!(inner(&zeroed) == inner(&white));
+            }
+        }
     }
 
     #[test]

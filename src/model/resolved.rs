@@ -23,6 +23,7 @@ use super::ModelError;
 
 mod boiling;
 mod run_log;
+mod surface;
 use run_log::{resolved_outcome, RunLog};
 pub(crate) use boiling::RegimeSwitch;
 
@@ -81,6 +82,14 @@ pub(crate) struct Model {
     molar_volume_b: Vec<f64>,
     /// Σ over species of the cell mass fractions, per cell (scratch of a step).
     cell_sums: Vec<f64>,
+    /// Scratch of the surface-state Newton iteration (surface.rs): Jacobian (n+1)², right-hand side n+1, per
+    /// component ∂ΣX/∂Y_j and vapour-share factors, rates and their temperature derivatives.
+    jac: Vec<f64>,
+    jac_rhs: Vec<f64>,
+    jac_a: Vec<f64>,
+    jac_b: Vec<f64>,
+    jac_rates0: Vec<f64>,
+    jac_drate_dt: Vec<f64>,
     film_calls: u64,
 }
 
@@ -163,10 +172,23 @@ impl Model {
         let liq = self.liquid(s);
         let radius = 0.5 * (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
         let area = 4.0 * std::f64::consts::PI * radius * radius;
-        let surface = s.surface_y.clone();
+        let mut surface = s.surface_y.clone();
         if s.boiling {
-            let (f0, hold, g_t, g_y) = self.boiling_film(s, &liq, radius);
-            return Ok(StepStart { liq, radius, f0, rates0: self.rates.clone(), dq: 0.0, g_t, g_y, t_lin: hold });
+            if self.n > 1 && self.ny() > 1 {
+                self.solve_boiling_surface(s, &liq, radius, &mut surface);
+                let sum: f64 = surface.iter().sum();
+                surface.iter_mut().for_each(|v| *v /= sum);
+            }
+            let (f0, hold, g_t, g_y) = self.boiling_film_of(s, &surface, &liq, radius);
+            return Ok(StepStart { liq, radius, f0, rates0: self.rates.clone(), dq: 0.0, g_t, g_y, t_lin: hold, surface_y: surface });
+        }
+        if self.n > 1 && self.ny() > 1 {
+            // species diffusion in a mixture: surface composition and temperature solved together (surface.rs)
+            let sol = self.solve_surface(s, &liq, radius, &mut surface);
+            let sum: f64 = surface.iter().sum();
+            surface.iter_mut().for_each(|v| *v /= sum);
+            let rates0 = self.rates.clone();
+            return Ok(StepStart { liq, radius, f0: sol.film, rates0, dq: sol.dq, g_t: sol.g_t, g_y: sol.g_y, t_lin: sol.temperature, surface_y: surface });
         }
         // Q_L(T_s) is linearised about the surface temperature that balances conduction from the outer cell,
         // cp G_s (T_s − T_N) = Q_L(T_s), found by Newton iterations (the surface half cell holds no heat, so a
@@ -197,7 +219,7 @@ impl Model {
                     continue;
                 }
             }
-            return Ok(StepStart { liq, radius, f0, rates0, dq, g_t, g_y, t_lin });
+            return Ok(StepStart { liq, radius, f0, rates0, dq, g_t, g_y, t_lin, surface_y: surface });
         }
     }
 
@@ -205,7 +227,7 @@ impl Model {
     fn step(&mut self, s: &State, st: &StepStart, dt: f64) -> Result<State, String> {
         let n = self.n;
         let ny = self.ny();
-        let StepStart { liq, radius, f0, rates0, dq, g_t, g_y, t_lin } = st;
+        let StepStart { liq, radius, f0, rates0, dq, g_t, g_y, t_lin, surface_y: start_surface } = st;
         let (liq, radius, f0, dq, g_t, g_y) = (liq, *radius, *f0, *dq, *g_t, *g_y);
         let mut hold = *t_lin;
         let mut next = s.clone();
@@ -213,7 +235,7 @@ impl Model {
         // latest surface state (implicit in the surface value; prescribed rate when condensing), the advective
         // terms use the total rate of the previous iterate; converged when the two totals agree.
         let mut film_rates = rates0.clone();
-        let mut film_surface = s.surface_y.clone();
+        let mut film_surface = start_surface.clone();
         let mut mdot_a: f64 = rates0.iter().sum();
         let mut m_used = s.mass;
         for iteration in 0..2 {
@@ -386,6 +408,8 @@ struct StepStart {
     g_y: f64,
     /// Surface temperature the heat input is linearised about (the hold temperature in the boiling regime) \[K\].
     t_lin: f64,
+    /// Surface mass fractions the film was evaluated at \[-\].
+    surface_y: Vec<f64>,
 }
 
 fn combine(a: &State, b: &State) -> State {
@@ -498,6 +522,12 @@ impl Model {
             kappa: vec![0.0; n],
             inputs: vec![SurfaceInput { q0: 0.0, q1: 0.0, u_ref: 0.0 }; n],
             cell_sums: vec![0.0; ny],
+            jac: vec![0.0; (n + 1) * (n + 1)],
+            jac_rhs: vec![0.0; n + 1],
+            jac_a: vec![0.0; n],
+            jac_b: vec![0.0; n],
+            jac_rates0: vec![0.0; n],
+            jac_drate_dt: vec![0.0; n],
             film_calls: 0,
         };
         let mut state = State {
@@ -598,6 +628,7 @@ pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: 
         *dt *= 0.25;
         return Attempt::Retry;
     }
+    model.settle_surface(&mut new);
     if let Some(factor) = model.overshoot(state, &new) {
         stats.rejected += 1;
         *dt *= factor;

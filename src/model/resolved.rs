@@ -90,6 +90,8 @@ pub(crate) struct Model {
     jac_b: Vec<f64>,
     jac_rates0: Vec<f64>,
     jac_drate_dt: Vec<f64>,
+    /// Surface solution of the last settled state (surface.rs), reused by the start of the step from it.
+    settled: surface::Settled,
     film_calls: u64,
 }
 
@@ -183,7 +185,11 @@ impl Model {
             return Ok(StepStart { liq, radius, f0, rates0: self.rates.clone(), dq: 0.0, g_t, g_y, t_lin: hold, surface_y: surface });
         }
         if self.n > 1 && self.ny() > 1 {
-            // species diffusion in a mixture: surface composition and temperature solved together (surface.rs)
+            // species diffusion in a mixture: surface composition and temperature solved together (surface.rs),
+            // or the solution found when this state was accepted
+            if let Some((sol, rates0)) = self.settled_solution(s) {
+                return Ok(StepStart { liq, radius, f0: sol.film, rates0, dq: sol.dq, g_t: sol.g_t, g_y: sol.g_y, t_lin: sol.temperature, surface_y: surface });
+            }
             let sol = self.solve_surface(s, &liq, radius, &mut surface);
             let sum: f64 = surface.iter().sum();
             surface.iter_mut().for_each(|v| *v /= sum);
@@ -290,7 +296,7 @@ impl Model {
                 // surface state solved for the cells of the first (surface.rs), not from a film refresh at the
                 // first pass's reconstruction (the boiling rate moves steeply with the hold temperature of the
                 // surface liquid through the heat conducted inward; the refresh overshoots unless the step is tiny:
-                // 18 942 steps instead of 1 782 for the 3000 K n-heptane/n-dodecane droplet of docs/model.md §5)
+                // 18 942 steps instead of 1 841 for the 3000 K n-heptane/n-dodecane droplet of docs/model.md §5)
                 next.mass = m_new;
                 let radius_new = 0.5 * (6.0 * m_new / (std::f64::consts::PI * liq.density)).cbrt();
                 let mut sy = next.surface_y.clone();
@@ -545,6 +551,7 @@ impl Model {
             jac_b: vec![0.0; n],
             jac_rates0: vec![0.0; n],
             jac_drate_dt: vec![0.0; n],
+            settled: surface::Settled::new(n),
             film_calls: 0,
         };
         let mut state = State {
@@ -573,6 +580,7 @@ impl Model {
 
     /// The gas film (its setup holds the far field).
     pub(crate) fn film_mut(&mut self) -> &mut Film {
+        self.settled.valid = false;
         &mut self.film
     }
 

@@ -52,7 +52,7 @@ impl Model {
 
     /// Heat \[W\] conducted from a surface at `t_s` into the liquid of state `s`: through the surface half cell of
     /// the temperature grid, or (uniform liquid temperature) the heat the liquid stored over the last step.
-    fn conducted_inward(&self, s: &State, t_s: f64, g_t: f64, cp: f64) -> f64 {
+    pub(super) fn conducted_inward(&self, s: &State, t_s: f64, g_t: f64, cp: f64) -> f64 {
         let nt = self.tgrid.len();
         if nt > 1 {
             cp * g_t * self.tgrid.face_factor(nt) * (t_s - s.temp[nt - 1])
@@ -62,7 +62,7 @@ impl Model {
     }
 
     /// Heat conductances of temperature and species (ρ² κ A²/m) for the circulation of film `f`.
-    fn conductances(&self, f: &FilmResult, liq: &Liquid, s: &State, radius: f64, blowing: f64) -> (f64, f64) {
+    pub(super) fn conductances(&self, f: &FilmResult, liq: &Liquid, s: &State, radius: f64, blowing: f64) -> (f64, f64) {
         let (chi_t, chi_y) = self.circulation(f, liq, s.velocity, radius, blowing);
         let area = 4.0 * std::f64::consts::PI * radius * radius;
         let rho2a2_over_m = liq.density * liq.density * area * area / s.mass;
@@ -73,12 +73,17 @@ impl Model {
     /// interior from the profile): the film, the hold temperature and the conductances (g_T, g_Y).
     pub(super) fn boiling_film(&mut self, s: &State, liq: &Liquid, radius: f64) -> (FilmResult, f64, f64, f64) {
         let sy = s.surface_y.clone();
-        let hold = self.hold_temperature(&sy);
+        self.boiling_film_of(s, &sy, liq, radius)
+    }
+
+    /// [`Model::boiling_film`] with the surface mass fractions `sy`.
+    pub(super) fn boiling_film_of(&mut self, s: &State, sy: &[f64], liq: &Liquid, radius: f64) -> (FilmResult, f64, f64, f64) {
+        let hold = self.hold_temperature(sy);
         // circulation from the film without the sink (the gas side does not depend on it but for B_T)
-        let probe = self.boiling_film_at(&sy, hold, s.mass, liq.density, s.velocity, 0.0);
+        let probe = self.boiling_film_at(sy, hold, s.mass, liq.density, s.velocity, 0.0);
         let (g_t, g_y) = self.conductances(&probe, liq, s, radius, probe.spalding_heat);
         let inward = self.conducted_inward(s, hold, g_t, liq.cp);
-        let f = self.boiling_film_at(&sy, hold, s.mass, liq.density, s.velocity, inward);
+        let f = self.boiling_film_at(sy, hold, s.mass, liq.density, s.velocity, inward);
         (f, hold, g_t, g_y)
     }
 

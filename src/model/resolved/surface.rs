@@ -1,0 +1,402 @@
+//! Surface state of an evaporating resolved liquid with species diffusion: the surface mass fractions and the
+//! surface temperature solved together from the balances of the surface (docs/model.md §5, "Surface state").
+//!
+//! The surface holds no mass and no heat, so for the outer cells (Y_N,i, T_N) its state is algebraic:
+//!
+//!   R_i = G_Y (Y_N,i − Y_s,i) − ṁ_i(Y_s, T_s) + ṁ(Y_s, T_s) Y_s,i / Σ_k Y_s,k = 0   (species, i = 1..n)
+//!   R_T = Q_L(Y_s, T_s) − c_p G_T (T_s − T_N) = 0                                   (heat)
+//!
+//! (G_Y, G_T the conductances of the surface half cells; the division by Σ Y_s,k makes the sum of the species
+//! residuals G_Y (1 − Σ Y_s,k), so Σ Y_s = 1 at the root whatever the ratio ṁ/G_Y). Near the bubble point the
+//! total rate ṁ is a steep function of the surface state (dṁ/dΣX_s grows like 1/(1 − Y_F,s)), so the two
+//! cannot be found one after the other: a surface composition taken from the last step and a temperature solved
+//! for it, or the other way round, leave an inconsistency that a step of any length carries, and the one-step and
+//! two-half-step solutions then differ by a part that does not shrink with the step. The system is solved by a
+//! Newton iteration on (Y_s, T_s) whose Jacobian is built from one film evaluation and its temperature difference:
+//! ∂ṁ_i/∂Y_j = ε_i ∂ṁ/∂Y_j + ṁ ∂ε_i/∂Y_j with ε_i ∝ x_i γ_i p_sat,i W_i the vapour shares (activity coefficients
+//! frozen over the iteration), ∂ṁ/∂Y_j = (dṁ/dΣX)(∂ΣX/∂Y_j) from the Spalding relation ṁ = G ln(1 + B_M), and
+//! the temperature column from the difference. The residuals use the full film, so the root is the exact surface
+//! state; the Jacobian only sets the path to it.
+
+use super::{Liquid, Model, State};
+
+/// Largest number of Newton iterations of the surface state.
+const MAX_ITERATIONS: usize = 40;
+
+/// The surface solution of the last accepted (settled) evaporating state, kept for the start of the next step.
+pub(super) struct Settled {
+    /// False when nothing is kept or the far field changed since.
+    pub(super) valid: bool,
+    time: f64,
+    mass: f64,
+    solution: SurfaceSolution,
+    rates: Vec<f64>,
+}
+
+impl Settled {
+    /// Nothing kept, with room for `n` species rates.
+    pub(super) fn new(n: usize) -> Self {
+        Settled { valid: false, time: 0.0, mass: 0.0, solution: SurfaceSolution { film: super::FilmResult::default(), dq: 0.0, g_t: 0.0, g_y: 0.0, temperature: 0.0 }, rates: vec![0.0; n] }
+    }
+}
+
+/// Converged surface state: its film evaluation, the film at 0.01 K above it, and the conductances.
+#[derive(Clone, Copy)]
+pub(super) struct SurfaceSolution {
+    /// Film at the surface state.
+    pub(super) film: super::FilmResult,
+    /// dQ_L/dT_s at the surface state \[W/K\].
+    pub(super) dq: f64,
+    /// Temperature conductance ρ² κ A²/m \[kg/s\].
+    pub(super) g_t: f64,
+    /// Species conductance ρ² D A²/m \[kg/s\].
+    pub(super) g_y: f64,
+    /// Surface temperature \[K\].
+    pub(super) temperature: f64,
+}
+
+impl Model {
+    /// Solve the surface state of an evaporating droplet `s` with species diffusion and two or more components
+    /// (module doc): the surface mass fractions go to `surface` (which holds the start guess), the species rates of
+    /// the solution to `self.rates`.
+    pub(super) fn solve_surface(&mut self, s: &State, liq: &Liquid, radius: f64, surface: &mut [f64]) -> SurfaceSolution {
+        let n = self.n;
+        let ny = self.ny();
+        let nt = self.tgrid.len();
+        let solve_temperature = nt > 1 && !self.fixed_temperature;
+        let area = 4.0 * std::f64::consts::PI * radius * radius;
+        let rho2a2_over_m = liq.density * liq.density * area * area / s.mass;
+        let face_y = self.ygrid.face_factor(ny);
+        let face_t = self.tgrid.face_factor(nt);
+        let t_n = s.temp[nt - 1];
+        let w_gas = self.film.setup.gas.molar_mass;
+        let dim = n + 1;
+        let mut t_s = s.surface_t;
+        for iteration in 0..MAX_ITERATIONS {
+            let f0 = self.film_at(surface, t_s, s.mass, liq.density, s.velocity);
+            // film shares and derivative data of this evaluation
+            let s_x = f0.surface_vapor_mole_fraction;
+            let y_vs: f64 = self.film.surface_mass.iter().sum();
+            let mut xw = 0.0;
+            for i in 0..n {
+                xw += self.film.surface_mole[i] * self.comps[i].molar_mass();
+            }
+            self.jac_rates0.copy_from_slice(&self.rates);
+            let (dq, drates_dt, ds_dt) = if self.fixed_temperature {
+                (0.0, false, 0.0)
+            } else {
+                let dt_s = 0.01;
+                let f1 = self.film_at(surface, t_s + dt_s, s.mass, liq.density, s.velocity);
+                for i in 0..n {
+                    self.jac_drate_dt[i] = (self.rates[i] - self.jac_rates0[i]) / dt_s;
+                }
+                ((f1.heat_to_liquid - f0.heat_to_liquid) / dt_s, true, (f1.surface_vapor_mole_fraction - s_x) / dt_s)
+            };
+            self.rates.copy_from_slice(&self.jac_rates0);
+            if solve_temperature && s_x >= 1.0 && ds_dt > 0.0 && iteration + 1 < MAX_ITERATIONS {
+                // at or past the bubble point the evaporating film is clamped (no root there): back to ΣX_s = 0.995
+                t_s -= ((s_x - 0.995) / ds_dt).max(0.01);
+                continue;
+            }
+            let (chi_t, chi_y) = self.circulation(&f0, liq, s.velocity, radius, f0.spalding_mass);
+            let g_t = rho2a2_over_m * chi_t * liq.conductivity / (liq.density * liq.cp);
+            let g_y = rho2a2_over_m * chi_y * liq.diffusivity;
+            if iteration + 1 == MAX_ITERATIONS {
+                return SurfaceSolution { film: f0, dq, g_t, g_y, temperature: t_s };
+            }
+            let big_g_y = g_y * face_y;
+            let big_g_t = liq.cp * g_t * face_t;
+            let mdot: f64 = self.jac_rates0.iter().sum();
+            let sum_y: f64 = surface.iter().sum();
+            // dṁ/dΣX of the Spalding relation ṁ = G ln(1 + B_M), G = 2π ρ_g D_g r_s Sh*, at fixed vapour shares
+            let g_mass = 2.0 * std::f64::consts::PI * f0.film_density * f0.film_diffusivity * radius * f0.sherwood;
+            let w_vap = if s_x > 0.0 { xw / s_x } else { 0.0 };
+            let denom = s_x * w_vap + (1.0 - s_x).max(0.0) * w_gas;
+            let dy_ds = if denom > 0.0 { w_vap * w_gas / (denom * denom) } else { 0.0 };
+            let dm_ds = g_mass / (1.0 - y_vs).max(1e-12) * dy_ds;
+            // mole-fraction bookkeeping: D = Σ Y/W, r_j = X_j/x_j, a_j = ∂ΣX/∂Y_j, b_j = r_j/(D XW)
+            let d_sum: f64 = (0..n).map(|j| surface[j] / self.comps[j].molar_mass()).sum();
+            for j in 0..n {
+                let w_j = self.comps[j].molar_mass();
+                let x_j = self.x_surf[j];
+                let r_j = if x_j > 0.0 { self.film.surface_mole[j] / x_j } else { 0.0 };
+                self.jac_a[j] = (r_j - s_x) / (w_j * d_sum);
+                self.jac_b[j] = if xw > 0.0 { r_j / (d_sum * xw) } else { 0.0 };
+            }
+            // Jacobian (row-major dim × dim) and right-hand side −R
+            let jac = &mut self.jac;
+            let rhs = &mut self.jac_rhs;
+            jac.iter_mut().for_each(|v| *v = 0.0);
+            let mut dmdot_dt = 0.0;
+            if drates_dt {
+                dmdot_dt = self.jac_drate_dt.iter().sum();
+            }
+            for i in 0..n {
+                let y_i = surface[i];
+                let eps_i = if mdot != 0.0 { self.jac_rates0[i] / mdot } else { 0.0 };
+                let kappa_i = if y_i > 0.0 { mdot * eps_i / y_i } else { 0.0 };
+                let resid = big_g_y * (s.y[i * ny + ny - 1] - y_i) - self.jac_rates0[i] + mdot * y_i / sum_y;
+                rhs[i] = -resid;
+                for j in 0..n {
+                    // ∂ṁ_i/∂Y_j and ∂ṁ/∂Y_j
+                    let dm_j = dm_ds * self.jac_a[j];
+                    let dmi_j = eps_i * dm_j + mdot * eps_i * (-self.jac_b[j]) + if i == j { kappa_i } else { 0.0 };
+                    let mut v = -dmi_j + dm_j * y_i / sum_y - mdot * y_i / (sum_y * sum_y);
+                    if i == j {
+                        v += -big_g_y + mdot / sum_y;
+                    }
+                    jac[i * dim + j] = v;
+                }
+                jac[i * dim + n] = if drates_dt { -self.jac_drate_dt[i] + dmdot_dt * y_i / sum_y } else { 0.0 };
+            }
+            if solve_temperature {
+                let resid_t = f0.heat_to_liquid - big_g_t * (t_s - t_n);
+                rhs[n] = -resid_t;
+                for j in 0..n {
+                    let dm_j = dm_ds * self.jac_a[j];
+                    let mut dq_j = 0.0;
+                    for i in 0..n {
+                        let eps_i = if mdot != 0.0 { self.jac_rates0[i] / mdot } else { 0.0 };
+                        let kappa_i = if surface[i] > 0.0 { mdot * eps_i / surface[i] } else { 0.0 };
+                        let dmi_j = eps_i * dm_j - mdot * eps_i * self.jac_b[j] + if i == j { kappa_i } else { 0.0 };
+                        dq_j -= self.latent[i] * dmi_j;
+                    }
+                    jac[n * dim + j] = dq_j;
+                }
+                jac[n * dim + n] = dq - big_g_t;
+            } else {
+                rhs[n] = 0.0;
+                jac[n * dim + n] = 1.0;
+            }
+            if !solve_dense(jac, rhs, dim) {
+                return SurfaceSolution { film: f0, dq, g_t, g_y, temperature: t_s };
+            }
+            // keep every mass fraction positive (at most 90 % of it removed per iteration) and the temperature
+            // within 20 K per iteration
+            let mut lambda: f64 = 1.0;
+            for i in 0..n {
+                if rhs[i] < 0.0 && surface[i] > 0.0 {
+                    lambda = lambda.min(0.9 * surface[i] / -rhs[i]);
+                }
+            }
+            if rhs[n].abs() > 20.0 {
+                lambda = lambda.min(20.0 / rhs[n].abs());
+            }
+            // and the total surface vapour mole fraction at most half-way to 1 (the evaporating film's ṁ grows
+            // without bound as ΣX_s → 1; beyond it the film is clamped and flat)
+            let mut ds = ds_dt * rhs[n];
+            for j in 0..n {
+                ds += self.jac_a[j] * rhs[j];
+            }
+            if ds > 0.0 && s_x < 1.0 && lambda * ds > 0.5 * (1.0 - s_x) {
+                lambda = 0.5 * (1.0 - s_x) / ds;
+            }
+            // converged when the Newton correction is below 1e-5 K and 1e-9 in mass fraction: the film above,
+            // evaluated at the state returned, stands
+            let mut step: f64 = (lambda * rhs[n]).abs() / 1e-5;
+            for i in 0..n {
+                step = step.max((lambda * rhs[i]).abs() / 1e-9);
+            }
+            if step <= 1.0 {
+                return SurfaceSolution { film: f0, dq, g_t, g_y, temperature: t_s };
+            }
+            for i in 0..n {
+                surface[i] = (surface[i] + lambda * rhs[i]).max(0.0);
+            }
+            t_s += lambda * rhs[n];
+        }
+        unreachable!("the loop returns at its last iteration")
+    }
+}
+
+impl Model {
+    /// Replace the surface state of an accepted evaporating state `s` (species diffusion in a mixture) by the
+    /// solution of the surface balances for its cells: the Richardson combination of two steps does not satisfy
+    /// them, and the regime checks and the history row read the surface.
+    pub(super) fn settle_surface(&mut self, s: &mut State) {
+        if self.n < 2 || self.ny() < 2 {
+            return;
+        }
+        let liq = self.liquid(s);
+        let radius = 0.5 * (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
+        let mut surface = std::mem::take(&mut s.surface_y);
+        if s.boiling {
+            self.solve_boiling_surface(s, &liq, radius, &mut surface);
+            let sum: f64 = surface.iter().sum();
+            surface.iter_mut().for_each(|v| *v /= sum);
+            s.surface_t = self.hold_temperature(&surface);
+            s.surface_y = surface;
+            return;
+        }
+        let sol = self.solve_surface(s, &liq, radius, &mut surface);
+        let sum: f64 = surface.iter().sum();
+        surface.iter_mut().for_each(|v| *v /= sum);
+        s.surface_y = surface;
+        if self.tgrid.len() > 1 && !self.fixed_temperature {
+            s.surface_t = sol.temperature;
+        }
+        self.settled.valid = true;
+        self.settled.time = s.time;
+        self.settled.mass = s.mass;
+        self.settled.solution = sol;
+        self.settled.rates.copy_from_slice(&self.rates);
+    }
+
+    /// The kept surface solution when `s` is the state it was found for (same time, mass and surface temperature),
+    /// with a copy of its species rates.
+    pub(super) fn settled_solution(&self, s: &State) -> Option<(SurfaceSolution, Vec<f64>)> {
+        let k = &self.settled;
+        let same = k.valid && k.time.to_bits() == s.time.to_bits() && k.mass.to_bits() == s.mass.to_bits() && k.solution.temperature.to_bits() == s.surface_t.to_bits();
+        same.then(|| (k.solution, k.rates.clone()))
+    }
+}
+
+impl Model {
+    /// Solve the surface composition of a boiling droplet `s` with species diffusion and two or more components:
+    /// the surface sits at the hold temperature T_h(Y_s) of its own liquid and the rate follows the heat balance
+    /// (boiling.rs), the species residuals R_i are those of the module doc. Newton iteration with the Jacobian of
+    /// the species shares at the hold temperature (ṁ and T_h frozen in it: the heat-limited rate depends on the
+    /// surface composition only through the latent heat and the hold temperature). `surface` holds the start guess
+    /// and receives the solution.
+    pub(super) fn solve_boiling_surface(&mut self, s: &State, liq: &Liquid, radius: f64, surface: &mut [f64]) {
+        let n = self.n;
+        let ny = self.ny();
+        let face_y = self.ygrid.face_factor(ny);
+        for _ in 0..MAX_ITERATIONS {
+            let (f0, hold, g_t, g_y) = self.boiling_film_of(s, surface, liq, radius);
+            self.jac_rates0.copy_from_slice(&self.rates);
+            let mdot: f64 = self.jac_rates0.iter().sum();
+            if !(mdot > 0.0) {
+                return;
+            }
+            let s_x = f0.surface_vapor_mole_fraction;
+            let big_g_y = g_y * face_y;
+            let sum_y: f64 = surface.iter().sum();
+            let mut xw = 0.0;
+            for i in 0..n {
+                xw += self.film.surface_mole[i] * self.comps[i].molar_mass();
+            }
+            let d_sum: f64 = (0..n).map(|j| surface[j] / self.comps[j].molar_mass()).sum();
+            for j in 0..n {
+                let x_j = self.x_surf[j];
+                let r_j = if x_j > 0.0 { self.film.surface_mole[j] / x_j } else { 0.0 };
+                self.jac_a[j] = (r_j - s_x) / (self.comps[j].molar_mass() * d_sum);
+                self.jac_b[j] = if xw > 0.0 { r_j / (d_sum * xw) } else { 0.0 };
+            }
+            // rates and ΣX_s at a hold temperature 0.01 K higher (with the conduction inward there): the rate's
+            // dependence on the composition through T_h, dT_h/dY_j = −(∂ΣX/∂Y_j)/(∂ΣX/∂T)
+            let dt_s = 0.01;
+            let inward = self.conducted_inward(s, hold + dt_s, g_t, liq.cp);
+            let f1 = self.boiling_film_at(surface, hold + dt_s, s.mass, liq.density, s.velocity, inward);
+            for i in 0..n {
+                self.jac_drate_dt[i] = (self.rates[i] - self.jac_rates0[i]) / dt_s;
+            }
+            let ds_dt = (f1.surface_vapor_mole_fraction - s_x) / dt_s;
+            if !(ds_dt > 0.0) {
+                return;
+            }
+            let dim = n;
+            let jac = &mut self.jac;
+            let rhs = &mut self.jac_rhs;
+            for i in 0..n {
+                let y_i = surface[i];
+                let eps_i = self.jac_rates0[i] / mdot;
+                let kappa_i = if y_i > 0.0 { mdot * eps_i / y_i } else { 0.0 };
+                rhs[i] = -(big_g_y * (s.y[i * ny + ny - 1] - y_i) - self.jac_rates0[i] + mdot * y_i / sum_y);
+                for j in 0..n {
+                    let dhold_j = -self.jac_a[j] / ds_dt;
+                    let dm_j: f64 = self.jac_drate_dt.iter().sum::<f64>() * dhold_j;
+                    let dmi_j = -mdot * eps_i * self.jac_b[j] + self.jac_drate_dt[i] * dhold_j + if i == j { kappa_i } else { 0.0 };
+                    let mut v = -dmi_j + dm_j * y_i / sum_y - mdot * y_i / (sum_y * sum_y);
+                    if i == j {
+                        v += -big_g_y + mdot / sum_y;
+                    }
+                    jac[i * dim + j] = v;
+                }
+            }
+            if !solve_dense(&mut jac[..dim * dim], &mut rhs[..dim], dim) {
+                return;
+            }
+            // every mass fraction stays positive (at most 90 % of it removed per iteration), the hold temperature
+            // moves by at most 2 K per iteration
+            let mut lambda: f64 = 1.0;
+            let mut step: f64 = 0.0;
+            let mut dhold = 0.0;
+            for i in 0..n {
+                if rhs[i] < 0.0 && surface[i] > 0.0 {
+                    lambda = lambda.min(0.9 * surface[i] / -rhs[i]);
+                }
+                step = step.max(rhs[i].abs());
+                dhold -= self.jac_a[i] / ds_dt * rhs[i];
+            }
+            if dhold.abs() > 2.0 {
+                lambda = lambda.min(2.0 / dhold.abs());
+            }
+            if step * lambda <= 1e-11 {
+                return;
+            }
+            for i in 0..n {
+                surface[i] = (surface[i] + lambda * rhs[i]).max(0.0);
+            }
+        }
+    }
+}
+
+/// Solve the dense system `a x = b` (row-major `dim × dim`, overwritten) by Gaussian elimination with partial
+/// pivoting; the solution replaces `b`. False when the matrix is singular.
+fn solve_dense(a: &mut [f64], b: &mut [f64], dim: usize) -> bool {
+    for col in 0..dim {
+        let mut pivot = col;
+        for row in col + 1..dim {
+            if a[row * dim + col].abs() > a[pivot * dim + col].abs() {
+                pivot = row;
+            }
+        }
+        if !(a[pivot * dim + col].abs() > 0.0) {
+            return false;
+        }
+        if pivot != col {
+            for k in 0..dim {
+                a.swap(col * dim + k, pivot * dim + k);
+            }
+            b.swap(col, pivot);
+        }
+        let p = a[col * dim + col];
+        for row in col + 1..dim {
+            let factor = a[row * dim + col] / p;
+            if factor != 0.0 {
+                for k in col..dim {
+                    a[row * dim + k] -= factor * a[col * dim + k];
+                }
+                b[row] -= factor * b[col];
+            }
+        }
+    }
+    for col in (0..dim).rev() {
+        let mut v = b[col];
+        for k in col + 1..dim {
+            v -= a[col * dim + k] * b[k];
+        }
+        b[col] = v / a[col * dim + col];
+    }
+    b.iter().all(|v| v.is_finite())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::solve_dense;
+
+    #[test]
+    fn dense_solve_with_pivoting() {
+        // a zero on the first diagonal needs the row swap
+        let mut a = vec![0.0, 2.0, 1.0, 1.0, 1.0, 1.0, 2.0, 1.0, 3.0];
+        let mut b = vec![7.0, 6.0, 13.0];
+        assert!(solve_dense(&mut a, &mut b, 3));
+        for (got, want) in b.iter().zip([1.0, 2.0, 3.0]) {
+            assert!((got - want).abs() < 1e-12, "{got} vs {want}");
+        }
+        let mut singular = vec![1.0, 2.0, 2.0, 4.0];
+        let mut b = vec![1.0, 2.0];
+        assert!(!solve_dense(&mut singular, &mut b, 2));
+    }
+}

@@ -362,22 +362,28 @@ fn solve_dense(a: &mut [f64], b: &mut [f64], dim: usize) -> bool {
             b.swap(col, pivot);
         }
         let p = a[col * dim + col];
-        for row in col + 1..dim {
-            let factor = a[row * dim + col] / p;
+        // the pivot row and the rows below it as separate slices: the elimination loop has no index checks
+        // (same operations in the same order as an indexed loop, so the same results)
+        let (upper, lower) = a.split_at_mut((col + 1) * dim);
+        let pivot_row = &upper[col * dim + col..(col + 1) * dim];
+        let b_col = b[col];
+        for (r, row) in lower.chunks_exact_mut(dim).enumerate() {
+            let factor = row[col] / p;
             if factor != 0.0 {
-                for k in col..dim {
-                    a[row * dim + k] -= factor * a[col * dim + k];
+                for (x, y) in row[col..].iter_mut().zip(pivot_row) {
+                    *x -= factor * y;
                 }
-                b[row] -= factor * b[col];
+                b[col + 1 + r] -= factor * b_col;
             }
         }
     }
     for col in (0..dim).rev() {
+        let row = &a[col * dim..(col + 1) * dim];
         let mut v = b[col];
-        for k in col + 1..dim {
-            v -= a[col * dim + k] * b[k];
+        for (x, y) in row[col + 1..].iter().zip(&b[col + 1..dim]) {
+            v -= x * y;
         }
-        b[col] = v / a[col * dim + col];
+        b[col] = v / row[col];
     }
     b.iter().all(|v| v.is_finite())
 }

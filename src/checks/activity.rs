@@ -201,6 +201,22 @@ pub fn bubble_checks(lib: &Library) -> Vec<CheckResult> {
     out
 }
 
+/// Largest bubble-temperature miss \[K\] of each reference binary of validation/coolprop/binary_vle.csv with
+/// `model` (distance from the references' band): the component ids and the miss, or why it was not computed.
+pub fn bubble_misses(lib: &Library, model: ActivityModel) -> Vec<((String, String), Result<f64, String>)> {
+    vle_systems()
+        .into_iter()
+        .map(|system| {
+            let comps: Option<Vec<Arc<Component>>> = [&system.ids.0, &system.ids.1].iter().map(|id| lib.component(id).cloned()).collect();
+            let miss = match comps {
+                Some(comps) => bubble_deviation(&comps, model, &system.rows).map(|(d, _)| d),
+                None => Err("component not in the library".into()),
+            };
+            (system.ids, miss)
+        })
+        .collect()
+}
+
 /// Every activity-coefficient check, in report order.
 pub fn all(lib: &Library) -> Vec<CheckResult> {
     let mut v = thermo_checks(lib);

@@ -43,7 +43,7 @@ fn worse(e: f64, worst: f64) -> bool {
 }
 
 fn failed(check: String, source: &str, tolerance: &str, why: String) -> CheckResult {
-    CheckResult { group: GROUP.into(), check, source: source.into(), tolerance: tolerance.into(), achieved: why, passed: false }
+    CheckResult { group: GROUP.into(), check, source: source.into(), tolerance: tolerance.into(), achieved: why, passed: false, reported: false }
 }
 
 /// Every fuel-building check, in report order.

@@ -53,7 +53,7 @@ fn column(header: &[String], name: &str) -> Option<usize> {
 }
 
 fn failed(group: &str, check: String, source: &str, why: String) -> CheckResult {
-    CheckResult { group: group.into(), check, source: source.into(), tolerance: "–".into(), achieved: why, passed: false }
+    CheckResult { group: group.into(), check, source: source.into(), tolerance: "–".into(), achieved: why, passed: false, reported: false }
 }
 
 fn mark_known(mut r: CheckResult, component: &str, property: &str) -> CheckResult {
@@ -148,6 +148,7 @@ fn compare(c: &Component, what: &str, table_header: &[&str], table_rows: &[Vec<O
             tolerance: format!("{:.3} % relative", 100.0 * pair.tolerance),
             achieved: "nothing to judge".into(),
             passed: false,
+            reported: false,
         };
         return mark_known(r, &c.id, pair.key);
     }
@@ -294,6 +295,7 @@ pub fn surrogate_checks(lib: &Library) -> Vec<CheckResult> {
                 tolerance: format!("{TOL_REPORTED:e} relative"),
                 achieved: format!("{d:.2e} (max)"),
                 passed: d <= TOL_REPORTED,
+                reported: false,
             });
         }
         Err(e) => out.push(failed(GROUP_SURROGATE, "demo-wide surrogate fit".into(), source, e)),

@@ -163,7 +163,7 @@ impl Library {
         } else if rel == "gases.toml" {
             self.gases.extend(parse_gases(text, shown)?);
         } else if rel == "sources.toml" {
-            self.sources.extend(SourceRegistry::embedded_lazy(text, "mixtures/sources.toml"));
+            self.sources.set_embedded(text, "mixtures/sources.toml");
         } else if !rel.contains('/') {
             let id = rel.trim_end_matches(".toml").to_string();
             self.fuels.insert(id, (shown.to_string(), text.to_string()));

@@ -30,11 +30,6 @@ pub struct SourceRegistry {
     embedded_parsed: OnceLock<BTreeMap<String, Source>>,
 }
 
-impl PartialEq for SourceRegistry {
-    fn eq(&self, other: &Self) -> bool {
-        self.added == other.added && self.embedded() == other.embedded()
-    }
-}
 
 fn parse_map(text: &str, file: &str) -> Result<BTreeMap<String, Source>, DataError> {
     toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_at(&e, text) })
@@ -49,10 +44,11 @@ impl SourceRegistry {
         Ok(SourceRegistry { added: parse_map(text, file)?, ..Default::default() })
     }
 
-    /// A registry of the embedded sources file, parsed on first look-up (a defect in it is a build defect:
-    /// `Library::check_all` and the tests parse it).
-    pub fn embedded_lazy(text: &'static str, file: &'static str) -> Self {
-        SourceRegistry { embedded: Some((text, file)), ..Default::default() }
+    /// Use the embedded sources file `text` (shown as `file`), parsed on first look-up (a defect in it is a build
+    /// defect: `Library::check_all` and the tests parse it).
+    pub fn set_embedded(&mut self, text: &'static str, file: &'static str) {
+        self.embedded = Some((text, file));
+        self.embedded_parsed = OnceLock::new();
     }
 
     /// Parse the embedded file now; its error, if any.
@@ -83,15 +79,6 @@ impl SourceRegistry {
 
     /// Add the entries of another registry (later files win on equal ids).
     pub fn extend(&mut self, other: SourceRegistry) {
-        if self.embedded.is_none() && self.added.is_empty() {
-            self.embedded = other.embedded;
-            self.embedded_parsed = other.embedded_parsed;
-        } else if let Some((text, file)) = other.embedded {
-            // a second embedded registry: fold it in as added entries
-            if let Ok(map) = parse_map(text, file) {
-                self.added.extend(map);
-            }
-        }
         self.added.extend(other.added);
     }
 

@@ -137,6 +137,13 @@ impl Model {
 
     /// Film at the state's surface values; species rates left in `self.rates`.
     fn film_at(&mut self, surface_y: &[f64], t_s: f64, mass: f64, rho: f64, speed: f64) -> FilmResult {
+        self.film_with(surface_y, t_s, mass, rho, speed, None)
+    }
+
+    /// Film at the surface `surface_y` and temperature `t_s`: evaporating (`heat_inward` None) or boiling at
+    /// the hold temperature `t_s` with `heat_inward` \[W\] conducted into the liquid; species rates left in
+    /// `self.rates`.
+    fn film_with(&mut self, surface_y: &[f64], t_s: f64, mass: f64, rho: f64, speed: f64, heat_inward: Option<f64>) -> FilmResult {
         liquid::mass_to_mole_into(&self.comps, surface_y, &mut self.x_surf);
         for i in 0..self.n {
             self.latent[i] = self.comps[i].latent_heat(t_s);
@@ -145,7 +152,10 @@ impl Model {
         self.film.liquid_density = rho;
         let x = std::mem::take(&mut self.x_surf);
         let latent = std::mem::take(&mut self.latent);
-        let f = self.film.evaluate(&x, t_s, d, speed, &latent, None);
+        let f = match heat_inward {
+            None => self.film.evaluate(&x, t_s, d, speed, &latent, None),
+            Some(q) => self.film.evaluate_boiling(&x, t_s, d, speed, &latent, q),
+        };
         self.x_surf = x;
         self.latent = latent;
         self.rates.copy_from_slice(&self.film.species_rate);

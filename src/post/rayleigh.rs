@@ -198,23 +198,6 @@ pub struct PathPoint {
     pub mole_fractions: Vec<f64>,
 }
 
-/// Integrate a Rayleigh path from liquid mole fractions `x0` and report the state at each evaporated
-/// fraction in `fractions` (ascending, each in [0, 1)). `weights` are the per-mole basis weights (1 for a
-/// mole basis, molar mass for mass, molar volume at 15 °C for liquid volume). `max_step` bounds the RK4
-/// step in φ = −ln(1 − F). Components with zero amount must be filtered out by the caller.
-/// Returns the points and the number of right-hand-side evaluations.
-pub fn integrate(
-    components: &[Arc<Component>],
-    x0: &[f64],
-    weights: &[f64],
-    mode: PathMode,
-    fractions: &[f64],
-    max_step: f64,
-    activity: ActivityModel,
-) -> Result<(Vec<PathPoint>, usize), PostError> {
-    integrate_counted(components, x0, weights, mode, fractions, max_step, activity).map(|(points, counts)| (points, counts.evaluations))
-}
-
 /// Work of one [`integrate`] call.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct PathCounts {
@@ -224,8 +207,12 @@ pub struct PathCounts {
     pub sweeps: usize,
 }
 
-/// [`integrate`], also returning how many right-hand sides and vapour-pressure sweeps it took.
-pub fn integrate_counted(
+/// Integrate a Rayleigh path from liquid mole fractions `x0` and report the state at each evaporated
+/// fraction in `fractions` (ascending, each in [0, 1)). `weights` are the per-mole basis weights (1 for a
+/// mole basis, molar mass for mass, molar volume at 15 °C for liquid volume). `max_step` bounds the RK4
+/// step in φ = −ln(1 − F). Components with zero amount must be filtered out by the caller.
+/// Returns the points and the work it took (right-hand sides and vapour-pressure sweeps).
+pub fn integrate(
     components: &[Arc<Component>],
     x0: &[f64],
     weights: &[f64],
@@ -402,8 +389,8 @@ mod tests {
         let t = 360.0;
         let alpha = comps[0].vapor_pressure(t) / comps[1].vapor_pressure(t);
         let fr = [0.1, 0.5, 0.9];
-        let (pts, evaluations) = integrate(&comps, &[0.5, 0.5], &[1.0, 1.0], PathMode::Isothermal(t), &fr, 0.02, crate::props::activity::ActivityModel::Unifac).unwrap();
-        assert!(evaluations > 0, "the RK4 path ran");
+        let (pts, counts) = integrate(&comps, &[0.5, 0.5], &[1.0, 1.0], PathMode::Isothermal(t), &fr, 0.02, crate::props::activity::ActivityModel::Unifac).unwrap();
+        assert!(counts.evaluations > 0, "the RK4 path ran");
         for p in &pts {
             let remaining = 1.0 - p.evaporated_fraction;
             let (n1, n2) = (remaining * p.mole_fractions[0] / 0.5, remaining * p.mole_fractions[1] / 0.5);
@@ -454,7 +441,7 @@ mod tests {
         let x = fuel.mole_fractions();
         let w = basis_weights(&fuel.components, RecoveryBasis::Volume);
         for fr in [vec![0.0, 0.1, 0.2, 0.5], vec![0.0, 0.1, 0.2, 0.5, 0.9, 0.995]] {
-            let (pts, counts) = integrate_counted(&fuel.components, &x, &w, PathMode::Isobaric(101_325.0), &fr, crate::post::indicators::DEFAULT_MAX_STEP, Default::default()).unwrap();
+            let (pts, counts) = integrate(&fuel.components, &x, &w, PathMode::Isobaric(101_325.0), &fr, crate::post::indicators::DEFAULT_MAX_STEP, Default::default()).unwrap();
             let per_rhs = counts.sweeps as f64 / counts.evaluations as f64;
             eprintln!("curve to F = {}: {counts:?}, {per_rhs:.2} sweeps per right-hand side", fr[fr.len() - 1]);
             assert!(per_rhs <= 3.0, "{per_rhs} sweeps per right-hand side ({counts:?})");

@@ -162,6 +162,7 @@ fn compare(c: &Component, table: &Table, spec: &PropertySpec, window: (f64, f64)
             tolerance: format!("{:.3} % relative", 100.0 * spec.tolerance),
             achieved: "nothing to judge".into(),
             passed: false,
+            reported: false,
         });
     }
     let check = format!(

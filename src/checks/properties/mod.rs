@@ -302,7 +302,7 @@ fn library() -> Result<Library, String> {
 }
 
 fn failed(group: &str, check: String, source: &str, why: String) -> CheckResult {
-    CheckResult { group: group.into(), check, source: source.into(), tolerance: "–".into(), achieved: why, passed: false }
+    CheckResult { group: group.into(), check, source: source.into(), tolerance: "–".into(), achieved: why, passed: false, reported: false }
 }
 
 /// |a/b − 1|, or +∞ when either is not a finite number or b is zero (so the check fails, never NaN).

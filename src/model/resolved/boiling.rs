@@ -34,20 +34,7 @@ impl Model {
     /// Boiling film at the surface `surface_y` held at `hold` with `heat_inward` \[W\] conducted into the liquid;
     /// species rates left in `self.rates`.
     pub(super) fn boiling_film_at(&mut self, surface_y: &[f64], hold: f64, mass: f64, rho: f64, speed: f64, heat_inward: f64) -> FilmResult {
-        liquid::mass_to_mole_into(&self.comps, surface_y, &mut self.x_surf);
-        for i in 0..self.n {
-            self.latent[i] = self.comps[i].latent_heat(hold);
-        }
-        let d = (6.0 * mass.max(1e-300) / (std::f64::consts::PI * rho)).cbrt();
-        self.film.liquid_density = rho;
-        let x = std::mem::take(&mut self.x_surf);
-        let latent = std::mem::take(&mut self.latent);
-        let f = self.film.evaluate_boiling(&x, hold, d, speed, &latent, heat_inward);
-        self.x_surf = x;
-        self.latent = latent;
-        self.rates.copy_from_slice(&self.film.species_rate);
-        self.film_calls += 1;
-        f
+        self.film_with(surface_y, hold, mass, rho, speed, Some(heat_inward))
     }
 
     /// Heat \[W\] conducted from a surface at `t_s` into the liquid of state `s`: through the surface half cell of

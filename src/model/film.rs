@@ -35,14 +35,58 @@ impl TransferCorrelation {
     /// Nu0 (or Sh0 with Sc in place of Pr) of a non-evaporating sphere.
     #[inline]
     pub fn nusselt0(self, re: f64, pr: f64) -> f64 {
+        self.nusselt0_pair(re, pr, pr).0
+    }
+
+    /// (Nu0, Sh0) of a non-evaporating sphere at one Reynolds number, Prandtl number `pr` and Schmidt number
+    /// `sc` (the Reynolds-number factor evaluated once).
+    #[inline]
+    pub fn nusselt0_pair(self, re: f64, pr: f64, sc: f64) -> (f64, f64) {
+        use crate::numerics::cbrt;
         match self {
             TransferCorrelation::Clift => {
                 let f = if re <= 1.0 { 1.0 } else { re.powf(0.077) };
-                1.0 + (1.0 + re * pr).cbrt() * f
+                (1.0 + cbrt(1.0 + re * pr) * f, 1.0 + cbrt(1.0 + re * sc) * f)
             }
-            TransferCorrelation::RanzMarshall => 2.0 + 0.6 * re.sqrt() * pr.cbrt(),
+            TransferCorrelation::RanzMarshall => {
+                let root_re = 0.6 * re.sqrt();
+                (2.0 + root_re * cbrt(pr), 2.0 + root_re * cbrt(sc))
+            }
         }
     }
+}
+
+/// Root λ of λ = A/Nu*(λ), Nu*(λ) = 2 + c/F(λ) (λ = ln(1 + B_T), F the film correction, c = Nu0 − 2 ≠ 0) by
+/// Newton's method from `last_heat_log`, the previous call's root (successive calls are close in state; the new
+/// root is written back), with the fixed-point step where the Newton slope is not safe. Returns (λ, Nu*(λ), e^(−λ) − 1); after the last
+/// step (|Δλ| ≤ 1e-9 (1 + |λ|), so the root is exact to about 1e-18) F and e^(−λ) are carried to the new λ
+/// by their first-order terms instead of two more exponentials.
+fn solve_heat_log(last_heat_log: &mut f64, a_heat: f64, c: f64) -> (f64, f64, f64) {
+    let mut lam = if last_heat_log.is_finite() { *last_heat_log } else { a_heat / (2.0 + c) };
+    let mut out = (lam, 2.0 + c, (-lam).exp_m1());
+    for _ in 0..60 {
+        let (f, dln_f, em1) = film_correction_of_log(lam);
+        let nu = 2.0 + c / f;
+        let g = a_heat / nu;
+        // dg/dλ = g (c/F)/Nu* d ln F/dλ
+        let slope = 1.0 - g * (c / f) / nu * dln_f;
+        let r = lam - g;
+        let mut step = if slope > 0.05 { r / slope } else { r };
+        if !step.is_finite() {
+            step = r;
+        }
+        // keep B_T > −0.999 as the fixed point does (ln 0.001)
+        let next = (lam - step).max(-6.9);
+        let moved = next - lam;
+        let f_next = f * (1.0 + dln_f * moved);
+        out = (next, 2.0 + c / f_next, em1 - (1.0 + em1) * moved);
+        lam = next;
+        if moved.abs() <= 1e-9 * (1.0 + lam.abs()) {
+            break;
+        }
+    }
+    *last_heat_log = lam;
+    out
 }
 
 /// ln(1+B)/B with its series near B = 0.
@@ -58,11 +102,31 @@ pub fn log1p_over(b: f64) -> f64 {
 /// Abramzon–Sirignano film-thickening correction F(B) = (1+B)^0.7 ln(1+B)/B.
 #[inline]
 pub fn film_correction(b: f64) -> f64 {
+    film_correction_with(b, b.ln_1p())
+}
+
+/// [`film_correction`] F(B) with ln(1+B) already known (`ln_1p_b`).
+#[inline]
+fn film_correction_with(b: f64, ln_1p_b: f64) -> f64 {
     if b.abs() < 1e-6 {
         return (1.0 + b).powf(0.7) * log1p_over(b);
     }
-    let l = b.ln_1p();
-    (0.7 * l).exp() * l / b
+    (0.7 * ln_1p_b).exp() * ln_1p_b / b
+}
+
+/// The film correction written in λ = ln(1+B): F = λ e^(−0.3λ)/(1 − e^(−λ)), with d ln F/dλ =
+/// 1/λ − 1/(e^λ − 1) − 0.3 and e^(−λ) − 1; two exponentials, no logarithm.
+#[inline]
+fn film_correction_of_log(lam: f64) -> (f64, f64, f64) {
+    let em1 = (-lam).exp_m1(); // e^(−λ) − 1
+    let decay = (-0.3 * lam).exp();
+    if lam.abs() < 1e-3 {
+        // series of λ/(1 − e^(−λ)) and of 1/λ − 1/(e^λ − 1) (next terms below 1e-16 here)
+        let l2 = lam * lam;
+        let ratio = 1.0 + 0.5 * lam + l2 / 12.0 - l2 * l2 / 720.0;
+        return (decay * ratio, 0.2 - lam / 12.0 + l2 * lam / 720.0, em1);
+    }
+    (decay * lam / -em1, 1.0 / lam + (1.0 + em1) / em1 - 0.3, em1)
 }
 
 /// Abramzon–Sirignano circulation enhancement χ(Pe_L) = 1.86 + 0.86 tanh(2.225 log10(Pe_L/30)).
@@ -81,7 +145,8 @@ pub fn standard_drag(re: f64) -> f64 {
     if re < 1e-12 {
         0.0
     } else if re < 1000.0 {
-        24.0 / re * (1.0 + re.powf(2.0 / 3.0) / 6.0)
+        let root = crate::numerics::cbrt(re);
+        24.0 / re * (1.0 + root * root / 6.0)
     } else {
         0.424
     }
@@ -231,9 +296,13 @@ pub struct Film {
     pub liquid_density: f64,
     /// Ratio of non-equilibrium to equilibrium total surface vapour mole fraction in the last evaluation.
     pub non_equilibrium_factor: f64,
-    /// Heat-transfer Spalding number of the last evaluation below the bubble point (start of the next B_T
-    /// iteration; NaN before the first).
-    last_spalding_heat: f64,
+    /// ln(1 + B_T) of the last evaluation below the bubble point with Re > 0 (start of the next iteration;
+    /// NaN before the first).
+    last_heat_log: f64,
+    /// Vapour pressures filled by the caller for `vapor_pressure_temperature` (see [`Film::vapor_pressures_for`]).
+    vapor_pressures: Vec<f64>,
+    /// Temperature of `vapor_pressures`; taken by the next surface equilibrium.
+    vapor_pressure_temperature: Option<f64>,
 }
 
 impl Film {
@@ -258,9 +327,36 @@ impl Film {
             surface_mole_eq: vec![0.0; n],
             liquid_density: 700.0,
             non_equilibrium_factor: 1.0,
-            last_spalding_heat: f64::NAN,
+            last_heat_log: f64::NAN,
+            vapor_pressures: vec![0.0; n],
+            vapor_pressure_temperature: None,
             setup,
         }
+    }
+
+    /// Slots for the component vapour pressures at `t` \[Pa\], which the caller fills (with the values of
+    /// `Component::vapor_pressure`) when it has them: the next surface equilibrium, if it is at exactly `t`,
+    /// uses them instead of evaluating them again. Any other call forgets them.
+    pub fn vapor_pressures_for(&mut self, t: f64) -> &mut [f64] {
+        self.vapor_pressure_temperature = Some(t);
+        &mut self.vapor_pressures
+    }
+
+    /// Liquid properties of composition `w` (mass fractions) at `t`: writes the component latent heats
+    /// \[J/kg\] to `latent`, keeps the vapour pressures for the next surface equilibrium at `t` (see
+    /// [`Film::vapor_pressures_for`]) and returns the mixture density \[kg/m³\] (volume-additive) and heat capacity
+    /// \[J/(kg·K)\] (mass-weighted), the values of `props::liquid::density` and `heat_capacity` bit for bit.
+    pub fn liquid_state(&mut self, w: &[f64], t: f64, latent: &mut [f64]) -> (f64, f64) {
+        let (mut inv_rho, mut cp) = (0.0, 0.0);
+        for (i, c) in self.setup.components.iter().enumerate() {
+            let point = c.liquid_point(t);
+            latent[i] = point.latent_heat;
+            self.vapor_pressures[i] = point.vapor_pressure;
+            inv_rho += w[i] / point.density;
+            cp += w[i] * point.heat_capacity;
+        }
+        self.vapor_pressure_temperature = Some(t);
+        (1.0 / inv_rho, cp)
     }
 
     /// Bubble point of liquid mole fractions `x` at the film pressure, with the film's activity model \[K\].
@@ -280,9 +376,11 @@ impl Film {
         let p = self.setup.pressure;
         let mut sum_x = 0.0;
         let mut sum_xw = 0.0;
+        let filled = self.vapor_pressure_temperature.take() == Some(t);
         let gamma = self.setup.activity.gammas(x, t);
         for i in 0..x.len() {
-            let xs = x[i] * gamma[i] * self.setup.components[i].vapor_pressure(t) / p;
+            let p_sat = if filled { self.vapor_pressures[i] } else { self.setup.components[i].vapor_pressure(t) };
+            let xs = x[i] * gamma[i] * p_sat / p;
             self.surface_mole[i] = xs;
             sum_x += xs;
             sum_xw += xs * self.molar_mass[i];
@@ -486,8 +584,7 @@ impl Film {
         };
         let pr = cp_g * mu_g / k_g;
         let sc = mu_g / (rho_g * d_eff);
-        let nu0 = s.correlation.nusselt0(re, pr);
-        let sh0 = s.correlation.nusselt0(re, sc);
+        let (nu0, sh0) = s.correlation.nusselt0_pair(re, pr, sc);
         let r = 0.5 * d;
         let cp_f = cp_surface;
         let dt = t_inf - t_s;
@@ -555,7 +652,8 @@ impl Film {
         // Mass transfer: B_M and species rates mdot_i = G ln(1+B)/B [(1+B) Y_s,i − Y_∞,i].
         let y_fs_c = y_fs.min(1.0 - 1e-12);
         let b_m = (y_fs_c - y_finf) / (1.0 - y_fs_c);
-        let sh_star = 2.0 + (sh0 - 2.0) / film_correction(b_m);
+        let ln_1p_bm = b_m.ln_1p();
+        let sh_star = 2.0 + (sh0 - 2.0) / film_correction_with(b_m, ln_1p_bm);
         let species = s.vapour_diffusion == VapourDiffusion::Species && {
             let film = species::SpeciesFilm { fuller: &self.fuller, surface: &self.surface_mass, ambient: &s.ambient_vapor, correlation: s.correlation };
             species::species_rates(&film, &mut self.species_conductance, &mut self.species_rate, re, mu_g, rho_g, r, t175 / p, b_m, 1.0 - y_fs_c)
@@ -569,7 +667,7 @@ impl Film {
             }
         } else {
             let g = 2.0 * std::f64::consts::PI * rho_g * d_eff * r * sh_star;
-            let ratio = log1p_over(b_m);
+            let ratio = if b_m.abs() < 1e-6 { log1p_over(b_m) } else { ln_1p_bm / b_m };
             for i in 0..n {
                 let rate = g * ratio * ((1.0 + b_m) * self.surface_mass[i] - s.ambient_vapor[i]);
                 self.species_rate[i] = rate;
@@ -577,47 +675,22 @@ impl Film {
                 q_latent += rate * latent[i];
             }
         }
-        // Heat transfer: B_T = (1+B_M)^φ − 1, φ = (cp_F/cp_g)(Sh*/Nu*)/Le, Nu* via F(B_T): fixed point.
+        // Heat transfer: B_T = (1+B_M)^φ − 1, φ = (cp_F/cp_g)(Sh*/Nu*)/Le, Nu* = 2 + (Nu0 − 2)/F(B_T). Written for
+        // λ = ln(1 + B_T): λ = A/Nu*(λ) with A = φ_base ln(1 + B_M), φ_base = (cp_F/cp_g) Sh*/Le; with
+        // per-component diffusivities the same relation is written with the rate itself, A = ṁ c_pF/(2π k_g r_s)
+        // (with one diffusivity this is φ_base ln(1 + B_M)).
         let lewis = k_g / (rho_g * cp_g * d_eff);
-        let ln_1p_bm = b_m.ln_1p();
-        let phi_base = (cp_f / cp_g) * sh_star / lewis;
-        // h(B) = (1+B_M)^φ(B) − 1; at Re = 0 (Nu0 = 2) φ does not depend on B and one evaluation is exact.
-        // with per-component diffusivities the same relation is written with the rate itself:
-        // ln(1 + B_T) = ṁ c_pF/(2π k_g r_s Nu*) (with one diffusivity this is φ ln(1 + B_M))
-        let heat_number = mdot * cp_f / (2.0 * std::f64::consts::PI * k_g * r);
-        let h = |b: f64| -> f64 {
-            if species {
-                (heat_number / (2.0 + (nu0 - 2.0) / film_correction(b))).exp_m1()
-            } else {
-                (phi_base / (2.0 + (nu0 - 2.0) / film_correction(b)) * ln_1p_bm).exp_m1()
-            }
+        let a_heat = if species { mdot * cp_f / (2.0 * std::f64::consts::PI * k_g * r) } else { (cp_f / cp_g) * sh_star / lewis * ln_1p_bm };
+        let (lam, nu_star, em1) = if nu0 == 2.0 {
+            // Re = 0: Nu* = 2 whatever F, one evaluation is exact
+            let lam = 0.5 * a_heat;
+            (lam, 2.0, (-lam).exp_m1())
+        } else {
+            solve_heat_log(&mut self.last_heat_log, a_heat, nu0 - 2.0)
         };
-        // start from the previous call's B_T (successive calls are close in state), else from B_M
-        let start = if self.last_spalding_heat.is_finite() && self.last_spalding_heat > -0.5 && nu0 != 2.0 { self.last_spalding_heat } else { b_m };
-        let mut b_t = h(start);
-        if nu0 != 2.0 {
-            // secant iteration on r(B) = h(B) − B from (B_0, h(B_0)); fixed-point fallback keeps it safe
-            let (mut b0, mut r0) = (start, b_t - start);
-            let mut b1 = b_t;
-            for _ in 0..50 {
-                let r1 = h(b1) - b1;
-                if r1.abs() <= 1e-13 * (1.0 + b1.abs()) {
-                    break;
-                }
-                let denom = r1 - r0;
-                let mut next = if denom != 0.0 { b1 - r1 * (b1 - b0) / denom } else { b1 + r1 };
-                if !next.is_finite() || next <= -0.999 {
-                    next = b1 + r1;
-                }
-                b0 = b1;
-                r0 = r1;
-                b1 = next;
-            }
-            b_t = b1;
-            self.last_spalding_heat = b_t;
-        }
-        let nu_star = 2.0 + (nu0 - 2.0) / film_correction(b_t);
-        let q_gas = 2.0 * std::f64::consts::PI * k_g * r * nu_star * dt * log1p_over(b_t);
+        // B_T = e^λ − 1 = −(e^(−λ) − 1)/e^(−λ)
+        let b_t = (-em1 / (1.0 + em1)).min(1e300);
+        let q_gas = 2.0 * std::f64::consts::PI * k_g * r * nu_star * dt * if b_t.abs() < 1e-6 { log1p_over(b_t) } else { lam / b_t };
         FilmResult {
             evaporation_rate: mdot,
             heat_to_liquid: q_gas - q_latent,

@@ -123,13 +123,9 @@ impl WellMixed {
         let m = self.unpack(y);
         let t_state = y[n];
         let t_s = if self.regime == Regime::Boiling { Self::bubble_point(&mut self.film, &self.x) } else { t_state };
-        let comps = &self.film.setup.components;
-        for i in 0..n {
-            self.latent[i] = comps[i].latent_heat(t_s);
-        }
-        let rho_l = liquid::density(comps, &self.w, t_s);
-        let cp_l = liquid::heat_capacity(comps, &self.w, t_s);
-        let d = (6.0 * m.max(1e-300) / (std::f64::consts::PI * rho_l)).cbrt();
+        // the four liquid properties of each component from one look-up; the film keeps the vapour pressures
+        let (rho_l, cp_l) = self.film.liquid_state(&self.w, t_s, &mut self.latent);
+        let d = crate::numerics::cbrt(6.0 * m.max(1e-300) / (std::f64::consts::PI * rho_l));
         let speed = y[n + 1];
         let boiling = if self.regime == Regime::Boiling { Some(self.boiling_latent(t_s, cp_l)) } else { None };
         self.film.liquid_density = rho_l;

@@ -151,7 +151,8 @@ fn find_segment(segments: &[Segment], cell_first: &[u32], t: f64) -> Option<usiz
     if !(t >= lo && t < hi) {
         return None;
     }
-    let cell = ((t - lo) * (1.0 / SEGMENT_WIDTH)) as usize;
+    // inside the range the quotient lies in [0, 84): the i32 conversion is exact and cheaper than to usize
+    let cell = ((t - lo) * (1.0 / SEGMENT_WIDTH)) as i32 as usize;
     let mut i = *cell_first.get(cell)? as usize;
     while let Some(next) = segments.get(i + 1) {
         if next.lo > t {
@@ -199,13 +200,14 @@ impl PropertyKernels {
         Some(if property == VAPOR_PRESSURE { v.exp() } else { v })
     }
 
-    /// Unscaled values of three properties at `t` from one segment look-up; None unless all three are served.
+    /// Unscaled values of `N` properties at `t` from one segment look-up; None unless all of them are served
+    /// (each value has the bits [`PropertyKernels::eval`] gives it).
     #[inline]
-    pub fn eval3(&self, c: &Component, properties: [usize; 3], t: f64) -> Option<[f64; 3]> {
+    pub fn eval_many<const N: usize>(&self, c: &Component, properties: [usize; N], t: f64) -> Option<[f64; N]> {
         let s = self.segment_of(t)?;
         let seg = &self.segments[s];
         let u = (t - seg.mid) * seg.inv_half;
-        let mut out = [0.0; 3];
+        let mut out = [0.0; N];
         for (o, &property) in out.iter_mut().zip(&properties) {
             let poly = self.polys.get(s * PROPERTIES + property)?.get_or_init(|| fit(c, property, seg));
             if !poly.ok {
@@ -343,20 +345,19 @@ fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
 /// ([`AmbientGas::transport`]), built like the component kernels.
 #[derive(Debug)]
 pub struct GasKernel {
-    /// Mole fractions and species molar masses the kernel was built for (a changed gas builds its own).
-    fingerprint: Vec<u64>,
+    /// The species (with their correlations) and mole fractions (bits) the kernel was built for: a changed
+    /// gas builds its own.
+    built_for: (Vec<crate::data::GasSpecies>, Vec<u64>),
     segments: Box<[Segment]>,
     cell_first: Box<[u32]>,
     /// `polys[segment * 3 + output]`.
     polys: Box<[OnceLock<Poly>]>,
 }
 
-/// Everything the transport properties of `gas` depend on: mole fractions and the species with their correlations.
-fn gas_fingerprint(gas: &AmbientGas) -> Vec<u64> {
-    use std::hash::{Hash, Hasher};
-    let mut h = std::collections::hash_map::DefaultHasher::new();
-    format!("{:?}", gas.species).hash(&mut h);
-    gas.mole_fractions.iter().map(|v| v.to_bits()).chain([h.finish()]).collect()
+/// Whether the transport properties of `gas` are those `kernel` was built for: same species with the same
+/// correlations, same mole fractions (compared field by field; no formatting, no allocation).
+fn built_for(kernel: &GasKernel, gas: &AmbientGas) -> bool {
+    kernel.built_for.0 == gas.species && kernel.built_for.1.len() == gas.mole_fractions.len() && kernel.built_for.1.iter().zip(&gas.mole_fractions).all(|(a, b)| *a == b.to_bits())
 }
 
 impl GasKernel {
@@ -377,7 +378,7 @@ impl GasKernel {
         k.dedup_by(|a, b| (*a - *b).abs() < 1e-6);
         let (segments, cell_first) = segments_between(k);
         let polys = (0..segments.len() * 3).map(|_| OnceLock::new()).collect();
-        GasKernel { fingerprint: gas_fingerprint(gas), segments, cell_first, polys }
+        GasKernel { built_for: (gas.species.clone(), gas.mole_fractions.iter().map(|v| v.to_bits()).collect()), segments, cell_first, polys }
     }
 
     /// (cp, μ, k) of `gas` at `t` from the kernel; None where the direct evaluation applies.
@@ -414,7 +415,7 @@ pub fn run_gas(gas: &AmbientGas, mode: PropertyEvaluation) -> AmbientGas {
         PropertyEvaluation::Direct => None,
         PropertyEvaluation::Kernels => {
             let shared = gas.kernel_slot.get_or_init(|| Arc::new(GasKernel::new(gas))).clone();
-            Some(if shared.fingerprint == gas_fingerprint(gas) { shared } else { Arc::new(GasKernel::new(gas)) })
+            Some(if built_for(&shared, gas) { shared } else { Arc::new(GasKernel::new(gas)) })
         }
     };
     g

@@ -224,6 +224,19 @@ const IDEAL_GAS_HEAT_CAPACITY: usize = 7;
 const VAPOR_VISCOSITY: usize = 8;
 const VAPOR_CONDUCTIVITY: usize = 9;
 
+/// The liquid properties a droplet right-hand side needs of one component at one temperature (SI units).
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct LiquidPoint {
+    /// Vapour pressure \[Pa\].
+    pub vapor_pressure: f64,
+    /// Saturated liquid density \[kg/m³\].
+    pub density: f64,
+    /// Latent heat of vaporization \[J/kg\].
+    pub latent_heat: f64,
+    /// Liquid heat capacity \[J/(kg·K)\].
+    pub heat_capacity: f64,
+}
+
 impl Component {
     #[inline]
     fn published(c: &Correlation, t: f64) -> Option<f64> {
@@ -422,13 +435,31 @@ impl Component {
     pub fn vapor_properties(&self, t: f64) -> (f64, f64, f64) {
         let s = &self.property_scales;
         if let Some(k) = super::kernels::active(self) {
-            if let Some([cp, mu, kv]) = k.eval3(self, [IDEAL_GAS_HEAT_CAPACITY, VAPOR_VISCOSITY, VAPOR_CONDUCTIVITY], t) {
+            if let Some([cp, mu, kv]) = k.eval_many(self, [IDEAL_GAS_HEAT_CAPACITY, VAPOR_VISCOSITY, VAPOR_CONDUCTIVITY], t) {
                 return (cp * s[IDEAL_GAS_HEAT_CAPACITY], mu * s[VAPOR_VISCOSITY], kv * s[VAPOR_CONDUCTIVITY]);
             }
         }
         let (cp, mu) = (self.unscaled_ideal_gas_heat_capacity(t), self.unscaled_vapor_viscosity(t));
         let kv = self.direct_vapor_conductivity_with(t, Some((mu, cp)));
         (cp * s[IDEAL_GAS_HEAT_CAPACITY], mu * s[VAPOR_VISCOSITY], kv * s[VAPOR_CONDUCTIVITY])
+    }
+
+    /// Vapour pressure, liquid density, latent heat and liquid heat capacity at `t` (the values, bit for bit,
+    /// of the four single-property methods), from one kernel look-up when this copy has kernels.
+    #[inline]
+    pub fn liquid_point(&self, t: f64) -> LiquidPoint {
+        let s = &self.property_scales;
+        if let Some(k) = super::kernels::active(self) {
+            if let Some([p, rho, l, cp]) = k.eval_many(self, [VAPOR_PRESSURE, LIQUID_DENSITY, LATENT_HEAT, LIQUID_HEAT_CAPACITY], t) {
+                return LiquidPoint {
+                    vapor_pressure: p * s[VAPOR_PRESSURE],
+                    density: rho * s[LIQUID_DENSITY],
+                    latent_heat: l * s[LATENT_HEAT],
+                    heat_capacity: cp * s[LIQUID_HEAT_CAPACITY],
+                };
+            }
+        }
+        LiquidPoint { vapor_pressure: self.vapor_pressure(t), density: self.liquid_density(t), latent_heat: self.latent_heat(t), heat_capacity: self.liquid_heat_capacity(t) }
     }
 
     /// Low-pressure vapour viscosity at `t` \[Pa·s\].

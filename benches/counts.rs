@@ -19,6 +19,10 @@ fn main() {
     let case = args.first().map(String::as_str).unwrap_or("wm10");
     let repeats: usize = args.get(1).and_then(|s| s.parse().ok()).unwrap_or(1);
     let lib = Library::embedded().unwrap();
+    if case == "sweep10" {
+        sweep10(&lib, repeats);
+        return;
+    }
     let inp = match case {
         "wm1" => inputs_of(fuel(&lib, 1), &lib),
         "wm10" => inputs_of(fuel(&lib, 10), &lib),
@@ -70,4 +74,30 @@ fn trace(inp: &DropletInputs) {
         println!("t {:.6e} h {:.3e} rej {r} rem {:.6e} T {:.3}", dp.t, dp.h_last, dp.y[..n].iter().sum::<f64>() / m0, dp.y[n]);
     }
     println!("{:?}", dp.stats);
+}
+
+/// The sweep benchmark's 64 cases (benches/sweep.rs) on one thread, `repeats` times into fresh folders; the
+/// per-case cost is the difference of two repeat counts over 64 times their difference.
+fn sweep10(lib: &Library, repeats: usize) {
+    use dropcut::sweep::{self, runner::NoProgress, RunOptions, SweepSpec};
+    const SPEC: &str = r#"
+fuels = ["ten-component.toml"]
+[conditions]
+ambient-temperature = { from = "600K", to = "1000K", steps = 8 }
+pressure = ["1bar", "10bar"]
+diameter = ["20um", "50um"]
+velocity = [0, 10]
+max-time = "2s"
+"#;
+    let data = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/data");
+    let spec = SweepSpec::parse(SPEC, "bench-spec.toml", &data, lib).expect("bench spec");
+    let root = std::env::temp_dir().join(format!("dropcut-counts-sweep-{}", std::process::id()));
+    for k in 0..repeats {
+        let dir = root.join(k.to_string());
+        let opts = RunOptions { threads: 1, ..RunOptions::default() };
+        let report = sweep::run(&spec, &dir, &opts, &mut NoProgress).expect("sweep");
+        assert_eq!(report.failed, 0);
+    }
+    let _ = std::fs::remove_dir_all(&root);
+    println!("sweep10: {repeats} sweeps of {} cases", spec.case_count());
 }

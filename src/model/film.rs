@@ -6,7 +6,7 @@ use std::sync::Arc;
 use crate::data::{Component, GAS_CONSTANT};
 use crate::numerics::root::{brent_from, Tolerance};
 use crate::props::activity::Activity;
-use crate::props::gas::{wilke_phi, AmbientGas};
+use crate::props::gas::{wilke_phi_pair, AmbientGas};
 
 mod species;
 
@@ -566,8 +566,7 @@ impl Film {
         let inv_w = y_fref / w_fuel + (1.0 - y_fref) / w_amb;
         let x_f = (y_fref / w_fuel) / inv_w;
         let x_a = 1.0 - x_f;
-        let phi_fa = wilke_phi(mu_fuel, mu_amb, w_fuel, w_amb);
-        let phi_af = wilke_phi(mu_amb, mu_fuel, w_amb, w_fuel);
+        let (phi_fa, phi_af) = wilke_phi_pair(mu_fuel, mu_amb, w_fuel, w_amb);
         let den_f = x_f + x_a * phi_fa;
         let den_a = x_a + x_f * phi_af;
         let mu_g = if x_f > 0.0 { x_f * mu_fuel / den_f } else { 0.0 } + if x_a > 0.0 { x_a * mu_amb / den_a } else { 0.0 };

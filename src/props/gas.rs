@@ -34,8 +34,18 @@ pub struct AmbientGas {
 /// Wilke's interaction factor φ_ij (Wilke 1950).
 #[inline]
 pub fn wilke_phi(mu_i: f64, mu_j: f64, w_i: f64, w_j: f64) -> f64 {
-    let a = 1.0 + (mu_i / mu_j).sqrt() * (w_j / w_i).powf(0.25);
+    let a = 1.0 + (mu_i / mu_j).sqrt() * (w_j / w_i).sqrt().sqrt();
     a * a / (8.0 * (1.0 + w_i / w_j)).sqrt()
+}
+
+/// Wilke's φ_ij and φ_ji of one pair (Wilke 1950), sharing the square roots.
+#[inline]
+pub fn wilke_phi_pair(mu_i: f64, mu_j: f64, w_i: f64, w_j: f64) -> (f64, f64) {
+    let viscosity_root = (mu_i / mu_j).sqrt();
+    let weight_root = (w_j / w_i).sqrt().sqrt();
+    let a = 1.0 + viscosity_root * weight_root;
+    let b = 1.0 + 1.0 / (viscosity_root * weight_root);
+    (a * a / (8.0 * (1.0 + w_i / w_j)).sqrt(), b * b / (8.0 * (1.0 + w_j / w_i)).sqrt())
 }
 
 /// Wilke mixture viscosity (or Wassiljewa–Mason–Saxena conductivity, with `values` = conductivities and

@@ -494,6 +494,7 @@ pub(crate) fn simulate_well_mixed(inp: &DropletInputs, observer: &mut dyn Observ
     let mut stagnation = super::guard::StagnationGuard::default();
     let wants_rows = observer.wants_rows();
     let mut buf = vec![0.0; 2 * n + 2];
+    let mut y_end = vec![0.0; 2 * n + 2];
     let mut y_sample = if history.sampling() { vec![0.0; 2 * n + 2] } else { vec![] };
 
     let first = sys.row(inp.initial_diameter, m0, 0.0, &y0, &mut dydt, true);
@@ -524,7 +525,7 @@ pub(crate) fn simulate_well_mixed(inp: &DropletInputs, observer: &mut dyn Observ
             }
         }
         let _ = t_prev;
-        let mut y_end = stepper.y.clone();
+        y_end.copy_from_slice(&stepper.y);
         let mut t_now = stepper.t;
         let end = end_of_life(&stepper, n, m0, inp.end_mass_fraction, &mut buf, &mut y_end);
         let finished = end.is_some();

@@ -3,7 +3,9 @@
 //!
 //! Each kernel covers [`KERNEL_RANGE`] with segments at most [`SEGMENT_WIDTH`] wide whose ends include every
 //! temperature where a property's definition changes (validity limits of the correlations, extension take-over
-//! points, reduced-temperature caps). On first use of a (segment, property) pair the direct evaluation is
+//! points, reduced-temperature caps). On first use of a segment by a group of properties evaluated together (the
+//! four liquid properties a droplet needs at its surface temperature, the three vapour properties of its gas
+//! film, each other property alone) the direct evaluation of each is
 //! interpolated at [`COEFFICIENTS`] Chebyshev nodes (the vapour pressure as ln p) and the interpolant is checked
 //! against the direct evaluation at the [`COEFFICIENTS`] + 1 Chebyshev extrema of the segment; a segment whose
 //! worst relative deviation there exceeds [`ACCEPTED_DEVIATION`] (a kink not on a segment end, a value that
@@ -59,14 +61,37 @@ struct Poly {
     ok: bool,
 }
 
+/// Interpolants of properties that are evaluated together, built together on first use in a segment;
+/// coefficients stored power-major (`c[k][j]`: power k of property j), so that the Horner loops of the group
+/// run side by side.
+#[derive(Debug, Clone, Copy)]
+struct PolyGroup<const N: usize> {
+    c: [[f64; N]; COEFFICIENTS],
+    /// Whether each interpolant passed its check (else the direct evaluation applies to it).
+    ok: [bool; N],
+}
+
+/// Properties (in [`Component::correlations`] order) a droplet evaluates at the surface temperature: vapour
+/// pressure, liquid density, latent heat, liquid heat capacity.
+const LIQUID_GROUP: [usize; 4] = [0, 1, 2, 3];
+/// Properties a droplet's gas film evaluates at its reference temperature: ideal-gas heat capacity, vapour
+/// viscosity, vapour conductivity.
+const VAPOUR_GROUP: [usize; 3] = [7, 8, 9];
+/// The other properties, each on its own: liquid viscosity, liquid conductivity, surface tension.
+const SINGLES: [usize; 3] = [4, 5, 6];
+
 /// The kernels of one component: segments and their lazily built interpolants (unscaled properties).
 #[derive(Debug)]
 pub struct PropertyKernels {
     segments: Box<[Segment]>,
     /// For each SEGMENT_WIDTH cell of KERNEL_RANGE, the segment containing the cell's lower end.
     cell_first: Box<[u32]>,
-    /// Interpolants, segment-major: `polys[segment * PROPERTIES + property]`.
-    polys: Box<[OnceLock<Poly>]>,
+    /// Interpolants of [`LIQUID_GROUP`], one group per segment.
+    liquid: Box<[OnceLock<PolyGroup<4>>]>,
+    /// Interpolants of [`VAPOUR_GROUP`], one group per segment.
+    vapour: Box<[OnceLock<PolyGroup<3>>]>,
+    /// Interpolants of [`SINGLES`]: `single[segment * 3 + slot]`.
+    single: Box<[OnceLock<PolyGroup<1>>]>,
 }
 
 /// Temperatures \[K\] where some property of `c` changes its definition (see [`crate::props::pure`]).
@@ -107,8 +132,14 @@ impl PropertyKernels {
     /// Segments for component `c` (no property is evaluated until first use).
     pub fn new(c: &Component) -> Self {
         let (segments, cell_first) = segments_between(kinks(c));
-        let polys = (0..segments.len() * PROPERTIES).map(|_| OnceLock::new()).collect();
-        PropertyKernels { segments, cell_first, polys }
+        let n = segments.len();
+        PropertyKernels {
+            liquid: (0..n).map(|_| OnceLock::new()).collect(),
+            vapour: (0..n).map(|_| OnceLock::new()).collect(),
+            single: (0..n * SINGLES.len()).map(|_| OnceLock::new()).collect(),
+            segments,
+            cell_first,
+        }
     }
 }
 
@@ -173,6 +204,42 @@ fn horner(poly: &Poly, u: f64) -> f64 {
     v
 }
 
+/// Horner evaluation of interpolant `j` of a group's coefficients at u (the bits of [`horner_group`]'s value j).
+#[inline(always)]
+fn horner_column<const N: usize>(c: &[[f64; N]; COEFFICIENTS], j: usize, u: f64) -> f64 {
+    let mut v = c[COEFFICIENTS - 1][j];
+    for k in (0..COEFFICIENTS - 1).rev() {
+        v = v * u + c[k][j];
+    }
+    v
+}
+
+/// Horner evaluation of the interpolants of a group at u, side by side (each value has the bits of
+/// [`horner`] on its own coefficients: the same operations in the same order).
+#[inline(always)]
+fn horner_group<const N: usize>(group: &PolyGroup<N>, u: f64) -> [f64; N] {
+    let mut v = group.c[COEFFICIENTS - 1];
+    for k in (0..COEFFICIENTS - 1).rev() {
+        for (vj, cj) in v.iter_mut().zip(&group.c[k]) {
+            *vj = *vj * u + cj;
+        }
+    }
+    v
+}
+
+/// The interpolants of `properties` of `c` on `seg`, fitted one by one ([`fit`]) and stored as a group.
+fn fit_group<const N: usize>(c: &Component, properties: [usize; N], seg: &Segment) -> PolyGroup<N> {
+    let mut group = PolyGroup { c: [[0.0; N]; COEFFICIENTS], ok: [false; N] };
+    for (j, &property) in properties.iter().enumerate() {
+        let poly = fit(c, property, seg);
+        group.ok[j] = poly.ok;
+        for k in 0..COEFFICIENTS {
+            group.c[k][j] = poly.c[k];
+        }
+    }
+    group
+}
+
 impl PropertyKernels {
 
     /// Number of segments.
@@ -192,31 +259,55 @@ impl PropertyKernels {
     pub fn eval(&self, c: &Component, property: usize, t: f64) -> Option<f64> {
         let s = self.segment_of(t)?;
         let seg = &self.segments[s];
-        let poly = self.polys.get(s * PROPERTIES + property)?.get_or_init(|| fit(c, property, seg));
-        if !poly.ok {
+        let u = (t - seg.mid) * seg.inv_half;
+        let (value, ok) = match property {
+            0..=3 => {
+                let g = self.liquid[s].get_or_init(|| fit_group(c, LIQUID_GROUP, seg));
+                (horner_column(&g.c, property, u), g.ok[property])
+            }
+            7..=9 => {
+                let g = self.vapour[s].get_or_init(|| fit_group(c, VAPOUR_GROUP, seg));
+                (horner_column(&g.c, property - 7, u), g.ok[property - 7])
+            }
+            4..=6 => {
+                let g = self.single.get(s * SINGLES.len() + property - 4)?.get_or_init(|| fit_group(c, [property], seg));
+                (horner_column(&g.c, 0, u), g.ok[0])
+            }
+            _ => return None,
+        };
+        if !ok {
             return None;
         }
-        let v = horner(poly, (t - seg.mid) * seg.inv_half);
-        Some(if property == VAPOR_PRESSURE { v.exp() } else { v })
+        Some(if property == VAPOR_PRESSURE { value.exp() } else { value })
     }
 
-    /// Unscaled values of `N` properties at `t` from one segment look-up; None unless all of them are served
-    /// (each value has the bits [`PropertyKernels::eval`] gives it).
+    /// Unscaled vapour pressure, liquid density, latent heat and liquid heat capacity of `c` at `t` from one
+    /// segment look-up; None unless all four are served (each value has the bits [`PropertyKernels::eval`]
+    /// gives it).
     #[inline]
-    pub fn eval_many<const N: usize>(&self, c: &Component, properties: [usize; N], t: f64) -> Option<[f64; N]> {
+    pub fn liquid_group(&self, c: &Component, t: f64) -> Option<[f64; 4]> {
         let s = self.segment_of(t)?;
         let seg = &self.segments[s];
-        let u = (t - seg.mid) * seg.inv_half;
-        let mut out = [0.0; N];
-        for (o, &property) in out.iter_mut().zip(&properties) {
-            let poly = self.polys.get(s * PROPERTIES + property)?.get_or_init(|| fit(c, property, seg));
-            if !poly.ok {
-                return None;
-            }
-            let v = horner(poly, u);
-            *o = if property == VAPOR_PRESSURE { v.exp() } else { v };
+        let g = self.liquid[s].get_or_init(|| fit_group(c, LIQUID_GROUP, seg));
+        if !(g.ok[0] && g.ok[1] && g.ok[2] && g.ok[3]) {
+            return None;
         }
-        Some(out)
+        let mut v = horner_group(g, (t - seg.mid) * seg.inv_half);
+        v[0] = v[0].exp();
+        Some(v)
+    }
+
+    /// Unscaled ideal-gas heat capacity, vapour viscosity and vapour conductivity of `c` at `t` from one
+    /// segment look-up; None unless all three are served (bits as [`PropertyKernels::eval`]).
+    #[inline]
+    pub fn vapour_group(&self, c: &Component, t: f64) -> Option<[f64; 3]> {
+        let s = self.segment_of(t)?;
+        let seg = &self.segments[s];
+        let g = self.vapour[s].get_or_init(|| fit_group(c, VAPOUR_GROUP, seg));
+        if !(g.ok[0] && g.ok[1] && g.ok[2]) {
+            return None;
+        }
+        Some(horner_group(g, (t - seg.mid) * seg.inv_half))
     }
 
     /// Largest relative deviation from the direct evaluation of property `property` over the kernel segments

@@ -435,7 +435,7 @@ impl Component {
     pub fn vapor_properties(&self, t: f64) -> (f64, f64, f64) {
         let s = &self.property_scales;
         if let Some(k) = super::kernels::active(self) {
-            if let Some([cp, mu, kv]) = k.eval_many(self, [IDEAL_GAS_HEAT_CAPACITY, VAPOR_VISCOSITY, VAPOR_CONDUCTIVITY], t) {
+            if let Some([cp, mu, kv]) = k.vapour_group(self, t) {
                 return (cp * s[IDEAL_GAS_HEAT_CAPACITY], mu * s[VAPOR_VISCOSITY], kv * s[VAPOR_CONDUCTIVITY]);
             }
         }
@@ -450,7 +450,7 @@ impl Component {
     pub fn liquid_point(&self, t: f64) -> LiquidPoint {
         let s = &self.property_scales;
         if let Some(k) = super::kernels::active(self) {
-            if let Some([p, rho, l, cp]) = k.eval_many(self, [VAPOR_PRESSURE, LIQUID_DENSITY, LATENT_HEAT, LIQUID_HEAT_CAPACITY], t) {
+            if let Some([p, rho, l, cp]) = k.liquid_group(self, t) {
                 return LiquidPoint {
                     vapor_pressure: p * s[VAPOR_PRESSURE],
                     density: rho * s[LIQUID_DENSITY],

@@ -279,7 +279,10 @@ pub struct Film {
     /// Fixed inputs.
     pub setup: FilmSetup,
     molar_mass: Vec<f64>,
-    sqrt_molar_mass: Vec<f64>,
+    /// 1/W_i \[mol/kg\].
+    inv_molar_mass: Vec<f64>,
+    /// 1/sqrt(W_i).
+    inv_sqrt_molar_mass: Vec<f64>,
     fuller: Vec<f64>,
     /// Surface vapour mole fractions (Raoult) \[-\].
     pub surface_mole: Vec<f64>,
@@ -315,7 +318,8 @@ impl Film {
         let inv_w: f64 = setup.ambient_vapor.iter().zip(&molar_mass).map(|(y, w)| y / w).sum::<f64>() + (1.0 - y_inf) / setup.gas.molar_mass;
         let ambient_density = setup.pressure / (inv_w * GAS_CONSTANT * setup.ambient_temperature);
         Film {
-            sqrt_molar_mass: molar_mass.iter().map(|w| w.sqrt()).collect(),
+            inv_molar_mass: molar_mass.iter().map(|w| 1.0 / w).collect(),
+            inv_sqrt_molar_mass: molar_mass.iter().map(|w| 1.0 / w.sqrt()).collect(),
             molar_mass,
             fuller,
             surface_mole: vec![0.0; n],
@@ -532,29 +536,34 @@ impl Film {
         let mut mu_num = 0.0;
         let mut k_num = 0.0;
         let mut hz_den = 0.0;
-        let mut d_eff = 0.0;
         let mut cp_surface = 0.0;
         let weight_total = if y_fs > 1e-300 { y_fs } else { 0.0 };
         let sqrt_t = t_ref.sqrt();
         let t175 = t_ref * sqrt_t * sqrt_t.sqrt(); // T^1.75 from two square roots
+        // slices of length n: the indexing below needs no bounds checks
+        let (comps, surface_mass, ambient_vapor, x_n) = (&s.components[..n], &self.surface_mass[..n], &s.ambient_vapor[..n], &x[..n]);
+        let (molar_mass, inv_molar_mass, inv_sqrt_molar_mass, fuller) = (&self.molar_mass[..n], &self.inv_molar_mass[..n], &self.inv_sqrt_molar_mass[..n], &self.fuller[..n]);
+        let inv_y_fs = if weight_total > 0.0 { 1.0 / y_fs } else { 0.0 };
+        let mut fuller_sum = 0.0;
         for i in 0..n {
-            let c = &s.components[i];
-            let y_ref = self.surface_mass[i] + a_r * (s.ambient_vapor[i] - self.surface_mass[i]);
+            let y_ref = surface_mass[i] + a_r * (ambient_vapor[i] - surface_mass[i]);
             // weights: reference composition, or liquid mole fractions when no vapour at all
-            let wgt = if weight_total > 0.0 { y_ref.max(0.0) } else { x[i] * self.molar_mass[i] };
-            let (cp_i, mu_i, k_i) = c.vapor_properties(t_ref);
-            let moles = wgt / self.molar_mass[i];
+            let wgt = if weight_total > 0.0 { y_ref.max(0.0) } else { x_n[i] * molar_mass[i] };
+            let (cp_i, mu_i, k_i) = comps[i].vapor_properties(t_ref);
+            // Herning–Zipperer weights x_i sqrt(W_i) = (w_i/W_i) sqrt(W_i) = w_i/sqrt(W_i)
+            let hz = wgt * inv_sqrt_molar_mass[i];
             y_fref += y_ref.max(0.0);
             cp_fuel_ref += wgt * cp_i;
-            lump_moles += moles;
+            lump_moles += wgt * inv_molar_mass[i];
             lump_w += wgt;
-            mu_num += moles * mu_i * self.sqrt_molar_mass[i];
-            k_num += moles * k_i * self.sqrt_molar_mass[i];
-            hz_den += moles * self.sqrt_molar_mass[i];
-            let dw = if weight_total > 0.0 { self.surface_mass[i] / y_fs } else { x[i] };
-            d_eff += dw * self.fuller[i] * t175 / p;
+            mu_num += hz * mu_i;
+            k_num += hz * k_i;
+            hz_den += hz;
+            let dw = if weight_total > 0.0 { surface_mass[i] * inv_y_fs } else { x_n[i] };
+            fuller_sum += dw * fuller[i];
             cp_surface += dw * cp_i;
         }
+        let d_eff = fuller_sum * (t175 / p);
         let lump_total = lump_w.max(1e-300);
         let cp_lump = cp_fuel_ref / lump_total;
         let w_fuel = lump_w / lump_moles.max(1e-300);

@@ -246,6 +246,9 @@ impl Model {
         let StepStart { liq, radius, f0, rates0, dq, g_t, g_y, t_lin, surface_y: start_surface } = st;
         let (liq, radius, f0, dq, g_t, g_y) = (liq, *radius, *f0, *dq, *g_t, *g_y);
         let mut hold = *t_lin;
+        // heat input to the liquid linearised as Q_L(T_s) ≈ q0 + q1 (T_s − t_ref) [W, W/K, K]
+        let mut heat_lin = (f0.heat_to_liquid, dq, *t_lin);
+        let near_bubble = !s.boiling && n > 1 && ny > 1 && f0.surface_vapor_mole_fraction >= NEAR_BUBBLE;
         let mut next = s.clone();
         // Surface coupling, iterated: each species leaves at κ_i u_s,i with κ_i = ṁ_i/Y_s,i from the film at the
         // latest surface state (implicit in the surface value; prescribed rate when condensing), the advective
@@ -266,7 +269,7 @@ impl Model {
                 let stiff = 1e9 * (s.mass / dt + g_t * self.tgrid.face_factor(self.tgrid.len()) + mdot_a.abs());
                 SurfaceInput { q0: 0.0, q1: -stiff, u_ref: hold }
             } else {
-                SurfaceInput { q0: f0.heat_to_liquid / liq.cp, q1: dq / liq.cp, u_ref: *t_lin }
+                SurfaceInput { q0: heat_lin.0 / liq.cp, q1: heat_lin.1 / liq.cp, u_ref: heat_lin.2 }
             };
             next.surface_t = if self.fixed_temperature {
                 s.surface_t
@@ -315,6 +318,23 @@ impl Model {
                 sy.iter_mut().for_each(|v| *v /= sum);
                 hold = self.hold_temperature(&sy);
                 self.boiling_film_at(&sy, hold, m_new, liq.density, s.velocity, next.heat_inward);
+                film_rates.copy_from_slice(&self.rates);
+                film_surface.copy_from_slice(&sy);
+                mdot_a = film_rates.iter().sum();
+            } else if iteration == 0 && near_bubble {
+                // evaporating near the bubble point with species diffusion in a mixture: as in boiling, the second
+                // pass takes its fluxes from the surface state solved for the first pass's cells (surface.rs), and
+                // the heat input is linearised about that surface state (the total rate grows like 1/(1 − Y_F,s)
+                // there; a film refresh at the first pass's reconstruction overshoots unless the step is tiny)
+                next.mass = m_new;
+                let radius_new = 0.5 * (6.0 * m_new / (std::f64::consts::PI * liq.density)).cbrt();
+                let mut sy = next.surface_y.clone();
+                let sol = self.solve_surface(&next, liq, radius_new, &mut sy);
+                let sum: f64 = sy.iter().sum();
+                sy.iter_mut().for_each(|v| *v /= sum);
+                if self.tgrid.len() > 1 && !self.fixed_temperature {
+                    heat_lin = (sol.film.heat_to_liquid, sol.dq, sol.temperature);
+                }
                 film_rates.copy_from_slice(&self.rates);
                 film_surface.copy_from_slice(&sy);
                 mdot_a = film_rates.iter().sum();
@@ -626,18 +646,51 @@ pub(crate) enum Attempt {
     Failed(String),
 }
 
+/// The outcome of one candidate step of length `h` from `state` (start data `st`): the Richardson combination
+/// of a full step and two half steps with its surface settled, and the step-doubling error norm; Err(reason,
+/// retry factor) when a step failed or the combination is not physical.
+fn candidate(model: &mut Model, state: &State, st: &StepStart, h: f64, m0: f64) -> Result<(State, f64), String> {
+    let full = model.step(state, st, h)?;
+    let mid = model.step(state, st, 0.5 * h)?;
+    let mid_start = model.start(&mid)?;
+    let half = model.step(&mid, &mid_start, 0.5 * h)?;
+    let err = error_norm(&half, &full, m0);
+    let mut new = combine(&half, &full);
+    new.time = state.time + h;
+    if !(new.mass > 0.0) || new.temp.iter().any(|v| !v.is_finite()) {
+        return Err("non-physical Richardson combination".into());
+    }
+    model.settle_surface(&mut new);
+    Ok((new, err))
+}
+
+/// Σ X_s of the start film from which an evaporating step with species diffusion in a mixture takes its second
+/// pass's fluxes from the surface state solved for the first pass's cells (the total rate grows like
+/// 1/(1 − Y_F,s) towards the bubble point; below this the film refresh at the first pass's surface is enough).
+const NEAR_BUBBLE: f64 = 0.9;
+
+/// Length of the probe step that tells a boiling onset from a grazing contact, as a fraction of the step that
+/// reached the bubble point.
+const GRAZING_PROBE: f64 = 0.1;
+
+/// Relative tolerance on the step length at which a regime change is located (event location).
+const EVENT_TOLERANCE: f64 = 1e-4;
+
 /// One attempt of a step `dt` from `state`: a full step and two half steps, Richardson-combined when their
-/// difference is within `tol`; on rejection `dt` is reduced in place. Counts into `stats`.
+/// difference is within `tol`; on rejection `dt` is reduced in place. A step across a regime change (the event
+/// function of boiling.rs changing sign) is shortened to end just past the change, found by Brent's method on the
+/// step length (numerics::root, as the well-mixed model locates its regime changes on its dense output); `dt` then
+/// holds the shortened length. Counts into `stats`.
 pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: f64, m0: f64, stats: &mut Stats) -> Attempt {
     let start = model.start(state);
-    let (full, half) = match start {
-        Ok(st) => (model.step(state, &st, *dt), model.step(state, &st, 0.5 * *dt).and_then(|h| model.start(&h).and_then(|sh| model.step(&h, &sh, 0.5 * *dt)))),
-        Err(e) => (Err(e.clone()), Err(e)),
+    let outcome = match &start {
+        Ok(st) => candidate(model, state, st, *dt, m0),
+        Err(e) => Err(e.clone()),
     };
     stats.rhs_calls = model.film_calls;
-    let (full, half) = match (full, half) {
-        (Ok(f), Ok(h)) => (f, h),
-        (Err(e), _) | (_, Err(e)) => {
+    let (mut new, mut err) = match outcome {
+        Ok(x) => x,
+        Err(e) => {
             stats.rejected += 1;
             *dt *= 0.25;
             if *dt < 1e-14 {
@@ -646,7 +699,6 @@ pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: 
             return Attempt::Retry;
         }
     };
-    let err = error_norm(&half, &full, m0);
     if err > tol {
         stats.rejected += 1;
         if *dt < 1e-14 {
@@ -656,20 +708,40 @@ pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: 
         *dt *= (0.9 * (tol / err).sqrt()).clamp(0.1, 0.9);
         return Attempt::Retry;
     }
-    let mut new = combine(&half, &full);
-    new.time = state.time + *dt;
-    if !(new.mass > 0.0) || new.temp.iter().any(|v| !v.is_finite()) {
-        stats.rejected += 1;
-        *dt *= 0.25;
-        return Attempt::Retry;
+    if let (Some(g_b), Ok(st)) = (model.regime_event(state.boiling, &new), &start) {
+        let g_a = model.regime_event(state.boiling, state).unwrap_or(0.0);
+        if g_a > 0.0 && g_b <= 0.0 {
+            // the step crossed a regime change: shorten it to end just past the change
+            let mut past = (*dt, None);
+            let tolerance = crate::numerics::root::Tolerance::relative(EVENT_TOLERANCE).with_max_iterations(40);
+            let _ = crate::numerics::root::brent_from(
+                |h| match candidate(model, state, st, h, m0) {
+                    Ok((c, e)) => {
+                        let g = model.regime_event(state.boiling, &c).unwrap_or(f64::NAN);
+                        if g <= 0.0 && h < past.0 {
+                            past = (h, Some((c, e)));
+                        }
+                        g
+                    }
+                    Err(_) => f64::NAN,
+                },
+                (0.0, g_a),
+                (*dt, g_b),
+                tolerance,
+            );
+            if let (h, Some((c, e))) = past {
+                *dt = h;
+                new = c;
+                err = e;
+            }
+        }
     }
-    model.settle_surface(&mut new);
-    if let Some(factor) = model.overshoot(state, &new) {
-        stats.rejected += 1;
-        *dt *= factor;
-        return Attempt::Retry;
+    let grazing = !state.boiling && !model.fixed_temperature && model.onset_due(&new) && !model.boiling_holds(&new, GRAZING_PROBE * *dt);
+    let switch = if grazing { None } else { model.update_regime(&mut new) };
+    if switch.is_some() {
+        // the surface of the state at the change solved for the new regime
+        model.settle_surface(&mut new);
     }
-    let switch = model.update_regime(&mut new);
     stats.steps += 1;
     stats.rhs_calls = model.film_calls;
     Attempt::Accepted(new, err, switch)

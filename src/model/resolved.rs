@@ -82,9 +82,9 @@ pub(crate) struct Model {
     molar_volume_b: Vec<f64>,
     /// Σ over species of the cell mass fractions, per cell (scratch of a step).
     cell_sums: Vec<f64>,
-    /// Scratch of the surface-state Newton iteration (surface.rs): Jacobian (n+1)², right-hand side n+1, per
+    /// Scratch of the surface-state Newton iteration (surface.rs): structured Jacobian, right-hand side n+1, per
     /// component ∂ΣX/∂Y_j and vapour-share factors, rates and their temperature derivatives.
-    jac: Vec<f64>,
+    surface_jacobian: surface::SurfaceJacobian,
     jac_rhs: Vec<f64>,
     jac_a: Vec<f64>,
     jac_b: Vec<f64>,
@@ -575,7 +575,7 @@ impl Model {
             kappa: vec![0.0; n],
             inputs: vec![SurfaceInput { q0: 0.0, q1: 0.0, u_ref: 0.0 }; n],
             cell_sums: vec![0.0; ny],
-            jac: vec![0.0; (n + 1) * (n + 1)],
+            surface_jacobian: surface::SurfaceJacobian::new(n),
             jac_rhs: vec![0.0; n + 1],
             jac_a: vec![0.0; n],
             jac_b: vec![0.0; n],

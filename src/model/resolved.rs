@@ -93,9 +93,20 @@ pub(crate) struct Model {
     /// Surface solution of the last settled state (surface.rs), reused by the start of the step from it.
     settled: surface::Settled,
     film_calls: u64,
+    /// Liquid properties of the last liquid evaluated.
+    liquid_cache: LiquidCache,
+}
+
+/// The liquid properties of one liquid state (its inventories and cell temperatures).
+struct LiquidCache {
+    valid: bool,
+    inventory: Vec<f64>,
+    temp: Vec<f64>,
+    liquid: Liquid,
 }
 
 /// Liquid properties of the mean liquid for one step.
+#[derive(Clone, Copy, Default)]
 struct Liquid {
     density: f64,
     cp: f64,
@@ -120,6 +131,23 @@ impl Model {
 
     fn liquid(&mut self, s: &State) -> Liquid {
         self.mean_composition(s);
+        // the same liquid (inventories and temperatures) as the last evaluation: its properties again (a state is
+        // settled, then starts the next step, and gives its row)
+        let cache = &self.liquid_cache;
+        if cache.valid && cache.inventory == s.inventory && cache.temp == s.temp {
+            return cache.liquid;
+        }
+        let liquid = self.liquid_properties(s);
+        let cache = &mut self.liquid_cache;
+        cache.valid = true;
+        cache.inventory.copy_from_slice(&s.inventory);
+        cache.temp.copy_from_slice(&s.temp);
+        cache.liquid = liquid;
+        liquid
+    }
+
+    /// Liquid properties of the mean liquid of `s` (mean composition already in `w_mean`, `x_mean`).
+    fn liquid_properties(&mut self, s: &State) -> Liquid {
         let t_mean = self.tgrid.mean(&s.temp);
         let comps = &self.comps;
         let rho = liquid::density(comps, &self.w_mean, t_mean);
@@ -583,6 +611,7 @@ impl Model {
             jac_drate_dt: vec![0.0; n],
             settled: surface::Settled::new(n),
             film_calls: 0,
+            liquid_cache: LiquidCache { valid: false, inventory: vec![0.0; n], temp: vec![0.0; nt], liquid: Liquid::default() },
         };
         let mut state = State {
             time: 0.0,
@@ -708,7 +737,10 @@ pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: 
         *dt *= (0.9 * (tol / err).sqrt()).clamp(0.1, 0.9);
         return Attempt::Retry;
     }
-    if let (Some(g_b), Ok(st)) = (model.regime_event(state.boiling, &new), &start) {
+    // a regime change at the step's end (heat margin gone while boiling, Σ X_s at the threshold while evaporating;
+    // the evaporating event function needs a bubble-point search, so the cheap test comes first)
+    let crossed = !model.fixed_temperature && if state.boiling { model.hold_margin(&new) <= 0.0 } else { model.surface_sum(&new) >= BOILING_THRESHOLD };
+    if let (true, Some(g_b), Ok(st)) = (crossed, model.regime_event(state.boiling, &new), &start) {
         let g_a = model.regime_event(state.boiling, state).unwrap_or(0.0);
         if g_a > 0.0 && g_b <= 0.0 {
             // the step crossed a regime change: shorten it to end just past the change

@@ -118,11 +118,16 @@ impl Model {
     /// True when the evaporating state `s` has reached the hold temperature of its surface liquid (Σ X_s ≥
     /// BOILING_THRESHOLD) with a positive heat margin: the onset condition.
     pub(super) fn onset_due(&mut self, s: &State) -> bool {
+        self.surface_sum(s) >= BOILING_THRESHOLD && self.hold_margin(s) > 0.0
+    }
+
+    /// Σ X_s = Σ x_i γ_i p_sat,i(T_s)/p of the surface liquid of state `s`.
+    pub(super) fn surface_sum(&mut self, s: &State) -> f64 {
         liquid::mass_to_mole_into(&self.comps, &s.surface_y, &mut self.x_surf);
         let x = std::mem::take(&mut self.x_surf);
         let sum = self.film.surface_equilibrium(&x, s.surface_t);
         self.x_surf = x;
-        sum >= BOILING_THRESHOLD && self.hold_margin(s) > 0.0
+        sum
     }
 
     /// True when the boiling regime, entered at the evaporating state `s` (at its onset), still holds after a

@@ -95,6 +95,9 @@ pub(crate) struct Model {
     film_calls: u64,
     /// Liquid properties of the last liquid evaluated.
     liquid_cache: LiquidCache,
+    /// Scratch of a step: the species rates and the surface mass fractions its fluxes come from.
+    step_rates: Vec<f64>,
+    step_surface: Vec<f64>,
 }
 
 /// The liquid properties of one liquid state (its inventories and cell temperatures).
@@ -281,8 +284,13 @@ impl Model {
         // Surface coupling, iterated: each species leaves at κ_i u_s,i with κ_i = ṁ_i/Y_s,i from the film at the
         // latest surface state (implicit in the surface value; prescribed rate when condensing), the advective
         // terms use the total rate of the previous iterate; converged when the two totals agree.
-        let mut film_rates = rates0.clone();
-        let mut film_surface = start_surface.clone();
+        // (scratch vectors of the model, taken for the step and given back at its end)
+        let mut film_rates = std::mem::take(&mut self.step_rates);
+        film_rates.clear();
+        film_rates.extend_from_slice(rates0);
+        let mut film_surface = std::mem::take(&mut self.step_surface);
+        film_surface.clear();
+        film_surface.extend_from_slice(start_surface);
         let mut mdot_a: f64 = rates0.iter().sum();
         let mut m_used = s.mass;
         for iteration in 0..2 {
@@ -308,8 +316,7 @@ impl Model {
             if s.boiling {
                 next.surface_t = hold;
                 // the boiling rate with the heat this temperature solution conducts inward (consistent energy)
-                let sy = film_surface.clone();
-                self.boiling_film_at(&sy, hold, m_new, liq.density, s.velocity, next.heat_inward);
+                self.boiling_film_at(&film_surface, hold, m_new, liq.density, s.velocity, next.heat_inward);
                 film_rates.copy_from_slice(&self.rates);
             }
             for i in 0..n {
@@ -340,14 +347,13 @@ impl Model {
                 // 18 942 steps instead of 1 841 for the 3000 K n-heptane/n-dodecane droplet of docs/model.md §5)
                 next.mass = m_new;
                 let radius_new = 0.5 * (6.0 * m_new / (std::f64::consts::PI * liq.density)).cbrt();
-                let mut sy = next.surface_y.clone();
-                self.solve_boiling_surface(&next, liq, radius_new, &mut sy);
-                let sum: f64 = sy.iter().sum();
-                sy.iter_mut().for_each(|v| *v /= sum);
-                hold = self.hold_temperature(&sy);
-                self.boiling_film_at(&sy, hold, m_new, liq.density, s.velocity, next.heat_inward);
+                film_surface.copy_from_slice(&next.surface_y);
+                self.solve_boiling_surface(&next, liq, radius_new, &mut film_surface);
+                let sum: f64 = film_surface.iter().sum();
+                film_surface.iter_mut().for_each(|v| *v /= sum);
+                hold = self.hold_temperature(&film_surface);
+                self.boiling_film_at(&film_surface, hold, m_new, liq.density, s.velocity, next.heat_inward);
                 film_rates.copy_from_slice(&self.rates);
-                film_surface.copy_from_slice(&sy);
                 mdot_a = film_rates.iter().sum();
             } else if iteration == 0 && near_bubble {
                 // evaporating near the bubble point with species diffusion in a mixture: as in boiling, the second
@@ -356,24 +362,22 @@ impl Model {
                 // there; a film refresh at the first pass's reconstruction overshoots unless the step is tiny)
                 next.mass = m_new;
                 let radius_new = 0.5 * (6.0 * m_new / (std::f64::consts::PI * liq.density)).cbrt();
-                let mut sy = next.surface_y.clone();
-                let sol = self.solve_surface(&next, liq, radius_new, &mut sy);
-                let sum: f64 = sy.iter().sum();
-                sy.iter_mut().for_each(|v| *v /= sum);
+                film_surface.copy_from_slice(&next.surface_y);
+                let sol = self.solve_surface(&next, liq, radius_new, &mut film_surface);
+                let sum: f64 = film_surface.iter().sum();
+                film_surface.iter_mut().for_each(|v| *v /= sum);
                 if self.tgrid.len() > 1 && !self.fixed_temperature {
                     heat_lin = (sol.film.heat_to_liquid, sol.dq, sol.temperature);
                 }
                 film_rates.copy_from_slice(&self.rates);
-                film_surface.copy_from_slice(&sy);
                 mdot_a = film_rates.iter().sum();
             } else if iteration == 0 {
                 // refresh the film at the new surface state (one Picard pass)
-                let sy = next.surface_y.clone();
                 if s.boiling {
-                    hold = self.hold_temperature(&sy);
-                    self.boiling_film_at(&sy, hold, m_new, liq.density, s.velocity, next.heat_inward);
+                    hold = self.hold_temperature(&next.surface_y);
+                    self.boiling_film_at(&next.surface_y, hold, m_new, liq.density, s.velocity, next.heat_inward);
                 } else {
-                    self.film_at(&sy, next.surface_t, m_new, liq.density, s.velocity);
+                    self.film_at(&next.surface_y, next.surface_t, m_new, liq.density, s.velocity);
                 }
                 film_rates.copy_from_slice(&self.rates);
                 film_surface.copy_from_slice(&next.surface_y);
@@ -417,6 +421,8 @@ impl Model {
             next.velocity = s.velocity / (1.0 + dt * c * s.velocity.abs());
         }
         next.time = s.time + dt;
+        self.step_rates = film_rates;
+        self.step_surface = film_surface;
         Ok(next)
     }
 
@@ -611,6 +617,8 @@ impl Model {
             jac_drate_dt: vec![0.0; n],
             settled: surface::Settled::new(n),
             film_calls: 0,
+            step_rates: vec![0.0; n],
+            step_surface: vec![0.0; n],
             liquid_cache: LiquidCache { valid: false, inventory: vec![0.0; n], temp: vec![0.0; nt], liquid: Liquid::default() },
         };
         let mut state = State {

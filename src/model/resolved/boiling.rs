@@ -59,8 +59,7 @@ impl Model {
     /// The boiling film of state `s` (surface at the hold temperature of its composition, conduction into the
     /// interior from the profile): the film, the hold temperature and the conductances (g_T, g_Y).
     pub(super) fn boiling_film(&mut self, s: &State, liq: &Liquid, radius: f64) -> (FilmResult, f64, f64, f64) {
-        let sy = s.surface_y.clone();
-        self.boiling_film_of(s, &sy, liq, radius)
+        self.boiling_film_of(s, &s.surface_y, liq, radius)
     }
 
     /// [`Model::boiling_film`] with the surface mass fractions `sy`.
@@ -93,9 +92,8 @@ impl Model {
     pub(super) fn hold_margin(&mut self, s: &State) -> f64 {
         let liq = self.liquid(s);
         let radius = 0.5 * (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
-        let sy = s.surface_y.clone();
-        let hold = self.hold_temperature(&sy);
-        let f = self.film_at(&sy, hold, s.mass, liq.density, s.velocity);
+        let hold = self.hold_temperature(&s.surface_y);
+        let f = self.film_at(&s.surface_y, hold, s.mass, liq.density, s.velocity);
         let (g_t, _) = self.conductances(&f, &liq, s, radius, f.spalding_mass);
         f.heat_to_liquid - self.conducted_inward(s, hold, g_t, liq.cp)
     }
@@ -170,8 +168,7 @@ impl Model {
         if !self.onset_due(s) {
             return None;
         }
-        let sy = s.surface_y.clone();
-        let hold = self.hold_temperature(&sy);
+        let hold = self.hold_temperature(&s.surface_y);
         s.boiling = true;
         s.surface_t = hold;
         if self.tgrid.len() == 1 {

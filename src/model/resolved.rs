@@ -748,7 +748,8 @@ pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: 
     // a regime change at the step's end (heat margin gone while boiling, Σ X_s at the threshold while evaporating;
     // the evaporating event function needs a bubble-point search, so the cheap test comes first)
     let crossed = !model.fixed_temperature && if state.boiling { model.hold_margin(&new) <= 0.0 } else { model.surface_sum(&new) >= BOILING_THRESHOLD };
-    if let (true, Some(g_b), Ok(st)) = (crossed, model.regime_event(state.boiling, &new), &start) {
+    let event_end = if crossed { model.regime_event(state.boiling, &new) } else { None };
+    if let (Some(g_b), Ok(st)) = (event_end, &start) {
         let g_a = model.regime_event(state.boiling, state).unwrap_or(0.0);
         if g_a > 0.0 && g_b <= 0.0 {
             // the step crossed a regime change: shorten it to end just past the change

@@ -4,7 +4,8 @@
 //!
 //! Run: `cargo bench --bench counts --no-run`, then
 //! `valgrind --tool=cachegrind --cache-sim=no target/release/deps/counts-* CASE REPEATS` with CASE one of
-//! `wm1`, `wm10`, `wm50`, `res20x40`, `sweep10`.
+//! `wm1`, `wm10`, `wm50`, `res20x40`, `sweep10`, `boil2` (resolved n-heptane/n-dodecane, 20 cells, 600 K air
+//! under 3000 K radiation) or `boil3` (the same with n-hexane/n-decane/n-hexadecane).
 use std::hint::black_box;
 
 use dropcut::data::Library;
@@ -32,6 +33,22 @@ fn main() {
             inp.liquid.mixing = LiquidMixing::Diffusion;
             inp.liquid.heat = LiquidHeat::Conduction;
             inp.liquid.nodes = 40;
+            inp
+        }
+        "boil2" | "boil3" => {
+            let fuel: &[(&str, f64)] = if case == "boil2" {
+                &[("n-heptane", 0.5), ("n-dodecane", 0.5)]
+            } else {
+                &[("n-hexane", 1.0 / 3.0), ("n-decane", 1.0 / 3.0), ("n-hexadecane", 1.0 / 3.0)]
+            };
+            let comps = fuel.iter().map(|(id, _)| lib.component(id).unwrap().clone()).collect();
+            let w: Vec<f64> = fuel.iter().map(|(_, w)| *w).collect();
+            let fuel = dropcut::fuel::Fuel::from_fractions("boiling", comps, &w, dropcut::fuel::Basis::Mass).unwrap();
+            let mut inp = DropletInputs::new(fuel, dropcut::props::gas::AmbientGas::air(&lib).unwrap(), 600.0, 101_325.0, 50e-6, 300.0);
+            inp.extra_heat = dropcut::model::film::ExtraHeat { radiation: Some(dropcut::model::film::Radiation { temperature: Some(3000.0), absorption_efficiency: 1.0 }), fibre: None };
+            inp.liquid.mixing = LiquidMixing::Diffusion;
+            inp.liquid.heat = LiquidHeat::Conduction;
+            inp.liquid.nodes = 20;
             inp
         }
         other => panic!("unknown case {other}"),

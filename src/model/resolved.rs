@@ -22,8 +22,10 @@ use super::well_mixed::{adiabatic_flash, boiling_hold_temperature, BOILING_THRES
 use super::ModelError;
 
 mod boiling;
+mod control;
 mod run_log;
 mod surface;
+pub(crate) use control::{attempt_step, crossing_time, first_step, grown_step, step_tolerance, Attempt};
 use run_log::{resolved_outcome, RunLog};
 pub(crate) use boiling::RegimeSwitch;
 
@@ -82,9 +84,9 @@ pub(crate) struct Model {
     molar_volume_b: Vec<f64>,
     /// Σ over species of the cell mass fractions, per cell (scratch of a step).
     cell_sums: Vec<f64>,
-    /// Scratch of the surface-state Newton iteration (surface.rs): Jacobian (n+1)², right-hand side n+1, per
+    /// Scratch of the surface-state Newton iteration (surface.rs): structured Jacobian, right-hand side n+1, per
     /// component ∂ΣX/∂Y_j and vapour-share factors, rates and their temperature derivatives.
-    jac: Vec<f64>,
+    surface_jacobian: surface::SurfaceJacobian,
     jac_rhs: Vec<f64>,
     jac_a: Vec<f64>,
     jac_b: Vec<f64>,
@@ -93,9 +95,23 @@ pub(crate) struct Model {
     /// Surface solution of the last settled state (surface.rs), reused by the start of the step from it.
     settled: surface::Settled,
     film_calls: u64,
+    /// Liquid properties of the last liquid evaluated.
+    liquid_cache: LiquidCache,
+    /// Scratch of a step: the species rates and the surface mass fractions its fluxes come from.
+    step_rates: Vec<f64>,
+    step_surface: Vec<f64>,
+}
+
+/// The liquid properties of one liquid state (its inventories and cell temperatures).
+struct LiquidCache {
+    valid: bool,
+    inventory: Vec<f64>,
+    temp: Vec<f64>,
+    liquid: Liquid,
 }
 
 /// Liquid properties of the mean liquid for one step.
+#[derive(Clone, Copy, Default)]
 struct Liquid {
     density: f64,
     cp: f64,
@@ -120,6 +136,23 @@ impl Model {
 
     fn liquid(&mut self, s: &State) -> Liquid {
         self.mean_composition(s);
+        // the same liquid (inventories and temperatures) as the last evaluation: its properties again (a state is
+        // settled, then starts the next step, and gives its row)
+        let cache = &self.liquid_cache;
+        if cache.valid && cache.inventory == s.inventory && cache.temp == s.temp {
+            return cache.liquid;
+        }
+        let liquid = self.liquid_properties(s);
+        let cache = &mut self.liquid_cache;
+        cache.valid = true;
+        cache.inventory.copy_from_slice(&s.inventory);
+        cache.temp.copy_from_slice(&s.temp);
+        cache.liquid = liquid;
+        liquid
+    }
+
+    /// Liquid properties of the mean liquid of `s` (mean composition already in `w_mean`, `x_mean`).
+    fn liquid_properties(&mut self, s: &State) -> Liquid {
         let t_mean = self.tgrid.mean(&s.temp);
         let comps = &self.comps;
         let rho = liquid::density(comps, &self.w_mean, t_mean);
@@ -246,12 +279,20 @@ impl Model {
         let StepStart { liq, radius, f0, rates0, dq, g_t, g_y, t_lin, surface_y: start_surface } = st;
         let (liq, radius, f0, dq, g_t, g_y) = (liq, *radius, *f0, *dq, *g_t, *g_y);
         let mut hold = *t_lin;
+        // heat input to the liquid linearised as Q_L(T_s) ≈ q0 + q1 (T_s − t_ref) [W, W/K, K]
+        let mut heat_lin = (f0.heat_to_liquid, dq, *t_lin);
+        let near_bubble = !s.boiling && n > 1 && ny > 1 && f0.surface_vapor_mole_fraction >= NEAR_BUBBLE;
         let mut next = s.clone();
         // Surface coupling, iterated: each species leaves at κ_i u_s,i with κ_i = ṁ_i/Y_s,i from the film at the
         // latest surface state (implicit in the surface value; prescribed rate when condensing), the advective
         // terms use the total rate of the previous iterate; converged when the two totals agree.
-        let mut film_rates = rates0.clone();
-        let mut film_surface = start_surface.clone();
+        // (scratch vectors of the model, taken for the step and given back at its end)
+        let mut film_rates = std::mem::take(&mut self.step_rates);
+        film_rates.clear();
+        film_rates.extend_from_slice(rates0);
+        let mut film_surface = std::mem::take(&mut self.step_surface);
+        film_surface.clear();
+        film_surface.extend_from_slice(start_surface);
         let mut mdot_a: f64 = rates0.iter().sum();
         let mut m_used = s.mass;
         for iteration in 0..2 {
@@ -266,7 +307,7 @@ impl Model {
                 let stiff = 1e9 * (s.mass / dt + g_t * self.tgrid.face_factor(self.tgrid.len()) + mdot_a.abs());
                 SurfaceInput { q0: 0.0, q1: -stiff, u_ref: hold }
             } else {
-                SurfaceInput { q0: f0.heat_to_liquid / liq.cp, q1: dq / liq.cp, u_ref: *t_lin }
+                SurfaceInput { q0: heat_lin.0 / liq.cp, q1: heat_lin.1 / liq.cp, u_ref: heat_lin.2 }
             };
             next.surface_t = if self.fixed_temperature {
                 s.surface_t
@@ -277,8 +318,7 @@ impl Model {
             if s.boiling {
                 next.surface_t = hold;
                 // the boiling rate with the heat this temperature solution conducts inward (consistent energy)
-                let sy = film_surface.clone();
-                self.boiling_film_at(&sy, hold, m_new, liq.density, s.velocity, next.heat_inward);
+                self.boiling_film_at(&film_surface, hold, m_new, liq.density, s.velocity, next.heat_inward);
                 film_rates.copy_from_slice(&self.rates);
             }
             for i in 0..n {
@@ -309,23 +349,37 @@ impl Model {
                 // 18 942 steps instead of 1 841 for the 3000 K n-heptane/n-dodecane droplet of docs/model.md §5)
                 next.mass = m_new;
                 let radius_new = 0.5 * (6.0 * m_new / (std::f64::consts::PI * liq.density)).cbrt();
-                let mut sy = next.surface_y.clone();
-                self.solve_boiling_surface(&next, liq, radius_new, &mut sy);
-                let sum: f64 = sy.iter().sum();
-                sy.iter_mut().for_each(|v| *v /= sum);
-                hold = self.hold_temperature(&sy);
-                self.boiling_film_at(&sy, hold, m_new, liq.density, s.velocity, next.heat_inward);
+                film_surface.copy_from_slice(&next.surface_y);
+                self.solve_boiling_surface(&next, liq, radius_new, &mut film_surface);
+                let sum: f64 = film_surface.iter().sum();
+                film_surface.iter_mut().for_each(|v| *v /= sum);
+                hold = self.hold_temperature(&film_surface);
+                self.boiling_film_at(&film_surface, hold, m_new, liq.density, s.velocity, next.heat_inward);
                 film_rates.copy_from_slice(&self.rates);
-                film_surface.copy_from_slice(&sy);
+                mdot_a = film_rates.iter().sum();
+            } else if iteration == 0 && near_bubble {
+                // evaporating near the bubble point with species diffusion in a mixture: as in boiling, the second
+                // pass takes its fluxes from the surface state solved for the first pass's cells (surface.rs), and
+                // the heat input is linearised about that surface state (the total rate grows like 1/(1 − Y_F,s)
+                // there; a film refresh at the first pass's reconstruction overshoots unless the step is tiny)
+                next.mass = m_new;
+                let radius_new = 0.5 * (6.0 * m_new / (std::f64::consts::PI * liq.density)).cbrt();
+                film_surface.copy_from_slice(&next.surface_y);
+                let sol = self.solve_surface(&next, liq, radius_new, &mut film_surface);
+                let sum: f64 = film_surface.iter().sum();
+                film_surface.iter_mut().for_each(|v| *v /= sum);
+                if self.tgrid.len() > 1 && !self.fixed_temperature {
+                    heat_lin = (sol.film.heat_to_liquid, sol.dq, sol.temperature);
+                }
+                film_rates.copy_from_slice(&self.rates);
                 mdot_a = film_rates.iter().sum();
             } else if iteration == 0 {
                 // refresh the film at the new surface state (one Picard pass)
-                let sy = next.surface_y.clone();
                 if s.boiling {
-                    hold = self.hold_temperature(&sy);
-                    self.boiling_film_at(&sy, hold, m_new, liq.density, s.velocity, next.heat_inward);
+                    hold = self.hold_temperature(&next.surface_y);
+                    self.boiling_film_at(&next.surface_y, hold, m_new, liq.density, s.velocity, next.heat_inward);
                 } else {
-                    self.film_at(&sy, next.surface_t, m_new, liq.density, s.velocity);
+                    self.film_at(&next.surface_y, next.surface_t, m_new, liq.density, s.velocity);
                 }
                 film_rates.copy_from_slice(&self.rates);
                 film_surface.copy_from_slice(&next.surface_y);
@@ -369,6 +423,8 @@ impl Model {
             next.velocity = s.velocity / (1.0 + dt * c * s.velocity.abs());
         }
         next.time = s.time + dt;
+        self.step_rates = film_rates;
+        self.step_surface = film_surface;
         Ok(next)
     }
 
@@ -445,52 +501,10 @@ struct StepStart {
     surface_y: Vec<f64>,
 }
 
-fn combine(a: &State, b: &State) -> State {
-    // Richardson: 2·(two half steps) − (one full step)
-    let mix = |x: &[f64], y: &[f64]| -> Vec<f64> { x.iter().zip(y).map(|(h, f)| 2.0 * h - f).collect() };
-    let mut surface_y: Vec<f64> = mix(&a.surface_y, &b.surface_y).into_iter().map(|v| v.max(0.0)).collect();
-    let s: f64 = surface_y.iter().sum();
-    surface_y.iter_mut().for_each(|v| *v /= s);
-    State {
-        time: a.time,
-        mass: mix(&a.inventory, &b.inventory).iter().sum(),
-        y: mix(&a.y, &b.y),
-        temp: mix(&a.temp, &b.temp),
-        evaporated: mix(&a.evaporated, &b.evaporated),
-        inventory: mix(&a.inventory, &b.inventory),
-        velocity: 2.0 * a.velocity - b.velocity,
-        surface_y,
-        surface_t: 2.0 * a.surface_t - b.surface_t,
-        boiling: a.boiling,
-        heat_inward: 2.0 * a.heat_inward - b.heat_inward,
-    }
-}
-
-/// Scaled RMS difference between two solutions: mass relative to m0, temperatures over 1 K, mass fractions
-/// over 0.01 (absolute scales times the step tolerance give the accepted local error).
-fn error_norm(a: &State, b: &State, m0: f64) -> f64 {
-    let mut acc = ((a.mass - b.mass) / (1e-2 * m0)).powi(2);
-    let mut count = 1.0;
-    acc += (a.surface_t - b.surface_t).powi(2);
-    count += 1.0;
-    for (x, y) in a.temp.iter().zip(&b.temp) {
-        acc += (x - y).powi(2) / a.temp.len() as f64;
-    }
-    count += 1.0;
-    let mut ys = 0.0;
-    for (x, y) in a.y.iter().zip(&b.y) {
-        ys += ((x - y) / 1e-2).powi(2);
-    }
-    acc += ys / a.y.len() as f64;
-    count += 1.0;
-    let mut ss = 0.0;
-    for (x, y) in a.surface_y.iter().zip(&b.surface_y) {
-        ss += ((x - y) / 1e-2).powi(2);
-    }
-    acc += ss / a.surface_y.len() as f64;
-    count += 1.0;
-    (acc / count).sqrt()
-}
+/// Σ X_s of the start film from which an evaporating step with species diffusion in a mixture takes its second
+/// pass's fluxes from the surface state solved for the first pass's cells (the total rate grows like
+/// 1/(1 − Y_F,s) towards the bubble point; below this the film refresh at the first pass's surface is enough).
+const NEAR_BUBBLE: f64 = 0.9;
 
 // ---- Integration core: shared by the run driver below and by the stepping API ----
 
@@ -555,7 +569,7 @@ impl Model {
             kappa: vec![0.0; n],
             inputs: vec![SurfaceInput { q0: 0.0, q1: 0.0, u_ref: 0.0 }; n],
             cell_sums: vec![0.0; ny],
-            jac: vec![0.0; (n + 1) * (n + 1)],
+            surface_jacobian: surface::SurfaceJacobian::new(n),
             jac_rhs: vec![0.0; n + 1],
             jac_a: vec![0.0; n],
             jac_b: vec![0.0; n],
@@ -563,6 +577,9 @@ impl Model {
             jac_drate_dt: vec![0.0; n],
             settled: surface::Settled::new(n),
             film_calls: 0,
+            step_rates: vec![0.0; n],
+            step_surface: vec![0.0; n],
+            liquid_cache: LiquidCache { valid: false, inventory: vec![0.0; n], temp: vec![0.0; nt], liquid: Liquid::default() },
         };
         let mut state = State {
             time: 0.0,
@@ -598,87 +615,6 @@ impl Model {
     pub(crate) fn set_drag(&mut self, drag: bool) {
         self.drag = drag;
     }
-}
-
-/// Local-error tolerance of the step-doubling estimate for the user's relative tolerance `rtol`, scaled with its
-/// square root.
-pub(crate) fn step_tolerance(rtol: f64) -> f64 {
-    3e-2 * (rtol / 1e-6).sqrt()
-}
-
-/// First step of a droplet of diameter `d0` \[m\] \[s\].
-pub(crate) fn first_step(d0: f64) -> f64 {
-    1e-3 * d0 * d0 / 1e-7
-}
-
-/// Next step size after an accepted step of size `dt` with error norm `err` \[s\].
-pub(crate) fn grown_step(dt: f64, tol: f64, err: f64) -> f64 {
-    dt * (0.9 * (tol / err.max(1e-300)).sqrt()).clamp(0.2, 4.0)
-}
-
-/// The outcome of one step attempt.
-pub(crate) enum Attempt {
-    /// Accepted: the new state (at `time + dt`), its error norm and the regime change at its end, if any.
-    Accepted(State, f64, Option<RegimeSwitch>),
-    /// Rejected: try again with the reduced `dt`.
-    Retry,
-    /// The step size fell to the round-off limit (reason).
-    Failed(String),
-}
-
-/// One attempt of a step `dt` from `state`: a full step and two half steps, Richardson-combined when their
-/// difference is within `tol`; on rejection `dt` is reduced in place. Counts into `stats`.
-pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: f64, m0: f64, stats: &mut Stats) -> Attempt {
-    let start = model.start(state);
-    let (full, half) = match start {
-        Ok(st) => (model.step(state, &st, *dt), model.step(state, &st, 0.5 * *dt).and_then(|h| model.start(&h).and_then(|sh| model.step(&h, &sh, 0.5 * *dt)))),
-        Err(e) => (Err(e.clone()), Err(e)),
-    };
-    stats.rhs_calls = model.film_calls;
-    let (full, half) = match (full, half) {
-        (Ok(f), Ok(h)) => (f, h),
-        (Err(e), _) | (_, Err(e)) => {
-            stats.rejected += 1;
-            *dt *= 0.25;
-            if *dt < 1e-14 {
-                return Attempt::Failed(e);
-            }
-            return Attempt::Retry;
-        }
-    };
-    let err = error_norm(&half, &full, m0);
-    if err > tol {
-        stats.rejected += 1;
-        if *dt < 1e-14 {
-            // the one-step and two-half-step surface states still differ as the step vanishes
-            return Attempt::Failed(format!("the step-doubling error {err:.3e} does not shrink with the step"));
-        }
-        *dt *= (0.9 * (tol / err).sqrt()).clamp(0.1, 0.9);
-        return Attempt::Retry;
-    }
-    let mut new = combine(&half, &full);
-    new.time = state.time + *dt;
-    if !(new.mass > 0.0) || new.temp.iter().any(|v| !v.is_finite()) {
-        stats.rejected += 1;
-        *dt *= 0.25;
-        return Attempt::Retry;
-    }
-    model.settle_surface(&mut new);
-    if let Some(factor) = model.overshoot(state, &new) {
-        stats.rejected += 1;
-        *dt *= factor;
-        return Attempt::Retry;
-    }
-    let switch = model.update_regime(&mut new);
-    stats.steps += 1;
-    stats.rhs_calls = model.film_calls;
-    Attempt::Accepted(new, err, switch)
-}
-
-/// Time inside the step from `a` to `b` (remaining fractions `rem_a` > `level` ≥ `rem_b`) where the remaining
-/// fraction crosses `level`, by linear interpolation \[s\].
-pub(crate) fn crossing_time(a_time: f64, dt: f64, rem_a: f64, rem_b: f64, level: f64) -> f64 {
-    a_time + dt * (rem_a - level) / (rem_a - rem_b)
 }
 
 // ---- Run driver: a whole droplet life over the integration core ----

@@ -59,8 +59,7 @@ impl Model {
     /// The boiling film of state `s` (surface at the hold temperature of its composition, conduction into the
     /// interior from the profile): the film, the hold temperature and the conductances (g_T, g_Y).
     pub(super) fn boiling_film(&mut self, s: &State, liq: &Liquid, radius: f64) -> (FilmResult, f64, f64, f64) {
-        let sy = s.surface_y.clone();
-        self.boiling_film_of(s, &sy, liq, radius)
+        self.boiling_film_of(s, &s.surface_y, liq, radius)
     }
 
     /// [`Model::boiling_film`] with the surface mass fractions `sy`.
@@ -93,33 +92,63 @@ impl Model {
     pub(super) fn hold_margin(&mut self, s: &State) -> f64 {
         let liq = self.liquid(s);
         let radius = 0.5 * (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
-        let sy = s.surface_y.clone();
-        let hold = self.hold_temperature(&sy);
-        let f = self.film_at(&sy, hold, s.mass, liq.density, s.velocity);
+        let hold = self.hold_temperature(&s.surface_y);
+        let f = self.film_at(&s.surface_y, hold, s.mass, liq.density, s.velocity);
         let (g_t, _) = self.conductances(&f, &liq, s, radius, f.spalding_mass);
         f.heat_to_liquid - self.conducted_inward(s, hold, g_t, liq.cp)
     }
 
-    /// Step-size factor when an evaporating step from `a` carried the surface of `b` more than 0.05 K past the
-    /// hold temperature (the step is then retried shorter, so that the regime is entered near the hold
-    /// temperature); None when the step may stand.
-    pub(super) fn overshoot(&mut self, a: &State, b: &State) -> Option<f64> {
-        if a.boiling || self.fixed_temperature {
+    /// Event function of the regime change out of the current regime (`boiling`) at state `s`: positive while the
+    /// regime holds, zero or negative past the change. Boiling: the heat margin ([`Model::hold_margin`], the quantity
+    /// that decides the exit); evaporating: T_h − T_s of the surface liquid (Σ X_s reaches BOILING_THRESHOLD, the
+    /// quantity that decides the onset), None when the surface is below it (no onset to locate) or the surface
+    /// temperature is fixed.
+    pub(super) fn regime_event(&mut self, boiling: bool, s: &State) -> Option<f64> {
+        if self.fixed_temperature {
             return None;
         }
-        liquid::mass_to_mole_into(&self.comps, &b.surface_y, &mut self.x_surf);
+        if boiling {
+            return Some(self.hold_margin(s));
+        }
+        Some(self.hold_temperature(&s.surface_y) - s.surface_t)
+    }
+
+    /// True when the evaporating state `s` has reached the hold temperature of its surface liquid (Σ X_s ≥
+    /// BOILING_THRESHOLD) with a positive heat margin: the onset condition.
+    pub(super) fn onset_due(&mut self, s: &State) -> bool {
+        self.surface_sum(s) >= BOILING_THRESHOLD && self.hold_margin(s) > 0.0
+    }
+
+    /// Σ X_s = Σ x_i γ_i p_sat,i(T_s)/p of the surface liquid of state `s`.
+    pub(super) fn surface_sum(&mut self, s: &State) -> f64 {
+        liquid::mass_to_mole_into(&self.comps, &s.surface_y, &mut self.x_surf);
         let x = std::mem::take(&mut self.x_surf);
-        let sum = self.film.surface_equilibrium(&x, b.surface_t);
+        let sum = self.film.surface_equilibrium(&x, s.surface_t);
         self.x_surf = x;
-        if sum < BOILING_THRESHOLD {
-            return None;
+        sum
+    }
+
+    /// True when the boiling regime, entered at the evaporating state `s` (at its onset), still holds after a
+    /// probe step of length `h` \[s\] (heat margin positive at its end). False when the surface only grazes the
+    /// bubble point: the boiling regime's own margin falls at once while the evaporating regime returns to the
+    /// hold temperature (both push towards the boundary, where they agree), and the droplet evaporates on at
+    /// the bubble point instead of entering and leaving the regime at every step.
+    pub(super) fn boiling_holds(&mut self, s: &State, h: f64) -> bool {
+        let mut b = s.clone();
+        b.boiling = true;
+        b.surface_t = self.hold_temperature(&s.surface_y);
+        if self.tgrid.len() == 1 {
+            b.temp[0] = b.surface_t;
         }
-        let sy = b.surface_y.clone();
-        let hold = self.hold_temperature(&sy);
-        if b.surface_t - hold <= 0.05 || a.surface_t >= hold - 0.05 {
-            return None;
+        self.settle_surface(&mut b);
+        let Ok(st) = self.start(&b) else { return true };
+        match self.step(&b, &st, h) {
+            Ok(mut e) => {
+                self.settle_surface(&mut e);
+                self.hold_margin(&e) > 0.0
+            }
+            Err(_) => true,
         }
-        Some((0.9 * (hold - a.surface_t) / (b.surface_t - a.surface_t)).clamp(0.1, 0.9))
     }
 
     /// Regime change at the accepted state `s` (updated in place): onset when the surface has reached the hold
@@ -136,19 +165,14 @@ impl Model {
             s.boiling = false;
             return Some(RegimeSwitch::Exit { temperature: s.surface_t });
         }
-        liquid::mass_to_mole_into(&self.comps, &s.surface_y, &mut self.x_surf);
-        let x = std::mem::take(&mut self.x_surf);
-        let sum = self.film.surface_equilibrium(&x, s.surface_t);
-        self.x_surf = x;
-        if sum < BOILING_THRESHOLD || self.hold_margin(s) <= 0.0 {
+        if !self.onset_due(s) {
             return None;
         }
-        let sy = s.surface_y.clone();
-        let hold = self.hold_temperature(&sy);
+        let hold = self.hold_temperature(&s.surface_y);
         s.boiling = true;
         s.surface_t = hold;
         if self.tgrid.len() == 1 {
-            // a uniform-temperature liquid is its surface: at most 0.05 K of overshoot is removed
+            // a uniform-temperature liquid is its surface (the onset is located to within a small part of a step)
             s.temp[0] = hold;
         }
         Some(RegimeSwitch::Onset { hold_temperature: hold })

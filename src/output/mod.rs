@@ -1,6 +1,7 @@
 //! Outputs: CSV and JSON writers, readers of saved results, charts and HTML pages. Consumers of results,
 //! never producers of physics. Files are written to a temporary name and renamed, so an interrupted run never
-//! leaves a truncated file behind.
+//! leaves a truncated file behind; only files that a later run relies on are also forced to disk (see
+//! [`Durability`]).
 
 #[cfg(feature = "charts")]
 pub mod charts;
@@ -131,16 +132,43 @@ pub fn ensure_dir(dir: &Path) -> Result<(), OutputError> {
     fs::create_dir_all(dir).map_err(|e| io_err(dir, e))
 }
 
-/// Write `contents` to `path` atomically (temporary file in the same folder, synced, then renamed, and the
-/// folder synced). Inside [`together`] the rename waits until the whole group is written.
-pub fn write_atomic(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
-    write_via_temp(path, contents, true)
+/// How a written file reaches the disk (docs/validity.md, "Interrupted runs and determinism"). Both kinds go to a
+/// temporary file in the same folder and are renamed into place, so a killed process or a failed write never
+/// leaves a truncated or half-replaced file; they differ in what survives a power cut or an operating-system crash.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Durability {
+    /// Renamed into place, not forced to disk: the results of one command (simulate, table, uncertainty, charts,
+    /// pages), which that command recomputes in seconds. After a power cut shortly after the run the file may be
+    /// the earlier version, missing or empty (never a mix of two versions); run the command again.
+    Atomic,
+    /// Also synced: the file before its rename and the folder after it, so it is on disk when the call returns.
+    /// For files that a later run trusts without recomputing them (a sweep's per-case histories, whose journal
+    /// rows a resumed sweep keeps).
+    Synced,
 }
 
-/// Like [`write_atomic`] but without forcing the data to disk: for files that can be redrawn from saved data
-/// (charts, pages), where dozens of syncs per run would dominate the run time.
-pub fn write_replace(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
-    write_via_temp(path, contents, false)
+/// Number of `fsync` calls made by the writers of this process (files and folders), for tests and diagnostics.
+pub fn sync_count() -> u64 {
+    SYNCS.load(Ordering::Relaxed)
+}
+
+static SYNCS: AtomicU64 = AtomicU64::new(0);
+
+/// Write `contents` to `path` atomically ([`Durability::Atomic`]: temporary file in the same folder, renamed
+/// into place, not forced to disk). Inside [`together`] the rename waits until the whole group is written.
+pub fn write_atomic(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
+    write_via_temp(path, contents, Durability::Atomic)
+}
+
+/// Write `contents` to `path` atomically and force it to disk ([`Durability::Synced`]: the temporary file is
+/// synced before its rename and the folder after it; inside [`together`] the folder is synced once for the group).
+pub fn write_synced(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
+    write_via_temp(path, contents, Durability::Synced)
+}
+
+/// Write `contents` to `path` with the given durability ([`write_atomic`] or [`write_synced`]).
+pub fn write_file(path: &Path, contents: &[u8], durability: Durability) -> Result<(), OutputError> {
+    write_via_temp(path, contents, durability)
 }
 
 /// Marker inside temporary file names: `<file>.tmp-<pid>-<n>`.
@@ -160,22 +188,25 @@ pub(crate) fn temp_path(path: &Path, prefix: &str, suffix: &str) -> PathBuf {
 pub(crate) fn sync_dir(dir: &Path) {
     let dir = if dir.as_os_str().is_empty() { Path::new(".") } else { dir };
     if let Ok(f) = fs::File::open(dir) {
+        SYNCS.fetch_add(1, Ordering::Relaxed);
         let _ = f.sync_all();
     }
 }
 
-/// A group of files written by [`together`]: temporaries waiting for their rename, files to remove.
+/// A group of files written by [`together`]: temporaries waiting for their rename, files to remove, and whether
+/// any of them was written [`Durability::Synced`] (then the folders are synced after the renames).
 #[derive(Default)]
 struct Group {
     renames: Vec<(PathBuf, PathBuf)>,
     removals: Vec<PathBuf>,
+    synced: bool,
 }
 
 thread_local! {
     static GROUP: RefCell<Option<Group>> = const { RefCell::new(None) };
 }
 
-/// Run `write` so that the files it writes with [`write_atomic`] / [`write_replace`] (and removes with
+/// Run `write` so that the files it writes with [`write_atomic`] / [`write_atomic`] (and removes with
 /// [`remove_output`]) replace the old ones together or not at all: each file goes to a temporary first, and
 /// only when every one is written are they renamed into place. On an error (a full disk) the temporaries are
 /// removed and the old files stay as they were. Groups do not nest (an inner group joins the outer one).
@@ -205,8 +236,10 @@ pub fn together<T, E: From<OutputError>>(write: impl FnOnce() -> Result<T, E>) -
             for p in &group.removals {
                 let _ = fs::remove_file(p);
             }
-            for d in &dirs {
-                sync_dir(d);
+            if group.synced {
+                for d in &dirs {
+                    sync_dir(d);
+                }
             }
             for (_, path) in &group.renames {
                 remove_stale_temps_of(path, "", "");
@@ -242,7 +275,8 @@ pub fn remove_output(path: &Path) -> Result<(), OutputError> {
     Ok(())
 }
 
-fn write_via_temp(path: &Path, contents: &[u8], sync: bool) -> Result<(), OutputError> {
+fn write_via_temp(path: &Path, contents: &[u8], durability: Durability) -> Result<(), OutputError> {
+    let sync = durability == Durability::Synced;
     check_file_target(path)?;
     if let Some(parent) = path.parent() {
         if !parent.as_os_str().is_empty() {
@@ -254,6 +288,7 @@ fn write_via_temp(path: &Path, contents: &[u8], sync: bool) -> Result<(), Output
         let mut f = fs::OpenOptions::new().write(true).create_new(true).open(&tmp)?;
         f.write_all(contents)?;
         if sync {
+            SYNCS.fetch_add(1, Ordering::Relaxed);
             f.sync_all()?;
         }
         Ok(())
@@ -265,6 +300,7 @@ fn write_via_temp(path: &Path, contents: &[u8], sync: bool) -> Result<(), Output
     let queued = GROUP.with(|g| match g.borrow_mut().as_mut() {
         Some(group) => {
             group.renames.push((tmp.clone(), path.to_path_buf()));
+            group.synced |= sync;
             true
         }
         None => false,
@@ -425,7 +461,7 @@ impl CsvTable {
         s
     }
 
-    /// Write atomically to `path`.
+    /// Write atomically to `path` ([`Durability::Atomic`]).
     pub fn write(&self, path: &Path) -> Result<(), OutputError> {
         write_atomic(path, self.render().as_bytes())
     }

@@ -140,21 +140,49 @@ impl SavedRun {
 
     /// Read a run folder. summary.json is optional (an empty object when absent); residue.csv is optional.
     pub fn load(dir: &Path) -> Result<Self, OutputError> {
-        let history = CsvData::read(&dir.join("history.csv"))?;
+        let read = |name: &str| -> Result<Option<String>, OutputError> {
+            let path = dir.join(name);
+            if !path.is_file() {
+                return Ok(None);
+            }
+            std::fs::read_to_string(&path).map(Some).map_err(|e| read_err(&path, e.to_string()))
+        };
+        let history_path = dir.join("history.csv");
+        let history = std::fs::read_to_string(&history_path).map_err(|e| read_err(&history_path, e.to_string()))?;
+        Self::assemble(dir, &history, || read("summary.json"), || read("residue.csv"), || read("profiles.csv"))
+    }
+
+    /// A run folder from the texts of its files (history.csv; summary.json, residue.csv and profiles.csv when
+    /// present), parsed exactly as [`SavedRun::load`] parses the files: a command that has just written them
+    /// draws its page without reading them back.
+    pub fn from_texts(dir: &Path, history: &str, summary: Option<&str>, residue: Option<&str>, profiles: Option<&str>) -> Result<Self, OutputError> {
+        let text = |t: Option<&str>| Ok(t.map(str::to_string));
+        Self::assemble(dir, history, || text(summary), || text(residue), || text(profiles))
+    }
+
+    /// Parse the files in the order [`SavedRun::load`] has always read them (so the first error is the same).
+    fn assemble(
+        dir: &Path,
+        history: &str,
+        summary: impl FnOnce() -> Result<Option<String>, OutputError>,
+        residue: impl FnOnce() -> Result<Option<String>, OutputError>,
+        profiles: impl FnOnce() -> Result<Option<String>, OutputError>,
+    ) -> Result<Self, OutputError> {
+        let history = CsvData::parse(history, &dir.join("history.csv"))?;
         for col in ["time_s", "evaporated_fraction", "d2_ratio", "surface_temperature_K"] {
             if !history.has(col) {
                 return Err(read_err(&history.path, format!("no column '{col}': not a dropcut history file")));
             }
         }
         let summary_path = dir.join("summary.json");
-        let summary = if summary_path.is_file() {
-            let text = std::fs::read_to_string(&summary_path).map_err(|e| read_err(&summary_path, e.to_string()))?;
-            serde_json::from_str(&text).map_err(|e| read_err(&summary_path, format!("not valid JSON: {e}")))?
-        } else {
-            serde_json::Value::Object(Default::default())
+        let summary = match summary()? {
+            Some(text) => serde_json::from_str(&text).map_err(|e| read_err(&summary_path, format!("not valid JSON: {e}")))?,
+            None => serde_json::Value::Object(Default::default()),
         };
-        let residue_path = dir.join("residue.csv");
-        let residue = if residue_path.is_file() { Some(CsvData::read(&residue_path)?.layer("mean")) } else { None };
+        let residue = match residue()? {
+            Some(text) => Some(CsvData::parse(&text, &dir.join("residue.csv"))?.layer("mean")),
+            None => None,
+        };
         let classes: Vec<(String, String)> = summary
             .get("component_classes")
             .and_then(|v| v.as_array())
@@ -175,8 +203,10 @@ impl SavedRun {
                 (id, class)
             })
             .collect();
-        let profiles_path = dir.join("profiles.csv");
-        let profiles = if profiles_path.is_file() { Some(CsvData::read(&profiles_path)?) } else { None };
+        let profiles = match profiles()? {
+            Some(text) => Some(CsvData::parse(&text, &dir.join("profiles.csv"))?),
+            None => None,
+        };
         Ok(SavedRun { dir: dir.to_path_buf(), history, summary, residue, components, profiles })
     }
 

@@ -241,8 +241,15 @@ pub fn together<T, E: From<OutputError>>(write: impl FnOnce() -> Result<T, E>) -
                     sync_dir(d);
                 }
             }
-            for (_, path) in &group.renames {
-                remove_stale_temps_of(path, "", "");
+            // one scan of each folder for the temporaries of every file of the group
+            for d in &dirs {
+                let prefixes: Vec<String> = group
+                    .renames
+                    .iter()
+                    .filter(|(_, path)| path.parent().map(Path::to_path_buf).unwrap_or_default() == *d)
+                    .filter_map(|(_, path)| path.file_name().map(|n| format!("{}{TEMP_MARK}", n.to_string_lossy())))
+                    .collect();
+                remove_stale_temps_any(d, &prefixes, "");
             }
             Ok(v)
         }
@@ -347,14 +354,17 @@ fn process_may_run(pid: u32) -> bool {
 /// of processes that no longer run (another process's or thread's file in flight is left alone), or, where
 /// processes cannot be checked, those older than a day. Best effort: failures are ignored.
 pub(crate) fn remove_stale_temps(dir: &Path, prefix: &str, suffix: &str) {
+    remove_stale_temps_any(dir, &[prefix.to_string()], suffix)
+}
+
+/// [`remove_stale_temps`] for several prefixes in one scan of the folder.
+fn remove_stale_temps_any(dir: &Path, prefixes: &[String], suffix: &str) {
     let dir = if dir.as_os_str().is_empty() { Path::new(".") } else { dir };
     let Ok(entries) = fs::read_dir(dir) else { return };
     for e in entries.flatten() {
         let name = e.file_name();
         let name = name.to_string_lossy();
-        if name.len() <= prefix.len() + suffix.len() || !name.starts_with(prefix) || !name.ends_with(suffix) {
-            continue;
-        }
+        let Some(prefix) = prefixes.iter().find(|p| name.len() > p.len() + suffix.len() && name.starts_with(p.as_str()) && name.ends_with(suffix)) else { continue };
         let middle = &name[prefix.len()..name.len() - suffix.len()];
         let Some(pid) = middle.split('-').next().and_then(|p| p.parse::<u32>().ok()) else { continue };
         let old = e.metadata().ok().and_then(|m| m.modified().ok()).and_then(|t| t.elapsed().ok()).is_some_and(|a| a.as_secs() > 86_400);

@@ -23,7 +23,7 @@ impl Entry {
         self.parsed.get_or_init(|| {
             let (text, shown) = self.text.as_ref().expect("an entry without text is parsed when added");
             // the embedded files are fixed at build time and parsed and checked by `check_all` in the tests
-            Arc::new(Component::parse(text, shown).unwrap_or_else(|e| panic!("embedded component file: {e}")))
+            Arc::new(Component::parse_generated(text, shown).unwrap_or_else(|e| panic!("embedded component file: {e}")))
         })
     }
 }
@@ -302,6 +302,16 @@ mod tests {
             read += usize::from(built.is_some());
         }
         assert!(read >= 40, "{read}");
+    }
+
+    /// The subset reader used at run time gives the component the full parser gives, for every embedded file.
+    #[test]
+    fn embedded_components_parse_alike() {
+        for (path, text) in EMBEDDED_FILES.iter().filter(|(p, _)| p.starts_with("components/")) {
+            let fast = Component::parse_generated(text, path).unwrap();
+            let full = Component::parse(text, path).unwrap();
+            assert_eq!(format!("{fast:?}"), format!("{full:?}"), "{path}");
+        }
     }
 
     /// The line scan of the names agrees with the TOML parser where it answers, and leaves other headers to it.

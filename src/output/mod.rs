@@ -453,14 +453,13 @@ pub fn fmt_f64(v: f64) -> Option<String> {
 /// `d.ddde±x`, copied into `out`, with their count and the position of the decimal point after the first of them
 /// (value = 0.d₁d₂… × 10^point).
 fn decimal_digits(text: &str, out: &mut [u8; 32]) -> (usize, i32) {
-    let (mantissa, exp) = match text.find(['e', 'E']) {
-        Some(i) => (&text[..i], text[i + 1..].trim_start_matches('+').parse::<i32>().unwrap_or(0)),
-        None => (text, 0),
-    };
+    let bytes = text.as_bytes();
     let mut len = 0;
-    let mut point = exp;
+    let mut point = 0i32;
     let mut seen_point = false;
-    for b in mantissa.bytes() {
+    let mut i = 0;
+    while i < bytes.len() {
+        let b = bytes[i];
         match b {
             b'.' => seen_point = true,
             b'0'..=b'9' => {
@@ -469,18 +468,29 @@ fn decimal_digits(text: &str, out: &mut [u8; 32]) -> (usize, i32) {
                     if seen_point {
                         point -= 1;
                     }
-                    continue;
+                } else {
+                    if len < out.len() {
+                        out[len] = b;
+                        len += 1;
+                    }
+                    if !seen_point {
+                        point += 1;
+                    }
                 }
-                if len < out.len() {
-                    out[len] = b;
-                    len += 1;
-                }
-                if !seen_point {
-                    point += 1;
-                }
+            }
+            b'e' | b'E' => {
+                let (negative, digits) = match bytes.get(i + 1) {
+                    Some(b'-') => (true, &bytes[i + 2..]),
+                    Some(b'+') => (false, &bytes[i + 2..]),
+                    _ => (false, &bytes[i + 1..]),
+                };
+                let exp = digits.iter().fold(0i32, |e, d| e * 10 + i32::from(d.wrapping_sub(b'0')));
+                point += if negative { -exp } else { exp };
+                break;
             }
             _ => {}
         }
+        i += 1;
     }
     while len > 1 && out[len - 1] == b'0' {
         len -= 1;

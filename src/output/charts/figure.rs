@@ -48,7 +48,7 @@ pub(super) fn save(dir: &Path, stem: &str, title: &str, size: (u32, u32), fig: F
         return Err(chart_err(&png_path, de(e)));
     }
     super::super::check_file_target(&png_path)?;
-    if let Err(e) = std::fs::rename(&tmp, &png_path) {
+    if let Err(e) = super::super::replace_file(&tmp, &png_path, false) {
         let _ = std::fs::remove_file(&tmp);
         return Err(chart_err(&png_path, e.to_string()));
     }

@@ -231,8 +231,9 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
     for n in &run.outcome.regime_notes {
         notice(n);
     }
-    // the page and charts are drawn from the texts just written, parsed as `dropcut plot` reads them back
-    let saved = output::read::SavedRun::from_texts(&args.out, &files.history, Some(&files.summary), Some(&residue), files.profiles.as_deref())?;
+    // the page and charts are drawn from the tables just written, as `dropcut plot` reads them back
+    let profiles = files.profiles_table.zip(files.profiles.as_deref());
+    let saved = output::read::SavedRun::from_tables(&args.out, (files.history_table, &files.history), Some(&files.summary), Some((residue.0, &residue.1)), profiles)?;
     plot::finish_loaded_run(lib, saved, !args.no_plots)?;
     if args.json {
         let summary = output::history::Summary::of(&inp, &run);

@@ -337,15 +337,21 @@ pub struct RunFiles {
     pub summary: String,
     /// profiles.csv, when the model wrote radial profiles.
     pub profiles: Option<String>,
+    /// The table rendered as history.csv.
+    pub history_table: super::CsvTable,
+    /// The table rendered as profiles.csv.
+    pub profiles_table: Option<super::CsvTable>,
 }
 
 impl RunFiles {
     /// Render the files of a run.
     pub fn of(inputs: &DropletInputs, result: &crate::model::RunResult) -> Result<Self, OutputError> {
-        let history = history_table(inputs, &result.history, &result.row_times)?.render();
-        let profiles = if result.profiles.is_empty() { None } else { Some(profiles_table(inputs, &result.profiles)?.render()) };
+        let history_table = history_table(inputs, &result.history, &result.row_times)?;
+        let history = history_table.render();
+        let profiles_table = if result.profiles.is_empty() { None } else { Some(profiles_table(inputs, &result.profiles)?) };
+        let profiles = profiles_table.as_ref().map(|t| t.render());
         let summary = super::to_json_string(&Summary::of(inputs, result)).map_err(|m| OutputError::Io { path: "summary.json".into(), message: m })?;
-        Ok(RunFiles { history, summary, profiles })
+        Ok(RunFiles { history, summary, profiles, history_table, profiles_table })
     }
 
     /// Write the files into `dir`, together or not at all (inside a caller's [`super::together`] group, with

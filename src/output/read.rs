@@ -58,6 +58,31 @@ impl CsvData {
         Ok(CsvData { path: path.to_path_buf(), metadata, header, rows })
     }
 
+    /// The table that [`CsvData::parse`] reads from `table.render()`, built from the table's own cells (no
+    /// formatting and parsing back) where that is certain to be the same: no name or cell holds a quote, comma,
+    /// line break, CR or byte-order mark, every row is as long as the header and none renders as an empty line,
+    /// and the header line can be taken neither for metadata nor for an empty header. Cells and metadata are trimmed
+    /// as the parser trims them. Otherwise the table comes back unchanged, for the caller to parse its text
+    /// (`table_and_parse_agree` compares both).
+    pub fn from_table(table: super::CsvTable, path: &Path) -> Result<Self, super::CsvTable> {
+        let plain = |c: &String| !c.contains(['"', ',', '\n', '\r', '\u{feff}']);
+        let n = table.header.len();
+        let header_line = table.header.join(",");
+        let ok = n > 0
+            && table.header.iter().any(|h| !h.trim().is_empty())
+            && !header_line.trim_start().starts_with('#')
+            && table.header.iter().all(plain)
+            && table.rows.iter().all(|r| r.len() == n && !(n == 1 && r[0].is_empty()) && r.iter().all(plain));
+        if !ok {
+            return Err(table);
+        }
+        let trimmed = |c: String| if c.trim().len() == c.len() { c } else { c.trim().to_string() };
+        let metadata = table.metadata.iter().map(|m| super::metadata_text(m).trim().to_string()).collect();
+        let header = table.header.into_iter().map(trimmed).collect();
+        let rows = table.rows.into_iter().map(|r| r.into_iter().map(trimmed).collect()).collect();
+        Ok(CsvData { path: path.to_path_buf(), metadata, header, rows })
+    }
+
     /// Index of a column, if present.
     pub fn index(&self, column: &str) -> Option<usize> {
         self.header.iter().position(|h| h == column)
@@ -185,26 +210,47 @@ impl SavedRun {
         };
         let history_path = dir.join("history.csv");
         let history = std::fs::read_to_string(&history_path).map_err(|e| read_err(&history_path, e.to_string()))?;
-        Self::assemble(dir, &history, || read("summary.json"), || read("residue.csv"), || read("profiles.csv"))
+        let parsed = |name: &str| -> Result<Option<CsvData>, OutputError> { read(name)?.map(|t| CsvData::parse(&t, &dir.join(name))).transpose() };
+        Self::assemble(dir, || CsvData::parse(&history, &history_path), || read("summary.json"), || parsed("residue.csv"), || parsed("profiles.csv"))
     }
 
     /// A run folder from the texts of its files (history.csv; summary.json, residue.csv and profiles.csv when
     /// present), parsed exactly as [`SavedRun::load`] parses the files: a command that has just written them
     /// draws its page without reading them back.
     pub fn from_texts(dir: &Path, history: &str, summary: Option<&str>, residue: Option<&str>, profiles: Option<&str>) -> Result<Self, OutputError> {
-        let text = |t: Option<&str>| Ok(t.map(str::to_string));
-        Self::assemble(dir, history, || text(summary), || text(residue), || text(profiles))
+        let parsed = |t: Option<&str>, name: &str| -> Result<Option<CsvData>, OutputError> { t.map(|t| CsvData::parse(t, &dir.join(name))).transpose() };
+        Self::assemble(dir, || CsvData::parse(history, &dir.join("history.csv")), || Ok(summary.map(str::to_string)), || parsed(residue, "residue.csv"), || parsed(profiles, "profiles.csv"))
+    }
+
+    /// A run folder from the tables and texts just written (history.csv, summary.json, residue.csv and
+    /// profiles.csv when present): each table taken as [`CsvData::from_table`] where that equals parsing its
+    /// text, else its text parsed as [`SavedRun::load`] parses the file.
+    pub fn from_tables(dir: &Path, history: (super::CsvTable, &str), summary: Option<&str>, residue: Option<(super::CsvTable, &str)>, profiles: Option<(super::CsvTable, &str)>) -> Result<Self, OutputError> {
+        let take = |(table, text): (super::CsvTable, &str), name: &str| -> Result<CsvData, OutputError> {
+            let path = dir.join(name);
+            match CsvData::from_table(table, &path) {
+                Ok(data) => Ok(data),
+                Err(_) => CsvData::parse(text, &path),
+            }
+        };
+        Self::assemble(
+            dir,
+            || take(history, "history.csv"),
+            || Ok(summary.map(str::to_string)),
+            || residue.map(|r| take(r, "residue.csv")).transpose(),
+            || profiles.map(|p| take(p, "profiles.csv")).transpose(),
+        )
     }
 
     /// Parse the files in the order [`SavedRun::load`] has always read them (so the first error is the same).
     fn assemble(
         dir: &Path,
-        history: &str,
+        history: impl FnOnce() -> Result<CsvData, OutputError>,
         summary: impl FnOnce() -> Result<Option<String>, OutputError>,
-        residue: impl FnOnce() -> Result<Option<String>, OutputError>,
-        profiles: impl FnOnce() -> Result<Option<String>, OutputError>,
+        residue: impl FnOnce() -> Result<Option<CsvData>, OutputError>,
+        profiles: impl FnOnce() -> Result<Option<CsvData>, OutputError>,
     ) -> Result<Self, OutputError> {
-        let history = CsvData::parse(history, &dir.join("history.csv"))?;
+        let history = history()?;
         for col in ["time_s", "evaporated_fraction", "d2_ratio", "surface_temperature_K"] {
             if !history.has(col) {
                 return Err(read_err(&history.path, format!("no column '{col}': not a dropcut history file")));
@@ -215,10 +261,7 @@ impl SavedRun {
             Some(text) => serde_json::from_str(&text).map_err(|e| read_err(&summary_path, format!("not valid JSON: {e}")))?,
             None => serde_json::Value::Object(Default::default()),
         };
-        let residue = match residue()? {
-            Some(text) => Some(CsvData::parse(&text, &dir.join("residue.csv"))?.layer("mean")),
-            None => None,
-        };
+        let residue = residue()?.map(|r| r.layer("mean"));
         let classes: Vec<(String, String)> = summary
             .get("component_classes")
             .and_then(|v| v.as_array())
@@ -239,10 +282,7 @@ impl SavedRun {
                 (id, class)
             })
             .collect();
-        let profiles = match profiles()? {
-            Some(text) => Some(CsvData::parse(&text, &dir.join("profiles.csv"))?),
-            None => None,
-        };
+        let profiles = profiles()?;
         Ok(SavedRun { dir: dir.to_path_buf(), history, summary, residue, components, profiles })
     }
 
@@ -361,6 +401,47 @@ mod tests {
         assert!(parse_plain("a,b\n\"x,y\",1\n").is_none());
         assert!(parse_plain("a,b\r\n1,2\r\n").is_none());
         assert!(parse_plain("a,b\n1\n").is_none());
+    }
+
+    /// A table taken directly equals the parse of its rendered text; tables where that could differ are refused.
+    #[test]
+    fn table_and_parse_agree() {
+        use crate::output::{Cell, CsvTable};
+        let path = Path::new("t.csv");
+        let same = |t: CsvTable| -> bool {
+            let parsed = CsvData::parse(&t.render(), path).ok();
+            match CsvData::from_table(t, path) {
+                Ok(direct) => {
+                    let parsed = parsed.unwrap_or_else(|| panic!("a table taken directly parses: {:?}", direct.header));
+                    assert_eq!((&direct.metadata, &direct.header, &direct.rows), (&parsed.metadata, &parsed.header, &parsed.rows));
+                    true
+                }
+                Err(_) => false,
+            }
+        };
+        let table = |meta: &[&str], header: &[&str], rows: &[&[&str]]| {
+            let mut t = CsvTable::new(header.iter().map(|h| h.to_string()).collect());
+            t.metadata = meta.iter().map(|m| m.to_string()).collect();
+            for r in rows {
+                t.push(r.iter().map(|c| Cell::Text(c.to_string())).collect(), "t.csv").unwrap();
+            }
+            t
+        };
+        // taken directly (and equal to the parse)
+        assert!(same(table(&["dropcut 0.1", "  fuel: a\tb\nc ", "", "esc \u{1b} x"], &["time_s", "x"], &[&["0", "1e-5"], &[" 2 ", ""], &["\u{a0}3", "é"]])));
+        let mut numbers = CsvTable::new(vec!["a".into(), "b".into()]);
+        numbers.push(vec![Cell::Num(1.5e-7), Cell::Opt(None)], "t.csv").unwrap();
+        assert!(same(numbers));
+        assert!(same(table(&[], &["only"], &[&["1"], &["2"]])));
+        // refused: quoting, an empty line, a header read as metadata or blank, ragged rows, CR, BOM
+        assert!(!same(table(&[], &["a", "b"], &[&["x, y", "1"]])));
+        assert!(!same(table(&[], &["a", "b"], &[&["say \"hi\"", "1"]])));
+        assert!(!same(table(&[], &["a"], &[&["1"], &[""], &["2"]])));
+        assert!(!same(table(&[], &["#a", "b"], &[&["1", "2"]])));
+        assert!(!same(table(&[], &[" ", ""], &[&["1", "2"]])));
+        assert!(!same(table(&[], &["a", "b"], &[&["1"]])));
+        assert!(!same(table(&[], &["a", "b"], &[&["1\r", "2"]])));
+        assert!(!same(table(&[], &["\u{feff}a", "b"], &[&["1", "2"]])));
     }
 
     #[test]

@@ -5,6 +5,8 @@ use std::fs;
 use std::io::Write;
 use std::path::Path;
 
+include!("src/data/names_scan.rs");
+
 fn collect(dir: &Path, out: &mut Vec<String>) {
     let Ok(entries) = fs::read_dir(dir) else { return };
     let mut paths: Vec<_> = entries.filter_map(|e| e.ok()).map(|e| e.path()).collect();
@@ -21,6 +23,7 @@ fn collect(dir: &Path, out: &mut Vec<String>) {
 fn main() {
     let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("mixtures");
     println!("cargo:rerun-if-changed=mixtures");
+    println!("cargo:rerun-if-changed=src/data/names_scan.rs");
     let mut files = Vec::new();
     collect(&root, &mut files);
     let out_dir = std::env::var("OUT_DIR").unwrap();
@@ -30,6 +33,20 @@ fn main() {
     for p in &files {
         let rel = Path::new(p).strip_prefix(&root).unwrap().to_string_lossy().replace('\\', "/");
         writeln!(f, "    ({:?}, include_str!({:?})),", rel, p).unwrap();
+    }
+    writeln!(f, "];").unwrap();
+    // The id and aliases of each embedded component file, read by the same line scan the library uses at run
+    // time (src/data/names_scan.rs), so a start needs no scan; None where the scan defers to the TOML parser
+    // (and for the other files). A unit test compares them with the scan and the parse of every file.
+    writeln!(f, "/// Id and aliases of each entry of `EMBEDDED_FILES` that is a component file, when the line scan reads them.").unwrap();
+    writeln!(f, "pub static EMBEDDED_NAMES: &[Option<(&str, &[&str])>] = &[").unwrap();
+    for p in &files {
+        let rel = Path::new(p).strip_prefix(&root).unwrap().to_string_lossy().replace('\\', "/");
+        let names = if rel.starts_with("components/") { scan_names(names_header(&fs::read_to_string(p).unwrap())) } else { None };
+        match names {
+            Some((id, aliases)) => writeln!(f, "    Some(({:?}, &{:?})),", id, aliases).unwrap(),
+            None => writeln!(f, "    None,").unwrap(),
+        }
     }
     writeln!(f, "];").unwrap();
     if std::env::var_os("CARGO_FEATURE_CAPI").is_some() {

@@ -223,14 +223,18 @@ fn simulate(lib: &Library, args: &SimulateArgs) -> Result<(), CliError> {
         None => model::simulate(&inp, &mut model::guard::RowsOnly)?,
     };
     // history, summary and residue replace the earlier run's files together or not at all
-    output::together(|| -> Result<(), CliError> {
-        output::history::write_run(&args.out, &inp, &run)?;
-        write_droplet_residue(&args.out, &inp, &run, limits.as_ref())
+    let (files, residue) = output::together(|| -> Result<_, CliError> {
+        let files = output::history::write_run(&args.out, &inp, &run, output::Durability::Atomic)?;
+        let residue = write_droplet_residue(&args.out, &inp, &run, limits.as_ref())?;
+        Ok((files, residue))
     })?;
     for n in &run.outcome.regime_notes {
         notice(n);
     }
-    plot::finish_run(lib, &args.out, !args.no_plots)?;
+    // the page and charts are drawn from the tables just written, as `dropcut plot` reads them back
+    let profiles = files.profiles_table.zip(files.profiles.as_deref());
+    let saved = output::read::SavedRun::from_tables(&args.out, (files.history_table, &files.history), Some(&files.summary), Some((residue.0, &residue.1)), profiles)?;
+    plot::finish_loaded_run(lib, saved, !args.no_plots)?;
     if args.json {
         let summary = output::history::Summary::of(&inp, &run);
         stdout_write(&output::to_json_string(&summary).map_err(CliError::runtime)?)?;
@@ -306,7 +310,7 @@ fn demo(lib: &Library, out: &Path, no_plots: bool) -> Result<(), CliError> {
             let run = model::simulate(&inp, &mut rec)?;
             let dir_name = format!("{fuel_id}_{name}");
             let dir = out.join(&dir_name);
-            output::history::write_run(&dir, &inp, &run)?;
+            output::history::write_run(&dir, &inp, &run, output::Durability::Atomic)?;
             write_droplet_residue(&dir, &inp, &run, Some(&crate::post::Limits::aviation_turbine_fuel()))?;
             table.push_str(&format_outcome_line(fuel_id, name, &run.outcome));
             group.runs.push(output::compare::StudyRun { label: fuel_id.into(), dir: dir_name });

@@ -66,7 +66,7 @@ pub(super) fn out_file(out: &Path) -> Result<(), CliError> {
 
 /// Residual-liquid indicators along a droplet history (mean liquid, and the surface layer of a resolved
 /// droplet) written to residue.csv.
-pub(super) fn write_droplet_residue(dir: &Path, inp: &DropletInputs, run: &model::RunResult, limits: Option<&crate::post::Limits>) -> Result<(), CliError> {
+pub(super) fn write_droplet_residue(dir: &Path, inp: &DropletInputs, run: &model::RunResult, limits: Option<&crate::post::Limits>) -> Result<(output::CsvTable, String), CliError> {
     use crate::post::droplet::{residues_along_history, Layer};
     let fractions = crate::post::weathering::default_fractions();
     let opts = crate::post::IndicatorOptions { activity: inp.liquid.activity, ..Default::default() };
@@ -80,8 +80,10 @@ pub(super) fn write_droplet_residue(dir: &Path, inp: &DropletInputs, run: &model
         surface_rows = crate::post::residue_table(comps, &surface, &opts).map_err(|e| CliError::runtime(e.to_string()))?;
         sets.push(output::residue::ResidueSet { label: "surface", rows: &surface_rows });
     }
-    output::residue::write_residue(&dir.join("residue.csv"), &format!("residual liquid along the droplet history of {}", inp.fuel.name), &sets, limits)?;
-    Ok(())
+    let table = output::residue::residue_table(&format!("residual liquid along the droplet history of {}", inp.fuel.name), &sets, limits)?;
+    let text = table.render();
+    output::write_atomic(&dir.join("residue.csv"), text.as_bytes())?;
+    Ok((table, text))
 }
 
 /// `--history-times`: `START:STEP:END` (every STEP from START up to END inclusive) or a comma list `T1,T2,...`,

@@ -29,7 +29,12 @@ fn fill_classes(lib: &Library, run: &mut SavedRun) {
 
 /// Load a run folder, draw its charts (unless `plots` is false) and write its index.html.
 pub(super) fn finish_run(lib: &Library, dir: &Path, plots: bool) -> Result<(SavedRun, usize), CliError> {
-    let mut run = SavedRun::load(dir)?;
+    finish_loaded_run(lib, SavedRun::load(dir)?, plots)
+}
+
+/// Draw the charts (unless `plots` is false) and write index.html of a run already in memory (as read back by
+/// [`SavedRun::load`], or parsed from the texts just written by [`SavedRun::from_texts`]).
+pub(super) fn finish_loaded_run(lib: &Library, mut run: SavedRun, plots: bool) -> Result<(SavedRun, usize), CliError> {
     fill_classes(lib, &mut run);
     let charts = if plots { charts::write_run_charts(&run)? } else { vec![] };
     html::write_run_page(&run, &charts)?;
@@ -357,8 +362,8 @@ pub(super) fn compare(lib: &Library, args: &CompareArgs) -> Result<(), CliError>
             CliError { code: c.code, message: format!("{label}: {}", c.message) }
         })?;
         output::together(|| -> Result<(), CliError> {
-            output::history::write_run(&args.out.join(dir), inp, &run)?;
-            write_droplet_residue(&args.out.join(dir), inp, &run, None)
+            output::history::write_run(&args.out.join(dir), inp, &run, output::Durability::Atomic)?;
+            write_droplet_residue(&args.out.join(dir), inp, &run, None).map(|_| ())
         })?;
     }
     let names = fuels.iter().map(|f| f.name.as_str()).collect::<Vec<_>>().join(", ");

@@ -390,6 +390,20 @@ impl Component {
     /// Parse and check a component file; `file` names it in messages.
     pub fn parse(text: &str, file: &str) -> Result<Self, DataError> {
         let raw: RawComponent = toml::from_str(text).map_err(|e| DataError::Parse { file: file.into(), message: toml_error_at(&e, text) })?;
+        Self::from_raw(raw, file)
+    }
+
+    /// Parse a generated component file (the embedded library): the plain-TOML subset reader when the whole file
+    /// is in its subset (the same table as the full parser: `data::toml_subset`), else [`Component::parse`].
+    /// Both give the same component for every embedded file (`embedded_components_parse_alike`).
+    pub fn parse_generated(text: &str, file: &str) -> Result<Self, DataError> {
+        match super::toml_subset::parse_table(text).and_then(|t| toml::Value::Table(t).try_into::<RawComponent>().ok()) {
+            Some(raw) => Self::from_raw(raw, file),
+            None => Self::parse(text, file),
+        }
+    }
+
+    fn from_raw(raw: RawComponent, file: &str) -> Result<Self, DataError> {
         let ctx = format!("{file} (component '{}')", raw.id);
         if raw.id.is_empty() || !raw.id.chars().all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '-') {
             return Err(DataError::Invalid { context: format!("{file}: id"), message: format!("'{}' must be kebab-case (a-z, 0-9, -)", raw.id) });

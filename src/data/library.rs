@@ -23,7 +23,7 @@ impl Entry {
         self.parsed.get_or_init(|| {
             let (text, shown) = self.text.as_ref().expect("an entry without text is parsed when added");
             // the embedded files are fixed at build time and parsed and checked by `check_all` in the tests
-            Arc::new(Component::parse(text, shown).unwrap_or_else(|e| panic!("embedded component file: {e}")))
+            Arc::new(Component::parse_generated(text, shown).unwrap_or_else(|e| panic!("embedded component file: {e}")))
         })
     }
 }
@@ -36,81 +36,13 @@ struct ComponentNames {
     aliases: Vec<String>,
 }
 
+include!("names_scan.rs");
+
 /// Id and aliases of a component file from the lines before its first table header: by a line scan when every
 /// line there is a one-line `key = value` (as the generated files are), otherwise by the TOML parser.
 fn component_names(text: &str) -> Option<ComponentNames> {
-    let mut end = text.len();
-    let mut pos = 0;
-    for line in text.split_inclusive('\n') {
-        if line.trim_start().starts_with('[') {
-            end = pos;
-            break;
-        }
-        pos += line.len();
-    }
-    scan_names(&text[..end]).or_else(|| toml::from_str(&text[..end]).ok())
-}
-
-/// `id` and `aliases` of a header whose lines are blank, comments or one-line `bare-key = value` pairs, with
-/// `id` a basic string and `aliases` a one-line array of basic strings (no escapes); None for anything else (the
-/// TOML parser then decides).
-fn scan_names(header: &str) -> Option<ComponentNames> {
-    /// A basic string without escapes at the start of `s`, and the rest after it.
-    fn string(s: &str) -> Option<(&str, &str)> {
-        let body = s.strip_prefix('"')?;
-        let close = body.find('"')?;
-        let value = &body[..close];
-        (!value.contains('\\')).then_some((value, &body[close + 1..]))
-    }
-    /// Nothing but blanks or a comment.
-    fn empty(rest: &str) -> bool {
-        let rest = rest.trim();
-        rest.is_empty() || rest.starts_with('#')
-    }
-    let mut id = None;
-    let mut aliases = None;
-    for line in header.lines() {
-        let line = line.trim();
-        if line.is_empty() || line.starts_with('#') {
-            continue;
-        }
-        let (key, value) = line.split_once('=')?;
-        let (key, value) = (key.trim(), value.trim());
-        let bare = !key.is_empty() && key.bytes().all(|b| b.is_ascii_alphanumeric() || b == b'-' || b == b'_');
-        let multi_line = value.as_bytes().windows(3).any(|w| w == b"\"\"\"" || w == b"'''");
-        if !bare || multi_line {
-            return None;
-        }
-        match key {
-            "id" => {
-                let (value, rest) = string(value)?;
-                if id.is_some() || !empty(rest) {
-                    return None;
-                }
-                id = Some(value.to_string());
-            }
-            "aliases" => {
-                let mut rest = value.strip_prefix('[')?.trim_start();
-                let mut list = vec![];
-                while !rest.starts_with(']') {
-                    let (item, after) = string(rest)?;
-                    list.push(item.to_string());
-                    rest = after.trim_start();
-                    if let Some(after) = rest.strip_prefix(',') {
-                        rest = after.trim_start();
-                    } else if !rest.starts_with(']') {
-                        return None;
-                    }
-                }
-                if aliases.is_some() || !empty(&rest[1..]) {
-                    return None;
-                }
-                aliases = Some(list);
-            }
-            _ => {}
-        }
-    }
-    Some(ComponentNames { id: id?, aliases: aliases.unwrap_or_default() })
+    let header = names_header(text);
+    scan_names(header).map(|(id, aliases)| ComponentNames { id, aliases }).or_else(|| toml::from_str(header).ok())
 }
 
 /// All components, gases, sources and named fuel files known to a run.
@@ -132,9 +64,16 @@ impl Library {
     /// The library embedded in the binary (mixtures/ at build time).
     pub fn embedded() -> Result<Self, DataError> {
         let mut lib = Library { entries: vec![], all: OnceLock::new(), index: HashMap::new(), gases: BTreeMap::new(), sources: SourceRegistry::default(), fuels: BTreeMap::new() };
-        for (path, text) in EMBEDDED_FILES {
+        for (i, (path, text)) in EMBEDDED_FILES.iter().enumerate() {
             let shown = format!("mixtures/{path}");
-            lib.add_text(path, text, &shown)?;
+            match EMBEDDED_NAMES.get(i).copied().flatten() {
+                // names read at build time by the same scan (`embedded_names_are_the_scanned_names`)
+                Some((id, aliases)) => {
+                    let aliases: Vec<String> = aliases.iter().map(|a| a.to_string()).collect();
+                    lib.add_entry(&id.to_string(), &aliases, Entry { text: Some((text, shown.clone())), parsed: OnceLock::new() }, &shown)?;
+                }
+                None => lib.add_text(path, text, &shown)?,
+            }
         }
         // the embedded sources file is parsed, and the embedded data's source ids resolved, by `check_all`
         // (in the tests), not at every start
@@ -351,12 +290,36 @@ mod tests {
         }
     }
 
+    /// The names precomputed by build.rs are those the scan reads at run time, for every embedded file.
+    #[test]
+    fn embedded_names_are_the_scanned_names() {
+        assert_eq!(EMBEDDED_NAMES.len(), EMBEDDED_FILES.len());
+        let mut read = 0;
+        for ((path, text), names) in EMBEDDED_FILES.iter().zip(EMBEDDED_NAMES) {
+            let scanned = if path.starts_with("components/") { scan_names(names_header(text)) } else { None };
+            let built = names.map(|(id, aliases)| (id.to_string(), aliases.iter().map(|a| a.to_string()).collect::<Vec<_>>()));
+            assert_eq!(built, scanned, "{path}");
+            read += usize::from(built.is_some());
+        }
+        assert!(read >= 40, "{read}");
+    }
+
+    /// The subset reader used at run time gives the component the full parser gives, for every embedded file.
+    #[test]
+    fn embedded_components_parse_alike() {
+        for (path, text) in EMBEDDED_FILES.iter().filter(|(p, _)| p.starts_with("components/")) {
+            let fast = Component::parse_generated(text, path).unwrap();
+            let full = Component::parse(text, path).unwrap();
+            assert_eq!(format!("{fast:?}"), format!("{full:?}"), "{path}");
+        }
+    }
+
     /// The line scan of the names agrees with the TOML parser where it answers, and leaves other headers to it.
     #[test]
     fn name_scan_agrees_with_toml() {
         let toml_names = |h: &str| toml::from_str::<ComponentNames>(h).ok().map(|n| (n.id, n.aliases));
         for header in ["id = \"a\"\naliases = [\"b\", \"c\",]  # x\nformula = { C = 1 }\n", "# c\nid = \"a\" # note\n\naliases = []\n", "id = \"a\"\n"] {
-            let scanned = scan_names(header).map(|n| (n.id, n.aliases));
+            let scanned = scan_names(header);
             assert!(scanned.is_some(), "{header}");
             assert_eq!(scanned, toml_names(header), "{header}");
         }

@@ -6,6 +6,7 @@ pub mod gases;
 pub mod joback_groups;
 pub mod library;
 pub mod sources;
+pub mod toml_subset;
 pub mod unifac_groups;
 
 pub use component::{Component, Constants, HydrocarbonClass, Sourced};

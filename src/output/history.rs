@@ -328,22 +328,54 @@ fn round12(x: f64) -> f64 {
     format!("{x:.11e}").parse().unwrap_or(x)
 }
 
-/// Write history.csv, summary.json and (resolved models) profiles.csv into `dir`, together or not at all
-/// (inside a caller's [`super::together`] group, with the caller's other files).
-pub fn write_run(dir: &Path, inputs: &DropletInputs, result: &crate::model::RunResult) -> Result<(), OutputError> {
-    super::together(|| write_run_files(dir, inputs, result))
+/// The files of one run, rendered: history.csv, summary.json and (resolved models) profiles.csv.
+#[derive(Debug, Clone)]
+pub struct RunFiles {
+    /// history.csv.
+    pub history: String,
+    /// summary.json.
+    pub summary: String,
+    /// profiles.csv, when the model wrote radial profiles.
+    pub profiles: Option<String>,
+    /// The table rendered as history.csv.
+    pub history_table: super::CsvTable,
+    /// The table rendered as profiles.csv.
+    pub profiles_table: Option<super::CsvTable>,
 }
 
-fn write_run_files(dir: &Path, inputs: &DropletInputs, result: &crate::model::RunResult) -> Result<(), OutputError> {
-    super::ensure_dir(dir)?;
-    history_table(inputs, &result.history, &result.row_times)?.write(&dir.join("history.csv"))?;
-    if !result.profiles.is_empty() {
-        profiles_table(inputs, &result.profiles)?.write(&dir.join("profiles.csv"))?;
-    } else {
-        // an earlier resolved run's profiles would not belong to this history
-        super::remove_output(&dir.join("profiles.csv"))?;
+impl RunFiles {
+    /// Render the files of a run.
+    pub fn of(inputs: &DropletInputs, result: &crate::model::RunResult) -> Result<Self, OutputError> {
+        let history_table = history_table(inputs, &result.history, &result.row_times)?;
+        let history = history_table.render();
+        let profiles_table = if result.profiles.is_empty() { None } else { Some(profiles_table(inputs, &result.profiles)?) };
+        let profiles = profiles_table.as_ref().map(|t| t.render());
+        let summary = super::to_json_string(&Summary::of(inputs, result)).map_err(|m| OutputError::Io { path: "summary.json".into(), message: m })?;
+        Ok(RunFiles { history, summary, profiles, history_table, profiles_table })
     }
-    super::write_json(&dir.join("summary.json"), &Summary::of(inputs, result))
+
+    /// Write the files into `dir`, together or not at all (inside a caller's [`super::together`] group, with
+    /// the caller's other files); a profiles.csv of an earlier run that this run does not produce is removed.
+    pub fn write(&self, dir: &Path, durability: super::Durability) -> Result<(), OutputError> {
+        super::together(|| {
+            super::ensure_dir(dir)?;
+            super::write_file(&dir.join("history.csv"), self.history.as_bytes(), durability)?;
+            match &self.profiles {
+                Some(text) => super::write_file(&dir.join("profiles.csv"), text.as_bytes(), durability)?,
+                // an earlier resolved run's profiles would not belong to this history
+                None => super::remove_output(&dir.join("profiles.csv"))?,
+            }
+            super::write_file(&dir.join("summary.json"), self.summary.as_bytes(), durability)
+        })
+    }
+}
+
+/// Write history.csv, summary.json and (resolved models) profiles.csv into `dir`, together or not at all
+/// (inside a caller's [`super::together`] group, with the caller's other files); returns the texts written.
+pub fn write_run(dir: &Path, inputs: &DropletInputs, result: &crate::model::RunResult, durability: super::Durability) -> Result<RunFiles, OutputError> {
+    let files = RunFiles::of(inputs, result)?;
+    files.write(dir, durability)?;
+    Ok(files)
 }
 
 #[cfg(test)]

@@ -6,7 +6,7 @@ use std::path::{Path, PathBuf};
 use super::charts::ChartFiles;
 use super::compare::{ComparisonTable, Study};
 use super::read::SavedRun;
-use super::{write_replace, OutputError, TOOL_VERSION};
+use super::{write_atomic, OutputError, TOOL_VERSION};
 
 const STYLE: &str = "body{font-family:system-ui,-apple-system,'Segoe UI',Roboto,'Noto Sans','DejaVu Sans',Arial,sans-serif;margin:0;color:#222;background:#fafafa}
 main{max-width:1120px;margin:0 auto;padding:1.2em 1.5em 3em}
@@ -98,7 +98,7 @@ pub fn write_uncertainty_page(dir: &Path, title: &str, report: &str, sections: &
         }
     }
     let path = dir.join("index.html");
-    write_replace(&path, page_with_footer(title, &b, "from the samples run in this folder (dropcut uncertainty)").as_bytes())?;
+    write_atomic(&path, page_with_footer(title, &b, "from the samples run in this folder (dropcut uncertainty)").as_bytes())?;
     Ok(path)
 }
 
@@ -284,7 +284,7 @@ pub fn write_run_page(run: &SavedRun, charts: &[ChartFiles]) -> Result<PathBuf, 
     }
     b.push_str("</ul>\n");
     let path = run.dir.join("index.html");
-    write_replace(&path, page(&format!("dropcut: {fuel}"), &b).as_bytes())?;
+    write_atomic(&path, page(&format!("dropcut: {fuel}"), &b).as_bytes())?;
     Ok(path)
 }
 
@@ -341,7 +341,7 @@ pub fn write_study_page(dir: &Path, study: &Study, groups: &[(ComparisonTable, V
     }
     b.push_str("</ul>\n");
     let path = dir.join("index.html");
-    write_replace(&path, page(&study.title, &b).as_bytes())?;
+    write_atomic(&path, page(&study.title, &b).as_bytes())?;
     Ok(path)
 }
 

@@ -1,6 +1,7 @@
 //! Outputs: CSV and JSON writers, readers of saved results, charts and HTML pages. Consumers of results,
 //! never producers of physics. Files are written to a temporary name and renamed, so an interrupted run never
-//! leaves a truncated file behind.
+//! leaves a truncated file behind; only files that a later run relies on are also forced to disk (see
+//! [`Durability`]).
 
 #[cfg(feature = "charts")]
 pub mod charts;
@@ -131,16 +132,43 @@ pub fn ensure_dir(dir: &Path) -> Result<(), OutputError> {
     fs::create_dir_all(dir).map_err(|e| io_err(dir, e))
 }
 
-/// Write `contents` to `path` atomically (temporary file in the same folder, synced, then renamed, and the
-/// folder synced). Inside [`together`] the rename waits until the whole group is written.
-pub fn write_atomic(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
-    write_via_temp(path, contents, true)
+/// How a written file reaches the disk (docs/validity.md, "Interrupted runs and determinism"). Both kinds go to a
+/// temporary file in the same folder and are renamed into place, so a killed process or a failed write never
+/// leaves a truncated or half-replaced file; they differ in what survives a power cut or an operating-system crash.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Durability {
+    /// Renamed into place, not forced to disk: the results of one command (simulate, table, uncertainty, charts,
+    /// pages), which that command recomputes in seconds. After a power cut shortly after the run the file may be
+    /// the earlier version, missing or empty (never a mix of two versions); run the command again.
+    Atomic,
+    /// Also synced: the file before its rename and the folder after it, so it is on disk when the call returns.
+    /// For files that a later run trusts without recomputing them (a sweep's per-case histories, whose journal
+    /// rows a resumed sweep keeps).
+    Synced,
 }
 
-/// Like [`write_atomic`] but without forcing the data to disk: for files that can be redrawn from saved data
-/// (charts, pages), where dozens of syncs per run would dominate the run time.
-pub fn write_replace(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
-    write_via_temp(path, contents, false)
+/// Number of `fsync` calls made by the writers of this process (files and folders), for tests and diagnostics.
+pub fn sync_count() -> u64 {
+    SYNCS.load(Ordering::Relaxed)
+}
+
+static SYNCS: AtomicU64 = AtomicU64::new(0);
+
+/// Write `contents` to `path` atomically ([`Durability::Atomic`]: temporary file in the same folder, renamed
+/// into place, not forced to disk). Inside [`together`] the rename waits until the whole group is written.
+pub fn write_atomic(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
+    write_via_temp(path, contents, Durability::Atomic)
+}
+
+/// Write `contents` to `path` atomically and force it to disk ([`Durability::Synced`]: the temporary file is
+/// synced before its rename and the folder after it; inside [`together`] the folder is synced once for the group).
+pub fn write_synced(path: &Path, contents: &[u8]) -> Result<(), OutputError> {
+    write_via_temp(path, contents, Durability::Synced)
+}
+
+/// Write `contents` to `path` with the given durability ([`write_atomic`] or [`write_synced`]).
+pub fn write_file(path: &Path, contents: &[u8], durability: Durability) -> Result<(), OutputError> {
+    write_via_temp(path, contents, durability)
 }
 
 /// Marker inside temporary file names: `<file>.tmp-<pid>-<n>`.
@@ -160,22 +188,25 @@ pub(crate) fn temp_path(path: &Path, prefix: &str, suffix: &str) -> PathBuf {
 pub(crate) fn sync_dir(dir: &Path) {
     let dir = if dir.as_os_str().is_empty() { Path::new(".") } else { dir };
     if let Ok(f) = fs::File::open(dir) {
+        SYNCS.fetch_add(1, Ordering::Relaxed);
         let _ = f.sync_all();
     }
 }
 
-/// A group of files written by [`together`]: temporaries waiting for their rename, files to remove.
+/// A group of files written by [`together`]: temporaries waiting for their rename, files to remove, and whether
+/// any of them was written [`Durability::Synced`] (then the folders are synced after the renames).
 #[derive(Default)]
 struct Group {
     renames: Vec<(PathBuf, PathBuf)>,
     removals: Vec<PathBuf>,
+    synced: bool,
 }
 
 thread_local! {
     static GROUP: RefCell<Option<Group>> = const { RefCell::new(None) };
 }
 
-/// Run `write` so that the files it writes with [`write_atomic`] / [`write_replace`] (and removes with
+/// Run `write` so that the files it writes with [`write_atomic`] / [`write_atomic`] (and removes with
 /// [`remove_output`]) replace the old ones together or not at all: each file goes to a temporary first, and
 /// only when every one is written are they renamed into place. On an error (a full disk) the temporaries are
 /// removed and the old files stay as they were. Groups do not nest (an inner group joins the outer one).
@@ -191,7 +222,7 @@ pub fn together<T, E: From<OutputError>>(write: impl FnOnce() -> Result<T, E>) -
         Ok(v) => {
             let mut dirs: Vec<PathBuf> = vec![];
             for (tmp, path) in &group.renames {
-                if let Err(e) = fs::rename(tmp, path) {
+                if let Err(e) = replace_file(tmp, path, group.synced) {
                     for (t, _) in &group.renames {
                         let _ = fs::remove_file(t);
                     }
@@ -205,11 +236,20 @@ pub fn together<T, E: From<OutputError>>(write: impl FnOnce() -> Result<T, E>) -
             for p in &group.removals {
                 let _ = fs::remove_file(p);
             }
-            for d in &dirs {
-                sync_dir(d);
+            if group.synced {
+                for d in &dirs {
+                    sync_dir(d);
+                }
             }
-            for (_, path) in &group.renames {
-                remove_stale_temps_of(path, "", "");
+            // one scan of each folder for the temporaries of every file of the group
+            for d in &dirs {
+                let prefixes: Vec<String> = group
+                    .renames
+                    .iter()
+                    .filter(|(_, path)| path.parent().map(Path::to_path_buf).unwrap_or_default() == *d)
+                    .filter_map(|(_, path)| path.file_name().map(|n| format!("{}{TEMP_MARK}", n.to_string_lossy())))
+                    .collect();
+                remove_stale_temps_any(d, &prefixes, "");
             }
             Ok(v)
         }
@@ -242,7 +282,8 @@ pub fn remove_output(path: &Path) -> Result<(), OutputError> {
     Ok(())
 }
 
-fn write_via_temp(path: &Path, contents: &[u8], sync: bool) -> Result<(), OutputError> {
+fn write_via_temp(path: &Path, contents: &[u8], durability: Durability) -> Result<(), OutputError> {
+    let sync = durability == Durability::Synced;
     check_file_target(path)?;
     if let Some(parent) = path.parent() {
         if !parent.as_os_str().is_empty() {
@@ -254,6 +295,7 @@ fn write_via_temp(path: &Path, contents: &[u8], sync: bool) -> Result<(), Output
         let mut f = fs::OpenOptions::new().write(true).create_new(true).open(&tmp)?;
         f.write_all(contents)?;
         if sync {
+            SYNCS.fetch_add(1, Ordering::Relaxed);
             f.sync_all()?;
         }
         Ok(())
@@ -265,6 +307,7 @@ fn write_via_temp(path: &Path, contents: &[u8], sync: bool) -> Result<(), Output
     let queued = GROUP.with(|g| match g.borrow_mut().as_mut() {
         Some(group) => {
             group.renames.push((tmp.clone(), path.to_path_buf()));
+            group.synced |= sync;
             true
         }
         None => false,
@@ -272,7 +315,7 @@ fn write_via_temp(path: &Path, contents: &[u8], sync: bool) -> Result<(), Output
     if queued {
         return Ok(());
     }
-    if let Err(e) = fs::rename(&tmp, path) {
+    if let Err(e) = replace_file(&tmp, path, sync) {
         let _ = fs::remove_file(&tmp);
         return Err(io_err(path, e));
     }
@@ -281,6 +324,49 @@ fn write_via_temp(path: &Path, contents: &[u8], sync: bool) -> Result<(), Output
     }
     remove_stale_temps_of(path, "", "");
     Ok(())
+}
+
+/// Move the written temporary `tmp` to `path`, replacing an earlier file there in one step (a reader sees the
+/// old or the new file, never none). A plain rename over an existing file makes ext4 (`auto_da_alloc`) write the
+/// new file's data out before the rename returns: 2–4 ms per file on this project's machine, more than a whole
+/// `simulate` computes. For a file written [`Durability::Atomic`] on Linux the two names are therefore exchanged
+/// (`renameat2(RENAME_EXCHANGE)`, which that heuristic leaves alone) and the old file, now under the temporary
+/// name, is removed; where exchange is not possible (no earlier file, another system or file system) it is a
+/// plain rename. A synced file is already on disk, so it is renamed plainly.
+pub(crate) fn replace_file(tmp: &Path, path: &Path, synced: bool) -> std::io::Result<()> {
+    #[cfg(target_os = "linux")]
+    if !synced && exchange(tmp, path).is_ok() {
+        // the earlier file is now under the temporary name: only ever a regular file is removed (a link, folder
+        // or anything else put there since the check is exchanged back and the write refused)
+        match fs::symlink_metadata(tmp) {
+            Ok(m) if m.file_type().is_file() => {
+                let _ = fs::remove_file(tmp);
+                return Ok(());
+            }
+            _ => {
+                let _ = exchange(tmp, path);
+                return Err(std::io::Error::other("the output path became a link, folder or special file while writing; nothing was replaced"));
+            }
+        }
+    }
+    let _ = synced;
+    fs::rename(tmp, path)
+}
+
+/// Exchange two existing paths atomically (Linux `renameat2` with `RENAME_EXCHANGE`).
+#[cfg(target_os = "linux")]
+fn exchange(a: &Path, b: &Path) -> std::io::Result<()> {
+    use std::ffi::CString;
+    use std::os::unix::ffi::OsStrExt;
+    let ca = CString::new(a.as_os_str().as_bytes()).map_err(std::io::Error::other)?;
+    let cb = CString::new(b.as_os_str().as_bytes()).map_err(std::io::Error::other)?;
+    // SAFETY: two valid NUL-terminated paths; renameat2 reads them and touches no memory of ours
+    let r = unsafe { libc::renameat2(libc::AT_FDCWD, ca.as_ptr(), libc::AT_FDCWD, cb.as_ptr(), libc::RENAME_EXCHANGE) };
+    if r == 0 {
+        Ok(())
+    } else {
+        Err(std::io::Error::last_os_error())
+    }
 }
 
 /// Remove the temporaries of `path` (named by [`temp_path`] with this prefix and suffix) that an interrupted
@@ -311,14 +397,17 @@ fn process_may_run(pid: u32) -> bool {
 /// of processes that no longer run (another process's or thread's file in flight is left alone), or, where
 /// processes cannot be checked, those older than a day. Best effort: failures are ignored.
 pub(crate) fn remove_stale_temps(dir: &Path, prefix: &str, suffix: &str) {
+    remove_stale_temps_any(dir, &[prefix.to_string()], suffix)
+}
+
+/// [`remove_stale_temps`] for several prefixes in one scan of the folder.
+fn remove_stale_temps_any(dir: &Path, prefixes: &[String], suffix: &str) {
     let dir = if dir.as_os_str().is_empty() { Path::new(".") } else { dir };
     let Ok(entries) = fs::read_dir(dir) else { return };
     for e in entries.flatten() {
         let name = e.file_name();
         let name = name.to_string_lossy();
-        if name.len() <= prefix.len() + suffix.len() || !name.starts_with(prefix) || !name.ends_with(suffix) {
-            continue;
-        }
+        let Some(prefix) = prefixes.iter().find(|p| name.len() > p.len() + suffix.len() && name.starts_with(p.as_str()) && name.ends_with(suffix)) else { continue };
         let middle = &name[prefix.len()..name.len() - suffix.len()];
         let Some(pid) = middle.split('-').next().and_then(|p| p.parse::<u32>().ok()) else { continue };
         let old = e.metadata().ok().and_then(|m| m.modified().ok()).and_then(|t| t.elapsed().ok()).is_some_and(|a| a.as_secs() > 86_400);
@@ -343,19 +432,117 @@ pub fn metadata_text(text: &str) -> String {
     s
 }
 
-/// Format a float for CSV: shortest round-trip representation; refuses NaN/infinity.
+/// Format a float for CSV: shortest round-trip representation; refuses NaN/infinity. Plain decimals (Rust's
+/// `{}`) for 1e-4 ≤ |v| < 1e7 and zero, scientific notation (Rust's `{:e}`) otherwise; the same text as those
+/// formats, built from the digits of [`zmij`] where no tie between two shortest candidates is possible (a unit
+/// test compares both on millions of values).
 #[inline]
 pub fn fmt_f64(v: f64) -> Option<String> {
-    if v.is_finite() {
-        let a = v.abs();
-        if a == 0.0 || (1e-4..1e7).contains(&a) {
-            Some(format!("{v}"))
+    if !v.is_finite() {
+        return None;
+    }
+    let a = v.abs();
+    if a == 0.0 {
+        return Some(if v.is_sign_negative() { "-0" } else { "0" }.to_string());
+    }
+    let mut buffer = zmij::Buffer::new();
+    let mut store = [0u8; 32];
+    let (len, point) = decimal_digits(buffer.format_finite(a), &mut store);
+    // Two shortest candidates can be equally near only when the exact binary value has at most 18 significant
+    // decimal digits (m·2^q with m odd has point − q of them); std then rounds the tie up, zmij to even. Those
+    // values (short decimals, small integers) take the std formats.
+    let bits = a.to_bits();
+    let (mantissa, exponent) = match (bits >> 52) as i32 {
+        0 => (bits & ((1 << 52) - 1), -1074),
+        e => ((bits & ((1 << 52) - 1)) | (1 << 52), e - 1075),
+    };
+    if point - (exponent + mantissa.trailing_zeros() as i32) <= 19 {
+        return Some(if (1e-4..1e7).contains(&a) { format!("{v}") } else { format!("{v:e}") });
+    }
+    // the digits are ASCII
+    let digits = std::str::from_utf8(&store[..len]).unwrap_or("0");
+    let mut s = String::with_capacity(len + 8);
+    if v < 0.0 {
+        s.push('-');
+    }
+    let n = len as i32;
+    if (1e-4..1e7).contains(&a) {
+        // plain: `point` digits before the decimal point (none or negative: leading zeros after "0.")
+        if point <= 0 {
+            s.push_str("0.");
+            s.extend(std::iter::repeat_n('0', (-point) as usize));
+            s.push_str(digits);
+        } else if point >= n {
+            s.push_str(digits);
+            s.extend(std::iter::repeat_n('0', (point - n) as usize));
         } else {
-            Some(format!("{v:e}"))
+            s.push_str(&digits[..point as usize]);
+            s.push('.');
+            s.push_str(&digits[point as usize..]);
         }
     } else {
-        None
+        s.push_str(&digits[..1]);
+        if n > 1 {
+            s.push('.');
+            s.push_str(&digits[1..]);
+        }
+        s.push('e');
+        s.push_str(&(point - 1).to_string());
     }
+    Some(s)
+}
+
+/// The significant digits (no leading or trailing zeros) of a positive decimal written as `ddd.ddd` or
+/// `d.ddde±x`, copied into `out`, with their count and the position of the decimal point after the first of them
+/// (value = 0.d₁d₂… × 10^point).
+fn decimal_digits(text: &str, out: &mut [u8; 32]) -> (usize, i32) {
+    let bytes = text.as_bytes();
+    let mut len = 0;
+    let mut point = 0i32;
+    let mut seen_point = false;
+    let mut i = 0;
+    while i < bytes.len() {
+        let b = bytes[i];
+        match b {
+            b'.' => seen_point = true,
+            b'0'..=b'9' => {
+                if len == 0 && b == b'0' {
+                    // a leading zero: after the point it moves the point left
+                    if seen_point {
+                        point -= 1;
+                    }
+                } else {
+                    if len < out.len() {
+                        out[len] = b;
+                        len += 1;
+                    }
+                    if !seen_point {
+                        point += 1;
+                    }
+                }
+            }
+            b'e' | b'E' => {
+                let (negative, digits) = match bytes.get(i + 1) {
+                    Some(b'-') => (true, &bytes[i + 2..]),
+                    Some(b'+') => (false, &bytes[i + 2..]),
+                    _ => (false, &bytes[i + 1..]),
+                };
+                let exp = digits.iter().fold(0i32, |e, d| e * 10 + i32::from(d.wrapping_sub(b'0')));
+                point += if negative { -exp } else { exp };
+                break;
+            }
+            _ => {}
+        }
+        i += 1;
+    }
+    while len > 1 && out[len - 1] == b'0' {
+        len -= 1;
+    }
+    if len == 0 {
+        out[0] = b'0';
+        return (1, 1);
+    }
+    (len, point)
 }
 
 /// A CSV table under construction: `#` metadata lines, a header and rows of numbers or text.
@@ -425,7 +612,7 @@ impl CsvTable {
         s
     }
 
-    /// Write atomically to `path`.
+    /// Write atomically to `path` ([`Durability::Atomic`]).
     pub fn write(&self, path: &Path) -> Result<(), OutputError> {
         write_atomic(path, self.render().as_bytes())
     }
@@ -447,3 +634,48 @@ pub fn to_json_string<T: serde::Serialize>(value: &T) -> Result<String, String> 
 
 /// Version string written into metadata.
 pub const TOOL_VERSION: &str = concat!("dropcut ", env!("CARGO_PKG_VERSION"));
+
+#[cfg(test)]
+mod tests {
+    use super::fmt_f64;
+
+    /// The formatting `fmt_f64` stands for: Rust's `{}` and `{:e}` (shortest round-trip digits).
+    fn reference(v: f64) -> Option<String> {
+        if !v.is_finite() {
+            return None;
+        }
+        let a = v.abs();
+        Some(if a == 0.0 || (1e-4..1e7).contains(&a) { format!("{v}") } else { format!("{v:e}") })
+    }
+
+    #[test]
+    fn csv_numbers_match_the_std_formats() {
+        let mut state: u64 = 0x2545_f491_4f6c_dd1d;
+        let mut next = || {
+            state ^= state << 13;
+            state ^= state >> 7;
+            state ^= state << 17;
+            state
+        };
+        let mut values = vec![0.0, -0.0, 1.0, -1.0, 0.1, 0.2, 0.3, 1e-4, 1e7, 9_999_999.999_999_998, 1e-5, 123.456, 1e21, 1e22, 1e23, 5e-324, f64::from_bits(0xc316_4c2a_3b9f_596d), f64::MIN_POSITIVE, f64::MAX, f64::MIN, f64::EPSILON, 300.0, 2.5e-3];
+        for edge in [1e-4f64, 1e7, 1.0, 10.0, 1e-3, 1e6] {
+            values.extend([f64::from_bits(edge.to_bits() - 1), f64::from_bits(edge.to_bits() + 1)]);
+        }
+        for _ in 0..1_000_000 {
+            // any bit pattern (every exponent) and values of the sizes the tables hold
+            values.push(f64::from_bits(next()));
+            let m = (next() >> 11) as f64 / (1u64 << 53) as f64;
+            let e = (next() % 40) as i32 - 20;
+            values.push(m * 10f64.powi(e) * if next() & 1 == 0 { 1.0 } else { -1.0 });
+            // short decimals, as read from input files
+            values.push(((next() % 1_000_000) as f64) / 10f64.powi((next() % 12) as i32));
+            // large values with few fraction bits, where two shortest candidates can tie (std rounds ties up)
+            values.push((next() >> 11) as f64 * 2f64.powi((next() % 16) as i32 - 8));
+        }
+        for v in values {
+            assert_eq!(fmt_f64(v), reference(v), "{:?} (bits {:#x})", v, v.to_bits());
+        }
+        assert_eq!(fmt_f64(f64::NAN), None);
+        assert_eq!(fmt_f64(f64::INFINITY), None);
+    }
+}

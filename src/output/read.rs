@@ -48,16 +48,38 @@ impl CsvData {
             }
         }
         let body = &text[offset..];
-        let mut reader = csv::ReaderBuilder::new().has_headers(true).flexible(false).trim(csv::Trim::All).from_reader(body.as_bytes());
-        let header: Vec<String> = reader.headers().map_err(|e| read_err(path, format!("header: {e}")))?.iter().map(|s| s.to_string()).collect();
-        if header.is_empty() || header.iter().all(|h| h.is_empty()) {
-            return Err(read_err(path, "no header line"));
+        if let Some((header, rows)) = parse_plain(body) {
+            if header.is_empty() || header.iter().all(|h| h.is_empty()) {
+                return Err(read_err(path, "no header line"));
+            }
+            return Ok(CsvData { path: path.to_path_buf(), metadata, header, rows });
         }
-        let mut rows = vec![];
-        for (i, rec) in reader.records().enumerate() {
-            let rec = rec.map_err(|e| read_err(path, format!("data row {}: {e}", i + 1)))?;
-            rows.push(rec.iter().map(|s| s.to_string()).collect());
+        let (header, rows) = parse_with_reader(body, path)?;
+        Ok(CsvData { path: path.to_path_buf(), metadata, header, rows })
+    }
+
+    /// The table that [`CsvData::parse`] reads from `table.render()`, built from the table's own cells (no
+    /// formatting and parsing back) where that is certain to be the same: no name or cell holds a quote, comma,
+    /// line break, CR or byte-order mark, every row is as long as the header and none renders as an empty line,
+    /// and the header line can be taken neither for metadata nor for an empty header. Cells and metadata are trimmed
+    /// as the parser trims them. Otherwise the table comes back unchanged, for the caller to parse its text
+    /// (`table_and_parse_agree` compares both).
+    pub fn from_table(table: super::CsvTable, path: &Path) -> Result<Self, super::CsvTable> {
+        let plain = |c: &String| !c.contains(['"', ',', '\n', '\r', '\u{feff}']);
+        let n = table.header.len();
+        let header_line = table.header.join(",");
+        let ok = n > 0
+            && table.header.iter().any(|h| !h.trim().is_empty())
+            && !header_line.trim_start().starts_with('#')
+            && table.header.iter().all(plain)
+            && table.rows.iter().all(|r| r.len() == n && !(n == 1 && r[0].is_empty()) && r.iter().all(plain));
+        if !ok {
+            return Err(table);
         }
+        let trimmed = |c: String| if c.trim().len() == c.len() { c } else { c.trim().to_string() };
+        let metadata = table.metadata.iter().map(|m| super::metadata_text(m).trim().to_string()).collect();
+        let header = table.header.into_iter().map(trimmed).collect();
+        let rows = table.rows.into_iter().map(|r| r.into_iter().map(trimmed).collect()).collect();
         Ok(CsvData { path: path.to_path_buf(), metadata, header, rows })
     }
 
@@ -115,6 +137,45 @@ impl CsvData {
     }
 }
 
+/// The header and rows of CSV text by the `csv` reader (quoted cells, any line ends).
+fn parse_with_reader(body: &str, path: &Path) -> Result<(Vec<String>, Vec<Vec<String>>), OutputError> {
+    let mut reader = csv::ReaderBuilder::new().has_headers(true).flexible(false).trim(csv::Trim::All).from_reader(body.as_bytes());
+    let header: Vec<String> = reader.headers().map_err(|e| read_err(path, format!("header: {e}")))?.iter().map(|s| s.to_string()).collect();
+    if header.is_empty() || header.iter().all(|h| h.is_empty()) {
+        return Err(read_err(path, "no header line"));
+    }
+    let mut rows = vec![];
+    for (i, rec) in reader.records().enumerate() {
+        let rec = rec.map_err(|e| read_err(path, format!("data row {}: {e}", i + 1)))?;
+        rows.push(rec.iter().map(|s| s.to_string()).collect());
+    }
+    Ok((header, rows))
+}
+
+/// The header and rows of CSV text that holds no quote, carriage return or byte-order mark, with every line the
+/// same number of cells: the lines split at `\n` (empty lines skipped) and the cells at `,`, each trimmed of
+/// Unicode white space — what the `csv` reader (`Trim::All`, not flexible) returns for such text, without building
+/// one (about 0.27 M instructions each). None for anything else, which the `csv` reader then parses (and
+/// reports on).
+fn parse_plain(body: &str) -> Option<(Vec<String>, Vec<Vec<String>>)> {
+    if body.bytes().any(|b| b == b'"' || b == b'\r') || body.contains('\u{feff}') {
+        return None;
+    }
+    let mut lines = body.split('\n').filter(|l| !l.is_empty());
+    let Some(first) = lines.next() else { return Some((vec![], vec![])) };
+    let header: Vec<String> = first.split(',').map(|c| c.trim().to_string()).collect();
+    let mut rows = vec![];
+    for line in lines {
+        let mut row = Vec::with_capacity(header.len());
+        row.extend(line.split(',').map(|c| c.trim().to_string()));
+        if row.len() != header.len() {
+            return None;
+        }
+        rows.push(row);
+    }
+    Some((header, rows))
+}
+
 /// A run folder read back from disk: the history, the summary and, when present, the residue table.
 #[derive(Debug, Clone)]
 pub struct SavedRun {
@@ -140,21 +201,67 @@ impl SavedRun {
 
     /// Read a run folder. summary.json is optional (an empty object when absent); residue.csv is optional.
     pub fn load(dir: &Path) -> Result<Self, OutputError> {
-        let history = CsvData::read(&dir.join("history.csv"))?;
+        let read = |name: &str| -> Result<Option<String>, OutputError> {
+            let path = dir.join(name);
+            if !path.is_file() {
+                return Ok(None);
+            }
+            std::fs::read_to_string(&path).map(Some).map_err(|e| read_err(&path, e.to_string()))
+        };
+        let history_path = dir.join("history.csv");
+        let history = std::fs::read_to_string(&history_path).map_err(|e| read_err(&history_path, e.to_string()))?;
+        let parsed = |name: &str| -> Result<Option<CsvData>, OutputError> { read(name)?.map(|t| CsvData::parse(&t, &dir.join(name))).transpose() };
+        Self::assemble(dir, || CsvData::parse(&history, &history_path), || read("summary.json"), || parsed("residue.csv"), || parsed("profiles.csv"))
+    }
+
+    /// A run folder from the texts of its files (history.csv; summary.json, residue.csv and profiles.csv when
+    /// present), parsed exactly as [`SavedRun::load`] parses the files: a command that has just written them
+    /// draws its page without reading them back.
+    pub fn from_texts(dir: &Path, history: &str, summary: Option<&str>, residue: Option<&str>, profiles: Option<&str>) -> Result<Self, OutputError> {
+        let parsed = |t: Option<&str>, name: &str| -> Result<Option<CsvData>, OutputError> { t.map(|t| CsvData::parse(t, &dir.join(name))).transpose() };
+        Self::assemble(dir, || CsvData::parse(history, &dir.join("history.csv")), || Ok(summary.map(str::to_string)), || parsed(residue, "residue.csv"), || parsed(profiles, "profiles.csv"))
+    }
+
+    /// A run folder from the tables and texts just written (history.csv, summary.json, residue.csv and
+    /// profiles.csv when present): each table taken as [`CsvData::from_table`] where that equals parsing its
+    /// text, else its text parsed as [`SavedRun::load`] parses the file.
+    pub fn from_tables(dir: &Path, history: (super::CsvTable, &str), summary: Option<&str>, residue: Option<(super::CsvTable, &str)>, profiles: Option<(super::CsvTable, &str)>) -> Result<Self, OutputError> {
+        let take = |(table, text): (super::CsvTable, &str), name: &str| -> Result<CsvData, OutputError> {
+            let path = dir.join(name);
+            match CsvData::from_table(table, &path) {
+                Ok(data) => Ok(data),
+                Err(_) => CsvData::parse(text, &path),
+            }
+        };
+        Self::assemble(
+            dir,
+            || take(history, "history.csv"),
+            || Ok(summary.map(str::to_string)),
+            || residue.map(|r| take(r, "residue.csv")).transpose(),
+            || profiles.map(|p| take(p, "profiles.csv")).transpose(),
+        )
+    }
+
+    /// Parse the files in the order [`SavedRun::load`] has always read them (so the first error is the same).
+    fn assemble(
+        dir: &Path,
+        history: impl FnOnce() -> Result<CsvData, OutputError>,
+        summary: impl FnOnce() -> Result<Option<String>, OutputError>,
+        residue: impl FnOnce() -> Result<Option<CsvData>, OutputError>,
+        profiles: impl FnOnce() -> Result<Option<CsvData>, OutputError>,
+    ) -> Result<Self, OutputError> {
+        let history = history()?;
         for col in ["time_s", "evaporated_fraction", "d2_ratio", "surface_temperature_K"] {
             if !history.has(col) {
                 return Err(read_err(&history.path, format!("no column '{col}': not a dropcut history file")));
             }
         }
         let summary_path = dir.join("summary.json");
-        let summary = if summary_path.is_file() {
-            let text = std::fs::read_to_string(&summary_path).map_err(|e| read_err(&summary_path, e.to_string()))?;
-            serde_json::from_str(&text).map_err(|e| read_err(&summary_path, format!("not valid JSON: {e}")))?
-        } else {
-            serde_json::Value::Object(Default::default())
+        let summary = match summary()? {
+            Some(text) => serde_json::from_str(&text).map_err(|e| read_err(&summary_path, format!("not valid JSON: {e}")))?,
+            None => serde_json::Value::Object(Default::default()),
         };
-        let residue_path = dir.join("residue.csv");
-        let residue = if residue_path.is_file() { Some(CsvData::read(&residue_path)?.layer("mean")) } else { None };
+        let residue = residue()?.map(|r| r.layer("mean"));
         let classes: Vec<(String, String)> = summary
             .get("component_classes")
             .and_then(|v| v.as_array())
@@ -175,8 +282,7 @@ impl SavedRun {
                 (id, class)
             })
             .collect();
-        let profiles_path = dir.join("profiles.csv");
-        let profiles = if profiles_path.is_file() { Some(CsvData::read(&profiles_path)?) } else { None };
+        let profiles = profiles()?;
         Ok(SavedRun { dir: dir.to_path_buf(), history, summary, residue, components, profiles })
     }
 
@@ -260,6 +366,82 @@ mod tests {
         assert_eq!(t.clone().layer("other").numbers("x").unwrap(), vec![Some(1.0), Some(3.0)]);
         let u = CsvData::parse("x\n1\n", Path::new("r.csv")).unwrap();
         assert_eq!(u.layer("mean").rows.len(), 1);
+    }
+
+    #[test]
+    fn plain_text_is_split_as_the_csv_reader_splits_it() {
+        // random texts over an alphabet of cell text, separators, Unicode and ASCII white space and the characters
+        // that send a text to the csv reader (quote, CR, byte-order mark): wherever the plain split answers, it
+        // answers what the reader returns, and it answers for the tables dropcut writes
+        let alphabet = ["a", "1", "e-3", ",", ",", "\n", "\n", " ", "\t", "\u{a0}", "\u{2003}", "\u{feff}", "\"", "\r", "#", "é", "\u{b}"];
+        let mut state: u64 = 0x9e37_79b9_7f4a_7c15;
+        let mut next = |n: usize| {
+            state = state.wrapping_mul(6_364_136_223_846_793_005).wrapping_add(1_442_695_040_888_963_407);
+            ((state >> 33) % n as u64) as usize
+        };
+        let (mut plain, mut compared) = (0, 0);
+        for _ in 0..60_000 {
+            let len = 1 + next(40);
+            let body: String = (0..len).map(|_| alphabet[next(alphabet.len())]).collect();
+            let Some((header, rows)) = parse_plain(&body) else { continue };
+            plain += 1;
+            match parse_with_reader(&body, Path::new("x.csv")) {
+                Ok((h, r)) => {
+                    compared += 1;
+                    assert_eq!((&header, &rows), (&h, &r), "{body:?}");
+                }
+                // the reader refuses only a text without a header; parse() refuses that one too
+                Err(e) => assert!(header.is_empty() || header.iter().all(|h| h.is_empty()), "{body:?}: {e}"),
+            }
+        }
+        assert!(plain > 4_000 && compared > 3_000, "{plain} plain, {compared} compared");
+        // dropcut's own tables take the plain path
+        let table = "time_s,evaporated_fraction,regime\n0,0,heating\n1e-5,0.25,evaporating\n";
+        assert!(parse_plain(table).is_some());
+        assert!(parse_plain("a,b\n\"x,y\",1\n").is_none());
+        assert!(parse_plain("a,b\r\n1,2\r\n").is_none());
+        assert!(parse_plain("a,b\n1\n").is_none());
+    }
+
+    /// A table taken directly equals the parse of its rendered text; tables where that could differ are refused.
+    #[test]
+    fn table_and_parse_agree() {
+        use crate::output::{Cell, CsvTable};
+        let path = Path::new("t.csv");
+        let same = |t: CsvTable| -> bool {
+            let parsed = CsvData::parse(&t.render(), path).ok();
+            match CsvData::from_table(t, path) {
+                Ok(direct) => {
+                    let parsed = parsed.unwrap_or_else(|| panic!("a table taken directly parses: {:?}", direct.header));
+                    assert_eq!((&direct.metadata, &direct.header, &direct.rows), (&parsed.metadata, &parsed.header, &parsed.rows));
+                    true
+                }
+                Err(_) => false,
+            }
+        };
+        let table = |meta: &[&str], header: &[&str], rows: &[&[&str]]| {
+            let mut t = CsvTable::new(header.iter().map(|h| h.to_string()).collect());
+            t.metadata = meta.iter().map(|m| m.to_string()).collect();
+            for r in rows {
+                t.push(r.iter().map(|c| Cell::Text(c.to_string())).collect(), "t.csv").unwrap();
+            }
+            t
+        };
+        // taken directly (and equal to the parse)
+        assert!(same(table(&["dropcut 0.1", "  fuel: a\tb\nc ", "", "esc \u{1b} x"], &["time_s", "x"], &[&["0", "1e-5"], &[" 2 ", ""], &["\u{a0}3", "é"]])));
+        let mut numbers = CsvTable::new(vec!["a".into(), "b".into()]);
+        numbers.push(vec![Cell::Num(1.5e-7), Cell::Opt(None)], "t.csv").unwrap();
+        assert!(same(numbers));
+        assert!(same(table(&[], &["only"], &[&["1"], &["2"]])));
+        // refused: quoting, an empty line, a header read as metadata or blank, ragged rows, CR, BOM
+        assert!(!same(table(&[], &["a", "b"], &[&["x, y", "1"]])));
+        assert!(!same(table(&[], &["a", "b"], &[&["say \"hi\"", "1"]])));
+        assert!(!same(table(&[], &["a"], &[&["1"], &[""], &["2"]])));
+        assert!(!same(table(&[], &["#a", "b"], &[&["1", "2"]])));
+        assert!(!same(table(&[], &[" ", ""], &[&["1", "2"]])));
+        assert!(!same(table(&[], &["a", "b"], &[&["1"]])));
+        assert!(!same(table(&[], &["a", "b"], &[&["1\r", "2"]])));
+        assert!(!same(table(&[], &["\u{feff}a", "b"], &[&["1", "2"]])));
     }
 
     #[test]

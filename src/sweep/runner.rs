@@ -261,7 +261,7 @@ fn run_case(spec: &SweepSpec, id: u64, out: &Path, histories: bool, extra: &[Box
     match result {
         Ok(Ok(run)) => {
             if histories {
-                crate::output::history::write_run(&case_dir, &inputs, &run)?;
+                crate::output::history::write_run(&case_dir, &inputs, &run, crate::output::Durability::Synced)?;
             }
             Ok(fmt.finished(spec, &case, &inputs, &run.outcome, extra))
         }

@@ -25,7 +25,7 @@ pub(super) fn save(dir: &Path, stem: &str, title: &str, size: (u32, u32), fig: F
         root.present().map_err(|e| chart_err(&svg_path, de(e)))?;
     }
     let svg = svg_at_image_size(svg, svg_canvas, SVG_SCALE).map_err(|m| chart_err(&svg_path, m))?;
-    write_replace(&svg_path, svg.as_bytes())?;
+    write_atomic(&svg_path, svg.as_bytes())?;
     // PNG: drawn on a canvas PNG_SCALE times larger, then reduced with an area filter (anti-aliasing)
     let png_canvas = PNG_SCALE.canvas(size);
     // allocated white (one pass of memset): the figure's white background fill is then skipped
@@ -48,7 +48,7 @@ pub(super) fn save(dir: &Path, stem: &str, title: &str, size: (u32, u32), fig: F
         return Err(chart_err(&png_path, de(e)));
     }
     super::super::check_file_target(&png_path)?;
-    if let Err(e) = std::fs::rename(&tmp, &png_path) {
+    if let Err(e) = super::super::replace_file(&tmp, &png_path, false) {
         let _ = std::fs::remove_file(&tmp);
         return Err(chart_err(&png_path, e.to_string()));
     }

@@ -33,7 +33,7 @@ pub use runs::*;
 pub use table_charts::*;
 use raster::*;
 
-use super::{write_replace, OutputError};
+use super::{write_atomic, OutputError};
 
 /// Font family name every text element uses (registered with the built-in Noto Sans).
 const FONT: &str = "sans-serif";

@@ -13,6 +13,8 @@ use dropcut::model::droplet::{LiquidHeat, LiquidMixing, NoHistory};
 use dropcut::model::{simulate, DropletInputs};
 
 mod common;
+#[path = "common/sweep_spec.rs"]
+mod sweep_spec;
 use common::{fifty, fuel, inputs_of};
 
 fn main() {
@@ -97,17 +99,8 @@ fn trace(inp: &DropletInputs) {
 /// per-case cost is the difference of two repeat counts over 64 times their difference.
 fn sweep10(lib: &Library, repeats: usize) {
     use dropcut::sweep::{self, runner::NoProgress, RunOptions, SweepSpec};
-    const SPEC: &str = r#"
-fuels = ["ten-component.toml"]
-[conditions]
-ambient-temperature = { from = "600K", to = "1000K", steps = 8 }
-pressure = ["1bar", "10bar"]
-diameter = ["20um", "50um"]
-velocity = [0, 10]
-max-time = "2s"
-"#;
     let data = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/data");
-    let spec = SweepSpec::parse(SPEC, "bench-spec.toml", &data, lib).expect("bench spec");
+    let spec = SweepSpec::parse(sweep_spec::SPEC, "bench-spec.toml", &data, lib).expect("bench spec");
     let root = std::env::temp_dir().join(format!("dropcut-counts-sweep-{}", std::process::id()));
     for k in 0..repeats {
         let dir = root.join(k.to_string());

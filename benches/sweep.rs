@@ -8,15 +8,10 @@ use criterion::{criterion_group, criterion_main, Criterion, Throughput};
 use dropcut::data::Library;
 use dropcut::sweep::{self, runner::NoProgress, ResidueIndicators, RunOptions, SweepSpec};
 
-const SPEC: &str = r#"
-fuels = ["ten-component.toml"]
-[conditions]
-ambient-temperature = { from = "600K", to = "1000K", steps = 8 }
-pressure = ["1bar", "10bar"]
-diameter = ["20um", "50um"]
-velocity = [0, 10]
-max-time = "2s"
-"#;
+#[path = "common/sweep_spec.rs"]
+mod sweep_spec;
+use sweep_spec::SPEC;
+
 
 fn sweep_throughput(c: &mut Criterion) {
     let lib = Library::embedded().expect("embedded library");

@@ -302,7 +302,7 @@ pub struct Film {
     /// ln(1 + B_T) of the last evaluation below the bubble point with Re > 0 (start of the next iteration;
     /// NaN before the first).
     last_heat_log: f64,
-    /// Vapour pressures filled by the caller for `vapor_pressure_temperature` (see [`Film::vapor_pressures_for`]).
+    /// Vapour pressures at `vapor_pressure_temperature`, kept by [`Film::liquid_state`].
     vapor_pressures: Vec<f64>,
     /// Temperature of `vapor_pressures`; taken by the next surface equilibrium.
     vapor_pressure_temperature: Option<f64>,
@@ -338,17 +338,9 @@ impl Film {
         }
     }
 
-    /// Slots for the component vapour pressures at `t` \[Pa\], which the caller fills (with the values of
-    /// `Component::vapor_pressure`) when it has them: the next surface equilibrium, if it is at exactly `t`,
-    /// uses them instead of evaluating them again. Any other call forgets them.
-    pub fn vapor_pressures_for(&mut self, t: f64) -> &mut [f64] {
-        self.vapor_pressure_temperature = Some(t);
-        &mut self.vapor_pressures
-    }
-
     /// Liquid properties of composition `w` (mass fractions) at `t`: writes the component latent heats
-    /// \[J/kg\] to `latent`, keeps the vapour pressures for the next surface equilibrium at `t` (see
-    /// [`Film::vapor_pressures_for`]) and returns the mixture density \[kg/m³\] (volume-additive) and heat capacity
+    /// \[J/kg\] to `latent`, keeps the vapour pressures for the next surface equilibrium if it is at exactly `t`
+    /// (any other call forgets them) and returns the mixture density \[kg/m³\] (volume-additive) and heat capacity
     /// \[J/(kg·K)\] (mass-weighted), the values of `props::liquid::density` and `heat_capacity` bit for bit.
     pub fn liquid_state(&mut self, w: &[f64], t: f64, latent: &mut [f64]) -> (f64, f64) {
         let (mut inv_rho, mut cp) = (0.0, 0.0);

@@ -178,9 +178,8 @@ impl Model {
     /// `self.rates`.
     fn film_with(&mut self, surface_y: &[f64], t_s: f64, mass: f64, rho: f64, speed: f64, heat_inward: Option<f64>) -> FilmResult {
         liquid::mass_to_mole_into(&self.comps, surface_y, &mut self.x_surf);
-        for i in 0..self.n {
-            self.latent[i] = self.comps[i].latent_heat(t_s);
-        }
+        // latent heats and vapour pressures from one kernel look-up per component (the film keeps the latter)
+        let _ = self.film.liquid_state(surface_y, t_s, &mut self.latent);
         let d = (6.0 * mass.max(1e-300) / (std::f64::consts::PI * rho)).cbrt();
         self.film.liquid_density = rho;
         let x = std::mem::take(&mut self.x_surf);

@@ -76,12 +76,8 @@ impl WellMixed {
         let m = self.unpack(y);
         let x = std::mem::take(&mut self.x);
         let t_s = Self::bubble_point(&mut self.film, &x);
-        let comps = &self.film.setup.components;
-        for i in 0..n {
-            self.latent[i] = comps[i].latent_heat(t_s);
-        }
-        let rho_l = liquid::density(comps, &self.w, t_s);
-        let d = (6.0 * m.max(1e-300) / (std::f64::consts::PI * rho_l)).cbrt();
+        let (rho_l, _) = self.film.liquid_state(&self.w, t_s, &mut self.latent);
+        let d = crate::numerics::cbrt(6.0 * m.max(1e-300) / (std::f64::consts::PI * rho_l));
         self.film.liquid_density = rho_l;
         let latent = std::mem::take(&mut self.latent);
         let f = self.film.evaluate(&x, t_s, d, y[n + 1], &latent, None);

@@ -63,13 +63,15 @@ impl TransferCorrelation {
 /// by their first-order terms instead of two more exponentials.
 fn solve_heat_log(last_heat_log: &mut f64, a_heat: f64, c: f64) -> (f64, f64, f64) {
     let mut lam = if last_heat_log.is_finite() { *last_heat_log } else { a_heat / (2.0 + c) };
-    let mut out = (lam, 2.0 + c, (-lam).exp_m1());
+    // the loop runs at least once and sets every part (no exponential spent on a value never used)
+    let mut out = (lam, 2.0 + c, 0.0);
     for _ in 0..60 {
         let (f, dln_f, em1) = film_correction_of_log(lam);
-        let nu = 2.0 + c / f;
-        let g = a_heat / nu;
+        let c_over_f = c / f;
+        let inv_nu = 1.0 / (2.0 + c_over_f);
+        let g = a_heat * inv_nu;
         // dg/dλ = g (c/F)/Nu* d ln F/dλ
-        let slope = 1.0 - g * (c / f) / nu * dln_f;
+        let slope = 1.0 - g * c_over_f * inv_nu * dln_f;
         let r = lam - g;
         let mut step = if slope > 0.05 { r / slope } else { r };
         if !step.is_finite() {
@@ -126,7 +128,8 @@ fn film_correction_of_log(lam: f64) -> (f64, f64, f64) {
         let ratio = 1.0 + 0.5 * lam + l2 / 12.0 - l2 * l2 / 720.0;
         return (decay * ratio, 0.2 - lam / 12.0 + l2 * lam / 720.0, em1);
     }
-    (decay * lam / -em1, 1.0 / lam + (1.0 + em1) / em1 - 0.3, em1)
+    let inv_em1 = 1.0 / em1; // one division for both parts
+    (-(decay * lam) * inv_em1, 1.0 / lam + (1.0 + em1) * inv_em1 - 0.3, em1)
 }
 
 /// Abramzon–Sirignano circulation enhancement χ(Pe_L) = 1.86 + 0.86 tanh(2.225 log10(Pe_L/30)).

@@ -72,7 +72,8 @@ pub trait Observer {
     fn on_step(&mut self, _row: &HistoryRow) -> bool {
         false
     }
-    /// True when the observer wants full rows (with fractions) at every step.
+    /// True when the observer wants full rows (with fractions) at every step; false: the run keeps no rows and
+    /// the rows given to [`Observer::on_step`] may have empty liquid and vapour mass fractions.
     fn wants_rows(&self) -> bool {
         true
     }

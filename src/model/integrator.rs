@@ -94,11 +94,13 @@ pub struct DormandPrince {
     fsal_ready: bool,
     /// Largest allowed step.
     pub h_max: f64,
-    fac_old: f64,
+    /// ln of the previous accepted step's error (at least 1e-4), for the PI controller.
+    ln_fac_old: f64,
     /// Length and error of the previous accepted step (0: none since the start or the last reset), for the
     /// predictive controller.
     h_acc: f64,
-    err_acc: f64,
+    /// ln of the previous accepted step's error (at least 1e-2), for the predictive controller.
+    ln_err_acc: f64,
 }
 
 /// Why a step failed.
@@ -137,9 +139,9 @@ impl DormandPrince {
             tol,
             fsal_ready: false,
             h_max,
-            fac_old: 1e-4,
+            ln_fac_old: (1e-4f64).ln(),
             h_acc: 0.0,
-            err_acc: 0.0,
+            ln_err_acc: 0.0,
         };
         sys.rhs(t0, &s.y, &mut s.k[0]);
         s.stats.rhs_calls += 1;
@@ -251,22 +253,25 @@ impl DormandPrince {
                 }
             }
             let err = (acc / n as f64).sqrt();
-            // PI step-size control (Hairer's DOPRI5: beta = 0.04, safety 0.9, factors 0.2..10)
-            let fac11 = err.max(1e-300).powf(0.2 - 0.04 * 0.75);
-            let mut fac = fac11 / self.fac_old.powf(0.04);
-            fac = (fac / 0.9).clamp(0.1, 5.0);
+            // PI step-size control (Hairer's DOPRI5: beta = 0.04, safety 0.9, factors 0.2..10). The powers of the
+            // errors are taken from their logarithms (one ln per step, the previous steps' ln kept): one ln and
+            // at most two exp instead of three pow.
+            let ln_err = err.max(1e-300).ln();
+            // err^0.17 / fac_old^0.04
+            let fac = (((0.2 - 0.04 * 0.75) * ln_err - 0.04 * self.ln_fac_old).exp() / 0.9).clamp(0.1, 5.0);
             let mut h_new = h / fac;
             if err <= 1.0 {
-                self.fac_old = err.max(1e-4);
+                self.ln_fac_old = ln_err.max((1e-4f64).ln());
                 if self.h_acc > 0.0 {
                     // Gustafsson's predictive controller (Hairer & Wanner, Solving ODEs II, §IV.8, as in RADAU5),
                     // taken when smaller: an error growing from step to step (a droplet's last stretch, where
                     // m ~ (τ − t)^{3/2}) shrinks the step before it fails instead of after.
-                    let fac_pred = (self.h_acc / h * (err * err / self.err_acc).powf(0.2) / 0.9).clamp(0.1, 5.0);
+                    // (err² / err_acc)^0.2
+                    let fac_pred = (self.h_acc / h * (0.2 * (2.0 * ln_err - self.ln_err_acc)).exp() / 0.9).clamp(0.1, 5.0);
                     h_new = h_new.min(h / fac_pred);
                 }
                 self.h_acc = h;
-                self.err_acc = err.max(1e-2);
+                self.ln_err_acc = ln_err.max((1e-2f64).ln());
                 if rejected_here {
                     h_new = h_new.min(h);
                 }
@@ -299,6 +304,7 @@ impl DormandPrince {
             }
             self.stats.rejected += 1;
             rejected_here = true;
+            let fac11 = ((0.2 - 0.04 * 0.75) * ln_err).exp();
             self.h = h / (fac11 / 0.9).clamp(1.0, MAX_SHRINK_AFTER_REJECTION);
         }
     }

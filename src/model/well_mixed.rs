@@ -42,6 +42,8 @@ pub struct WellMixed {
     /// Surface temperature used in the last rhs call \[K\].
     pub last_surface_temperature: f64,
     initial_mass: f64,
+    /// Rows carry the liquid and vapour mass fractions (false: empty fractions, for observers that keep no rows).
+    rows_with_fractions: bool,
 }
 
 impl WellMixed {
@@ -182,6 +184,7 @@ impl WellMixed {
             last: FilmResult::default(),
             last_surface_temperature: t0,
             initial_mass: m0,
+            rows_with_fractions: true,
         };
         let mut y0 = vec![0.0; 2 * n + 2];
         for i in 0..n {
@@ -331,7 +334,9 @@ impl WellMixed {
         let rho = liquid::density(&self.film.setup.components, &self.w, self.last_surface_temperature);
         let d = (6.0 * m / (std::f64::consts::PI * rho)).cbrt();
         let mdot = self.last.evaporation_rate;
-        let vapor: Vec<f64> = if mdot.abs() > 1e-300 {
+        let vapor: Vec<f64> = if !self.rows_with_fractions {
+            vec![]
+        } else if mdot.abs() > 1e-300 {
             self.film.species_rate.iter().map(|r| r / mdot).collect()
         } else {
             let s: f64 = self.film.surface_mass.iter().sum();
@@ -346,7 +351,7 @@ impl WellMixed {
             evaporated_fraction: 1.0 - m / m0,
             velocity: y[n + 1],
             film: self.last,
-            liquid_mass_fractions: self.w.clone(),
+            liquid_mass_fractions: if self.rows_with_fractions { self.w.clone() } else { vec![] },
             vapor_mass_fractions: vapor,
             regime: self.regime,
             mean_temperature: self.last_surface_temperature,
@@ -493,10 +498,13 @@ pub(crate) fn simulate_well_mixed(inp: &DropletInputs, observer: &mut dyn Observ
     let mut y_end = vec![0.0; 2 * n + 2];
     let mut y_sample = if history.sampling() { vec![0.0; 2 * n + 2] } else { vec![] };
 
+    // an observer that keeps no rows gets them without fractions (no allocation per step); the watches read
+    // the liquid mass fractions from the system
+    sys.rows_with_fractions = observer.wants_rows();
     let first = sys.row(inp.initial_diameter, m0, 0.0, &y0, &mut dydt, true);
     let boiling_onset = if sys.regime == Regime::Boiling { Some(0.0) } else { None };
     let mut log = RunLog {
-        watch: RunWatch::start(&comps, &first.liquid_mass_fractions, &first),
+        watch: RunWatch::start(&comps, &sys.w, &first),
         boiling_onset,
         boiling_entries: usize::from(boiling_onset.is_some()),
         boiling_exits: 0,
@@ -531,7 +539,7 @@ pub(crate) fn simulate_well_mixed(inp: &DropletInputs, observer: &mut dyn Observ
             log.status = Status::Evaporated;
         }
         let mut row = sys.row(inp.initial_diameter, m0, t_now, &y_end, &mut dydt, finished);
-        log.watch.observe(&comps, &row.liquid_mass_fractions, &row, t_now);
+        log.watch.observe(&comps, &sys.w, &row, t_now);
         let regime_in_step = sys.regime();
         let mut changed = false;
         if !finished {

@@ -13,8 +13,8 @@ pub const AIR: [(&str, f64); 3] = [("n2", 0.7812), ("o2", 0.2096), ("ar", 0.0092
 /// An ambient gas: species and their mole fractions.
 #[derive(Debug, Clone)]
 pub struct AmbientGas {
-    /// Species.
-    pub species: Vec<GasSpecies>,
+    /// Species (shared by copies of this gas: a droplet run copies its gas without copying the correlations).
+    pub species: Arc<[GasSpecies]>,
     /// Mole fractions \[-\], sum 1.
     pub mole_fractions: Vec<f64>,
     /// Mass fractions \[-\], sum 1.
@@ -127,7 +127,7 @@ impl AmbientGas {
                 wilke_factors.push(((wj / wi).powf(0.25), 1.0 / (8.0 * (1.0 + wi / wj)).sqrt()));
             }
         }
-        AmbientGas { species, mole_fractions, mass_fractions, molar_mass, label: label.to_string(), wilke_factors, kernel: None, kernel_slot: Default::default() }
+        AmbientGas { species: species.into(), mole_fractions, mass_fractions, molar_mass, label: label.to_string(), wilke_factors, kernel: None, kernel_slot: Default::default() }
     }
 
     /// Dry air.

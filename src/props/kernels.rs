@@ -448,14 +448,14 @@ pub struct GasKernel {
 /// Whether the transport properties of `gas` are those `kernel` was built for: same species with the same
 /// correlations, same mole fractions (compared field by field; no formatting, no allocation).
 fn built_for(kernel: &GasKernel, gas: &AmbientGas) -> bool {
-    kernel.built_for.0 == gas.species && kernel.built_for.1.len() == gas.mole_fractions.len() && kernel.built_for.1.iter().zip(&gas.mole_fractions).all(|(a, b)| *a == b.to_bits())
+    kernel.built_for.0[..] == gas.species[..] && kernel.built_for.1.len() == gas.mole_fractions.len() && kernel.built_for.1.iter().zip(&gas.mole_fractions).all(|(a, b)| *a == b.to_bits())
 }
 
 impl GasKernel {
     /// Segments for `gas` (ends at every validity limit of its species' correlations).
     pub fn new(gas: &AmbientGas) -> Self {
         let mut k = vec![];
-        for g in &gas.species {
+        for g in gas.species.iter() {
             for corr in [&g.ideal_gas_heat_capacity, &g.viscosity, &g.conductivity] {
                 k.push(corr.t_min);
                 k.push(corr.t_max);
@@ -469,7 +469,7 @@ impl GasKernel {
         k.dedup_by(|a, b| (*a - *b).abs() < 1e-6);
         let (segments, cell_first) = segments_between(k);
         let polys = (0..segments.len() * 3).map(|_| OnceLock::new()).collect();
-        GasKernel { built_for: (gas.species.clone(), gas.mole_fractions.iter().map(|v| v.to_bits()).collect()), segments, cell_first, polys }
+        GasKernel { built_for: (gas.species.to_vec(), gas.mole_fractions.iter().map(|v| v.to_bits()).collect()), segments, cell_first, polys }
     }
 
     /// (cp, μ, k) of `gas` at `t` from the kernel; None where the direct evaluation applies.

@@ -57,12 +57,16 @@ impl TransferCorrelation {
 }
 
 /// Root λ of λ = A/Nu*(λ), Nu*(λ) = 2 + c/F(λ) (λ = ln(1 + B_T), F the film correction, c = Nu0 − 2 ≠ 0) by
-/// Newton's method from `last_heat_log`, the previous call's root (successive calls are close in state; the new
-/// root is written back), with the fixed-point step where the Newton slope is not safe. Returns (λ, Nu*(λ), e^(−λ) − 1); after the last
+/// Newton's method from one fixed-point step off `last_heat`, the previous call's root and its F (successive
+/// calls are close in state; the new root is written back), with the fixed-point step where the Newton slope is not safe. Returns (λ, Nu*(λ), e^(−λ) − 1); after the last
 /// step (|Δλ| ≤ 1e-7 (1 + |λ|); Newton's error after it is of order Δλ², about 1e-14) F and e^(−λ) are carried to the new λ
 /// by their first-order terms instead of two more exponentials.
-fn solve_heat_log(last_heat_log: &mut f64, a_heat: f64, c: f64) -> (f64, f64, f64) {
-    let mut lam = if last_heat_log.is_finite() { *last_heat_log } else { a_heat / (2.0 + c) };
+fn solve_heat_log(last_heat: &mut (f64, f64), a_heat: f64, c: f64) -> (f64, f64, f64) {
+    // start: one fixed-point step from the previous root with this call's A and c, λ₀ = A/(2 + c/F(λ_prev))
+    // (F of the previous root kept; no exponential), which follows a change of A or Nu0 at once
+    let (last_lam, last_f) = *last_heat;
+    let guess = a_heat / (2.0 + c / last_f);
+    let mut lam = if last_lam.is_finite() && guess.is_finite() { guess.max(-6.9) } else { a_heat / (2.0 + c) };
     // the loop runs at least once and sets every part (no exponential spent on a value never used)
     let mut out = (lam, 2.0 + c, 0.0);
     for _ in 0..60 {
@@ -83,11 +87,11 @@ fn solve_heat_log(last_heat_log: &mut f64, a_heat: f64, c: f64) -> (f64, f64, f6
         let f_next = f * (1.0 + dln_f * moved);
         out = (next, 2.0 + c / f_next, em1 - (1.0 + em1) * moved);
         lam = next;
+        *last_heat = (lam, f_next);
         if moved.abs() <= 1e-7 * (1.0 + lam.abs()) {
             break;
         }
     }
-    *last_heat_log = lam;
     out
 }
 
@@ -302,9 +306,9 @@ pub struct Film {
     pub liquid_density: f64,
     /// Ratio of non-equilibrium to equilibrium total surface vapour mole fraction in the last evaluation.
     pub non_equilibrium_factor: f64,
-    /// ln(1 + B_T) of the last evaluation below the bubble point with Re > 0 (start of the next iteration;
-    /// NaN before the first).
-    last_heat_log: f64,
+    /// ln(1 + B_T) of the last evaluation below the bubble point with Re > 0 and its film correction F (start of
+    /// the next iteration; NaN before the first).
+    last_heat: (f64, f64),
     /// Vapour pressures at `vapor_pressure_temperature`, kept by [`Film::liquid_state`].
     vapor_pressures: Vec<f64>,
     /// Temperature of `vapor_pressures`; taken by the next surface equilibrium.
@@ -334,7 +338,7 @@ impl Film {
             surface_mole_eq: vec![0.0; n],
             liquid_density: 700.0,
             non_equilibrium_factor: 1.0,
-            last_heat_log: f64::NAN,
+            last_heat: (f64::NAN, 1.0),
             vapor_pressures: vec![0.0; n],
             vapor_pressure_temperature: None,
             setup,
@@ -689,7 +693,7 @@ impl Film {
             let lam = 0.5 * a_heat;
             (lam, 2.0, (-lam).exp_m1())
         } else {
-            solve_heat_log(&mut self.last_heat_log, a_heat, nu0 - 2.0)
+            solve_heat_log(&mut self.last_heat, a_heat, nu0 - 2.0)
         };
         // B_T = e^λ − 1 = −(e^(−λ) − 1)/e^(−λ)
         let b_t = (-em1 / (1.0 + em1)).min(1e300);

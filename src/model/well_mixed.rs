@@ -692,6 +692,36 @@ mod tests {
         assert!(life > 1e-3 && life < 2e-2, "{life}");
     }
 
+    /// A run whose observer keeps no rows (rows without fractions, the watches reading the system's liquid)
+    /// gives the outcome of a run that keeps every row: notes (freezing of an enriched heavy end, boiling),
+    /// heat-up end, maximum surface temperature, crossings and statistics.
+    #[test]
+    fn runs_without_rows_watch_as_runs_with_rows() {
+        use crate::model::history::NoHistory;
+        let lib = Library::embedded().unwrap();
+        let two = |a: &str, b: &str, wa: f64| {
+            let comps = vec![lib.component(a).unwrap().clone(), lib.component(b).unwrap().clone()];
+            Fuel::from_fractions("pair", comps, &[wa, 1.0 - wa], crate::fuel::Basis::Mass).unwrap()
+        };
+        let gas = AmbientGas::air(&lib).unwrap();
+        // cold heptane/hexadecane: the heavy end enriches while evaporative cooling holds the surface cold
+        let mut cold = DropletInputs::new(two("n-heptane", "n-hexadecane", 0.3), gas.clone(), 290.0, 101_325.0, 50e-6, 284.0);
+        cold.max_time = 0.05;
+        let mut fast = DropletInputs::new(two("n-hexane", "n-dodecane", 0.5), gas.clone(), 900.0, 101_325.0, 80e-6, 300.0);
+        fast.motion = Motion::Injected { velocity: 40.0 };
+        for (k, inp) in [cold, fast, boiling_decane(1e-6)].iter().enumerate() {
+            let kept = simulate(inp, &mut Recorder::default()).unwrap();
+            let bare = simulate(inp, &mut NoHistory).unwrap();
+            assert!(bare.history.is_empty() && !kept.history.is_empty());
+            assert_eq!(format!("{:?}", bare.outcome), format!("{:?}", kept.outcome));
+            if k == 0 {
+                // the freezing watch fires after the start (the heavy end enriches), from the system's fractions
+                let note = kept.outcome.regime_notes.iter().find(|n| n.contains("freezing point")).expect("freezing note");
+                assert!(!note.contains("t = 0.0000e0 s"), "{note}");
+            }
+        }
+    }
+
     /// n-decane, 50 µm at 300 K in 300 K air under 4000 K black-body radiation: evaporating, then held at the
     /// bubble point (a regime change inside a step).
     fn boiling_decane(rtol: f64) -> DropletInputs {

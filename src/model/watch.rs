@@ -44,7 +44,9 @@ impl CriticalWatch {
             if x > 0.01 && ratio > 0.95 && self.worst.is_none_or(|b| ratio > b.0) {
                 self.worst = Some((ratio, surface_temperature, c.critical_temperature(), i, x, time));
             }
-            if self.frozen.is_none() && x > 0.0 {
+            // the ideal-solubility freezing point lies at or below the melting point (x ≤ 1): a surface at or
+            // above it cannot freeze, and the logarithm is not needed
+            if self.frozen.is_none() && x > 0.0 && surface_temperature < c.constants.melting_point.value {
                 if let Some(h) = c.constants.enthalpy_of_fusion.as_ref() {
                     let t_f = 1.0 / (1.0 / c.constants.melting_point.value - crate::data::GAS_CONSTANT * x.ln() / h.value);
                     if surface_temperature < t_f {

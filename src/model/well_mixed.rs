@@ -264,12 +264,20 @@ impl WellMixed {
         let w0 = &inp.fuel.mass_fractions;
         let t0 = inp.initial_temperature;
         let x0 = inp.fuel.mole_fractions();
-        // No bubble point (vapour pressure below the ambient pressure at every temperature) means no boiling.
-        let t_bubble0 = sys.film.bubble_point(&x0).unwrap_or(f64::INFINITY);
-        let t_hold0 = boiling_hold_temperature(&comps, &mut sys.film.setup.activity, &x0, inp.pressure).unwrap_or(f64::INFINITY);
-        if inp.fixed_temperature || t0 < t_hold0 - 1e-9 {
+        if inp.fixed_temperature {
             return (sys, y0, None);
         }
+        // A start well below the hold temperature (bubble pressure at t0 under 90 % of the hold pressure; it rises
+        // with temperature) is told by one bubble-pressure evaluation instead of the root search.
+        if sys.film.setup.activity.bubble_pressure(&comps, &x0, t0) < 0.9 * BOILING_THRESHOLD * inp.pressure {
+            return (sys, y0, None);
+        }
+        // No bubble point (vapour pressure below the ambient pressure at every temperature) means no boiling.
+        let t_hold0 = boiling_hold_temperature(&comps, &mut sys.film.setup.activity, &x0, inp.pressure).unwrap_or(f64::INFINITY);
+        if t0 < t_hold0 - 1e-9 {
+            return (sys, y0, None);
+        }
+        let t_bubble0 = sys.film.bubble_point(&x0).unwrap_or(f64::INFINITY);
         let (masses, tb) = adiabatic_flash(&comps, &mut sys.film.setup.activity, w0, t0, m0, BOILING_THRESHOLD * inp.pressure, inp.end_mass_fraction);
         let m_left: f64 = masses.iter().sum();
         for i in 0..n {

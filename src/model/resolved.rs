@@ -100,7 +100,13 @@ pub(crate) struct Model {
     /// Scratch of a step: the species rates and the surface mass fractions its fluxes come from.
     step_rates: Vec<f64>,
     step_surface: Vec<f64>,
+    /// States and per-species vectors of finished steps, reused by the next ones (no allocation per step).
+    spare_states: Vec<State>,
+    spare_vectors: Vec<Vec<f64>>,
 }
+
+/// Largest number of spare states and vectors kept (a step attempt holds at most a few at a time).
+const SPARE_LIMIT: usize = 8;
 
 /// The liquid properties of one liquid state (its inventories and cell temperatures).
 struct LiquidCache {
@@ -168,6 +174,42 @@ impl Model {
         }
     }
 
+    /// A state of this model's dimensions with the time, mass, inventories, velocity, surface and regime of `s`;
+    /// its cell profiles (`y`, `temp`) hold stale values the caller overwrites. Reuses a spare state.
+    fn state_like(&mut self, s: &State) -> State {
+        let Some(mut t) = self.spare_states.pop() else { return s.clone() };
+        t.time = s.time;
+        t.mass = s.mass;
+        t.evaporated.copy_from_slice(&s.evaporated);
+        t.inventory.copy_from_slice(&s.inventory);
+        t.velocity = s.velocity;
+        t.surface_y.copy_from_slice(&s.surface_y);
+        t.surface_t = s.surface_t;
+        t.boiling = s.boiling;
+        t.heat_inward = s.heat_inward;
+        t
+    }
+
+    /// Keep `s` for reuse by a later step.
+    pub(crate) fn recycle(&mut self, s: State) {
+        if self.spare_states.len() < SPARE_LIMIT && s.y.len() == self.n * self.ny() && s.temp.len() == self.tgrid.len() {
+            self.spare_states.push(s);
+        }
+    }
+
+    /// A copy of `v` (one value per species) in a spare vector.
+    fn vector_copy(&mut self, v: &[f64]) -> Vec<f64> {
+        spare_copy(&mut self.spare_vectors, v)
+    }
+
+    /// Keep the vectors of start data `st` for reuse.
+    fn recycle_start(&mut self, st: StepStart) {
+        if self.spare_vectors.len() + 2 <= SPARE_LIMIT {
+            self.spare_vectors.push(st.rates0);
+            self.spare_vectors.push(st.surface_y);
+        }
+    }
+
     /// Film at the state's surface values; species rates left in `self.rates`.
     fn film_at(&mut self, surface_y: &[f64], t_s: f64, mass: f64, rho: f64, speed: f64) -> FilmResult {
         self.film_with(surface_y, t_s, mass, rho, speed, None)
@@ -216,7 +258,7 @@ impl Model {
         let liq = self.liquid(s);
         let radius = 0.5 * (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
         let area = 4.0 * std::f64::consts::PI * radius * radius;
-        let mut surface = s.surface_y.clone();
+        let mut surface = self.vector_copy(&s.surface_y);
         if s.boiling {
             if self.n > 1 && self.ny() > 1 {
                 self.solve_boiling_surface(s, &liq, radius, &mut surface);
@@ -224,7 +266,8 @@ impl Model {
                 surface.iter_mut().for_each(|v| *v /= sum);
             }
             let (f0, hold, g_t, g_y) = self.boiling_film_of(s, &surface, &liq, radius);
-            return Ok(StepStart { liq, radius, f0, rates0: self.rates.clone(), dq: 0.0, g_t, g_y, t_lin: hold, surface_y: surface });
+            let rates0 = spare_copy(&mut self.spare_vectors, &self.rates);
+            return Ok(StepStart { liq, radius, f0, rates0, dq: 0.0, g_t, g_y, t_lin: hold, surface_y: surface });
         }
         if self.n > 1 && self.ny() > 1 {
             // species diffusion in a mixture: surface composition and temperature solved together (surface.rs),
@@ -235,7 +278,7 @@ impl Model {
             let sol = self.solve_surface(s, &liq, radius, &mut surface);
             let sum: f64 = surface.iter().sum();
             surface.iter_mut().for_each(|v| *v /= sum);
-            let rates0 = self.rates.clone();
+            let rates0 = spare_copy(&mut self.spare_vectors, &self.rates);
             return Ok(StepStart { liq, radius, f0: sol.film, rates0, dq: sol.dq, g_t: sol.g_t, g_y: sol.g_y, t_lin: sol.temperature, surface_y: surface });
         }
         // Q_L(T_s) is linearised about the surface temperature that balances conduction from the outer cell,
@@ -248,7 +291,7 @@ impl Model {
         let mut newton = 0;
         loop {
             let f0 = self.film_at(&surface, t_lin, s.mass, liq.density, s.velocity);
-            let rates0 = self.rates.clone();
+            let rates0 = spare_copy(&mut self.spare_vectors, &self.rates);
             // dQ_L/dT_s by a one-sided difference
             let dt_s = 0.01;
             let f1 = self.film_at(&surface, t_lin + dt_s, s.mass, liq.density, s.velocity);
@@ -281,7 +324,8 @@ impl Model {
         // heat input to the liquid linearised as Q_L(T_s) ≈ q0 + q1 (T_s − t_ref) [W, W/K, K]
         let mut heat_lin = (f0.heat_to_liquid, dq, *t_lin);
         let near_bubble = !s.boiling && n > 1 && ny > 1 && f0.surface_vapor_mole_fraction >= NEAR_BUBBLE;
-        let mut next = s.clone();
+        // (the cell profiles of `next` are written by each pass below before anything reads them)
+        let mut next = self.state_like(s);
         // Surface coupling, iterated: each species leaves at κ_i u_s,i with κ_i = ṁ_i/Y_s,i from the film at the
         // latest surface state (implicit in the surface value; prescribed rate when condensing), the advective
         // terms use the total rate of the previous iterate; converged when the two totals agree.
@@ -387,33 +431,37 @@ impl Model {
         }
         // Liquid inventory per component straight from the conservative solve; the evaporated masses are what
         // left it (so liquid + evaporated = initial holds exactly), and cell sums are renormalised to 1.
-        // (iterators over whole columns and strided rows: the same sums in the same order, without bounds checks)
+        // One pass per column gives its inventory before and after the step and adds it to the cell sums (the
+        // same sums in the same order as separate passes), a second divides by the sums and checks the values.
         let mut total_mass = 0.0;
         let widths = &self.ygrid.widths[..ny];
-        for i in 0..n {
-            let inventory: f64 = m_used * widths.iter().zip(&next.y[i * ny..(i + 1) * ny]).map(|(w, y)| w * y).sum::<f64>();
-            let before: f64 = s.mass * widths.iter().zip(&s.y[i * ny..(i + 1) * ny]).map(|(w, y)| w * y).sum::<f64>();
+        let cell_sums = &mut self.cell_sums[..ny];
+        cell_sums.fill(0.0);
+        for (i, (column, old)) in next.y.chunks_exact(ny).zip(s.y.chunks_exact(ny)).take(n).enumerate() {
+            // (float sums start from −0.0, the identity of addition)
+            let (mut new_sum, mut old_sum) = (-0.0, -0.0);
+            for ((sum, (&v, &v_old)), &w) in cell_sums.iter_mut().zip(column.iter().zip(old)).zip(widths) {
+                new_sum += w * v;
+                old_sum += w * v_old;
+                *sum += v;
+            }
+            let inventory: f64 = m_used * new_sum;
+            let before: f64 = s.mass * old_sum;
             next.evaporated[i] = s.evaporated[i] + (before - inventory);
             next.inventory[i] = s.inventory[i] - (before - inventory);
             total_mass += next.inventory[i];
         }
         let _ = mdot_a;
         next.mass = total_mass;
-        self.cell_sums.clear();
-        self.cell_sums.resize(ny, 0.0);
-        for column in next.y.chunks_exact(ny).take(n) {
-            for (sum, v) in self.cell_sums.iter_mut().zip(column) {
-                *sum += v;
-            }
-        }
+        let mut bad = false;
         for column in next.y.chunks_exact_mut(ny).take(n) {
-            for (v, &sum) in column.iter_mut().zip(&self.cell_sums) {
-                if sum > 0.0 {
-                    *v /= sum;
-                }
+            for (v, &sum) in column.iter_mut().zip(&*cell_sums) {
+                let u = if sum > 0.0 { *v / sum } else { *v };
+                *v = u;
+                bad |= !u.is_finite() | (u < -1e-6);
             }
         }
-        if next.y.iter().any(|v| !v.is_finite() || *v < -1e-6) || next.temp.iter().any(|v| !v.is_finite()) || !next.surface_t.is_finite() {
+        if bad || next.temp.iter().any(|v| !v.is_finite()) || !next.surface_t.is_finite() {
             return Err("non-physical values".into());
         }
         // drag (semi-implicit), gas at rest
@@ -482,6 +530,18 @@ impl Model {
             temperature: centres.iter().map(|e| value_at(&self.tgrid, &s.temp, *e)).collect(),
             mass_fractions: (0..self.n).map(|i| (0..cells).map(|k| value_at(&self.ygrid, &s.y[i * ny..(i + 1) * ny], centres[k])).collect()).collect(),
         }
+    }
+}
+
+/// A copy of `v` in a vector taken from `spare` (or a new one).
+fn spare_copy(spare: &mut Vec<Vec<f64>>, v: &[f64]) -> Vec<f64> {
+    match spare.pop() {
+        Some(mut w) => {
+            w.clear();
+            w.extend_from_slice(v);
+            w
+        }
+        None => v.to_vec(),
     }
 }
 
@@ -578,6 +638,8 @@ impl Model {
             film_calls: 0,
             step_rates: vec![0.0; n],
             step_surface: vec![0.0; n],
+            spare_states: Vec::new(),
+            spare_vectors: Vec::new(),
             liquid_cache: LiquidCache { valid: false, inventory: vec![0.0; n], temp: vec![0.0; nt], liquid: Liquid::default() },
         };
         let mut state = State {
@@ -694,7 +756,8 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         if let Some(tk) = landed {
             new.time = tk;
         }
-        state = new;
+        let old = std::mem::replace(&mut state, new);
+        model.recycle(old);
         let row = model.row(&state, m0, inp.initial_diameter);
         log.watch.observe(&model.comps, &row.surface_liquid_mass_fractions, &row, state.time);
         log.keep_profiles(&mut model, &state, m0);

@@ -161,13 +161,21 @@ impl Model {
     fn liquid_properties(&mut self, s: &State) -> Liquid {
         let t_mean = self.tgrid.mean(&s.temp);
         let comps = &self.comps;
-        let rho = liquid::density(comps, &self.w_mean, t_mean);
+        // density (Amagat) and heat capacity from one grouped kernel look-up per component (the bits of
+        // liquid::density and liquid::heat_capacity: the same values summed in the same order)
+        let (mut inv_rho, mut cp) = (-0.0, -0.0);
+        for (c, &w) in comps.iter().zip(&self.w_mean) {
+            let point = c.liquid_point(t_mean);
+            inv_rho += w / point.density;
+            cp += w * point.heat_capacity;
+        }
+        let rho = 1.0 / inv_rho;
         let mu = liquid::viscosity(comps, &self.x_mean, t_mean);
         let w_b = liquid::molar_mass(comps, &self.x_mean);
         let v_a: f64 = self.x_mean.iter().zip(&self.molar_volume_b).map(|(x, v)| x * v).sum();
         Liquid {
             density: rho,
-            cp: liquid::heat_capacity(comps, &self.w_mean, t_mean),
+            cp,
             conductivity: liquid::conductivity(comps, &self.w_mean, t_mean) * self.conductivity_factor,
             viscosity: mu,
             diffusivity: wilke_chang(t_mean, w_b, mu, v_a) * self.diffusivity_factor,
@@ -585,7 +593,6 @@ impl Model {
         let rho0 = liquid::density(&comps, w0, t0);
         let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
         let x0 = inp.fuel.mole_fractions();
-        let t_bubble0 = film.bubble_point(&x0).unwrap_or(f64::INFINITY);
         let t_hold0 = boiling_hold_temperature(&comps, &mut film.setup.activity, &x0, inp.pressure).unwrap_or(f64::INFINITY);
         let mut masses: Vec<f64> = w0.iter().map(|w| w * m0).collect();
         let mut t_start = t0;
@@ -594,7 +601,9 @@ impl Model {
             // as the well-mixed liquid: flash down to the hold temperature, then boil if the heat holds it there
             let (m_left, tb) = adiabatic_flash(&comps, &mut film.setup.activity, w0, t0, m0, BOILING_THRESHOLD * inp.pressure, inp.end_mass_fraction);
             let total: f64 = m_left.iter().sum();
-            flash = Some((100.0 * (1.0 - total / m0), tb));
+            // the bubble point only for the note (a search of its own)
+            let t_bubble0 = film.bubble_point(&x0).unwrap_or(f64::INFINITY);
+            flash = Some((100.0 * (1.0 - total / m0), tb, t_bubble0));
             masses = m_left;
             t_start = tb;
         }
@@ -656,7 +665,7 @@ impl Model {
             heat_inward: 0.0,
         };
         let mut model = model;
-        let note = flash.map(|(percent, tb)| {
+        let note = flash.map(|(percent, tb, t_bubble0)| {
             state.boiling = model.hold_margin(&state) > 0.0;
             format!(
                 "initial temperature {t0:.2} K is at or above the bubble point ({t_bubble0:.2} K at the ambient pressure; the boiling regime holds Σ X_s = {BOILING_THRESHOLD}, {t_hold0:.2} K): {percent:.3} % of the mass flashed at injection (adiabatic flash) down to {tb:.2} K, {}",

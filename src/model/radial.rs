@@ -31,7 +31,13 @@ pub struct RadialGrid {
     cp: Vec<f64>,
     /// Storage coefficients m_old Δη_j / Δt of a multi-column step (scratch).
     storage: Vec<f64>,
+    /// Interleaved columns of a multi-column step, `LANES` values per cell (scratch).
+    work: Vec<f64>,
 }
+
+/// Columns swept side by side by [`RadialGrid::implicit_step_many`] (independent recurrences whose divisions
+/// overlap in the floating-point unit).
+pub const LANES: usize = 8;
 
 /// Linear heat/species input at the surface: q_in(u_s) = q0 + q1 (u_s − u_ref).
 #[derive(Debug, Clone, Copy)]
@@ -70,7 +76,7 @@ impl RadialGrid {
             })
             .collect();
         let inner_weights = (0..=n).map(|f| if f == 0 || f == n { 1.0 } else { (centres[f] - faces[f]) / (centres[f] - centres[f - 1]) }).collect();
-        RadialGrid { faces, centres, widths, factors, inner_weights, a: vec![0.0; n + 1], b: vec![0.0; n + 1], c: vec![0.0; n + 1], d: vec![0.0; n + 1], cp: vec![0.0; n + 1], storage: vec![0.0; n + 1] }
+        RadialGrid { faces, centres, widths, factors, inner_weights, a: vec![0.0; n + 1], b: vec![0.0; n + 1], c: vec![0.0; n + 1], d: vec![0.0; n + 1], cp: vec![0.0; n + 1], storage: vec![0.0; n + 1], work: vec![0.0; (n + 1) * LANES] }
     }
 
     /// Number of cells.
@@ -183,11 +189,25 @@ impl RadialGrid {
 
     /// Implicit step for several quantities that share the grid, transport coefficients and advection and
     /// differ only in their surface input (the species of a mixture): the tridiagonal matrix is factored once,
-    /// and the sweeps run over four columns side by side (independent recurrences, the same operations in the
-    /// same order per column as one column alone).
+    /// and the sweeps run over groups of up to [`LANES`] columns side by side, interleaved in a scratch buffer
+    /// (independent recurrences, the same operations in the same order per column as one column alone).
     /// `u` is component-major (`u\[i * n + j\]`); the new surface values go to `surface`.
     #[allow(clippy::too_many_arguments)]
     pub fn implicit_step_many(&mut self, u: &mut [f64], m_old: f64, m_new: f64, dt: f64, g_scale: f64, mdot: f64, inputs: &[SurfaceInput], surface: &mut [f64]) {
+        self.implicit_step_columns(u, m_old, m_new, dt, g_scale, mdot, inputs, surface, true);
+    }
+
+    /// [`RadialGrid::implicit_step_many`] for the surface values alone: the forward elimination only, which gives
+    /// the new outer-cell value of each column (written to `u\[i * n + n − 1\]`, the same bits as the full step)
+    /// and the surface value; the other cells of `u` do not hold the step's values afterwards.
+    #[allow(clippy::too_many_arguments)]
+    pub fn implicit_surface_many(&mut self, u: &mut [f64], m_old: f64, m_new: f64, dt: f64, g_scale: f64, mdot: f64, inputs: &[SurfaceInput], surface: &mut [f64]) {
+        self.implicit_step_columns(u, m_old, m_new, dt, g_scale, mdot, inputs, surface, false);
+    }
+
+    /// The multi-column step, with the back substitution (`full`) or without it (surface values and outer cells).
+    #[allow(clippy::too_many_arguments)]
+    fn implicit_step_columns(&mut self, u: &mut [f64], m_old: f64, m_new: f64, dt: f64, g_scale: f64, mdot: f64, inputs: &[SurfaceInput], surface: &mut [f64], full: bool) {
         let n = self.len();
         if n == 1 {
             for (k, input) in inputs.iter().enumerate() {
@@ -209,6 +229,8 @@ impl RadialGrid {
         for (s, w) in self.storage[..n].iter_mut().zip(&self.widths[..n]) {
             *s = scale_old * w;
         }
+        let mut work = std::mem::take(&mut self.work);
+        work.resize(n * LANES, 0.0);
         let sweep = Sweep {
             a: &self.a[..n],
             d: &self.d[..n],
@@ -217,20 +239,25 @@ impl RadialGrid {
             g_s: g_scale * self.factors[n],
             b_last: self.b[n - 1],
             mdot,
+            full,
         };
-        let mut groups = u[..inputs.len() * n].chunks_exact_mut(4 * n);
-        let mut input_groups = inputs.chunks_exact(4);
-        let mut surface_groups = surface[..inputs.len()].chunks_exact_mut(4);
-        for ((group, inputs4), surface4) in (&mut groups).zip(&mut input_groups).zip(&mut surface_groups) {
-            let (c0, rest) = group.split_at_mut(n);
-            let (c1, rest) = rest.split_at_mut(n);
-            let (c2, c3) = rest.split_at_mut(n);
-            sweep.four([c0, c1, c2, c3], inputs4, surface4);
+        let count = inputs.len();
+        let (u, surface) = (&mut u[..count * n], &mut surface[..count]);
+        let (wide, rest) = u.split_at_mut(count / LANES * LANES * n);
+        for ((cols, inputs), surface) in wide.chunks_exact_mut(LANES * n).zip(inputs.chunks_exact(LANES)).zip(surface.chunks_exact_mut(LANES)) {
+            sweep.group::<LANES>(cols, inputs, surface, work.as_chunks_mut::<LANES>().0);
         }
-        let rest = groups.into_remainder().chunks_exact_mut(n);
-        for ((col, input), surface_k) in rest.zip(input_groups.remainder()).zip(surface_groups.into_remainder()) {
+        let done = count / LANES * LANES;
+        let (inputs, surface) = (&inputs[done..], &mut surface[done..]);
+        let (narrow, rest) = rest.split_at_mut(inputs.len() / 4 * 4 * n);
+        for ((cols, inputs), surface) in narrow.chunks_exact_mut(4 * n).zip(inputs.chunks_exact(4)).zip(surface.chunks_exact_mut(4)) {
+            sweep.group::<4>(cols, inputs, surface, work.as_chunks_mut::<4>().0);
+        }
+        let done = inputs.len() / 4 * 4;
+        for ((col, input), surface_k) in rest.chunks_exact_mut(n).zip(&inputs[done..]).zip(&mut surface[done..]) {
             *surface_k = sweep.one(col, input);
         }
+        self.work = work;
     }
 
     /// Surface value for given cell values and surface input (same reconstruction as the step).
@@ -266,6 +293,8 @@ struct Sweep<'a> {
     b_last: f64,
     /// Evaporation rate \[kg/s\].
     mdot: f64,
+    /// With the back substitution (all cells), or the forward elimination only (outer cells and surface).
+    full: bool,
 }
 
 impl Sweep<'_> {
@@ -298,6 +327,9 @@ impl Sweep<'_> {
         }
         last[0] = (rhs_last - a[n - 1] * prev) / piv;
         let u_last = last[0];
+        if !self.full {
+            return alpha * u_last + beta;
+        }
         let mut next = u_last;
         for (c, &cpj) in col[..n - 1].iter_mut().zip(&cp[..n - 1]).rev() {
             *c -= cpj * next;
@@ -306,49 +338,53 @@ impl Sweep<'_> {
         alpha * u_last + beta
     }
 
-    /// Solve four columns side by side (each with the operations of [`Sweep::one`]); new surface values to
-    /// `surface`.
+    /// Solve `L` columns (`cols`, component-major, `L` × n values) side by side in the interleaved scratch
+    /// `work` (n rows of `L`), each with the operations of [`Sweep::one`]; new surface values to `surface`.
     #[inline(always)]
-    fn four(&self, cols: [&mut [f64]; 4], inputs: &[SurfaceInput], surface: &mut [f64]) {
+    fn group<const L: usize>(&self, cols: &mut [f64], inputs: &[SurfaceInput], surface: &mut [f64], work: &mut [[f64; L]]) {
         let n = self.a.len();
         let (a, d, cp, storage) = (self.a, self.d, self.cp, self.storage);
-        let [c0, c1, c2, c3] = cols;
-        let (c0, c1, c2, c3) = (&mut c0[..n], &mut c1[..n], &mut c2[..n], &mut c3[..n]);
-        let rows = [
-            self.surface_row(&inputs[0], c0[n - 1]),
-            self.surface_row(&inputs[1], c1[n - 1]),
-            self.surface_row(&inputs[2], c2[n - 1]),
-            self.surface_row(&inputs[3], c3[n - 1]),
-        ];
-        c0[0] = storage[0] * c0[0] / d[0];
-        c1[0] = storage[0] * c1[0] / d[0];
-        c2[0] = storage[0] * c2[0] / d[0];
-        c3[0] = storage[0] * c3[0] / d[0];
-        let mut prev = [c0[0], c1[0], c2[0], c3[0]];
-        {
-            let cols = c0[1..n - 1].iter_mut().zip(c1[1..n - 1].iter_mut()).zip(c2[1..n - 1].iter_mut().zip(c3[1..n - 1].iter_mut()));
-            let shared = a[1..n - 1].iter().zip(&storage[1..n - 1]).zip(&d[1..n - 1]);
-            for (((x0, x1), (x2, x3)), ((&aj, &sj), &dj)) in cols.zip(shared) {
-                let v = [(sj * *x0 - aj * prev[0]) / dj, (sj * *x1 - aj * prev[1]) / dj, (sj * *x2 - aj * prev[2]) / dj, (sj * *x3 - aj * prev[3]) / dj];
-                (*x0, *x1, *x2, *x3) = (v[0], v[1], v[2], v[3]);
-                prev = v;
+        let work = &mut work[..n];
+        for (l, col) in cols.chunks_exact(n).enumerate().take(L) {
+            for (row, &v) in work.iter_mut().zip(col) {
+                row[l] = v;
             }
         }
-        let a_last = a[n - 1];
-        let mut next = [
-            (rows[0].3 - a_last * prev[0]) / rows[0].2,
-            (rows[1].3 - a_last * prev[1]) / rows[1].2,
-            (rows[2].3 - a_last * prev[2]) / rows[2].2,
-            (rows[3].3 - a_last * prev[3]) / rows[3].2,
-        ];
-        (c0[n - 1], c1[n - 1], c2[n - 1], c3[n - 1]) = (next[0], next[1], next[2], next[3]);
-        for (k, s) in surface[..4].iter_mut().enumerate() {
-            *s = rows[k].0 * next[k] + rows[k].1;
+        let rows: [(f64, f64, f64, f64); L] = std::array::from_fn(|l| self.surface_row(&inputs[l], work[n - 1][l]));
+        let mut prev = work[0];
+        for v in prev.iter_mut() {
+            *v = storage[0] * *v / d[0];
         }
-        let cols = c0[..n - 1].iter_mut().zip(c1[..n - 1].iter_mut()).zip(c2[..n - 1].iter_mut().zip(c3[..n - 1].iter_mut()));
-        for (((x0, x1), (x2, x3)), &cpj) in cols.zip(&cp[..n - 1]).rev() {
-            next = [*x0 - cpj * next[0], *x1 - cpj * next[1], *x2 - cpj * next[2], *x3 - cpj * next[3]];
-            (*x0, *x1, *x2, *x3) = (next[0], next[1], next[2], next[3]);
+        work[0] = prev;
+        for (row, ((&aj, &sj), &dj)) in work[1..n - 1].iter_mut().zip(a[1..n - 1].iter().zip(&storage[1..n - 1]).zip(&d[1..n - 1])) {
+            for (x, p) in row.iter_mut().zip(&prev) {
+                *x = (sj * *x - aj * p) / dj;
+            }
+            prev = *row;
+        }
+        let a_last = a[n - 1];
+        let mut next = [0.0; L];
+        for (l, v) in next.iter_mut().enumerate() {
+            *v = (rows[l].3 - a_last * prev[l]) / rows[l].2;
+            surface[l] = rows[l].0 * *v + rows[l].1;
+        }
+        work[n - 1] = next;
+        if !self.full {
+            for (l, col) in cols.chunks_exact_mut(n).enumerate().take(L) {
+                col[n - 1] = next[l];
+            }
+            return;
+        }
+        for (row, &cpj) in work[..n - 1].iter_mut().zip(&cp[..n - 1]).rev() {
+            for (x, nx) in row.iter_mut().zip(&next) {
+                *x -= cpj * nx;
+            }
+            next = *row;
+        }
+        for (l, col) in cols.chunks_exact_mut(n).enumerate().take(L) {
+            for (c, row) in col.iter_mut().zip(work.iter()) {
+                *c = row[l];
+            }
         }
     }
 }

@@ -378,7 +378,13 @@ impl Model {
                 self.inputs[i] = if implicit { SurfaceInput { q0: 0.0, q1: mdot_a - self.kappa[i], u_ref: 0.0 } } else { SurfaceInput { q0: -film_rates[i], q1: mdot_a, u_ref: 0.0 } };
             }
             next.y.copy_from_slice(&s.y);
-            self.ygrid.implicit_step_many(&mut next.y, s.mass, m_new, dt, g_y, mdot_a, &self.inputs, &mut next.surface_y);
+            if iteration == 0 {
+                // the first pass feeds the second only through its surface values and outer cells (the film
+                // refresh or the surface solve at its surface): the forward elimination gives them
+                self.ygrid.implicit_surface_many(&mut next.y, s.mass, m_new, dt, g_y, mdot_a, &self.inputs, &mut next.surface_y);
+            } else {
+                self.ygrid.implicit_step_many(&mut next.y, s.mass, m_new, dt, g_y, mdot_a, &self.inputs, &mut next.surface_y);
+            }
             let mut total = 0.0;
             for i in 0..n {
                 let ys = next.surface_y[i].max(0.0);

@@ -194,22 +194,34 @@ impl RadialGrid {
     /// `u` is component-major (`u\[i * n + j\]`); the new surface values go to `surface`.
     #[allow(clippy::too_many_arguments)]
     pub fn implicit_step_many(&mut self, u: &mut [f64], m_old: f64, m_new: f64, dt: f64, g_scale: f64, mdot: f64, inputs: &[SurfaceInput], surface: &mut [f64]) {
-        self.implicit_step_columns(u, m_old, m_new, dt, g_scale, mdot, inputs, surface, true);
+        self.implicit_step_columns(None, u, m_old, m_new, dt, g_scale, mdot, inputs, surface, true);
     }
 
-    /// [`RadialGrid::implicit_step_many`] for the surface values alone: the forward elimination only, which gives
-    /// the new outer-cell value of each column (written to `u\[i * n + n − 1\]`, the same bits as the full step)
-    /// and the surface value; the other cells of `u` do not hold the step's values afterwards.
+    /// [`RadialGrid::implicit_step_many`] from the old values `old` to the new ones `new` (same layout; the same
+    /// bits as the step in place).
     #[allow(clippy::too_many_arguments)]
-    pub fn implicit_surface_many(&mut self, u: &mut [f64], m_old: f64, m_new: f64, dt: f64, g_scale: f64, mdot: f64, inputs: &[SurfaceInput], surface: &mut [f64]) {
-        self.implicit_step_columns(u, m_old, m_new, dt, g_scale, mdot, inputs, surface, false);
+    pub fn implicit_step_many_from(&mut self, old: &[f64], new: &mut [f64], m_old: f64, m_new: f64, dt: f64, g_scale: f64, mdot: f64, inputs: &[SurfaceInput], surface: &mut [f64]) {
+        self.implicit_step_columns(Some(old), new, m_old, m_new, dt, g_scale, mdot, inputs, surface, true);
     }
 
-    /// The multi-column step, with the back substitution (`full`) or without it (surface values and outer cells).
+    /// [`RadialGrid::implicit_step_many_from`] for the surface values alone: the forward elimination only, which
+    /// gives the new outer-cell value of each column (written to `new\[i * n + n − 1\]`, the same bits as the full
+    /// step) and the surface value; the other cells of `new` do not hold the step's values afterwards.
     #[allow(clippy::too_many_arguments)]
-    fn implicit_step_columns(&mut self, u: &mut [f64], m_old: f64, m_new: f64, dt: f64, g_scale: f64, mdot: f64, inputs: &[SurfaceInput], surface: &mut [f64], full: bool) {
+    pub fn implicit_surface_many_from(&mut self, old: &[f64], new: &mut [f64], m_old: f64, m_new: f64, dt: f64, g_scale: f64, mdot: f64, inputs: &[SurfaceInput], surface: &mut [f64]) {
+        self.implicit_step_columns(Some(old), new, m_old, m_new, dt, g_scale, mdot, inputs, surface, false);
+    }
+
+    /// The multi-column step from `old` (None: from `u` itself) into `u`, with the back substitution (`full`) or
+    /// without it (surface values and outer cells).
+    #[allow(clippy::too_many_arguments)]
+    fn implicit_step_columns(&mut self, old: Option<&[f64]>, u: &mut [f64], m_old: f64, m_new: f64, dt: f64, g_scale: f64, mdot: f64, inputs: &[SurfaceInput], surface: &mut [f64], full: bool) {
         let n = self.len();
+        let count = inputs.len();
         if n == 1 {
+            if let Some(old) = old {
+                u[..count].copy_from_slice(&old[..count]);
+            }
             for (k, input) in inputs.iter().enumerate() {
                 surface[k] = self.implicit_step(&mut u[k..k + 1], m_old, m_new, dt, g_scale, mdot, *input);
             }
@@ -241,20 +253,28 @@ impl RadialGrid {
             mdot,
             full,
         };
-        let count = inputs.len();
         let (u, surface) = (&mut u[..count * n], &mut surface[..count]);
-        let (wide, rest) = u.split_at_mut(count / LANES * LANES * n);
-        for ((cols, inputs), surface) in wide.chunks_exact_mut(LANES * n).zip(inputs.chunks_exact(LANES)).zip(surface.chunks_exact_mut(LANES)) {
-            sweep.group::<LANES>(cols, inputs, surface, work.as_chunks_mut::<LANES>().0);
+        // groups of LANES columns, then of four, then single columns (`source` of a group: its old values)
+        let wide_len = count / LANES * LANES * n;
+        let (wide, rest) = u.split_at_mut(wide_len);
+        for (g, ((cols, inputs), surface)) in wide.chunks_exact_mut(LANES * n).zip(inputs.chunks_exact(LANES)).zip(surface.chunks_exact_mut(LANES)).enumerate() {
+            let source = old.map(|o| &o[g * LANES * n..(g + 1) * LANES * n]);
+            sweep.group::<LANES>(source, cols, inputs, surface, work.as_chunks_mut::<LANES>().0);
         }
         let done = count / LANES * LANES;
         let (inputs, surface) = (&inputs[done..], &mut surface[done..]);
-        let (narrow, rest) = rest.split_at_mut(inputs.len() / 4 * 4 * n);
-        for ((cols, inputs), surface) in narrow.chunks_exact_mut(4 * n).zip(inputs.chunks_exact(4)).zip(surface.chunks_exact_mut(4)) {
-            sweep.group::<4>(cols, inputs, surface, work.as_chunks_mut::<4>().0);
+        let narrow_len = inputs.len() / 4 * 4 * n;
+        let (narrow, rest) = rest.split_at_mut(narrow_len);
+        for (g, ((cols, inputs), surface)) in narrow.chunks_exact_mut(4 * n).zip(inputs.chunks_exact(4)).zip(surface.chunks_exact_mut(4)).enumerate() {
+            let source = old.map(|o| &o[wide_len + g * 4 * n..wide_len + (g + 1) * 4 * n]);
+            sweep.group::<4>(source, cols, inputs, surface, work.as_chunks_mut::<4>().0);
         }
         let done = inputs.len() / 4 * 4;
-        for ((col, input), surface_k) in rest.chunks_exact_mut(n).zip(&inputs[done..]).zip(&mut surface[done..]) {
+        for (k, ((col, input), surface_k)) in rest.chunks_exact_mut(n).zip(&inputs[done..]).zip(&mut surface[done..]).enumerate() {
+            if let Some(o) = old {
+                let start = wide_len + narrow_len + k * n;
+                col.copy_from_slice(&o[start..start + n]);
+            }
             *surface_k = sweep.one(col, input);
         }
         self.work = work;
@@ -338,14 +358,15 @@ impl Sweep<'_> {
         alpha * u_last + beta
     }
 
-    /// Solve `L` columns (`cols`, component-major, `L` × n values) side by side in the interleaved scratch
-    /// `work` (n rows of `L`), each with the operations of [`Sweep::one`]; new surface values to `surface`.
+    /// Solve `L` columns (`cols`, component-major, `L` × n values; old values from `source`, or `cols` itself)
+    /// side by side in the interleaved scratch `work` (n rows of `L`), each with the operations of
+    /// [`Sweep::one`]; new values to `cols`, new surface values to `surface`.
     #[inline(always)]
-    fn group<const L: usize>(&self, cols: &mut [f64], inputs: &[SurfaceInput], surface: &mut [f64], work: &mut [[f64; L]]) {
+    fn group<const L: usize>(&self, source: Option<&[f64]>, cols: &mut [f64], inputs: &[SurfaceInput], surface: &mut [f64], work: &mut [[f64; L]]) {
         let n = self.a.len();
         let (a, d, cp, storage) = (self.a, self.d, self.cp, self.storage);
         let work = &mut work[..n];
-        for (l, col) in cols.chunks_exact(n).enumerate().take(L) {
+        for (l, col) in source.unwrap_or(cols).chunks_exact(n).enumerate().take(L) {
             for (row, &v) in work.iter_mut().zip(col) {
                 row[l] = v;
             }
@@ -441,6 +462,43 @@ mod tests {
             for j in 0..12 {
                 assert!((one[j] - many[k * 12 + j]).abs() < 1e-12, "{k} {j}");
             }
+        }
+    }
+
+    /// Thirteen columns (a group of eight, one of four and a single column): the interleaved sweeps give the bits
+    /// of one column solved alone, the step from separate old values gives the bits of the step in place, and the
+    /// surface-only step gives the same surface values and outer cells.
+    #[test]
+    fn interleaved_columns_match_single_solves_bit_for_bit() {
+        let cells = 9;
+        let species = 13;
+        let mut g = RadialGrid::new(cells);
+        let base: Vec<f64> = (0..species * cells).map(|k| 0.05 + 0.01 * ((k as f64) * 0.37).sin().abs()).collect();
+        let inputs: Vec<SurfaceInput> = (0..species).map(|k| SurfaceInput { q0: -1e-10 * k as f64, q1: 2e-9 - 4e-10 * k as f64, u_ref: 0.0 }).collect();
+        let (m_old, m_new, dt, g_scale, mdot) = (1e-10, 0.98e-10, 1e-4, 4e-8, 2e-8);
+        let mut many = base.clone();
+        let mut surf = vec![0.0; species];
+        g.implicit_step_many(&mut many, m_old, m_new, dt, g_scale, mdot, &inputs, &mut surf);
+        for k in 0..species {
+            let mut one = base[k * cells..(k + 1) * cells].to_vec();
+            let mut s1 = [0.0];
+            g.implicit_step_many(&mut one, m_old, m_new, dt, g_scale, mdot, &inputs[k..k + 1], &mut s1);
+            assert_eq!(s1[0].to_bits(), surf[k].to_bits(), "surface {k}");
+            for j in 0..cells {
+                assert_eq!(one[j].to_bits(), many[k * cells + j].to_bits(), "{k} {j}");
+            }
+        }
+        let mut from = vec![7.0; species * cells];
+        let mut surf_from = vec![0.0; species];
+        g.implicit_step_many_from(&base, &mut from, m_old, m_new, dt, g_scale, mdot, &inputs, &mut surf_from);
+        assert!(from.iter().zip(&many).all(|(a, b)| a.to_bits() == b.to_bits()));
+        assert!(surf_from.iter().zip(&surf).all(|(a, b)| a.to_bits() == b.to_bits()));
+        let mut outer = vec![7.0; species * cells];
+        let mut surf_outer = vec![0.0; species];
+        g.implicit_surface_many_from(&base, &mut outer, m_old, m_new, dt, g_scale, mdot, &inputs, &mut surf_outer);
+        assert!(surf_outer.iter().zip(&surf).all(|(a, b)| a.to_bits() == b.to_bits()));
+        for k in 0..species {
+            assert_eq!(outer[k * cells + cells - 1].to_bits(), many[k * cells + cells - 1].to_bits(), "outer cell {k}");
         }
     }
 

@@ -84,6 +84,8 @@ pub(crate) struct Model {
     molar_volume_b: Vec<f64>,
     /// Σ over species of the cell mass fractions, per cell (scratch of a step).
     cell_sums: Vec<f64>,
+    /// Σ_j Δη_j Y_ij per species after and before a step (scratch of a step, 2n).
+    column_sums: Vec<f64>,
     /// Scratch of the surface-state Newton iteration (surface.rs): structured Jacobian, right-hand side n+1, per
     /// component ∂ΣX/∂Y_j and vapour-share factors, rates and their temperature derivatives.
     surface_jacobian: surface::SurfaceJacobian,
@@ -377,13 +379,12 @@ impl Model {
                 self.kappa[i] = if implicit { film_rates[i] / film_surface[i] } else { 0.0 };
                 self.inputs[i] = if implicit { SurfaceInput { q0: 0.0, q1: mdot_a - self.kappa[i], u_ref: 0.0 } } else { SurfaceInput { q0: -film_rates[i], q1: mdot_a, u_ref: 0.0 } };
             }
-            next.y.copy_from_slice(&s.y);
             if iteration == 0 {
                 // the first pass feeds the second only through its surface values and outer cells (the film
                 // refresh or the surface solve at its surface): the forward elimination gives them
-                self.ygrid.implicit_surface_many(&mut next.y, s.mass, m_new, dt, g_y, mdot_a, &self.inputs, &mut next.surface_y);
+                self.ygrid.implicit_surface_many_from(&s.y, &mut next.y, s.mass, m_new, dt, g_y, mdot_a, &self.inputs, &mut next.surface_y);
             } else {
-                self.ygrid.implicit_step_many(&mut next.y, s.mass, m_new, dt, g_y, mdot_a, &self.inputs, &mut next.surface_y);
+                self.ygrid.implicit_step_many_from(&s.y, &mut next.y, s.mass, m_new, dt, g_y, mdot_a, &self.inputs, &mut next.surface_y);
             }
             let mut total = 0.0;
             for i in 0..n {
@@ -447,20 +448,58 @@ impl Model {
         // left it (so liquid + evaporated = initial holds exactly), and cell sums are renormalised to 1.
         // One pass per column gives its inventory before and after the step and adds it to the cell sums (the
         // same sums in the same order as separate passes), a second divides by the sums and checks the values.
-        let mut total_mass = 0.0;
         let widths = &self.ygrid.widths[..ny];
         let cell_sums = &mut self.cell_sums[..ny];
         cell_sums.fill(0.0);
-        for (i, (column, old)) in next.y.chunks_exact(ny).zip(s.y.chunks_exact(ny)).take(n).enumerate() {
+        // Σ_j Δη_j Y_ij of each column after and before the step, four columns side by side (independent
+        // chains; each sum in cell order, and each cell sum over the columns in column order, as column by column)
+        let sums = &mut self.column_sums[..2 * n];
+        let (new_sums, old_sums) = sums.split_at_mut(n);
+        let y_len = n * ny;
+        let quads = n / 4 * 4 * ny;
+        let (new_wide, new_rest) = next.y[..y_len].split_at(quads);
+        let (old_wide, old_rest) = s.y[..y_len].split_at(quads);
+        for (((new4, old4), sum_new), sum_old) in new_wide.chunks_exact(4 * ny).zip(old_wide.chunks_exact(4 * ny)).zip(new_sums.chunks_exact_mut(4)).zip(old_sums.chunks_exact_mut(4)) {
             // (float sums start from −0.0, the identity of addition)
-            let (mut new_sum, mut old_sum) = (-0.0, -0.0);
+            let (mut acc_new, mut acc_old) = ([-0.0; 4], [-0.0; 4]);
+            let (n0, rest) = new4.split_at(ny);
+            let (n1, rest) = rest.split_at(ny);
+            let (n2, n3) = rest.split_at(ny);
+            let (o0, rest) = old4.split_at(ny);
+            let (o1, rest) = rest.split_at(ny);
+            let (o2, o3) = rest.split_at(ny);
+            let new_cols = n0.iter().zip(n1).zip(n2.iter().zip(n3));
+            let old_cols = o0.iter().zip(o1).zip(o2.iter().zip(o3));
+            for (((sum, &w), ((&v0, &v1), (&v2, &v3))), ((&u0, &u1), (&u2, &u3))) in cell_sums.iter_mut().zip(widths).zip(new_cols).zip(old_cols) {
+                acc_new[0] += w * v0;
+                acc_new[1] += w * v1;
+                acc_new[2] += w * v2;
+                acc_new[3] += w * v3;
+                acc_old[0] += w * u0;
+                acc_old[1] += w * u1;
+                acc_old[2] += w * u2;
+                acc_old[3] += w * u3;
+                *sum = *sum + v0 + v1 + v2 + v3;
+            }
+            sum_new.copy_from_slice(&acc_new);
+            sum_old.copy_from_slice(&acc_old);
+        }
+        let (new_sums, old_sums) = (&mut new_sums[n / 4 * 4..], &mut old_sums[n / 4 * 4..]);
+        for (((column, old), sum_new), sum_old) in new_rest.chunks_exact(ny).zip(old_rest.chunks_exact(ny)).zip(new_sums.iter_mut()).zip(old_sums.iter_mut()) {
+            let (mut acc_new, mut acc_old) = (-0.0, -0.0);
             for ((sum, (&v, &v_old)), &w) in cell_sums.iter_mut().zip(column.iter().zip(old)).zip(widths) {
-                new_sum += w * v;
-                old_sum += w * v_old;
+                acc_new += w * v;
+                acc_old += w * v_old;
                 *sum += v;
             }
-            let inventory: f64 = m_used * new_sum;
-            let before: f64 = s.mass * old_sum;
+            *sum_new = acc_new;
+            *sum_old = acc_old;
+        }
+        let mut total_mass = 0.0;
+        let (new_sums, old_sums) = sums.split_at(n);
+        for i in 0..n {
+            let inventory: f64 = m_used * new_sums[i];
+            let before: f64 = s.mass * old_sums[i];
             next.evaporated[i] = s.evaporated[i] + (before - inventory);
             next.inventory[i] = s.inventory[i] - (before - inventory);
             total_mass += next.inventory[i];
@@ -643,6 +682,7 @@ impl Model {
             kappa: vec![0.0; n],
             inputs: vec![SurfaceInput { q0: 0.0, q1: 0.0, u_ref: 0.0 }; n],
             cell_sums: vec![0.0; ny],
+            column_sums: vec![0.0; 2 * n],
             surface_jacobian: surface::SurfaceJacobian::new(n),
             jac_rhs: vec![0.0; n + 1],
             jac_a: vec![0.0; n],

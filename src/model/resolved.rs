@@ -163,22 +163,26 @@ impl Model {
     fn liquid_properties(&mut self, s: &State) -> Liquid {
         let t_mean = self.tgrid.mean(&s.temp);
         let comps = &self.comps;
-        // density (Amagat) and heat capacity from one grouped kernel look-up per component (the bits of
-        // liquid::density and liquid::heat_capacity: the same values summed in the same order)
-        let (mut inv_rho, mut cp) = (-0.0, -0.0);
-        for (c, &w) in comps.iter().zip(&self.w_mean) {
+        // one pass over the components: density (Amagat) and heat capacity from one grouped kernel look-up each,
+        // viscosity (Grunberg–Nissan, no interaction) and conductivity (DIPPR 9H, Vredeveld)
+        // side by side; each mixing sum runs over the components in order, so the bits are those of
+        // liquid::density, heat_capacity, viscosity and conductivity
+        let (mut inv_rho, mut cp, mut ln_mu, mut inv_k2) = (-0.0, -0.0, -0.0, -0.0);
+        for ((c, &w), &x) in comps.iter().zip(&self.w_mean).zip(&self.x_mean) {
             let point = c.liquid_point(t_mean);
             inv_rho += w / point.density;
             cp += w * point.heat_capacity;
+            ln_mu += x * c.liquid_viscosity(t_mean).ln();
+            inv_k2 += w / c.liquid_conductivity(t_mean).powi(2);
         }
         let rho = 1.0 / inv_rho;
-        let mu = liquid::viscosity(comps, &self.x_mean, t_mean);
+        let mu = ln_mu.exp();
         let w_b = liquid::molar_mass(comps, &self.x_mean);
         let v_a: f64 = self.x_mean.iter().zip(&self.molar_volume_b).map(|(x, v)| x * v).sum();
         Liquid {
             density: rho,
             cp,
-            conductivity: liquid::conductivity(comps, &self.w_mean, t_mean) * self.conductivity_factor,
+            conductivity: 1.0 / inv_k2.sqrt() * self.conductivity_factor,
             viscosity: mu,
             diffusivity: wilke_chang(t_mean, w_b, mu, v_a) * self.diffusivity_factor,
         }

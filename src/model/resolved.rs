@@ -24,7 +24,9 @@ use super::ModelError;
 mod boiling;
 mod control;
 mod run_log;
+mod spare;
 mod surface;
+use spare::spare_copy;
 pub(crate) use control::{attempt_step, crossing_time, first_step, grown_step, step_tolerance, Attempt};
 use run_log::{resolved_outcome, RunLog};
 pub(crate) use boiling::RegimeSwitch;
@@ -107,9 +109,6 @@ pub(crate) struct Model {
     spare_vectors: Vec<Vec<f64>>,
 }
 
-/// Largest number of spare states and vectors kept (a step attempt holds at most a few at a time).
-const SPARE_LIMIT: usize = 8;
-
 /// The liquid properties of one liquid state (its inventories and cell temperatures).
 struct LiquidCache {
     valid: bool,
@@ -185,42 +184,6 @@ impl Model {
             conductivity: 1.0 / inv_k2.sqrt() * self.conductivity_factor,
             viscosity: mu,
             diffusivity: wilke_chang(t_mean, w_b, mu, v_a) * self.diffusivity_factor,
-        }
-    }
-
-    /// A state of this model's dimensions with the time, mass, inventories, velocity, surface and regime of `s`;
-    /// its cell profiles (`y`, `temp`) hold stale values the caller overwrites. Reuses a spare state.
-    fn state_like(&mut self, s: &State) -> State {
-        let Some(mut t) = self.spare_states.pop() else { return s.clone() };
-        t.time = s.time;
-        t.mass = s.mass;
-        t.evaporated.copy_from_slice(&s.evaporated);
-        t.inventory.copy_from_slice(&s.inventory);
-        t.velocity = s.velocity;
-        t.surface_y.copy_from_slice(&s.surface_y);
-        t.surface_t = s.surface_t;
-        t.boiling = s.boiling;
-        t.heat_inward = s.heat_inward;
-        t
-    }
-
-    /// Keep `s` for reuse by a later step.
-    pub(crate) fn recycle(&mut self, s: State) {
-        if self.spare_states.len() < SPARE_LIMIT && s.y.len() == self.n * self.ny() && s.temp.len() == self.tgrid.len() {
-            self.spare_states.push(s);
-        }
-    }
-
-    /// A copy of `v` (one value per species) in a spare vector.
-    fn vector_copy(&mut self, v: &[f64]) -> Vec<f64> {
-        spare_copy(&mut self.spare_vectors, v)
-    }
-
-    /// Keep the vectors of start data `st` for reuse.
-    fn recycle_start(&mut self, st: StepStart) {
-        if self.spare_vectors.len() + 2 <= SPARE_LIMIT {
-            self.spare_vectors.push(st.rates0);
-            self.spare_vectors.push(st.surface_y);
         }
     }
 
@@ -587,18 +550,6 @@ impl Model {
             temperature: centres.iter().map(|e| value_at(&self.tgrid, &s.temp, *e)).collect(),
             mass_fractions: (0..self.n).map(|i| (0..cells).map(|k| value_at(&self.ygrid, &s.y[i * ny..(i + 1) * ny], centres[k])).collect()).collect(),
         }
-    }
-}
-
-/// A copy of `v` in a vector taken from `spare` (or a new one).
-fn spare_copy(spare: &mut Vec<Vec<f64>>, v: &[f64]) -> Vec<f64> {
-    match spare.pop() {
-        Some(mut w) => {
-            w.clear();
-            w.extend_from_slice(v);
-            w
-        }
-        None => v.to_vec(),
     }
 }
 

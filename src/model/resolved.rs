@@ -24,7 +24,9 @@ use super::ModelError;
 mod boiling;
 mod control;
 mod run_log;
+mod spare;
 mod surface;
+use spare::spare_copy;
 pub(crate) use control::{attempt_step, crossing_time, first_step, grown_step, step_tolerance, Attempt};
 use run_log::{resolved_outcome, RunLog};
 pub(crate) use boiling::RegimeSwitch;
@@ -84,6 +86,8 @@ pub(crate) struct Model {
     molar_volume_b: Vec<f64>,
     /// Σ over species of the cell mass fractions, per cell (scratch of a step).
     cell_sums: Vec<f64>,
+    /// Σ_j Δη_j Y_ij per species after and before a step (scratch of a step, 2n).
+    column_sums: Vec<f64>,
     /// Scratch of the surface-state Newton iteration (surface.rs): structured Jacobian, right-hand side n+1, per
     /// component ∂ΣX/∂Y_j and vapour-share factors, rates and their temperature derivatives.
     surface_jacobian: surface::SurfaceJacobian,
@@ -100,6 +104,9 @@ pub(crate) struct Model {
     /// Scratch of a step: the species rates and the surface mass fractions its fluxes come from.
     step_rates: Vec<f64>,
     step_surface: Vec<f64>,
+    /// States and per-species vectors of finished steps, reused by the next ones (no allocation per step).
+    spare_states: Vec<State>,
+    spare_vectors: Vec<Vec<f64>>,
 }
 
 /// The liquid properties of one liquid state (its inventories and cell temperatures).
@@ -155,14 +162,26 @@ impl Model {
     fn liquid_properties(&mut self, s: &State) -> Liquid {
         let t_mean = self.tgrid.mean(&s.temp);
         let comps = &self.comps;
-        let rho = liquid::density(comps, &self.w_mean, t_mean);
-        let mu = liquid::viscosity(comps, &self.x_mean, t_mean);
+        // one pass over the components: density (Amagat) and heat capacity from one grouped kernel look-up each,
+        // viscosity (Grunberg–Nissan, no interaction) and conductivity (DIPPR 9H, Vredeveld)
+        // side by side; each mixing sum runs over the components in order, so the bits are those of
+        // liquid::density, heat_capacity, viscosity and conductivity
+        let (mut inv_rho, mut cp, mut ln_mu, mut inv_k2) = (-0.0, -0.0, -0.0, -0.0);
+        for ((c, &w), &x) in comps.iter().zip(&self.w_mean).zip(&self.x_mean) {
+            let point = c.liquid_point(t_mean);
+            inv_rho += w / point.density;
+            cp += w * point.heat_capacity;
+            ln_mu += x * c.liquid_viscosity(t_mean).ln();
+            inv_k2 += w / c.liquid_conductivity(t_mean).powi(2);
+        }
+        let rho = 1.0 / inv_rho;
+        let mu = ln_mu.exp();
         let w_b = liquid::molar_mass(comps, &self.x_mean);
         let v_a: f64 = self.x_mean.iter().zip(&self.molar_volume_b).map(|(x, v)| x * v).sum();
         Liquid {
             density: rho,
-            cp: liquid::heat_capacity(comps, &self.w_mean, t_mean),
-            conductivity: liquid::conductivity(comps, &self.w_mean, t_mean) * self.conductivity_factor,
+            cp,
+            conductivity: 1.0 / inv_k2.sqrt() * self.conductivity_factor,
             viscosity: mu,
             diffusivity: wilke_chang(t_mean, w_b, mu, v_a) * self.diffusivity_factor,
         }
@@ -216,7 +235,7 @@ impl Model {
         let liq = self.liquid(s);
         let radius = 0.5 * (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
         let area = 4.0 * std::f64::consts::PI * radius * radius;
-        let mut surface = s.surface_y.clone();
+        let mut surface = self.vector_copy(&s.surface_y);
         if s.boiling {
             if self.n > 1 && self.ny() > 1 {
                 self.solve_boiling_surface(s, &liq, radius, &mut surface);
@@ -224,7 +243,8 @@ impl Model {
                 surface.iter_mut().for_each(|v| *v /= sum);
             }
             let (f0, hold, g_t, g_y) = self.boiling_film_of(s, &surface, &liq, radius);
-            return Ok(StepStart { liq, radius, f0, rates0: self.rates.clone(), dq: 0.0, g_t, g_y, t_lin: hold, surface_y: surface });
+            let rates0 = spare_copy(&mut self.spare_vectors, &self.rates);
+            return Ok(StepStart { liq, radius, f0, rates0, dq: 0.0, g_t, g_y, t_lin: hold, surface_y: surface });
         }
         if self.n > 1 && self.ny() > 1 {
             // species diffusion in a mixture: surface composition and temperature solved together (surface.rs),
@@ -235,7 +255,7 @@ impl Model {
             let sol = self.solve_surface(s, &liq, radius, &mut surface);
             let sum: f64 = surface.iter().sum();
             surface.iter_mut().for_each(|v| *v /= sum);
-            let rates0 = self.rates.clone();
+            let rates0 = spare_copy(&mut self.spare_vectors, &self.rates);
             return Ok(StepStart { liq, radius, f0: sol.film, rates0, dq: sol.dq, g_t: sol.g_t, g_y: sol.g_y, t_lin: sol.temperature, surface_y: surface });
         }
         // Q_L(T_s) is linearised about the surface temperature that balances conduction from the outer cell,
@@ -248,7 +268,7 @@ impl Model {
         let mut newton = 0;
         loop {
             let f0 = self.film_at(&surface, t_lin, s.mass, liq.density, s.velocity);
-            let rates0 = self.rates.clone();
+            let rates0 = spare_copy(&mut self.spare_vectors, &self.rates);
             // dQ_L/dT_s by a one-sided difference
             let dt_s = 0.01;
             let f1 = self.film_at(&surface, t_lin + dt_s, s.mass, liq.density, s.velocity);
@@ -281,7 +301,8 @@ impl Model {
         // heat input to the liquid linearised as Q_L(T_s) ≈ q0 + q1 (T_s − t_ref) [W, W/K, K]
         let mut heat_lin = (f0.heat_to_liquid, dq, *t_lin);
         let near_bubble = !s.boiling && n > 1 && ny > 1 && f0.surface_vapor_mole_fraction >= NEAR_BUBBLE;
-        let mut next = s.clone();
+        // (the cell profiles of `next` are written by each pass below before anything reads them)
+        let mut next = self.state_like(s);
         // Surface coupling, iterated: each species leaves at κ_i u_s,i with κ_i = ṁ_i/Y_s,i from the film at the
         // latest surface state (implicit in the surface value; prescribed rate when condensing), the advective
         // terms use the total rate of the previous iterate; converged when the two totals agree.
@@ -325,8 +346,13 @@ impl Model {
                 self.kappa[i] = if implicit { film_rates[i] / film_surface[i] } else { 0.0 };
                 self.inputs[i] = if implicit { SurfaceInput { q0: 0.0, q1: mdot_a - self.kappa[i], u_ref: 0.0 } } else { SurfaceInput { q0: -film_rates[i], q1: mdot_a, u_ref: 0.0 } };
             }
-            next.y.copy_from_slice(&s.y);
-            self.ygrid.implicit_step_many(&mut next.y, s.mass, m_new, dt, g_y, mdot_a, &self.inputs, &mut next.surface_y);
+            if iteration == 0 {
+                // the first pass feeds the second only through its surface values and outer cells (the film
+                // refresh or the surface solve at its surface): the forward elimination gives them
+                self.ygrid.implicit_surface_many_from(&s.y, &mut next.y, s.mass, m_new, dt, g_y, mdot_a, &self.inputs, &mut next.surface_y);
+            } else {
+                self.ygrid.implicit_step_many_from(&s.y, &mut next.y, s.mass, m_new, dt, g_y, mdot_a, &self.inputs, &mut next.surface_y);
+            }
             let mut total = 0.0;
             for i in 0..n {
                 let ys = next.surface_y[i].max(0.0);
@@ -387,33 +413,75 @@ impl Model {
         }
         // Liquid inventory per component straight from the conservative solve; the evaporated masses are what
         // left it (so liquid + evaporated = initial holds exactly), and cell sums are renormalised to 1.
-        // (iterators over whole columns and strided rows: the same sums in the same order, without bounds checks)
-        let mut total_mass = 0.0;
+        // One pass per column gives its inventory before and after the step and adds it to the cell sums (the
+        // same sums in the same order as separate passes), a second divides by the sums and checks the values.
         let widths = &self.ygrid.widths[..ny];
+        let cell_sums = &mut self.cell_sums[..ny];
+        cell_sums.fill(0.0);
+        // Σ_j Δη_j Y_ij of each column after and before the step, four columns side by side (independent
+        // chains; each sum in cell order, and each cell sum over the columns in column order, as column by column)
+        let sums = &mut self.column_sums[..2 * n];
+        let (new_sums, old_sums) = sums.split_at_mut(n);
+        let y_len = n * ny;
+        let quads = n / 4 * 4 * ny;
+        let (new_wide, new_rest) = next.y[..y_len].split_at(quads);
+        let (old_wide, old_rest) = s.y[..y_len].split_at(quads);
+        for (((new4, old4), sum_new), sum_old) in new_wide.chunks_exact(4 * ny).zip(old_wide.chunks_exact(4 * ny)).zip(new_sums.chunks_exact_mut(4)).zip(old_sums.chunks_exact_mut(4)) {
+            // (float sums start from −0.0, the identity of addition)
+            let (mut acc_new, mut acc_old) = ([-0.0; 4], [-0.0; 4]);
+            let (n0, rest) = new4.split_at(ny);
+            let (n1, rest) = rest.split_at(ny);
+            let (n2, n3) = rest.split_at(ny);
+            let (o0, rest) = old4.split_at(ny);
+            let (o1, rest) = rest.split_at(ny);
+            let (o2, o3) = rest.split_at(ny);
+            let new_cols = n0.iter().zip(n1).zip(n2.iter().zip(n3));
+            let old_cols = o0.iter().zip(o1).zip(o2.iter().zip(o3));
+            for (((sum, &w), ((&v0, &v1), (&v2, &v3))), ((&u0, &u1), (&u2, &u3))) in cell_sums.iter_mut().zip(widths).zip(new_cols).zip(old_cols) {
+                acc_new[0] += w * v0;
+                acc_new[1] += w * v1;
+                acc_new[2] += w * v2;
+                acc_new[3] += w * v3;
+                acc_old[0] += w * u0;
+                acc_old[1] += w * u1;
+                acc_old[2] += w * u2;
+                acc_old[3] += w * u3;
+                *sum = *sum + v0 + v1 + v2 + v3;
+            }
+            sum_new.copy_from_slice(&acc_new);
+            sum_old.copy_from_slice(&acc_old);
+        }
+        let (new_sums, old_sums) = (&mut new_sums[n / 4 * 4..], &mut old_sums[n / 4 * 4..]);
+        for (((column, old), sum_new), sum_old) in new_rest.chunks_exact(ny).zip(old_rest.chunks_exact(ny)).zip(new_sums.iter_mut()).zip(old_sums.iter_mut()) {
+            let (mut acc_new, mut acc_old) = (-0.0, -0.0);
+            for ((sum, (&v, &v_old)), &w) in cell_sums.iter_mut().zip(column.iter().zip(old)).zip(widths) {
+                acc_new += w * v;
+                acc_old += w * v_old;
+                *sum += v;
+            }
+            *sum_new = acc_new;
+            *sum_old = acc_old;
+        }
+        let mut total_mass = 0.0;
+        let (new_sums, old_sums) = sums.split_at(n);
         for i in 0..n {
-            let inventory: f64 = m_used * widths.iter().zip(&next.y[i * ny..(i + 1) * ny]).map(|(w, y)| w * y).sum::<f64>();
-            let before: f64 = s.mass * widths.iter().zip(&s.y[i * ny..(i + 1) * ny]).map(|(w, y)| w * y).sum::<f64>();
+            let inventory: f64 = m_used * new_sums[i];
+            let before: f64 = s.mass * old_sums[i];
             next.evaporated[i] = s.evaporated[i] + (before - inventory);
             next.inventory[i] = s.inventory[i] - (before - inventory);
             total_mass += next.inventory[i];
         }
         let _ = mdot_a;
         next.mass = total_mass;
-        self.cell_sums.clear();
-        self.cell_sums.resize(ny, 0.0);
-        for column in next.y.chunks_exact(ny).take(n) {
-            for (sum, v) in self.cell_sums.iter_mut().zip(column) {
-                *sum += v;
-            }
-        }
+        let mut bad = false;
         for column in next.y.chunks_exact_mut(ny).take(n) {
-            for (v, &sum) in column.iter_mut().zip(&self.cell_sums) {
-                if sum > 0.0 {
-                    *v /= sum;
-                }
+            for (v, &sum) in column.iter_mut().zip(&*cell_sums) {
+                let u = if sum > 0.0 { *v / sum } else { *v };
+                *v = u;
+                bad |= !u.is_finite() | (u < -1e-6);
             }
         }
-        if next.y.iter().any(|v| !v.is_finite() || *v < -1e-6) || next.temp.iter().any(|v| !v.is_finite()) || !next.surface_t.is_finite() {
+        if bad || next.temp.iter().any(|v| !v.is_finite()) || !next.surface_t.is_finite() {
             return Err("non-physical values".into());
         }
         // drag (semi-implicit), gas at rest
@@ -525,7 +593,6 @@ impl Model {
         let rho0 = liquid::density(&comps, w0, t0);
         let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
         let x0 = inp.fuel.mole_fractions();
-        let t_bubble0 = film.bubble_point(&x0).unwrap_or(f64::INFINITY);
         let t_hold0 = boiling_hold_temperature(&comps, &mut film.setup.activity, &x0, inp.pressure).unwrap_or(f64::INFINITY);
         let mut masses: Vec<f64> = w0.iter().map(|w| w * m0).collect();
         let mut t_start = t0;
@@ -534,7 +601,9 @@ impl Model {
             // as the well-mixed liquid: flash down to the hold temperature, then boil if the heat holds it there
             let (m_left, tb) = adiabatic_flash(&comps, &mut film.setup.activity, w0, t0, m0, BOILING_THRESHOLD * inp.pressure, inp.end_mass_fraction);
             let total: f64 = m_left.iter().sum();
-            flash = Some((100.0 * (1.0 - total / m0), tb));
+            // the bubble point only for the note (a search of its own)
+            let t_bubble0 = film.bubble_point(&x0).unwrap_or(f64::INFINITY);
+            flash = Some((100.0 * (1.0 - total / m0), tb, t_bubble0));
             masses = m_left;
             t_start = tb;
         }
@@ -568,6 +637,7 @@ impl Model {
             kappa: vec![0.0; n],
             inputs: vec![SurfaceInput { q0: 0.0, q1: 0.0, u_ref: 0.0 }; n],
             cell_sums: vec![0.0; ny],
+            column_sums: vec![0.0; 2 * n],
             surface_jacobian: surface::SurfaceJacobian::new(n),
             jac_rhs: vec![0.0; n + 1],
             jac_a: vec![0.0; n],
@@ -578,6 +648,8 @@ impl Model {
             film_calls: 0,
             step_rates: vec![0.0; n],
             step_surface: vec![0.0; n],
+            spare_states: Vec::new(),
+            spare_vectors: Vec::new(),
             liquid_cache: LiquidCache { valid: false, inventory: vec![0.0; n], temp: vec![0.0; nt], liquid: Liquid::default() },
         };
         let mut state = State {
@@ -594,7 +666,7 @@ impl Model {
             heat_inward: 0.0,
         };
         let mut model = model;
-        let note = flash.map(|(percent, tb)| {
+        let note = flash.map(|(percent, tb, t_bubble0)| {
             state.boiling = model.hold_margin(&state) > 0.0;
             format!(
                 "initial temperature {t0:.2} K is at or above the bubble point ({t_bubble0:.2} K at the ambient pressure; the boiling regime holds Σ X_s = {BOILING_THRESHOLD}, {t_hold0:.2} K): {percent:.3} % of the mass flashed at injection (adiabatic flash) down to {tb:.2} K, {}",
@@ -694,7 +766,8 @@ pub fn simulate_resolved(inp: &DropletInputs, observer: &mut dyn Observer) -> Re
         if let Some(tk) = landed {
             new.time = tk;
         }
-        state = new;
+        let old = std::mem::replace(&mut state, new);
+        model.recycle(old);
         let row = model.row(&state, m0, inp.initial_diameter);
         log.watch.observe(&model.comps, &row.surface_liquid_mass_fractions, &row, state.time);
         log.keep_profiles(&mut model, &state, m0);

@@ -4,25 +4,27 @@
 
 use super::*;
 
-fn combine(a: &State, b: &State) -> State {
-    // Richardson: 2·(two half steps) − (one full step)
-    let mix = |x: &[f64], y: &[f64]| -> Vec<f64> { x.iter().zip(y).map(|(h, f)| 2.0 * h - f).collect() };
-    let mut surface_y: Vec<f64> = mix(&a.surface_y, &b.surface_y).into_iter().map(|v| v.max(0.0)).collect();
-    let s: f64 = surface_y.iter().sum();
-    surface_y.iter_mut().for_each(|v| *v /= s);
-    State {
-        time: a.time,
-        mass: mix(&a.inventory, &b.inventory).iter().sum(),
-        y: mix(&a.y, &b.y),
-        temp: mix(&a.temp, &b.temp),
-        evaporated: mix(&a.evaporated, &b.evaporated),
-        inventory: mix(&a.inventory, &b.inventory),
-        velocity: 2.0 * a.velocity - b.velocity,
-        surface_y,
-        surface_t: 2.0 * a.surface_t - b.surface_t,
-        boiling: a.boiling,
-        heat_inward: 2.0 * a.heat_inward - b.heat_inward,
-    }
+/// Richardson combination 2·(two half steps `a`) − (one full step `b`) into `out` (every field written).
+fn combine_into(a: &State, b: &State, out: &mut State) {
+    let mix = |x: &[f64], y: &[f64], out: &mut [f64]| {
+        for (o, (h, f)) in out.iter_mut().zip(x.iter().zip(y)) {
+            *o = 2.0 * h - f;
+        }
+    };
+    mix(&a.surface_y, &b.surface_y, &mut out.surface_y);
+    out.surface_y.iter_mut().for_each(|v| *v = v.max(0.0));
+    let s: f64 = out.surface_y.iter().sum();
+    out.surface_y.iter_mut().for_each(|v| *v /= s);
+    out.time = a.time;
+    mix(&a.inventory, &b.inventory, &mut out.inventory);
+    out.mass = out.inventory.iter().sum();
+    mix(&a.y, &b.y, &mut out.y);
+    mix(&a.temp, &b.temp, &mut out.temp);
+    mix(&a.evaporated, &b.evaporated, &mut out.evaporated);
+    out.velocity = 2.0 * a.velocity - b.velocity;
+    out.surface_t = 2.0 * a.surface_t - b.surface_t;
+    out.boiling = a.boiling;
+    out.heat_inward = 2.0 * a.heat_inward - b.heat_inward;
 }
 
 /// Scaled RMS difference between two solutions: mass relative to m0, temperatures over 1 K, mass fractions
@@ -85,8 +87,13 @@ fn candidate(model: &mut Model, state: &State, st: &StepStart, h: f64, m0: f64) 
     let mid = model.step(state, st, 0.5 * h)?;
     let mid_start = model.start(&mid)?;
     let half = model.step(&mid, &mid_start, 0.5 * h)?;
+    model.recycle_start(mid_start);
     let err = error_norm(&half, &full, m0);
-    let mut new = combine(&half, &full);
+    let mut new = model.state_like(&half);
+    combine_into(&half, &full, &mut new);
+    model.recycle(full);
+    model.recycle(mid);
+    model.recycle(half);
     new.time = state.time + h;
     if !(new.mass > 0.0) || new.temp.iter().any(|v| !v.is_finite()) {
         return Err("non-physical Richardson combination".into());
@@ -126,6 +133,10 @@ pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: 
         }
     };
     if err > tol {
+        model.recycle(new);
+        if let Ok(st) = start {
+            model.recycle_start(st);
+        }
         stats.rejected += 1;
         if *dt < 1e-14 {
             // the one-step and two-half-step surface states still differ as the step vanishes
@@ -172,6 +183,9 @@ pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: 
     if switch.is_some() {
         // the surface of the state at the change solved for the new regime
         model.settle_surface(&mut new);
+    }
+    if let Ok(st) = start {
+        model.recycle_start(st);
     }
     stats.steps += 1;
     stats.rhs_calls = model.film_calls;

@@ -236,10 +236,10 @@ impl Model {
 
     /// The kept surface solution when `s` is the state it was found for (same time, mass and surface temperature),
     /// with a copy of its species rates.
-    pub(super) fn settled_solution(&self, s: &State) -> Option<(SurfaceSolution, Vec<f64>)> {
+    pub(super) fn settled_solution(&mut self, s: &State) -> Option<(SurfaceSolution, Vec<f64>)> {
         let k = &self.settled;
         let same = k.valid && k.time.to_bits() == s.time.to_bits() && k.mass.to_bits() == s.mass.to_bits() && k.solution.temperature.to_bits() == s.surface_t.to_bits();
-        same.then(|| (k.solution, k.rates.clone()))
+        same.then(|| (k.solution, super::spare_copy(&mut self.spare_vectors, &k.rates)))
     }
 }
 

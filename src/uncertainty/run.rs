@@ -412,8 +412,13 @@ fn check_settings(s: &Settings) -> Result<(), UncertaintyError> {
 pub fn run(nominal: &DropletInputs, spec: &UncertaintySpec, settings: &Settings, progress: Option<&(dyn Fn(usize) + Sync)>) -> Result<UncertaintyRun, UncertaintyError> {
     check_settings(settings)?;
     let (factors, mut notices) = resolve(spec, nominal)?;
+    // The deterministic run and every sample evaluate their pure-component properties (droplet run and residue
+    // indicators alike) through the per-component kernels of the nominal components when the inputs ask for
+    // kernels: the copies each sample rescales share them, so no sample copies or builds kernels.
+    let kernel_nominal = crate::model::inputs::with_kernels(nominal);
+    let run_nominal = kernel_nominal.as_ref().unwrap_or(nominal);
     // the deterministic run sets the time scale of the grid
-    let det_run = simulate(nominal, &mut crate::model::guard::RowsOnly)?;
+    let det_run = simulate(run_nominal, &mut crate::model::guard::RowsOnly)?;
     let reference_time = match det_run.outcome.lifetime {
         Some(t) if t > 0.0 => t,
         _ => {
@@ -424,7 +429,7 @@ pub fn run(nominal: &DropletInputs, spec: &UncertaintySpec, settings: &Settings,
     let step = settings.grid_extent / (settings.grid_points - 1) as f64;
     let normalised: Vec<f64> = (0..settings.grid_points).map(|j| j as f64 * step).collect();
     let grid: Vec<f64> = normalised.iter().map(|x| x * reference_time).collect();
-    let deterministic = reduce(nominal, &det_run, vec![], &grid, settings);
+    let deterministic = reduce(run_nominal, &det_run, vec![], &grid, settings);
     drop(det_run);
     let design = Design::new(&factors, settings);
     let pool = rayon::ThreadPoolBuilder::new().num_threads(settings.threads).build().map_err(|e| UncertaintyError::Internal(format!("thread pool: {e}")))?;
@@ -434,7 +439,7 @@ pub fn run(nominal: &DropletInputs, spec: &UncertaintySpec, settings: &Settings,
             .into_par_iter()
             .map(|i| {
                 let z = design.draws(&factors, i);
-                let inputs = perturbed(nominal, &factors, &z);
+                let inputs = perturbed(run_nominal, &factors, &z);
                 let r = evaluate(&inputs, z, &grid, settings);
                 if let Some(p) = progress {
                     p(done.fetch_add(1, std::sync::atomic::Ordering::Relaxed) + 1);

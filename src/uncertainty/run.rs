@@ -609,7 +609,7 @@ fn rank(inputs: &[SensitivityInput], samples: &[SampleRecord], at50: Option<usiz
         .map(|inp| {
             let x: Vec<Option<f64>> = inp.values.iter().map(|v| Some(*v)).collect();
             let columns: Vec<Vec<f64>> = inp.members.iter().map(|&m| samples.iter().map(|s| s.z[m]).collect()).collect();
-            let mut designs: Vec<(Vec<usize>, Option<(RankDesign, Vec<Vec<f64>>)>)> = vec![];
+            let mut designs: Vec<(Vec<usize>, Option<RankDesign>)> = vec![];
             let factors = inp.members.len();
             RANKED_OUTPUTS
                 .iter()
@@ -624,7 +624,7 @@ fn rank(inputs: &[SensitivityInput], samples: &[SampleRecord], at50: Option<usiz
                             designs.len() - 1
                         }
                     };
-                    let r2 = designs[d].1.as_ref().and_then(|(design, cols)| rank_r2_with(design, cols, y));
+                    let r2 = designs[d].1.as_ref().and_then(|design| rank_r2_with(design, y));
                     let rho = spearman(&x, y);
                     SensitivityRow { output, rank: 0, input: inp.name.clone(), kind: inp.kind, spearman: rho, r2, samples: used, factors, above_noise: above_noise(factors, used, rho, r2) }
                 })

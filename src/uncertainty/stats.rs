@@ -135,6 +135,8 @@ pub struct RankDesign {
     /// Samples used (positions in the sample list).
     pub keep: Vec<usize>,
     m: usize,
+    /// Centred ranks of each column over `keep`.
+    cols: Vec<Vec<f64>>,
     /// Lower Cholesky factor of XᵀX; None: singular.
     l: Option<linalg::Factor>,
 }
@@ -146,8 +148,8 @@ fn centred_ranks(v: &[f64]) -> Vec<f64> {
 }
 
 /// The rank-regression design of columns `x` over samples `keep` (None when there are no columns or too few
-/// samples: fewer than columns + 3). Also returns the centred column ranks, which [`rank_r2_with`] needs.
-pub fn rank_design(x: &[Vec<f64>], keep: Vec<usize>) -> Option<(RankDesign, Vec<Vec<f64>>)> {
+/// samples: fewer than columns + 3).
+pub fn rank_design(x: &[Vec<f64>], keep: Vec<usize>) -> Option<RankDesign> {
     let m = x.len();
     let n = keep.len();
     if m == 0 || n < m + 3 {
@@ -163,19 +165,19 @@ pub fn rank_design(x: &[Vec<f64>], keep: Vec<usize>) -> Option<(RankDesign, Vec<
         }
     }
     let l = linalg::cholesky(&a, m, 1e-12);
-    Some((RankDesign { keep, m, l }, cols))
+    Some(RankDesign { keep, m, cols, l })
 }
 
-/// Adjusted R² of the rank regression of `y` on a design's columns (`cols`: the centred ranks
-/// [`rank_design`] returned); `y` must have a finite value at every sample of `design.keep`.
-pub fn rank_r2_with(design: &RankDesign, cols: &[Vec<f64>], y: &[Option<f64>]) -> Option<f64> {
+/// Adjusted R² of the rank regression of `y` on a design's columns; `y` must have a finite value at every
+/// sample of `design.keep`.
+pub fn rank_r2_with(design: &RankDesign, y: &[Option<f64>]) -> Option<f64> {
     let (m, n) = (design.m, design.keep.len());
     let ry = centred_ranks(&design.keep.iter().map(|&i| y[i].unwrap_or(0.0)).collect::<Vec<f64>>());
     let syy: f64 = ry.iter().map(|v| v * v).sum();
     if syy <= 0.0 {
         return None;
     }
-    let b: Vec<f64> = cols.iter().map(|c| c.iter().zip(&ry).map(|(p, q)| p * q).sum()).collect();
+    let b: Vec<f64> = design.cols.iter().map(|c| c.iter().zip(&ry).map(|(p, q)| p * q).sum()).collect();
     let l = design.l.as_ref()?;
     // solve L w = Xᵀy; then R² = |w|² / yᵀy (since bᵀXᵀy = wᵀw)
     let w = linalg::solve_lower(l, &b)?;
@@ -190,8 +192,8 @@ pub fn rank_r2_with(design: &RankDesign, cols: &[Vec<f64>], y: &[Option<f64>]) -
 /// For one column it is the adjusted square of Spearman's coefficient. Pairs with a missing or non-finite
 /// value anywhere are skipped; `None` when fewer than m + 3 remain or the columns are degenerate.
 pub fn rank_r2(x: &[Vec<f64>], y: &[Option<f64>]) -> Option<f64> {
-    let (design, cols) = rank_design(x, regression_samples(x, y))?;
-    rank_r2_with(&design, &cols, y)
+    let design = rank_design(x, regression_samples(x, y))?;
+    rank_r2_with(&design, y)
 }
 
 /// Whether an input stands out from sampling noise: for one factor, |Spearman| > 1.96/√(n − 1) (a rough two-sided

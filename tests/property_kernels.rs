@@ -2,7 +2,9 @@
 //! kernels (default) and with every property evaluated from the published correlations at each call
 //! (`PropertyEvaluation::Direct`) give lifetimes, t10/t50/t90, the highest surface temperature and the surface
 //! temperature at t10/t50/t90 within 1e-6 relative (the target of issue 22; the kernels themselves stay within
-//! 1e-7 of the direct evaluation, src/props/kernels.rs).
+//! 1e-7 of the direct evaluation, src/props/kernels.rs). The same for `uncertainty` samples of demo-wide, whose
+//! residue indicators also take the kernel values: lifetimes, t50 and every residue indicator within 1e-6
+//! (measured 8e-12).
 
 use dropcut::data::Library;
 use dropcut::fuel::Fuel;
@@ -74,4 +76,38 @@ fn resolved_liquid_kernels_match_direct() {
     inp.liquid.heat = LiquidHeat::Conduction;
     inp.liquid.nodes = 20;
     compare("demo-blend resolved 20 cells", &inp);
+}
+
+/// `uncertainty` with kernels (the droplet runs and the residue indicators of every sample) against the same
+/// samples evaluated directly: lifetimes, t50 and every residue indicator of every sample within 1e-6 relative.
+#[test]
+fn uncertainty_samples_with_kernels_match_direct() {
+    use dropcut::uncertainty::{self, Settings, UncertaintySpec};
+    let lib = Library::embedded().unwrap();
+    let run = |mode: PropertyEvaluation| {
+        let mut inp = DropletInputs::new(Fuel::resolve("demo-wide", &lib).unwrap(), AmbientGas::air(&lib).unwrap(), 800.0, 101_325.0, 50e-6, 300.0);
+        inp.properties = mode;
+        let settings = Settings { samples: 6, seed: 3, threads: 2, ..Settings::default() };
+        uncertainty::run(&inp, &UncertaintySpec::default(), &settings, None).unwrap()
+    };
+    let (fast, direct) = (run(PropertyEvaluation::Kernels), run(PropertyEvaluation::Direct));
+    let mut worst = 0.0f64;
+    let mut check = |what: &str, a: Option<f64>, b: Option<f64>| match (a, b) {
+        (Some(a), Some(b)) => {
+            let rel = if a == b { 0.0 } else { ((a - b) / b).abs() };
+            assert!(rel < 1e-6, "{what}: {a} (kernels) vs {b} (direct): {rel:e}");
+            worst = worst.max(rel);
+        }
+        (a, b) => assert_eq!(a.is_some(), b.is_some(), "{what}: {a:?} vs {b:?}"),
+    };
+    for (k, (f, d)) in std::iter::once((&fast.deterministic, &direct.deterministic)).chain(fast.samples.iter().zip(&direct.samples)).enumerate() {
+        check(&format!("run {k} lifetime"), f.lifetime, d.lifetime);
+        check(&format!("run {k} t50"), f.t50, d.t50);
+        for (j, (rf, rd)) in f.residue.iter().zip(&d.residue).enumerate() {
+            for (m, (a, b)) in rf.iter().zip(rd).enumerate() {
+                check(&format!("run {k} residue {j} indicator {m}"), *a, *b);
+            }
+        }
+    }
+    eprintln!("uncertainty, kernels against direct: largest relative difference {worst:e}");
 }

@@ -3,6 +3,9 @@
 
 use nalgebra::{DMatrix, DVector};
 
+/// A lower Cholesky factor ([`cholesky`]), for [`solve_lower`].
+pub type Factor = DMatrix<f64>;
+
 /// Solve the linear least-squares problem min ‖A c − b‖ for the rows `rows` of A and right-hand side `rhs`,
 /// by Householder QR of A with its columns scaled to unit norm (equilibration). `None` when there are fewer
 /// rows than unknowns, a non-finite entry, or A is rank-deficient (a diagonal entry of R below 1e-12 of

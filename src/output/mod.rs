@@ -575,6 +575,14 @@ impl CsvTable {
 
     /// Append a row; a non-finite number is an error naming the column.
     pub fn push(&mut self, cells: Vec<Cell>, path_for_errors: &str) -> Result<(), OutputError> {
+        let row = self.format_row(cells, path_for_errors)?;
+        self.rows.push(row);
+        Ok(())
+    }
+
+    /// The text of a row as [`CsvTable::push`] appends it (for rows formatted on several threads and appended
+    /// in order); a non-finite number is an error naming the column.
+    pub fn format_row(&self, cells: Vec<Cell>, path_for_errors: &str) -> Result<Vec<String>, OutputError> {
         let mut row = Vec::with_capacity(cells.len());
         for (i, c) in cells.into_iter().enumerate() {
             let s = match c {
@@ -591,8 +599,7 @@ impl CsvTable {
             };
             row.push(s);
         }
-        self.rows.push(row);
-        Ok(())
+        Ok(row)
     }
 
     /// Render as text.

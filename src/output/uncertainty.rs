@@ -3,6 +3,7 @@
 
 use std::path::Path;
 
+use rayon::prelude::*;
 use serde::Serialize;
 
 use crate::uncertainty::run::{HistoryBands, ResidueBands, RANKED_RESIDUE_FRACTION};
@@ -189,16 +190,26 @@ pub fn samples_table(run: &UncertaintyRun) -> Result<CsvTable, OutputError> {
     let mut t = CsvTable::new(header);
     t.metadata = head(run, "one row per sample: sampled inputs and outputs");
     t.metadata.push("conditions in SI units; composition factors multiply the group's mass fractions before renormalisation; property factors multiply the property; *_mean_z: mass-weighted mean standard draw of that property over the components".into());
-    for (i, s) in run.samples.iter().enumerate() {
-        let mut cells = vec![Cell::Num(i as f64), Cell::Text(s.status.text())];
-        cells.extend(run.factors.iter().zip(&s.z).map(|(f, z)| Cell::Num(f.value(*z))));
-        cells.extend(aggregated.iter().map(|&k| Cell::Num(run.sensitivity_inputs[k].values[i])));
-        cells.extend([Cell::Opt(s.lifetime), Cell::Opt(s.t50), Cell::Opt(s.max_surface_temperature)]);
-        if let Some(j) = at50 {
-            cells.extend(s.residue[j].iter().map(|v| Cell::Opt(*v)));
-        }
-        t.push(cells, "samples.csv")?;
-    }
+    // rows formatted side by side (on the caller's rayon pool), appended in sample order
+    // (the first failing row in sample order, if any, names the error)
+    let rows: Vec<Vec<String>> = run
+        .samples
+        .par_iter()
+        .enumerate()
+        .map(|(i, s)| {
+            let mut cells = vec![Cell::Num(i as f64), Cell::Text(s.status.text())];
+            cells.extend(run.factors.iter().zip(&s.z).map(|(f, z)| Cell::Num(f.value(*z))));
+            cells.extend(aggregated.iter().map(|&k| Cell::Num(run.sensitivity_inputs[k].values[i])));
+            cells.extend([Cell::Opt(s.lifetime), Cell::Opt(s.t50), Cell::Opt(s.max_surface_temperature)]);
+            if let Some(j) = at50 {
+                cells.extend(s.residue[j].iter().map(|v| Cell::Opt(*v)));
+            }
+            t.format_row(cells, "samples.csv")
+        })
+        .collect::<Vec<_>>()
+        .into_iter()
+        .collect::<Result<_, _>>()?;
+    t.rows = rows;
     Ok(t)
 }
 

@@ -10,6 +10,7 @@ use std::sync::Arc;
 use crate::data::{Component, GAS_CONSTANT};
 use crate::numerics::root::{brent, Tolerance};
 use crate::props::activity::{Activity, ActivityModel};
+use crate::props::kernels::VaporPressures;
 
 use super::indicators::CetaneRule;
 
@@ -48,14 +49,15 @@ pub fn liaw_flash_point(components: &[Arc<Component>], mole_fractions: &[f64], p
     let mut act = Activity::new(activity, components).ok()?;
     let mut lo = f64::INFINITY;
     let mut hi = f64::NEG_INFINITY;
-    let mut terms: Vec<(&Component, f64, f64)> = Vec::with_capacity(components.len());
-    for ((c, &x), &tf) in components.iter().zip(mole_fractions).zip(pure_flash_points) {
+    // (component index, x_i, p_sat,i at its flash point)
+    let mut terms: Vec<(usize, f64, f64)> = Vec::with_capacity(components.len());
+    for (i, ((c, &x), &tf)) in components.iter().zip(mole_fractions).zip(pure_flash_points).enumerate() {
         if x > 0.0 {
             let p_fp = c.vapor_pressure(tf);
             if !(p_fp.is_finite() && p_fp > 0.0) {
                 return None;
             }
-            terms.push((c.as_ref(), x, p_fp));
+            terms.push((i, x, p_fp));
             lo = lo.min(tf);
             hi = hi.max(tf);
         }
@@ -64,19 +66,15 @@ pub fn liaw_flash_point(components: &[Arc<Component>], mole_fractions: &[f64], p
         return None;
     }
     let ideal = act.is_ideal();
+    let mut vapor_pressures = VaporPressures::new(components);
     let g = |t: f64| {
         if ideal {
-            terms.iter().map(|(c, x, p_fp)| x * c.vapor_pressure(t) / p_fp).sum::<f64>().ln()
+            terms.iter().map(|&(i, x, p_fp)| x * vapor_pressures.at(i, t) / p_fp).sum::<f64>().ln()
         } else {
             let gamma = act.gammas(mole_fractions, t);
             let mut s = 0.0;
-            let mut k = 0;
-            for (i, &x) in mole_fractions.iter().enumerate() {
-                if x > 0.0 {
-                    let (c, x, p_fp) = terms[k];
-                    s += x * gamma[i] * c.vapor_pressure(t) / p_fp;
-                    k += 1;
-                }
+            for &(i, x, p_fp) in &terms {
+                s += x * gamma[i] * vapor_pressures.at(i, t) / p_fp;
             }
             s.ln()
         }

@@ -28,6 +28,7 @@ use std::sync::Arc;
 use crate::data::Component;
 use crate::props::activity::{Activity, ActivityModel};
 use crate::numerics::root::{brent, Tolerance};
+use crate::props::kernels::VaporPressures;
 use crate::props::liquid;
 
 use super::PostError;
@@ -44,6 +45,8 @@ pub enum PathMode {
 /// Reusable scratch space for the bubble-point solve and the right-hand side.
 struct Evaluator<'a> {
     components: &'a [Arc<Component>],
+    /// p_sat,i(T) of `components` (the bits of `Component::vapor_pressure`).
+    vapor_pressures: VaporPressures<'a>,
     /// Liquid activity model (γ = 1: Raoult's law), K_i = γ_i p_sat,i/p.
     activity: Activity,
     weights: &'a [f64],
@@ -73,8 +76,8 @@ impl<'a> Evaluator<'a> {
         self.sweeps += 1;
         let mut s = 0.0;
         let gamma = self.activity.gammas(&self.x, t);
-        for ((((c, x), k), ps), g) in self.components.iter().zip(&self.x).zip(self.k.iter_mut()).zip(self.p_sat.iter_mut()).zip(gamma) {
-            *ps = c.vapor_pressure(t);
+        for (i, (((x, k), ps), g)) in self.x.iter().zip(self.k.iter_mut()).zip(self.p_sat.iter_mut()).zip(gamma).enumerate() {
+            *ps = self.vapor_pressures.at(i, t);
             *k = g * *ps;
             s += x * *k;
         }
@@ -256,6 +259,7 @@ pub fn integrate(
     let ideal = activity.is_ideal();
     let mut ev = Evaluator {
         components,
+        vapor_pressures: VaporPressures::new(components),
         activity,
         weights,
         mode,

@@ -432,6 +432,78 @@ fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
     poly
 }
 
+/// Vapour pressures of a fixed list of components at one temperature after another (the sweeps of bubble-point,
+/// distillation and flash-point iterations), each with the bits of [`Component::vapor_pressure`]: a component
+/// evaluating through its kernels remembers the segment of its last temperature, so a sweep at a temperature in
+/// the same segment skips the search and the dispatch (components without kernels, and temperatures a kernel
+/// does not serve, take [`Component::vapor_pressure`] itself).
+pub struct VaporPressures<'a> {
+    components: &'a [Arc<Component>],
+    last: Vec<LastSegment<'a>>,
+}
+
+/// The kernel segment a component's last vapour pressure came from.
+#[derive(Clone, Copy)]
+struct LastSegment<'a> {
+    lo: f64,
+    hi: f64,
+    mid: f64,
+    inv_half: f64,
+    /// Vapour-pressure scale of the component \[-\].
+    scale: f64,
+    /// The segment's liquid-group interpolants (None: nothing remembered).
+    group: Option<&'a PolyGroup<4>>,
+}
+
+impl<'a> VaporPressures<'a> {
+    /// An evaluator for `components` (nothing is evaluated yet).
+    pub fn new(components: &'a [Arc<Component>]) -> Self {
+        let none = LastSegment { lo: 0.0, hi: 0.0, mid: 0.0, inv_half: 0.0, scale: 1.0, group: None };
+        VaporPressures { components, last: vec![none; components.len()] }
+    }
+
+    /// Number of components.
+    pub fn len(&self) -> usize {
+        self.components.len()
+    }
+
+    /// Whether there are no components.
+    pub fn is_empty(&self) -> bool {
+        self.components.is_empty()
+    }
+
+    /// Vapour pressure of component `i` at `t` \[Pa\] (the bits of `components[i].vapor_pressure(t)`).
+    #[inline]
+    pub fn at(&mut self, i: usize, t: f64) -> f64 {
+        let last = &self.last[i];
+        if let Some(g) = last.group {
+            if t >= last.lo && t < last.hi {
+                // as PropertyKernels::eval: the interpolant of ln p, then exp, then the scale
+                return horner_column(&g.c, VAPOR_PRESSURE, (t - last.mid) * last.inv_half).exp() * last.scale;
+            }
+        }
+        self.search(i, t)
+    }
+
+    /// [`Self::at`] when `t` lies outside the remembered segment: find its segment and remember it.
+    #[cold]
+    fn search(&mut self, i: usize, t: f64) -> f64 {
+        let c: &'a Component = &self.components[i];
+        if let Some(k) = active(c) {
+            if let Some(s) = k.segment_of(t) {
+                let seg = &k.segments[s];
+                let g = k.liquid[s].get_or_init(|| fit_group(c, LIQUID_GROUP, seg));
+                if g.ok[VAPOR_PRESSURE] {
+                    let scale = c.property_scales[VAPOR_PRESSURE];
+                    self.last[i] = LastSegment { lo: seg.lo, hi: seg.hi, mid: seg.mid, inv_half: seg.inv_half, scale, group: Some(g) };
+                    return horner_column(&g.c, VAPOR_PRESSURE, (t - seg.mid) * seg.inv_half).exp() * scale;
+                }
+            }
+        }
+        c.vapor_pressure(t)
+    }
+}
+
 /// Kernel of an ambient gas's heat capacity, Wilke viscosity and Wassiljewa–Mason–Saxena conductivity
 /// ([`AmbientGas::transport`]), built like the component kernels.
 #[derive(Debug)]
@@ -613,6 +685,32 @@ mod tests {
         assert!(worst < 1e-7, "{worst:e}");
         assert!(served as f64 > 0.9 * total as f64, "{served}/{total}");
         assert!(run_gas(&air, PropertyEvaluation::Direct).kernel.is_none());
+    }
+
+    /// The sweep evaluator gives the bits of `Component::vapor_pressure` for kernel, rescaled and direct
+    /// components, at temperatures that stay in a segment, jump between segments and leave the kernel range.
+    #[test]
+    fn vapor_pressure_sweeps_have_the_bits_of_the_component() {
+        let lib = Library::embedded().unwrap();
+        let mut components: Vec<Arc<Component>> = vec![];
+        for id in ["n-decane", "n-hexadecane", "toluene", "1-methylnaphthalene"] {
+            let c = lib.component(id).unwrap().clone();
+            let mut scales = [1.0; 10];
+            scales[VAPOR_PRESSURE] = 1.07;
+            components.push(Arc::new(with_kernels(&c).with_property_scales(scales)));
+            components.push(with_kernels(&c));
+            components.push(c);
+        }
+        let mut sweeps = VaporPressures::new(&components);
+        // a fine walk up through the range, then jumps back and forth
+        let walk = (0..9600).map(|k| 120.0 + 0.37 * k as f64);
+        let jumps = (0..2000).map(|k| 250.0 + (k as f64 * 7.31) % 600.0 - if k % 3 == 0 { 90.0 } else { 0.0 });
+        for t in walk.chain(jumps) {
+            for (i, c) in components.iter().enumerate() {
+                assert_eq!(sweeps.at(i, t).to_bits(), c.vapor_pressure(t).to_bits(), "{} at {t} K", c.id);
+            }
+        }
+        assert_eq!(sweeps.len(), components.len());
     }
 
     #[test]

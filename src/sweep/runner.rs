@@ -1,10 +1,13 @@
 //! The parallel runner: workers on a rayon pool take case positions in order from a shared counter, simulate,
-//! and send formatted rows to the calling thread, which puts them back in case-id order (a small reorder buffer)
-//! and appends them to the journal `summary.csv.partial` in whole lines. When every case of the shard is in, the
-//! journal is synced and renamed to `summary.csv`, so `summary.csv` only ever exists complete.
+//! and put their formatted rows into a shared reorder buffer; the calling thread takes the rows from it in
+//! case-id order and appends them to the journal `summary.csv.partial` in whole lines. When every case of the
+//! shard is in, the journal is synced and renamed to `summary.csv`, so `summary.csv` only ever exists complete.
+//! The calling thread is woken when [`FLUSH_BYTES`] of rows are ready in order, when a case fails to run, at
+//! the end, and otherwise every [`FLUSH_EVERY`] (not at every row: a wake-up per case would take a core from
+//! the workers).
 //!
 //! Memory stays flat: cases are generated from their id, and a worker may not start a case more than
-//! [`WINDOW`] positions ahead of the first row not yet written, which bounds the reorder buffer.
+//! [`WINDOW`] positions ahead of the first row not yet in the buffer in order, which bounds the reorder buffer.
 //!
 //! Resume: the journal's header lines must equal this run's (same spec fingerprint, shard and version); its rows
 //! are read back while each is whole (ends in a newline), has the right number of fields and carries the next
@@ -17,7 +20,6 @@ use std::fs::{self, File, OpenOptions};
 use std::io::{BufRead, BufReader, Read, Seek, SeekFrom, Write};
 use std::path::{Path, PathBuf};
 use std::sync::atomic::{AtomicBool, AtomicU64, Ordering};
-use std::sync::mpsc::{self, RecvTimeoutError, Sender};
 use std::sync::{Condvar, Mutex};
 use std::time::{Duration, Instant};
 
@@ -28,12 +30,12 @@ use super::spec::SweepSpec;
 use super::summary::{self, ExtraColumns, RowFormatter};
 use super::{SweepError, CASES_DIR, JOURNAL_FILE, SUMMARY_FILE};
 
-/// Largest distance (in cases) a worker may run ahead of the first row not yet written.
+/// Largest distance (in cases) a worker may run ahead of the first row not yet in the buffer in order.
 pub const WINDOW: u64 = 4096;
 /// The journal is written at least this often while rows are waiting \[ms\].
-const FLUSH_EVERY: Duration = Duration::from_millis(250);
-/// Bytes of rows gathered before a write.
-const FLUSH_BYTES: usize = 64 * 1024;
+pub const FLUSH_EVERY: Duration = Duration::from_millis(250);
+/// Bytes of rows ready in order that wake the writing thread for a write.
+pub const FLUSH_BYTES: usize = 64 * 1024;
 /// The journal is synced to disk at least this often.
 const SYNC_EVERY: Duration = Duration::from_secs(2);
 
@@ -89,18 +91,72 @@ pub struct SweepReport {
     pub damaged_row: Option<(u64, String)>,
 }
 
+/// The rows between the workers and the writing thread.
+struct Buffer {
+    /// Rows in, by case position (those before `received` wait to be written, in order; later ones wait for
+    /// the rows before them).
+    pending: BTreeMap<u64, String>,
+    /// First case position whose row is not yet in: every row before it is in `pending` or written.
+    received: u64,
+    /// Bytes of the rows before `received` not yet taken by the writer.
+    ready_bytes: usize,
+    /// The first case that could not run (the run stops).
+    error: Option<SweepError>,
+    /// Every worker has returned.
+    workers_done: bool,
+    /// Workers waiting for the window to move.
+    waiting: usize,
+}
+
 struct Gate {
-    written: Mutex<u64>,
-    cv: Condvar,
+    buffer: Mutex<Buffer>,
+    /// Wakes workers waiting for the window.
+    window: Condvar,
+    /// Wakes the writing thread.
+    writer: Condvar,
     stop: AtomicBool,
     next: AtomicU64,
 }
 
 impl Gate {
+    fn lock(&self) -> std::sync::MutexGuard<'_, Buffer> {
+        self.buffer.lock().unwrap_or_else(|e| e.into_inner())
+    }
+
     fn halt(&self) {
-        let _guard = self.written.lock().unwrap_or_else(|e| e.into_inner());
+        let _guard = self.lock();
         self.stop.store(true, Ordering::SeqCst);
-        self.cv.notify_all();
+        self.window.notify_all();
+        self.writer.notify_all();
+    }
+
+    /// Put the row of case position `p` in; wake the writer when enough is ready in order, on an error, and
+    /// when the last row is in.
+    fn put(&self, p: u64, row: Result<String, SweepError>, total: u64) {
+        let mut b = self.lock();
+        let wake = match row {
+            Ok(line) => {
+                b.pending.insert(p, line);
+                let before = b.received;
+                while let Some(line) = b.pending.get(&b.received) {
+                    b.ready_bytes += line.len();
+                    b.received += 1;
+                }
+                if b.received != before && b.waiting > 0 {
+                    self.window.notify_all();
+                }
+                b.ready_bytes >= FLUSH_BYTES || b.received == total
+            }
+            Err(e) => {
+                if b.error.is_none() {
+                    b.error = Some(e);
+                }
+                true
+            }
+        };
+        if wake {
+            self.writer.notify_one();
+        }
     }
 }
 
@@ -163,19 +219,21 @@ pub fn run(spec: &SweepSpec, out: &Path, opts: &RunOptions, progress: &mut dyn P
     report.resumed = done;
     progress.start(total, done);
 
-    let gate = Gate { written: Mutex::new(done), cv: Condvar::new(), stop: AtomicBool::new(false), next: AtomicU64::new(done) };
+    let buffer = Buffer { pending: BTreeMap::new(), received: done, ready_bytes: 0, error: None, workers_done: false, waiting: 0 };
+    let gate = Gate { buffer: Mutex::new(buffer), window: Condvar::new(), writer: Condvar::new(), stop: AtomicBool::new(false), next: AtomicU64::new(done) };
     let pool = rayon::ThreadPoolBuilder::new().num_threads(opts.threads).build().map_err(|e| SweepError::Internal(format!("thread pool: {e}")))?;
     let histories = opts.histories || spec.histories;
 
     let written = std::thread::scope(|scope| {
-        let (tx, rx) = mpsc::channel::<(u64, Result<String, SweepError>)>();
         let gate_ref = &gate;
         let header_ref = &header;
         let driver = scope.spawn(move || {
-            let tx = tx;
-            pool.broadcast(|_| worker(spec, out, histories, &opts.extra_columns, opts.shard, total, header_ref, gate_ref, &tx));
+            pool.broadcast(|_| worker(spec, out, histories, &opts.extra_columns, opts.shard, total, header_ref, gate_ref));
+            let mut b = gate_ref.lock();
+            b.workers_done = true;
+            gate_ref.writer.notify_all();
         });
-        let result = write_rows(rx, &mut file, &journal, done, total, &gate, progress);
+        let result = write_rows(&mut file, &journal, done, total, &gate, progress);
         if result.is_err() {
             gate.halt();
         }
@@ -198,17 +256,7 @@ pub fn run(spec: &SweepSpec, out: &Path, opts: &RunOptions, progress: &mut dyn P
 }
 
 #[allow(clippy::too_many_arguments)]
-fn worker(
-    spec: &SweepSpec,
-    out: &Path,
-    histories: bool,
-    extra: &[Box<dyn ExtraColumns>],
-    shard: Shard,
-    total: u64,
-    header: &[String],
-    gate: &Gate,
-    tx: &Sender<(u64, Result<String, SweepError>)>,
-) {
+fn worker(spec: &SweepSpec, out: &Path, histories: bool, extra: &[Box<dyn ExtraColumns>], shard: Shard, total: u64, header: &[String], gate: &Gate) {
     let mut fmt = RowFormatter::new(header.to_vec());
     loop {
         if gate.stop.load(Ordering::SeqCst) {
@@ -219,18 +267,18 @@ fn worker(
             return;
         }
         {
-            let mut w = gate.written.lock().unwrap_or_else(|e| e.into_inner());
-            while p >= *w + WINDOW && !gate.stop.load(Ordering::SeqCst) {
-                w = gate.cv.wait_timeout(w, Duration::from_millis(100)).unwrap_or_else(|e| e.into_inner()).0;
+            let mut b = gate.lock();
+            while p >= b.received + WINDOW && !gate.stop.load(Ordering::SeqCst) {
+                b.waiting += 1;
+                b = gate.window.wait_timeout(b, Duration::from_millis(100)).unwrap_or_else(|e| e.into_inner()).0;
+                b.waiting -= 1;
             }
         }
         if gate.stop.load(Ordering::SeqCst) {
             return;
         }
         let row = run_case(spec, shard.case_id(p), out, histories, extra, &mut fmt);
-        if tx.send((p, row)).is_err() {
-            return;
-        }
+        gate.put(p, row, total);
     }
 }
 
@@ -270,61 +318,50 @@ fn run_case(spec: &SweepSpec, id: u64, out: &Path, histories: bool, extra: &[Box
     }
 }
 
-/// Returns the number of failed rows written.
-fn write_rows(
-    rx: mpsc::Receiver<(u64, Result<String, SweepError>)>,
-    file: &mut File,
-    path: &Path,
-    done: u64,
-    total: u64,
-    gate: &Gate,
-    progress: &mut dyn Progress,
-) -> Result<u64, SweepError> {
-    let mut pending: BTreeMap<u64, String> = BTreeMap::new();
+/// Take the rows from the buffer in case-id order and append them to the journal; returns the number of failed
+/// rows written.
+fn write_rows(file: &mut File, path: &Path, done: u64, total: u64, gate: &Gate, progress: &mut dyn Progress) -> Result<u64, SweepError> {
     let mut next = done;
     let mut failed = 0;
     let mut buf = String::new();
-    let mut last_flush = Instant::now();
     let mut last_sync = Instant::now();
     let io = |e: std::io::Error| SweepError::io(path, e);
     loop {
-        let disconnected = match rx.recv_timeout(FLUSH_EVERY) {
-            Ok((p, Ok(line))) => {
-                pending.insert(p, line);
-                false
+        let (error, finished) = {
+            let mut b = gate.lock();
+            let deadline = Instant::now() + FLUSH_EVERY;
+            while b.ready_bytes < FLUSH_BYTES && b.received < total && b.error.is_none() && !b.workers_done && !gate.stop.load(Ordering::SeqCst) {
+                let left = deadline.saturating_duration_since(Instant::now());
+                if left.is_zero() {
+                    break;
+                }
+                b = gate.writer.wait_timeout(b, left).unwrap_or_else(|e| e.into_inner()).0;
             }
-            Ok((_, Err(e))) => {
-                file.write_all(buf.as_bytes()).map_err(io)?;
-                return Err(e);
+            while next < b.received {
+                let Some(line) = b.pending.remove(&next) else { break };
+                if summary::is_failed_row(&line) {
+                    failed += 1;
+                }
+                buf.push_str(&line);
+                next += 1;
             }
-            Err(RecvTimeoutError::Timeout) => false,
-            Err(RecvTimeoutError::Disconnected) => true,
+            b.ready_bytes = 0;
+            (b.error.take(), b.workers_done)
         };
-        let before = next;
-        while let Some(line) = pending.remove(&next) {
-            if summary::is_failed_row(&line) {
-                failed += 1;
-            }
-            buf.push_str(&line);
-            next += 1;
-        }
-        if next != before {
-            let mut w = gate.written.lock().unwrap_or_else(|e| e.into_inner());
-            *w = next;
-            gate.cv.notify_all();
-        }
-        if !buf.is_empty() && (disconnected || buf.len() >= FLUSH_BYTES || last_flush.elapsed() >= FLUSH_EVERY) {
+        if !buf.is_empty() {
             // Whole lines in one write: a kill can cut at most the last line, which resume removes.
             file.write_all(buf.as_bytes()).map_err(io)?;
             buf.clear();
-            last_flush = Instant::now();
+        }
+        if let Some(e) = error {
+            return Err(e);
         }
         if last_sync.elapsed() >= SYNC_EVERY {
             file.sync_data().map_err(io)?;
             last_sync = Instant::now();
         }
         progress.update(next);
-        if disconnected {
+        if finished || next == total || gate.stop.load(Ordering::SeqCst) {
             break;
         }
     }

@@ -17,7 +17,7 @@ use crate::post::{residue_table, IndicatorOptions, IndicatorSelection};
 use super::factors::{perturbed, resolve, Factor, FactorKind, IndicatorInput};
 use super::random::{counter_uniform, mix64, truncated_normal, Xoshiro256};
 use super::spec::{property_keys, Distribution, UncertaintySpec};
-use super::stats::{above_noise, percentile_sorted, rank_r2, sorted_finite, spearman, Statistics, PERCENTILES};
+use super::stats::{above_noise, percentile_sorted, rank_design, rank_r2_with, regression_samples, sorted_finite, spearman, RankDesign, Statistics, PERCENTILES};
 use super::UncertaintyError;
 
 /// How the standard draws are spread over the samples.
@@ -412,8 +412,13 @@ fn check_settings(s: &Settings) -> Result<(), UncertaintyError> {
 pub fn run(nominal: &DropletInputs, spec: &UncertaintySpec, settings: &Settings, progress: Option<&(dyn Fn(usize) + Sync)>) -> Result<UncertaintyRun, UncertaintyError> {
     check_settings(settings)?;
     let (factors, mut notices) = resolve(spec, nominal)?;
+    // The deterministic run and every sample evaluate their pure-component properties (droplet run and residue
+    // indicators alike) through the per-component kernels of the nominal components when the inputs ask for
+    // kernels: the copies each sample rescales share them, so no sample copies or builds kernels.
+    let kernel_nominal = crate::model::inputs::with_kernels(nominal);
+    let run_nominal = kernel_nominal.as_ref().unwrap_or(nominal);
     // the deterministic run sets the time scale of the grid
-    let det_run = simulate(nominal, &mut crate::model::guard::RowsOnly)?;
+    let det_run = simulate(run_nominal, &mut crate::model::guard::RowsOnly)?;
     let reference_time = match det_run.outcome.lifetime {
         Some(t) if t > 0.0 => t,
         _ => {
@@ -424,7 +429,7 @@ pub fn run(nominal: &DropletInputs, spec: &UncertaintySpec, settings: &Settings,
     let step = settings.grid_extent / (settings.grid_points - 1) as f64;
     let normalised: Vec<f64> = (0..settings.grid_points).map(|j| j as f64 * step).collect();
     let grid: Vec<f64> = normalised.iter().map(|x| x * reference_time).collect();
-    let deterministic = reduce(nominal, &det_run, vec![], &grid, settings);
+    let deterministic = reduce(run_nominal, &det_run, vec![], &grid, settings);
     drop(det_run);
     let design = Design::new(&factors, settings);
     let pool = rayon::ThreadPoolBuilder::new().num_threads(settings.threads).build().map_err(|e| UncertaintyError::Internal(format!("thread pool: {e}")))?;
@@ -434,7 +439,7 @@ pub fn run(nominal: &DropletInputs, spec: &UncertaintySpec, settings: &Settings,
             .into_par_iter()
             .map(|i| {
                 let z = design.draws(&factors, i);
-                let inputs = perturbed(nominal, &factors, &z);
+                let inputs = perturbed(run_nominal, &factors, &z);
                 let r = evaluate(&inputs, z, &grid, settings);
                 if let Some(p) = progress {
                     p(done.fetch_add(1, std::sync::atomic::Ordering::Relaxed) + 1);
@@ -456,11 +461,16 @@ pub fn run(nominal: &DropletInputs, spec: &UncertaintySpec, settings: &Settings,
     if beyond > 0 {
         notices.push(format!("{beyond} samples outlive the time grid ({} × the deterministic lifetime): their history bands end there", settings.grid_extent));
     }
-    let history = history_bands(&samples, &deterministic, &grid, &normalised);
-    let residue = residue_bands(&samples, &deterministic, settings);
     let at50 = settings.residue_fractions.iter().position(|f| (f - RANKED_RESIDUE_FRACTION).abs() < 1e-12);
-    let sensitivity_inputs = sensitivity_inputs(&factors, &samples, nominal);
-    let sensitivity = rank(&sensitivity_inputs, &samples, at50);
+    // the statistics on the same pool (each grid point and each ranked input on its own: the same values
+    // whatever thread computes them)
+    let (history, residue, sensitivity_inputs, sensitivity) = pool.install(|| {
+        let history = history_bands(&samples, &deterministic, &grid, &normalised);
+        let residue = residue_bands(&samples, &deterministic, settings);
+        let sensitivity_inputs = sensitivity_inputs(&factors, &samples, nominal);
+        let sensitivity = rank(&sensitivity_inputs, &samples, at50);
+        (history, residue, sensitivity_inputs, sensitivity)
+    });
     let ok = |s: &&SampleRecord| !matches!(s.status, SampleStatus::Failed(_));
     let lifetime = Statistics::of(samples.iter().filter(ok).map(|s| s.lifetime));
     let t50 = Statistics::of(samples.iter().filter(ok).map(|s| s.t50));
@@ -488,7 +498,8 @@ pub fn run(nominal: &DropletInputs, spec: &UncertaintySpec, settings: &Settings,
 fn bands(values: Vec<f64>) -> [Option<f64>; 3] {
     let mut v = values;
     v.retain(|x| x.is_finite());
-    v.sort_by(f64::total_cmp);
+    // values equal under total_cmp have the same bits: the unstable sort gives the stable sort's result
+    v.sort_unstable_by(f64::total_cmp);
     PERCENTILES.map(|q| percentile_sorted(&v, q))
 }
 
@@ -509,14 +520,23 @@ fn history_bands(samples: &[SampleRecord], det: &SampleRecord, grid: &[f64], nor
     while last > 0 && det.d2[last - 1].is_some_and(|v| v == 0.0) && ok.iter().all(|s| s.d2[last - 1].is_none_or(|v| v == 0.0)) {
         last -= 1;
     }
-    for j in 0..=last {
-        let present: Vec<f64> = ok.iter().filter_map(|s| s.surface_temperature[j]).collect();
-        let present_fraction = present.len() as f64 / n;
+    // the bands of each grid point (side by side on the pool)
+    let per_point: Vec<_> = (0..=last)
+        .into_par_iter()
+        .map(|j| {
+            let present: Vec<f64> = ok.iter().filter_map(|s| s.surface_temperature[j]).collect();
+            let present_fraction = present.len() as f64 / n;
+            let d2 = bands(ok.iter().filter_map(|s| s.d2[j]).collect());
+            let surface_temperature = if !ok.is_empty() && present_fraction >= 0.5 { bands(present) } else { [None; 3] };
+            (d2, surface_temperature, present_fraction)
+        })
+        .collect();
+    for (j, (d2, surface_temperature, present_fraction)) in per_point.into_iter().enumerate() {
         h.time.push(grid[j]);
         h.normalised_time.push(normalised[j]);
-        h.d2.push(bands(ok.iter().filter_map(|s| s.d2[j]).collect()));
+        h.d2.push(d2);
         h.d2_deterministic.push(det.d2[j]);
-        h.surface_temperature.push(if !ok.is_empty() && present_fraction >= 0.5 { bands(present) } else { [None; 3] });
+        h.surface_temperature.push(surface_temperature);
         h.surface_temperature_deterministic.push(det.surface_temperature[j]);
         h.present_fraction.push(present_fraction);
     }
@@ -581,20 +601,39 @@ fn sensitivity_inputs(factors: &[Factor], samples: &[SampleRecord], nominal: &Dr
 }
 
 fn rank(inputs: &[SensitivityInput], samples: &[SampleRecord], at50: Option<usize>) -> Vec<SensitivityRow> {
+    let outputs: Vec<Vec<Option<f64>>> = (0..RANKED_OUTPUTS.len()).map(|k| samples.iter().map(|s| s.ranked_output(k, at50)).collect()).collect();
+    // each input's row for every output, inputs side by side on the pool; outputs that use the same samples
+    // share the regression design (the ranks of the input's factors and their Cholesky factor)
+    let per_input: Vec<Vec<SensitivityRow>> = inputs
+        .par_iter()
+        .map(|inp| {
+            let x: Vec<Option<f64>> = inp.values.iter().map(|v| Some(*v)).collect();
+            let columns: Vec<Vec<f64>> = inp.members.iter().map(|&m| samples.iter().map(|s| s.z[m]).collect()).collect();
+            let mut designs: Vec<(Vec<usize>, Option<RankDesign>)> = vec![];
+            let factors = inp.members.len();
+            RANKED_OUTPUTS
+                .iter()
+                .zip(&outputs)
+                .map(|((output, _), y)| {
+                    let used = y.iter().filter(|v| v.is_some()).count();
+                    let keep = regression_samples(&columns, y);
+                    let d = match designs.iter().position(|(k, _)| *k == keep) {
+                        Some(d) => d,
+                        None => {
+                            designs.push((keep.clone(), rank_design(&columns, keep)));
+                            designs.len() - 1
+                        }
+                    };
+                    let r2 = designs[d].1.as_ref().and_then(|design| rank_r2_with(design, y));
+                    let rho = spearman(&x, y);
+                    SensitivityRow { output, rank: 0, input: inp.name.clone(), kind: inp.kind, spearman: rho, r2, samples: used, factors, above_noise: above_noise(factors, used, rho, r2) }
+                })
+                .collect()
+        })
+        .collect();
     let mut out = vec![];
-    for (k, (output, _)) in RANKED_OUTPUTS.iter().enumerate() {
-        let y: Vec<Option<f64>> = samples.iter().map(|s| s.ranked_output(k, at50)).collect();
-        let used = y.iter().filter(|v| v.is_some()).count();
-        let mut rows: Vec<SensitivityRow> = inputs
-            .iter()
-            .map(|inp| {
-                let x: Vec<Option<f64>> = inp.values.iter().map(|v| Some(*v)).collect();
-                let columns: Vec<Vec<f64>> = inp.members.iter().map(|&m| samples.iter().map(|s| s.z[m]).collect()).collect();
-                let (rho, r2) = (spearman(&x, &y), rank_r2(&columns, &y));
-                let factors = inp.members.len();
-                SensitivityRow { output, rank: 0, input: inp.name.clone(), kind: inp.kind, spearman: rho, r2, samples: used, factors, above_noise: above_noise(factors, used, rho, r2) }
-            })
-            .collect();
+    for k in 0..RANKED_OUTPUTS.len() {
+        let mut rows: Vec<SensitivityRow> = per_input.iter().map(|r| r[k].clone()).collect();
         // strongest first (by explained rank variance, then |Spearman|); undefined last; ties by name
         rows.sort_by(|a, b| {
             let key = |r: &SensitivityRow| (r.r2.unwrap_or(-1.0), r.spearman.map(f64::abs).unwrap_or(-1.0));

@@ -27,7 +27,8 @@ pub fn percentile_sorted(sorted: &[f64], q: f64) -> Option<f64> {
 /// The finite values of `values`, sorted.
 pub fn sorted_finite(values: impl IntoIterator<Item = Option<f64>>) -> Vec<f64> {
     let mut v: Vec<f64> = values.into_iter().flatten().filter(|x| x.is_finite()).collect();
-    v.sort_by(f64::total_cmp);
+    // values equal under total_cmp have the same bits: an unstable sort gives the stable sort's result
+    v.sort_unstable_by(f64::total_cmp);
     v
 }
 
@@ -71,7 +72,8 @@ impl Statistics {
 pub fn ranks(values: &[f64]) -> Vec<f64> {
     let n = values.len();
     let mut idx: Vec<usize> = (0..n).collect();
-    idx.sort_by(|&a, &b| values[a].total_cmp(&values[b]).then(a.cmp(&b)));
+    // a total order (ties broken by position): the unstable sort gives the one permutation a stable sort gives
+    idx.sort_unstable_by(|&a, &b| values[a].total_cmp(&values[b]).then(a.cmp(&b)));
     let mut r = vec![0.0; n];
     let mut i = 0;
     while i < n {
@@ -119,48 +121,79 @@ pub fn spearman(x: &[Option<f64>], y: &[Option<f64>]) -> Option<f64> {
     pearson(&ranks(&a), &ranks(&b))
 }
 
+/// The samples a rank regression of an output on the columns `x` uses: those where the output `y` and every
+/// column have a finite value.
+pub fn regression_samples(x: &[Vec<f64>], y: &[Option<f64>]) -> Vec<usize> {
+    (0..y.len()).filter(|&i| y[i].is_some_and(f64::is_finite) && x.iter().all(|c| c.get(i).is_some_and(|v| v.is_finite()))).collect()
+}
+
+/// What a rank regression on the columns `x` over the samples `keep` needs whatever the output: the centred
+/// ranks of each column and the Cholesky factor of their Gram matrix (none when a column has no variance or
+/// the columns are collinear). Outputs with the same samples share it.
+#[derive(Debug, Clone)]
+pub struct RankDesign {
+    /// Samples used (positions in the sample list).
+    pub keep: Vec<usize>,
+    m: usize,
+    /// Centred ranks of each column over `keep`.
+    cols: Vec<Vec<f64>>,
+    /// Lower Cholesky factor of XᵀX; None: singular.
+    l: Option<linalg::Factor>,
+}
+
+/// Ranks of `v` less their mean (n + 1)/2.
+fn centred_ranks(v: &[f64]) -> Vec<f64> {
+    let mean = (v.len() as f64 + 1.0) / 2.0;
+    ranks(v).into_iter().map(|q| q - mean).collect()
+}
+
+/// The rank-regression design of columns `x` over samples `keep` (None when there are no columns or too few
+/// samples: fewer than columns + 3).
+pub fn rank_design(x: &[Vec<f64>], keep: Vec<usize>) -> Option<RankDesign> {
+    let m = x.len();
+    let n = keep.len();
+    if m == 0 || n < m + 3 {
+        return None;
+    }
+    let cols: Vec<Vec<f64>> = x.iter().map(|c| centred_ranks(&keep.iter().map(|&i| c[i]).collect::<Vec<f64>>())).collect();
+    // normal equations (XᵀX) b = Xᵀy, XᵀX = L Lᵀ by Cholesky (nalgebra); a pivot at or below 1e-12 of its
+    // diagonal entry means a column with no variance, or collinear columns
+    let mut a = vec![0.0; m * m];
+    for j in 0..m {
+        for k in 0..=j {
+            a[j * m + k] = cols[j].iter().zip(&cols[k]).map(|(p, q)| p * q).sum();
+        }
+    }
+    let l = linalg::cholesky(&a, m, 1e-12);
+    Some(RankDesign { keep, m, cols, l })
+}
+
+/// Adjusted R² of the rank regression of `y` on a design's columns; `y` must have a finite value at every
+/// sample of `design.keep`.
+pub fn rank_r2_with(design: &RankDesign, y: &[Option<f64>]) -> Option<f64> {
+    let (m, n) = (design.m, design.keep.len());
+    let ry = centred_ranks(&design.keep.iter().map(|&i| y[i].unwrap_or(0.0)).collect::<Vec<f64>>());
+    let syy: f64 = ry.iter().map(|v| v * v).sum();
+    if syy <= 0.0 {
+        return None;
+    }
+    let b: Vec<f64> = design.cols.iter().map(|c| c.iter().zip(&ry).map(|(p, q)| p * q).sum()).collect();
+    let l = design.l.as_ref()?;
+    // solve L w = Xᵀy; then R² = |w|² / yᵀy (since bᵀXᵀy = wᵀw)
+    let w = linalg::solve_lower(l, &b)?;
+    let r2 = (w.iter().map(|v| v * v).sum::<f64>() / syy).clamp(0.0, 1.0);
+    let adjusted = 1.0 - (1.0 - r2) * (n - 1) as f64 / (n - m - 1) as f64;
+    adjusted.is_finite().then_some(adjusted.clamp(0.0, 1.0))
+}
+
 /// Adjusted coefficient of determination of a least-squares fit of the ranks of `y` on the ranks of the
 /// columns of `x` (standardised rank regression): the share of the output's rank variance the inputs explain
 /// together, corrected for the fit's degrees of freedom, 1 − (1 − R²)(n − 1)/(n − m − 1), held in \[0, 1\].
 /// For one column it is the adjusted square of Spearman's coefficient. Pairs with a missing or non-finite
 /// value anywhere are skipped; `None` when fewer than m + 3 remain or the columns are degenerate.
 pub fn rank_r2(x: &[Vec<f64>], y: &[Option<f64>]) -> Option<f64> {
-    let m = x.len();
-    if m == 0 {
-        return None;
-    }
-    let keep: Vec<usize> = (0..y.len()).filter(|&i| y[i].is_some_and(f64::is_finite) && x.iter().all(|c| c.get(i).is_some_and(|v| v.is_finite()))).collect();
-    let n = keep.len();
-    if n < m + 3 {
-        return None;
-    }
-    let centred = |v: Vec<f64>| -> Vec<f64> {
-        let r = ranks(&v);
-        let mean = (n as f64 + 1.0) / 2.0;
-        r.into_iter().map(|q| q - mean).collect()
-    };
-    let ry = centred(keep.iter().map(|&i| y[i].unwrap_or(0.0)).collect());
-    let cols: Vec<Vec<f64>> = x.iter().map(|c| centred(keep.iter().map(|&i| c[i]).collect())).collect();
-    let syy: f64 = ry.iter().map(|v| v * v).sum();
-    if syy <= 0.0 {
-        return None;
-    }
-    // normal equations (XᵀX) b = Xᵀy, XᵀX = L Lᵀ by Cholesky (nalgebra); a pivot at or below 1e-12 of its
-    // diagonal entry means a column with no variance, or collinear columns
-    let mut a = vec![0.0; m * m];
-    let mut b = vec![0.0; m];
-    for j in 0..m {
-        b[j] = cols[j].iter().zip(&ry).map(|(p, q)| p * q).sum();
-        for k in 0..=j {
-            a[j * m + k] = cols[j].iter().zip(&cols[k]).map(|(p, q)| p * q).sum();
-        }
-    }
-    let l = linalg::cholesky(&a, m, 1e-12)?;
-    // solve L w = Xᵀy; then R² = |w|² / yᵀy (since bᵀXᵀy = wᵀw)
-    let w = linalg::solve_lower(&l, &b)?;
-    let r2 = (w.iter().map(|v| v * v).sum::<f64>() / syy).clamp(0.0, 1.0);
-    let adjusted = 1.0 - (1.0 - r2) * (n - 1) as f64 / (n - m - 1) as f64;
-    adjusted.is_finite().then_some(adjusted.clamp(0.0, 1.0))
+    let design = rank_design(x, regression_samples(x, y))?;
+    rank_r2_with(&design, y)
 }
 
 /// Whether an input stands out from sampling noise: for one factor, |Spearman| > 1.96/√(n − 1) (a rough two-sided

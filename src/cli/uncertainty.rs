@@ -178,10 +178,10 @@ pub(super) fn uncertainty(lib: &Library, args: &UncertaintyArgs) -> Result<(), C
     let single = runs.len() == 1;
     let mut text = String::new();
     let mut sections = vec![];
+    // the files of each run are formatted on as many threads as it ran on (one pool for all runs)
+    let pool = rayon::ThreadPoolBuilder::new().num_threads(settings.threads).build().map_err(|e| CliError::runtime(format!("thread pool: {e}")))?;
     for (label, run) in &runs {
         let dir = if single { args.out.clone() } else { args.out.join(safe_name(label)) };
-        // the files of a run are formatted on as many threads as it ran on
-        let pool = rayon::ThreadPoolBuilder::new().num_threads(settings.threads).build().map_err(|e| CliError::runtime(format!("thread pool: {e}")))?;
         pool.install(|| out::write_run(&dir, run))?;
         let charts = if args.no_plots { vec![] } else { out::write_band_charts(&dir, &[LabelledBands::of(label, run)])? };
         text.push_str(&report(label, run));

@@ -126,6 +126,8 @@ impl RadialGrid {
             let out_inner = g + flow * w;
             let out_outer = flow * (1.0 - w);
             *b_out = b_inner + out_inner;
+            // `0.0 + …` and `0.0 − …`: the coefficients as accumulated from zero (a −0.0 term gives +0.0), the
+            // bits of the row-by-row assembly
             *c_out = 0.0 + (-g + out_outer);
             // inflow of cell f through its inner face
             *a_in = 0.0 - out_inner;

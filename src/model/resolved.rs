@@ -162,28 +162,16 @@ impl Model {
     fn liquid_properties(&mut self, s: &State) -> Liquid {
         let t_mean = self.tgrid.mean(&s.temp);
         let comps = &self.comps;
-        // one pass over the components: density (Amagat) and heat capacity from one grouped kernel look-up each,
-        // viscosity (Grunberg–Nissan, no interaction) and conductivity (DIPPR 9H, Vredeveld)
-        // side by side; each mixing sum runs over the components in order, so the bits are those of
-        // liquid::density, heat_capacity, viscosity and conductivity
-        let (mut inv_rho, mut cp, mut ln_mu, mut inv_k2) = (-0.0, -0.0, -0.0, -0.0);
-        for ((c, &w), &x) in comps.iter().zip(&self.w_mean).zip(&self.x_mean) {
-            let point = c.liquid_point(t_mean);
-            inv_rho += w / point.density;
-            cp += w * point.heat_capacity;
-            ln_mu += x * c.liquid_viscosity(t_mean).ln();
-            inv_k2 += w / c.liquid_conductivity(t_mean).powi(2);
-        }
-        let rho = 1.0 / inv_rho;
-        let mu = ln_mu.exp();
+        // density, heat capacity, viscosity and conductivity in one pass over the components
+        let mix = liquid::transport_mix(comps, &self.w_mean, &self.x_mean, t_mean);
         let w_b = liquid::molar_mass(comps, &self.x_mean);
         let v_a: f64 = self.x_mean.iter().zip(&self.molar_volume_b).map(|(x, v)| x * v).sum();
         Liquid {
-            density: rho,
-            cp,
-            conductivity: 1.0 / inv_k2.sqrt() * self.conductivity_factor,
-            viscosity: mu,
-            diffusivity: wilke_chang(t_mean, w_b, mu, v_a) * self.diffusivity_factor,
+            density: mix.density,
+            cp: mix.heat_capacity,
+            conductivity: mix.conductivity * self.conductivity_factor,
+            viscosity: mix.viscosity,
+            diffusivity: wilke_chang(t_mean, w_b, mix.viscosity, v_a) * self.diffusivity_factor,
         }
     }
 

@@ -508,7 +508,7 @@ pub(crate) fn simulate_well_mixed(inp: &DropletInputs, observer: &mut dyn Observ
 
     // an observer that keeps no rows gets them without fractions (no allocation per step); the watches read
     // the liquid mass fractions from the system
-    sys.rows_with_fractions = observer.wants_rows();
+    sys.rows_with_fractions = wants_rows;
     let first = sys.row(inp.initial_diameter, m0, 0.0, &y0, &mut dydt, true);
     let boiling_onset = if sys.regime == Regime::Boiling { Some(0.0) } else { None };
     let mut log = RunLog {

@@ -229,6 +229,35 @@ pub struct LiquidState {
     pub surface_tension_N_m: f64,
 }
 
+/// Density, heat capacity, viscosity and conductivity of a liquid mixture at one temperature.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct TransportMix {
+    /// Density \[kg/m³\] ([`density`]).
+    pub density: f64,
+    /// Heat capacity \[J/(kg·K)\] ([`heat_capacity`]).
+    pub heat_capacity: f64,
+    /// Dynamic viscosity \[Pa·s\] ([`viscosity`]).
+    pub viscosity: f64,
+    /// Thermal conductivity \[W/(m·K)\] ([`conductivity`]).
+    pub conductivity: f64,
+}
+
+/// [`density`], [`heat_capacity`], [`viscosity`] and [`conductivity`] of mass fractions `w` (mole fractions `x`)
+/// at `t` in one pass over the components, density and heat capacity from one grouped look-up per component
+/// (`Component::liquid_point`): the same values, bit for bit (each mixing sum over the components in order).
+pub fn transport_mix(components: &[Arc<Component>], w: &[f64], x: &[f64], t: f64) -> TransportMix {
+    // (float sums start from −0.0, as `Iterator::sum` does)
+    let (mut inv_rho, mut cp, mut ln_mu, mut inv_k2) = (-0.0, -0.0, -0.0, -0.0);
+    for ((c, &w), &x) in components.iter().zip(w).zip(x) {
+        let point = c.liquid_point(t);
+        inv_rho += w / point.density;
+        cp += w * point.heat_capacity;
+        ln_mu += x * c.liquid_viscosity(t).ln();
+        inv_k2 += w / c.liquid_conductivity(t).powi(2);
+    }
+    TransportMix { density: 1.0 / inv_rho, heat_capacity: cp, viscosity: ln_mu.exp(), conductivity: 1.0 / inv_k2.sqrt() }
+}
+
 /// Evaluate all mixture liquid properties at `t` for mass fractions `w`.
 #[allow(non_snake_case)]
 pub fn state(components: &[Arc<Component>], w: &[f64], t: f64) -> LiquidState {
@@ -251,6 +280,26 @@ pub fn state(components: &[Arc<Component>], w: &[f64], t: f64) -> LiquidState {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// The one-pass mixture gives the bits of the four single-property mixing rules, with and without kernels.
+    #[test]
+    fn transport_mix_has_the_bits_of_the_separate_rules() {
+        let lib = crate::data::Library::embedded().unwrap();
+        let ids = ["n-heptane", "n-dodecane", "toluene", "1-methylnaphthalene", "n-hexadecane"];
+        let direct: Vec<Arc<Component>> = ids.iter().map(|id| lib.component(id).unwrap().clone()).collect();
+        let kernel: Vec<Arc<Component>> = direct.iter().map(crate::props::kernels::with_kernels).collect();
+        let w = [0.3, 0.25, 0.2, 0.15, 0.1];
+        for comps in [&direct, &kernel] {
+            let x = mass_to_mole(comps, &w);
+            for t in [280.0, 333.3, 410.0, 505.5] {
+                let m = transport_mix(comps, &w, &x, t);
+                assert_eq!(m.density.to_bits(), density(comps, &w, t).to_bits(), "{t}");
+                assert_eq!(m.heat_capacity.to_bits(), heat_capacity(comps, &w, t).to_bits(), "{t}");
+                assert_eq!(m.viscosity.to_bits(), viscosity(comps, &x, t).to_bits(), "{t}");
+                assert_eq!(m.conductivity.to_bits(), conductivity(comps, &w, t).to_bits(), "{t}");
+            }
+        }
+    }
 
     /// Refutas round trip and the ASTM D7152-style hand calculation: equal masses of 2 and 10 mm²/s.
     #[test]

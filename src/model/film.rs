@@ -7,6 +7,7 @@ use crate::data::{Component, GAS_CONSTANT};
 use crate::numerics::root::{brent_from, Tolerance};
 use crate::props::activity::Activity;
 use crate::props::gas::{wilke_phi_pair, AmbientGas};
+use crate::props::kernels::PropertyKernels;
 
 mod species;
 
@@ -272,7 +273,8 @@ pub struct FilmResult {
     pub film_cp: f64,
     /// Sum of surface vapour mole fractions (1 at the bubble point).
     pub surface_vapor_mole_fraction: f64,
-    /// Drag coefficient with blowing correction.
+    /// Drag coefficient with blowing correction (0 when the film was told no drag is needed, see
+    /// [`Film::drag_needed`]).
     pub drag_coefficient: f64,
     /// Free-stream gas density \[kg/m³\].
     pub ambient_density: f64,
@@ -313,6 +315,22 @@ pub struct Film {
     vapor_pressures: Vec<f64>,
     /// Temperature of `vapor_pressures`; taken by the next surface equilibrium.
     vapor_pressure_temperature: Option<f64>,
+    /// Each component's kernels (None: direct evaluation) and the component they belong to (held, so its address
+    /// stays its own): an evaluation uses them only while `setup.components[i]` is still that component.
+    kernels: Vec<(Arc<Component>, Option<Arc<PropertyKernels>>)>,
+    /// Whether evaluations compute the drag coefficient (true by default; a droplet held at constant slip sets
+    /// it false and gets 0).
+    pub drag_needed: bool,
+}
+
+/// The kernels kept for component `i` if `c` is still the component they were kept for, else `c`'s own
+/// (a caller replaced `setup.components[i]` after the film was made).
+#[inline]
+fn kernels_for<'a>(kept: &'a [(Arc<Component>, Option<Arc<PropertyKernels>>)], i: usize, c: &'a Arc<Component>) -> Option<&'a PropertyKernels> {
+    match kept.get(i) {
+        Some((owner, k)) if Arc::ptr_eq(owner, c) => k.as_deref(),
+        _ => crate::props::kernels::active(c),
+    }
 }
 
 impl Film {
@@ -341,6 +359,8 @@ impl Film {
             last_heat: (f64::NAN, 1.0),
             vapor_pressures: vec![0.0; n],
             vapor_pressure_temperature: None,
+            drag_needed: true,
+            kernels: setup.components.iter().map(|c| (c.clone(), crate::props::kernels::active_shared(c))).collect(),
             setup,
         }
     }
@@ -352,7 +372,7 @@ impl Film {
     pub fn liquid_state(&mut self, w: &[f64], t: f64, latent: &mut [f64]) -> (f64, f64) {
         let (mut inv_rho, mut cp) = (0.0, 0.0);
         for (i, c) in self.setup.components.iter().enumerate() {
-            let point = c.liquid_point(t);
+            let point = c.liquid_point_via(kernels_for(&self.kernels, i, c), t);
             latent[i] = point.latent_heat;
             self.vapor_pressures[i] = point.vapor_pressure;
             inv_rho += w[i] / point.density;
@@ -548,7 +568,7 @@ impl Film {
             let y_ref = surface_mass[i] + a_r * (ambient_vapor[i] - surface_mass[i]);
             // weights: reference composition, or liquid mole fractions when no vapour at all
             let wgt = if weight_total > 0.0 { y_ref.max(0.0) } else { x_n[i] * molar_mass[i] };
-            let (cp_i, mu_i, k_i) = comps[i].vapor_properties(t_ref);
+            let (cp_i, mu_i, k_i) = comps[i].vapor_properties_via(kernels_for(&self.kernels, i, &comps[i]), t_ref);
             // Herning–Zipperer weights x_i sqrt(W_i) = (w_i/W_i) sqrt(W_i) = w_i/sqrt(W_i)
             let hz = wgt * inv_sqrt_molar_mass[i];
             y_fref += y_ref.max(0.0);
@@ -583,7 +603,11 @@ impl Film {
         let rho_g = p / (inv_w * GAS_CONSTANT * t_ref);
         let re = self.ambient_density * speed.abs() * d / mu_g;
         // drag: Yuen & Chen on this film-viscosity Reynolds number, or the blowing factor on free-stream properties
+        let drag_needed = self.drag_needed;
         let drag = |b: f64| -> f64 {
+            if !drag_needed {
+                return 0.0;
+            }
             match s.drag {
                 DragLaw::YuenChen => standard_drag(re),
                 DragLaw::Blowing => drag_coefficient(self.ambient_density * speed.abs() * d / s.gas.transport(t_inf).1, b),
@@ -721,72 +745,4 @@ impl Film {
 }
 
 #[cfg(test)]
-mod tests {
-    use super::*;
-
-    /// Check values computed from the published formulas (../shared physics notes A.10).
-    #[test]
-    fn published_formula_values() {
-        for (b, f) in [(0.1, 1.01886), (0.5, 1.07708), (1.0, 1.12602), (2.0, 1.18522), (5.0, 1.25608), (10.0, 1.28471)] {
-            assert!((film_correction(b) - f).abs() < 1e-5 * f, "F({b})");
-        }
-        assert!((film_correction(0.0) - 1.0).abs() < 1e-12);
-        let c = TransferCorrelation::Clift;
-        for (re, pr, nu) in [(0.0, 0.7, 2.0), (1.0, 0.7, 2.19348), (10.0, 0.7, 3.38798), (100.0, 0.7, 6.90318), (100.0, 2.0, 9.35088)] {
-            assert!((c.nusselt0(re, pr) - nu).abs() < 1e-4 * nu, "Nu0({re},{pr})");
-        }
-        let nu_star = 2.0 + (c.nusselt0(100.0, 0.7) - 2.0) / film_correction(1.0);
-        assert!((nu_star - 6.35443).abs() < 1e-4 * 6.35443);
-        for (pe, chi) in [(10.0, 1.18380), (30.0, 1.86), (100.0, 2.56705), (500.0, 2.71255)] {
-            assert!((circulation_factor(pe) - chi).abs() < 1e-4, "chi({pe})");
-        }
-    }
-
-}
-
-#[cfg(test)]
-mod boiling_tests {
-    use super::*;
-
-    fn film(extra_heat: ExtraHeat, t_inf: f64) -> Film {
-        let lib = crate::data::Library::embedded().unwrap();
-        let c = lib.component("n-decane").unwrap().clone();
-        Film::new(FilmSetup {
-            components: vec![c],
-            gas: crate::props::gas::AmbientGas::air(&lib).unwrap(),
-            pressure: 101_325.0,
-            ambient_temperature: t_inf,
-            ambient_vapor: vec![0.0],
-            reference_weight: 1.0 / 3.0,
-            correlation: TransferCorrelation::Clift,
-            non_equilibrium: false,
-            extra_heat,
-            drag: DragLaw::YuenChen,
-            activity: Activity::ideal(1),
-            vapour_diffusion: VapourDiffusion::Mixture,
-        })
-    }
-
-    /// Heat-limited boiling closes the surface energy balance ṁ L = Q_gas + Q_extra: without extra heat at the
-    /// classical B_T = c_pF ΔT/L (hot gas), with radiation in cold gas (Q_gas < 0, B_T far beyond 1e10), and
-    /// with no rate at all when the net heat is negative.
-    #[test]
-    fn boiling_rate_follows_the_net_heat() {
-        let (t_s, d, l) = (447.0, 50e-6, 2.6e5);
-        let latent = [l];
-        let mut f = film(ExtraHeat::default(), 1500.0);
-        let r = f.evaluate(&[1.0], t_s, d, 3.0, &latent, Some(l));
-        assert!(r.evaporation_rate > 0.0);
-        assert!((r.evaporation_rate * l / r.heat_from_gas - 1.0).abs() < 1e-9, "{r:?}");
-        let rad = ExtraHeat { radiation: Some(Radiation { temperature: Some(4000.0), absorption_efficiency: 1.0 }), fibre: None };
-        let mut f = film(rad, 300.0);
-        let r = f.evaluate(&[1.0], t_s, d, 0.0, &latent, Some(l));
-        assert!(r.heat_from_gas < 0.0 && r.heat_extra > 0.0 && r.spalding_heat > 1e10, "{r:?}");
-        assert!((r.evaporation_rate * l / (r.heat_from_gas + r.heat_extra) - 1.0).abs() < 1e-9, "{r:?}");
-        assert!(r.heat_to_liquid.abs() < 1e-9 * r.heat_extra, "pure liquid: all net heat evaporates it");
-        let mut f = film(ExtraHeat::default(), 300.0);
-        let r = f.evaluate(&[1.0], t_s, d, 0.0, &latent, Some(l));
-        assert_eq!(r.evaporation_rate, 0.0);
-        assert!(r.heat_to_liquid < 0.0, "the liquid loses heat: the droplet model leaves the regime");
-    }
-}
+mod tests;

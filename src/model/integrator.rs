@@ -304,7 +304,7 @@ impl DormandPrince {
             }
             self.stats.rejected += 1;
             rejected_here = true;
-            let fac11 = ((0.2 - 0.04 * 0.75) * ln_err).exp();
+            let fac11 = (0.2 * ln_err).exp();
             self.h = h / (fac11 / 0.9).clamp(1.0, MAX_SHRINK_AFTER_REJECTION);
         }
     }

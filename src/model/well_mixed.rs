@@ -163,7 +163,9 @@ impl WellMixed {
     pub fn new(inp: &DropletInputs) -> (Self, Vec<f64>) {
         let n = inp.fuel.len();
         let comps = inp.fuel.components.clone();
-        let film = Film::new(inp.film_setup());
+        let mut film = Film::new(inp.film_setup());
+        // a droplet at constant slip needs no drag coefficient
+        film.drag_needed = matches!(inp.motion, Motion::Injected { .. });
         let t0 = inp.initial_temperature;
         let rho0 = liquid::density(&comps, &inp.fuel.mass_fractions, t0);
         let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
@@ -328,6 +330,7 @@ impl WellMixed {
     /// Set the relative motion: with drag (`true`: the speed relaxes by drag) or at constant slip.
     pub(crate) fn set_drag(&mut self, drag: bool) {
         self.injected = drag;
+        self.film.drag_needed = drag;
     }
 
     /// History row at time `t` and state `y`; `fresh`: evaluate the film at y first, otherwise the system still

@@ -25,10 +25,18 @@ use crate::props::gas::AmbientGas;
 pub const COEFFICIENTS: usize = 12;
 /// Widest segment \[K\].
 pub const SEGMENT_WIDTH: f64 = 40.0;
+/// Width of the cells of the segment look-up table \[K\].
+const CELL_WIDTH: f64 = 2.5;
+/// Flag of a look-up cell that lies inside one segment (no search needed).
+const WHOLE_CELL: u32 = 1 << 31;
 /// Temperatures \[K\] covered by kernels; outside, the direct evaluation is used.
 pub const KERNEL_RANGE: (f64, f64) = (150.0, 3500.0);
 /// Largest relative deviation from the direct evaluation accepted at the check points of a segment \[-\].
 pub const ACCEPTED_DEVIATION: f64 = 2e-8;
+/// Bound on the sum of the Chebyshev coefficients an interpolant drops, relative to the smallest magnitude of
+/// the property on its segment (absolute for ln p): the interpolant keeps the lowest degree whose dropped tail
+/// is below it, so a smooth property evaluates in fewer Horner steps \[-\].
+pub const TRUNCATION: f64 = 1e-11;
 /// Number of properties of a component (in [`Component::correlations`] order).
 pub const PROPERTIES: usize = 10;
 /// Index of the vapour pressure, interpolated as its logarithm.
@@ -58,6 +66,8 @@ struct Segment {
 #[derive(Debug, Clone, Copy)]
 struct Poly {
     c: [f64; COEFFICIENTS],
+    /// Highest power with a coefficient (those above are zero).
+    degree: usize,
     ok: bool,
 }
 
@@ -67,6 +77,8 @@ struct Poly {
 #[derive(Debug, Clone, Copy)]
 struct PolyGroup<const N: usize> {
     c: [[f64; N]; COEFFICIENTS],
+    /// Highest degree of the group's interpolants (the coefficients above are zero).
+    degree: usize,
     /// Whether each interpolant passed its check (else the direct evaluation applies to it).
     ok: [bool; N],
 }
@@ -84,7 +96,8 @@ const SINGLES: [usize; 3] = [4, 5, 6];
 #[derive(Debug)]
 pub struct PropertyKernels {
     segments: Box<[Segment]>,
-    /// For each SEGMENT_WIDTH cell of KERNEL_RANGE, the segment containing the cell's lower end.
+    /// For each CELL_WIDTH cell of KERNEL_RANGE, the segment containing the cell's lower end, flagged
+    /// [`WHOLE_CELL`] if the cell lies inside it.
     cell_first: Box<[u32]>,
     /// Interpolants of [`LIQUID_GROUP`], one group per segment.
     liquid: Box<[OnceLock<PolyGroup<4>>]>,
@@ -144,7 +157,8 @@ impl PropertyKernels {
 }
 
 /// Segments of [`KERNEL_RANGE`] at most [`SEGMENT_WIDTH`] wide with ends at `kinks` (sorted, inside the range),
-/// and the first segment of each SEGMENT_WIDTH cell.
+/// and the first segment of each look-up cell ([`CELL_WIDTH`], flagged [`WHOLE_CELL`] when the cell lies inside
+/// it with a margin far above the rounding of the cell index).
 fn segments_between(kinks: Vec<f64>) -> (Box<[Segment]>, Box<[u32]>) {
     {
         let (lo, hi) = KERNEL_RANGE;
@@ -161,15 +175,19 @@ fn segments_between(kinks: Vec<f64>) -> (Box<[Segment]>, Box<[u32]>) {
                 segments.push(Segment { lo: s_lo, hi: s_hi, mid: 0.5 * (s_lo + s_hi), inv_half: 2.0 / (s_hi - s_lo) });
             }
         }
-        let cells = ((hi - lo) / SEGMENT_WIDTH).ceil() as usize;
+        // one cell more: a temperature a rounding below the range's end can take the index of the cell after it
+        let cells = ((hi - lo) / CELL_WIDTH).ceil() as usize + 1;
         let mut cell_first = Vec::with_capacity(cells);
         let mut i = 0usize;
+        const MARGIN: f64 = 1e-6;
         for k in 0..cells {
-            let t = lo + SEGMENT_WIDTH * k as f64;
+            // the cell index of a temperature is rounded: the first segment is taken a margin below the cell
+            let t = lo + CELL_WIDTH * k as f64 - MARGIN;
             while i + 1 < segments.len() && segments[i + 1].lo <= t {
                 i += 1;
             }
-            cell_first.push(i as u32);
+            let whole = segments[i].lo <= t && (i + 1 == segments.len() || segments[i + 1].lo > lo + CELL_WIDTH * (k + 1) as f64 + MARGIN);
+            cell_first.push(i as u32 | if whole { WHOLE_CELL } else { 0 });
         }
         (segments.into_boxed_slice(), cell_first.into_boxed_slice())
     }
@@ -182,9 +200,13 @@ fn find_segment(segments: &[Segment], cell_first: &[u32], t: f64) -> Option<usiz
     if !(t >= lo && t < hi) {
         return None;
     }
-    // inside the range the quotient lies in [0, 84): the i32 conversion is exact and cheaper than to usize
-    let cell = ((t - lo) * (1.0 / SEGMENT_WIDTH)) as i32 as usize;
-    let mut i = *cell_first.get(cell)? as usize;
+    // inside the range the quotient lies in [0, 1340): the i32 conversion is exact and cheaper than to usize
+    let cell = ((t - lo) * (1.0 / CELL_WIDTH)) as i32 as usize;
+    let first = *cell_first.get(cell)?;
+    if first & WHOLE_CELL != 0 {
+        return Some((first & !WHOLE_CELL) as usize);
+    }
+    let mut i = first as usize;
     while let Some(next) = segments.get(i + 1) {
         if next.lo > t {
             break;
@@ -197,42 +219,86 @@ fn find_segment(segments: &[Segment], cell_first: &[u32], t: f64) -> Option<usiz
 /// Horner evaluation of a segment interpolant at u.
 #[inline(always)]
 fn horner(poly: &Poly, u: f64) -> f64 {
-    let mut v = poly.c[COEFFICIENTS - 1];
-    for k in (0..COEFFICIENTS - 1).rev() {
-        v = v * u + poly.c[k]; // not mul_add: without the fma target feature that is a library call
+    /// Horner steps from power TOP down (a constant, so the loop unrolls).
+    #[inline(always)]
+    fn from<const TOP: usize>(c: &[f64; COEFFICIENTS], u: f64) -> f64 {
+        let mut v = c[TOP];
+        for k in (0..TOP).rev() {
+            v = v * u + c[k];
+        }
+        v
     }
-    v
+    let c = &poly.c;
+    match poly.degree {
+        0..=3 => from::<3>(c, u),
+        4 => from::<4>(c, u),
+        5 => from::<5>(c, u),
+        6 => from::<6>(c, u),
+        7 => from::<7>(c, u),
+        8 => from::<8>(c, u),
+        _ => from::<{ COEFFICIENTS - 1 }>(c, u),
+    }
 }
 
-/// Horner evaluation of interpolant `j` of a group's coefficients at u (the bits of [`horner_group`]'s value j).
+/// Horner evaluation of interpolant `j` of a group at u (the bits of [`horner_group`]'s value j, and of
+/// [`horner`] on the interpolant alone: starting higher, at zero coefficients, changes no bit).
 #[inline(always)]
-fn horner_column<const N: usize>(c: &[[f64; N]; COEFFICIENTS], j: usize, u: f64) -> f64 {
-    let mut v = c[COEFFICIENTS - 1][j];
-    for k in (0..COEFFICIENTS - 1).rev() {
-        v = v * u + c[k][j];
+fn horner_column<const N: usize>(group: &PolyGroup<N>, j: usize, u: f64) -> f64 {
+    /// Horner steps from power TOP down (a constant, so the loop unrolls).
+    #[inline(always)]
+    fn from<const N: usize, const TOP: usize>(c: &[[f64; N]; COEFFICIENTS], j: usize, u: f64) -> f64 {
+        let mut v = c[TOP][j];
+        for k in (0..TOP).rev() {
+            v = v * u + c[k][j]; // not mul_add: without the fma target feature that is a library call
+        }
+        v
     }
-    v
+    let c = &group.c;
+    match group.degree {
+        0..=3 => from::<N, 3>(c, j, u),
+        4 => from::<N, 4>(c, j, u),
+        5 => from::<N, 5>(c, j, u),
+        6 => from::<N, 6>(c, j, u),
+        7 => from::<N, 7>(c, j, u),
+        8 => from::<N, 8>(c, j, u),
+        _ => from::<N, { COEFFICIENTS - 1 }>(c, j, u),
+    }
 }
 
 /// Horner evaluation of the interpolants of a group at u, side by side (each value has the bits of
 /// [`horner`] on its own coefficients: the same operations in the same order).
 #[inline(always)]
 fn horner_group<const N: usize>(group: &PolyGroup<N>, u: f64) -> [f64; N] {
-    let mut v = group.c[COEFFICIENTS - 1];
-    for k in (0..COEFFICIENTS - 1).rev() {
-        for (vj, cj) in v.iter_mut().zip(&group.c[k]) {
-            *vj = *vj * u + cj;
+    /// Horner steps from power TOP down (a constant, so the loops unroll).
+    #[inline(always)]
+    fn from<const N: usize, const TOP: usize>(c: &[[f64; N]; COEFFICIENTS], u: f64) -> [f64; N] {
+        let mut v = c[TOP];
+        for k in (0..TOP).rev() {
+            for (vj, cj) in v.iter_mut().zip(&c[k]) {
+                *vj = *vj * u + cj;
+            }
         }
+        v
     }
-    v
+    let c = &group.c;
+    match group.degree {
+        0..=3 => from::<N, 3>(c, u),
+        4 => from::<N, 4>(c, u),
+        5 => from::<N, 5>(c, u),
+        6 => from::<N, 6>(c, u),
+        7 => from::<N, 7>(c, u),
+        8 => from::<N, 8>(c, u),
+        _ => from::<N, { COEFFICIENTS - 1 }>(c, u),
+    }
 }
 
 /// The interpolants of `properties` of `c` on `seg`, fitted one by one ([`fit`]) and stored as a group.
 fn fit_group<const N: usize>(c: &Component, properties: [usize; N], seg: &Segment) -> PolyGroup<N> {
-    let mut group = PolyGroup { c: [[0.0; N]; COEFFICIENTS], ok: [false; N] };
+    let mut group = PolyGroup { c: [[0.0; N]; COEFFICIENTS], degree: 0, ok: [false; N] };
     for (j, &property) in properties.iter().enumerate() {
         let poly = fit(c, property, seg);
         group.ok[j] = poly.ok;
+        group.degree = group.degree.max(poly.degree);
         for k in 0..COEFFICIENTS {
             group.c[k][j] = poly.c[k];
         }
@@ -263,15 +329,15 @@ impl PropertyKernels {
         let (value, ok) = match property {
             0..=3 => {
                 let g = self.liquid[s].get_or_init(|| fit_group(c, LIQUID_GROUP, seg));
-                (horner_column(&g.c, property, u), g.ok[property])
+                (horner_column(g, property, u), g.ok[property])
             }
             7..=9 => {
                 let g = self.vapour[s].get_or_init(|| fit_group(c, VAPOUR_GROUP, seg));
-                (horner_column(&g.c, property - 7, u), g.ok[property - 7])
+                (horner_column(g, property - 7, u), g.ok[property - 7])
             }
             4..=6 => {
                 let g = self.single.get(s * SINGLES.len() + property - 4)?.get_or_init(|| fit_group(c, [property], seg));
-                (horner_column(&g.c, 0, u), g.ok[0])
+                (horner_column(g, 0, u), g.ok[0])
             }
             _ => return None,
         };
@@ -366,8 +432,14 @@ fn chebyshev_table() -> &'static ChebyshevTable {
     })
 }
 
-/// Chebyshev interpolant of `direct` (of ln `direct` when `log`) on `seg`, in monomials of u, and checked.
+/// Chebyshev interpolant of `direct` (of ln `direct` when `log`) on `seg`, in monomials of u, truncated
+/// ([`TRUNCATION`]) and checked.
 fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
+    fit_function_truncated(direct, log, seg, TRUNCATION)
+}
+
+/// [`fit_function`] with the bound `truncation` on the dropped tail (0 keeps every coefficient).
+fn fit_function_truncated(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment, truncation: f64) -> Poly {
     const N: usize = COEFFICIENTS;
     let half = 0.5 * (seg.hi - seg.lo);
     let value = |t: f64| -> f64 {
@@ -378,7 +450,7 @@ fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
             v
         }
     };
-    let failed = Poly { c: [0.0; N], ok: false };
+    let failed = Poly { c: [0.0; N], degree: 0, ok: false };
     // Chebyshev coefficients from values at the nodes x_k = cos(π (k + ½)/N)
     let table = chebyshev_table();
     let mut f = [0.0; N];
@@ -397,6 +469,19 @@ fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
         *aj = 2.0 / N as f64 * s;
     }
     a[0] *= 0.5;
+    // drop the highest terms whose coefficients sum below TRUNCATION of the property's smallest magnitude on the
+    // segment (|T_j| ≤ 1: the dropped part is at most that sum)
+    let scale = if log { 1.0 } else { f.iter().fold(f64::INFINITY, |m, v| m.min(v.abs())) };
+    let mut degree = N - 1;
+    let mut dropped = 0.0;
+    while degree > 1 {
+        dropped += a[degree].abs();
+        if !(dropped <= truncation * scale) {
+            break;
+        }
+        a[degree] = 0.0;
+        degree -= 1;
+    }
     // monomial coefficients: Σ a_j T_j(u), T_{j+1} = 2u T_j − T_{j−1}
     let mut c_out = [0.0; N];
     let mut t_prev = [0.0; N];
@@ -407,7 +492,7 @@ fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
     for (m, cm) in c_out.iter_mut().enumerate() {
         *cm += a[1] * t_cur[m];
     }
-    for aj in a.iter().skip(2) {
+    for aj in a.iter().take(degree + 1).skip(2) {
         let mut t_next = [0.0; N];
         for m in 0..N {
             t_next[m] = if m > 0 { 2.0 * t_cur[m - 1] } else { 0.0 } - t_prev[m];
@@ -418,7 +503,7 @@ fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
         t_prev = t_cur;
         t_cur = t_next;
     }
-    let poly = Poly { c: c_out, ok: true };
+    let poly = Poly { c: c_out, degree, ok: true };
     // check at the N + 1 Chebyshev extrema (ends included), where the interpolation error peaks
     for &u in &table.extrema {
         let t = (seg.mid + half * u).clamp(seg.lo, seg.hi);
@@ -479,7 +564,7 @@ impl<'a> VaporPressures<'a> {
         if let Some(g) = last.group {
             if t >= last.lo && t < last.hi {
                 // as PropertyKernels::eval: the interpolant of ln p, then exp, then the scale
-                return horner_column(&g.c, VAPOR_PRESSURE, (t - last.mid) * last.inv_half).exp() * last.scale;
+                return horner_column(g, VAPOR_PRESSURE, (t - last.mid) * last.inv_half).exp() * last.scale;
             }
         }
         self.search(i, t)
@@ -496,7 +581,7 @@ impl<'a> VaporPressures<'a> {
                 if g.ok[VAPOR_PRESSURE] {
                     let scale = c.property_scales[VAPOR_PRESSURE];
                     self.last[i] = LastSegment { lo: seg.lo, hi: seg.hi, mid: seg.mid, inv_half: seg.inv_half, scale, group: Some(g) };
-                    return horner_column(&g.c, VAPOR_PRESSURE, (t - seg.mid) * seg.inv_half).exp() * scale;
+                    return horner_column(g, VAPOR_PRESSURE, (t - seg.mid) * seg.inv_half).exp() * scale;
                 }
             }
         }
@@ -590,6 +675,11 @@ pub fn active(c: &Component) -> Option<&PropertyKernels> {
     c.kernels.active.as_deref().and_then(|k| k.downcast_ref::<PropertyKernels>())
 }
 
+/// The kernels `c` evaluates through, if any, as a shared handle (for callers that keep them).
+pub fn active_shared(c: &Component) -> Option<Arc<PropertyKernels>> {
+    c.kernels.active.clone().and_then(|k| k.downcast::<PropertyKernels>().ok())
+}
+
 /// The kernels of `c` (built once, shared by every copy of `c`).
 pub fn kernels_of(c: &Component) -> Arc<dyn std::any::Any + Send + Sync> {
     c.kernels.shared.get_or_init(|| Arc::new(PropertyKernels::new(c))).clone()
@@ -638,102 +728,4 @@ pub fn swap_components(components: &[Arc<Component>], mode: PropertyEvaluation) 
 }
 
 #[cfg(test)]
-mod tests {
-    use super::*;
-    use crate::data::Library;
-
-    /// Every property of every library component: where the kernel serves it between 250 K and the critical
-    /// temperature (liquid properties) or 250–2500 K (vapour properties), it stays within 1e-7 of the direct
-    /// evaluation on a 0.37 K grid, and it serves most of that range.
-    #[test]
-    fn kernels_match_direct_evaluation() {
-        let lib = Library::embedded().unwrap();
-        let mut worst_all = 0.0f64;
-        for c in lib.components() {
-            let k = PropertyKernels::new(c);
-            for p in 0..PROPERTIES {
-                let to = if p >= 7 { 2500.0 } else { 0.999 * c.critical_temperature() };
-                let (worst, served) = k.measured_deviation(c, p, 250.0, to, 0.37);
-                assert!(worst < 1e-7, "{} property {p}: {worst:e}", c.id);
-                assert!(served > 0.8, "{} property {p}: kernel serves only {:.0} %", c.id, 100.0 * served);
-                worst_all = worst_all.max(worst);
-            }
-        }
-        eprintln!("largest kernel deviation over the library: {worst_all:e}");
-    }
-
-    /// The air kernel stays within 1e-7 of the direct mixture transport properties over 250–2500 K.
-    #[test]
-    fn gas_kernel_matches_direct_evaluation() {
-        let lib = Library::embedded().unwrap();
-        let air = AmbientGas::air(&lib).unwrap();
-        let fast = run_gas(&air, PropertyEvaluation::Kernels);
-        let k = fast.kernel.as_ref().unwrap();
-        let (mut worst, mut served, mut total) = (0.0f64, 0, 0);
-        let mut t = 250.0;
-        while t < 2500.0 {
-            let d = air.transport(t);
-            total += 1;
-            if let Some(v) = k.transport(&air, t) {
-                served += 1;
-                for (a, b) in [(v.0, d.0), (v.1, d.1), (v.2, d.2)] {
-                    worst = worst.max((a / b - 1.0).abs());
-                }
-            }
-            t += 0.37;
-        }
-        assert!(worst < 1e-7, "{worst:e}");
-        assert!(served as f64 > 0.9 * total as f64, "{served}/{total}");
-        assert!(run_gas(&air, PropertyEvaluation::Direct).kernel.is_none());
-    }
-
-    /// The sweep evaluator gives the bits of `Component::vapor_pressure` for kernel, rescaled and direct
-    /// components, at temperatures that stay in a segment, jump between segments and leave the kernel range.
-    #[test]
-    fn vapor_pressure_sweeps_have_the_bits_of_the_component() {
-        let lib = Library::embedded().unwrap();
-        let mut components: Vec<Arc<Component>> = vec![];
-        for id in ["n-decane", "n-hexadecane", "toluene", "1-methylnaphthalene"] {
-            let c = lib.component(id).unwrap().clone();
-            let mut scales = [1.0; 10];
-            scales[VAPOR_PRESSURE] = 1.07;
-            components.push(Arc::new(with_kernels(&c).with_property_scales(scales)));
-            components.push(with_kernels(&c));
-            components.push(c);
-        }
-        let mut sweeps = VaporPressures::new(&components);
-        // a fine walk up through the range, then jumps back and forth
-        let walk = (0..9600).map(|k| 120.0 + 0.37 * k as f64);
-        let jumps = (0..2000).map(|k| 250.0 + (k as f64 * 7.31) % 600.0 - if k % 3 == 0 { 90.0 } else { 0.0 });
-        for t in walk.chain(jumps) {
-            for (i, c) in components.iter().enumerate() {
-                assert_eq!(sweeps.at(i, t).to_bits(), c.vapor_pressure(t).to_bits(), "{} at {t} K", c.id);
-            }
-        }
-        assert_eq!(sweeps.len(), components.len());
-    }
-
-    #[test]
-    fn scales_apply_on_top_and_direct_copy_is_direct() {
-        let lib = Library::embedded().unwrap();
-        let c = lib.component("n-decane").unwrap().clone();
-        let fast = with_kernels(&c);
-        assert!(active(&fast).is_some() && active(&c).is_none());
-        assert!(Arc::ptr_eq(&fast, &with_kernels(&c)), "twin is cached");
-        let p = fast.vapor_pressure(400.0);
-        assert!((p / c.vapor_pressure(400.0) - 1.0).abs() < 1e-7);
-        let mut scales = [1.0; 10];
-        scales[0] = 1.5;
-        let scaled = Arc::new(fast.with_property_scales(scales));
-        assert!(active(&scaled).is_some());
-        assert_eq!(scaled.vapor_pressure(400.0), 1.5 * p);
-        assert!(active(&without_kernels(&fast)).is_none());
-        // a plain copy may be changed after copying: it builds its own kernels
-        let mut changed = (*c).clone();
-        if let crate::data::Form::Dippr101(ref mut a) = changed.vapor_pressure.form {
-            a[0] += 0.5f64.ln();
-        }
-        let changed = with_kernels(&Arc::new(changed));
-        assert!((changed.vapor_pressure(400.0) / (0.5 * p) - 1.0).abs() < 1e-7);
-    }
-}
+mod tests;

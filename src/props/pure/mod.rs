@@ -433,8 +433,15 @@ impl Component {
     /// and heat capacity in the Chung et al. conductivity).
     #[inline]
     pub fn vapor_properties(&self, t: f64) -> (f64, f64, f64) {
+        self.vapor_properties_via(super::kernels::active(self), t)
+    }
+
+    /// [`Component::vapor_properties`] through the kernels `kernels`, which must be this copy's
+    /// ([`super::kernels::active`]; a caller that evaluates often keeps them instead of looking them up per call).
+    #[inline]
+    pub fn vapor_properties_via(&self, kernels: Option<&super::kernels::PropertyKernels>, t: f64) -> (f64, f64, f64) {
         let s = &self.property_scales;
-        if let Some(k) = super::kernels::active(self) {
+        if let Some(k) = kernels {
             if let Some([cp, mu, kv]) = k.vapour_group(self, t) {
                 return (cp * s[IDEAL_GAS_HEAT_CAPACITY], mu * s[VAPOR_VISCOSITY], kv * s[VAPOR_CONDUCTIVITY]);
             }
@@ -448,8 +455,15 @@ impl Component {
     /// of the four single-property methods), from one kernel look-up when this copy has kernels.
     #[inline]
     pub fn liquid_point(&self, t: f64) -> LiquidPoint {
+        self.liquid_point_via(super::kernels::active(self), t)
+    }
+
+    /// [`Component::liquid_point`] through the kernels `kernels`, which must be this copy's
+    /// ([`super::kernels::active`]; a caller that evaluates often keeps them instead of looking them up per call).
+    #[inline]
+    pub fn liquid_point_via(&self, kernels: Option<&super::kernels::PropertyKernels>, t: f64) -> LiquidPoint {
         let s = &self.property_scales;
-        if let Some(k) = super::kernels::active(self) {
+        if let Some(k) = kernels {
             if let Some([p, rho, l, cp]) = k.liquid_group(self, t) {
                 return LiquidPoint {
                     vapor_pressure: p * s[VAPOR_PRESSURE],

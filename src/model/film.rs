@@ -59,10 +59,11 @@ impl TransferCorrelation {
 
 /// Root λ of λ = A/Nu*(λ), Nu*(λ) = 2 + c/F(λ) (λ = ln(1 + B_T), F the film correction, c = Nu0 − 2 ≠ 0) by
 /// Newton's method from one fixed-point step off `last_heat`, the previous call's root and its F (successive
-/// calls are close in state; the new root is written back), with the fixed-point step where the Newton slope is not safe. Returns (λ, Nu*(λ), e^(−λ) − 1); after the last
-/// step (|Δλ| ≤ 1e-7 (1 + |λ|); Newton's error after it is of order Δλ², about 1e-14) F and e^(−λ) are carried to the new λ
-/// by their first-order terms instead of two more exponentials.
-fn solve_heat_log(last_heat: &mut (f64, f64), a_heat: f64, c: f64) -> (f64, f64, f64) {
+/// calls are close in state; the new root is written back), with the fixed-point step where the Newton slope is
+/// not safe. Returns (λ, Nu*(λ), e^(−λ) − 1); after the last step (|Δλ| ≤ `tolerance` (1 + |λ|); Newton's error
+/// after it is of order Δλ², about 1e-14 for a tolerance of 1e-7) F and e^(−λ) are carried to the new λ by
+/// their first-order terms instead of two more exponentials.
+fn solve_heat_log(last_heat: &mut (f64, f64), a_heat: f64, c: f64, tolerance: f64) -> (f64, f64, f64) {
     // start: one fixed-point step from the previous root with this call's A and c, λ₀ = A/(2 + c/F(λ_prev))
     // (F of the previous root kept; no exponential), which follows a change of A or Nu0 at once
     let (last_lam, last_f) = *last_heat;
@@ -89,7 +90,7 @@ fn solve_heat_log(last_heat: &mut (f64, f64), a_heat: f64, c: f64) -> (f64, f64,
         out = (next, 2.0 + c / f_next, em1 - (1.0 + em1) * moved);
         lam = next;
         *last_heat = (lam, f_next);
-        if moved.abs() <= 1e-7 * (1.0 + lam.abs()) {
+        if moved.abs() <= tolerance * (1.0 + lam.abs()) {
             break;
         }
     }
@@ -318,9 +319,20 @@ pub struct Film {
     /// Each component's kernels (None: direct evaluation) and the component they belong to (held, so its address
     /// stays its own): an evaluation uses them only while `setup.components[i]` is still that component.
     kernels: Vec<(Arc<Component>, Option<Arc<PropertyKernels>>)>,
+    /// Last Newton step of ln(1 + B_T) accepted as converged, relative to 1 + λ (default 1e-7; the error left is of
+    /// the order of its square). A droplet run sets it from its tolerance, see [`heat_iteration_tolerance`].
+    pub heat_iteration_tolerance: f64,
     /// Whether evaluations compute the drag coefficient (true by default; a droplet held at constant slip sets
     /// it false and gets 0).
     pub drag_needed: bool,
+}
+
+/// Newton tolerance of the B_T iteration for a run at relative tolerance `rtol`: √(1e-4 rtol) within
+/// [1e-7, 1e-5], so that the error it leaves (of the order of its square, about 1e-4 rtol; about 1e-9 relative
+/// in the heat fluxes at the default rtol 1e-6, 8.3e-10 measured in a unit test) stays far below the integrator's tolerance
+/// (1e-5 at the default rtol 1e-6; 1e-7, about 1e-14 left, from rtol 1e-10).
+pub fn heat_iteration_tolerance(rtol: f64) -> f64 {
+    (1e-4 * rtol).sqrt().clamp(1e-7, 1e-5)
 }
 
 /// The kernels kept for component `i` if `c` is still the component they were kept for, else `c`'s own
@@ -360,6 +372,7 @@ impl Film {
             vapor_pressures: vec![0.0; n],
             vapor_pressure_temperature: None,
             drag_needed: true,
+            heat_iteration_tolerance: 1e-7,
             kernels: setup.components.iter().map(|c| (c.clone(), crate::props::kernels::active_shared(c))).collect(),
             setup,
         }
@@ -717,7 +730,7 @@ impl Film {
             let lam = 0.5 * a_heat;
             (lam, 2.0, (-lam).exp_m1())
         } else {
-            solve_heat_log(&mut self.last_heat, a_heat, nu0 - 2.0)
+            solve_heat_log(&mut self.last_heat, a_heat, nu0 - 2.0, self.heat_iteration_tolerance)
         };
         // B_T = e^λ − 1 = −(e^(−λ) − 1)/e^(−λ)
         let b_t = (-em1 / (1.0 + em1)).min(1e300);

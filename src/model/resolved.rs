@@ -570,6 +570,7 @@ impl Model {
         let n = inp.fuel.len();
         let comps = inp.fuel.components.clone();
         let mut film = Film::new(inp.film_setup());
+        film.heat_iteration_tolerance = crate::model::film::heat_iteration_tolerance(inp.rtol);
         let nodes = inp.liquid.nodes;
         if !(4..=400).contains(&nodes) {
             return Err(ModelError::Input { field: "nodes", value: nodes.to_string(), reason: "must lie between 4 and 400".into() });

@@ -335,7 +335,10 @@ impl Stepper {
         setup.ambient_temperature = far_field.temperature;
         setup.pressure = far_field.pressure;
         setup.ambient_vapor = vapor.clone();
+        let (tolerance, drag) = (film.heat_iteration_tolerance, film.drag_needed);
         *film = Film::new(setup);
+        film.heat_iteration_tolerance = tolerance;
+        film.drag_needed = drag;
         self.far_field = FarField { vapor_mass_fractions: vapor, ..far_field.clone() };
         Ok(())
     }

@@ -166,6 +166,7 @@ impl WellMixed {
         let mut film = Film::new(inp.film_setup());
         // a droplet at constant slip needs no drag coefficient
         film.drag_needed = matches!(inp.motion, Motion::Injected { .. });
+        film.heat_iteration_tolerance = crate::model::film::heat_iteration_tolerance(inp.rtol);
         let t0 = inp.initial_temperature;
         let rho0 = liquid::density(&comps, &inp.fuel.mass_fractions, t0);
         let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);

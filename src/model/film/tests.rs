@@ -66,4 +66,33 @@ mod boiling {
         assert_eq!(r.evaporation_rate, 0.0);
         assert!(r.heat_to_liquid < 0.0, "the liquid loses heat: the droplet model leaves the regime");
     }
+
+    /// The B_T Newton iteration at a run's tolerance: along a droplet-like sequence of close states (n-decane,
+    /// surface 300 → 440 K, diameter 50 → 10 µm, 5 m/s in air at 800 K; B_T from 0.008 to 190), the film
+    /// evaluated with the default rtol's tolerance (1e-5) gives the rates, heat fluxes, B_T and Nu* of the 1e-7
+    /// tolerance within 2e-9 relative (the net heat into the liquid relative to the gas heat), and a run at
+    /// rtol 1e-11 keeps 1e-7.
+    #[test]
+    fn heat_iteration_tolerance_leaves_errors_far_below_the_run_tolerance() {
+        assert_eq!(heat_iteration_tolerance(1e-11), 1e-7);
+        assert!((heat_iteration_tolerance(1e-6) / 1e-5 - 1.0).abs() < 1e-12);
+        let (mut tight, mut loose) = (film(ExtraHeat::default(), 800.0), film(ExtraHeat::default(), 800.0));
+        tight.heat_iteration_tolerance = 1e-7;
+        loose.heat_iteration_tolerance = heat_iteration_tolerance(1e-6);
+        let latent = [3.0e5];
+        let mut worst = 0.0f64;
+        for k in 0..=1400 {
+            let t_s = 300.0 + 0.1 * k as f64;
+            let d = 50e-6 - 40e-6 * k as f64 / 1400.0;
+            let a = tight.evaluate(&[1.0], t_s, d, 5.0, &latent, None);
+            let b = loose.evaluate(&[1.0], t_s, d, 5.0, &latent, None);
+            // the net heat into the liquid relative to the gas heat it is a difference of
+            let net = (b.heat_to_liquid - a.heat_to_liquid) / a.heat_from_gas;
+            for dev in [b.evaporation_rate / a.evaporation_rate - 1.0, net, b.heat_from_gas / a.heat_from_gas - 1.0, b.spalding_heat / a.spalding_heat - 1.0, b.nusselt / a.nusselt - 1.0] {
+                worst = worst.max(dev.abs());
+            }
+        }
+        eprintln!("B_T iteration at rtol 1e-6 against 1e-7: largest relative difference {worst:e}");
+        assert!(worst < 2e-9, "largest relative difference {worst:e}");
+    }
 }

@@ -49,17 +49,29 @@ struct Evaluator<'a> {
     vapor_pressures: VaporPressures<'a>,
     /// Liquid activity model (γ = 1: Raoult's law), K_i = γ_i p_sat,i/p.
     activity: Activity,
-    weights: &'a [f64],
+    /// Per-mole basis weights.
+    weights: Vec<f64>,
     mode: PathMode,
     x: Vec<f64>,
     k: Vec<f64>,
     /// p_sat,i at `t_swept` \[Pa\] (without γ_i).
     p_sat: Vec<f64>,
+    /// d ln p_sat,i / d(1/T) at `t_swept` \[K\] (ideal liquid only: the Halley solve).
+    slope_b: Vec<f64>,
+    /// d² ln p_sat,i / d(1/T)² at `t_swept` \[K²\] (ideal liquid only).
+    curvature_b: Vec<f64>,
+    /// Whether the bubble solve is Halley's method on analytic derivatives (ideal liquid) rather than the
+    /// secant iteration (activity coefficients).
+    halley: bool,
     /// Temperature of the last vapour-pressure sweep \[K\] (NaN before the first).
     t_swept: f64,
     /// Start of the first bubble solve \[K\].
     t_guess: f64,
     slope: f64,
+    /// Whether the next bubble solve's sweep is to be kept as the start of the next path ([`IsobaricSeries`]).
+    keep: bool,
+    /// The sweep kept at the first bubble point of the last path (ideal liquid only).
+    kept: Option<KeptSweep>,
     /// Count of right-hand-side evaluations (for tests and statistics).
     evaluations: usize,
     /// Count of vapour-pressure sweeps (for tests and statistics).
@@ -73,6 +85,9 @@ impl<'a> Evaluator<'a> {
     /// ln Σ x_i γ_i p_sat,i(t), filling `k` with γ_i p_sat,i(t) (a vapour-pressure sweep at `t`).
     #[inline]
     fn log_bubble_pressure(&mut self, t: f64) -> f64 {
+        if self.halley {
+            return self.log_bubble_pressure_with_slopes(t);
+        }
         self.sweeps += 1;
         let mut s = 0.0;
         let gamma = self.activity.gammas(&self.x, t);
@@ -83,6 +98,81 @@ impl<'a> Evaluator<'a> {
         }
         self.t_swept = t;
         s.ln()
+    }
+
+    /// [`Self::log_bubble_pressure`] of an ideal liquid that also keeps the first and second derivatives of each
+    /// ln p_sat,i in b = 1/T (from d/db = −T² d/dT).
+    #[inline]
+    fn log_bubble_pressure_with_slopes(&mut self, t: f64) -> f64 {
+        self.sweeps += 1;
+        let mut s = 0.0;
+        let (t2, t3) = (t * t, t * t * t);
+        for i in 0..self.x.len() {
+            let (ps, d1, d2) = self.vapor_pressures.at_with_slopes(i, t);
+            self.p_sat[i] = ps;
+            self.k[i] = ps;
+            self.slope_b[i] = -t2 * d1;
+            self.curvature_b[i] = t2 * t2 * d2 + 2.0 * t3 * d1;
+            s += self.x[i] * ps;
+        }
+        self.t_swept = t;
+        s.ln()
+    }
+
+    /// First and second derivatives in b = 1/T of ln Σ x_i p_sat,i at the last sweep for the current `x` (ideal
+    /// liquid): the p_sat-weighted mean of the slopes, and the weighted mean of curvature + slope² less the
+    /// squared mean.
+    #[inline]
+    fn bubble_derivatives(&self) -> (f64, f64) {
+        let (mut s, mut m1, mut m2) = (0.0, 0.0, 0.0);
+        for i in 0..self.x.len() {
+            let w = self.x[i] * self.p_sat[i];
+            let h = self.slope_b[i];
+            s += w;
+            m1 += w * h;
+            m2 += w * (self.curvature_b[i] + h * h);
+        }
+        let d1 = m1 / s;
+        (d1, m2 / s - d1 * d1)
+    }
+
+    /// Bubble temperature of an ideal `self.x` at `p` by Halley's method in 1/T on the analytic derivatives,
+    /// starting from the last sweep (exact residual and derivatives of the new composition there, no
+    /// vapour-pressure evaluation); leaves p_sat,i(T) in `k`.
+    fn bubble_halley(&mut self, p: f64) -> Result<f64, PostError> {
+        let lnp = p.ln();
+        let (mut t0, mut f0) = if self.t_swept.is_finite() {
+            (self.t_swept, self.log_bubble_pressure_at_last_sweep() - lnp)
+        } else {
+            (self.t_guess, self.log_bubble_pressure(self.t_guess) - lnp)
+        };
+        if f0.abs() < BUBBLE_TOL {
+            return Ok(t0);
+        }
+        for _ in 0..40 {
+            let (d1, d2) = self.bubble_derivatives();
+            let b0 = 1.0 / t0;
+            // Newton's step f/f', corrected by Halley's factor where it is moderate
+            let newton = if d1.is_finite() && d1 < 0.0 { f0 / d1 } else { f0 / self.slope };
+            let factor = 1.0 - 0.5 * f0 * d2 / (d1 * d1);
+            let step = if factor.is_finite() && (0.5..=2.0).contains(&factor) { newton / factor } else { newton };
+            let b1 = (b0 - step).clamp(b0 / 1.3, b0 * 1.3);
+            let t1 = 1.0 / b1;
+            let f1 = self.log_bubble_pressure(t1) - lnp;
+            if !f1.is_finite() {
+                break;
+            }
+            if f1.abs() < BUBBLE_TOL {
+                self.t_guess = t1;
+                return Ok(t1);
+            }
+            t0 = t1;
+            f0 = f1;
+        }
+        let t = liquid::bubble_point_with(self.components, &mut self.activity, &self.x, p)?;
+        self.log_bubble_pressure(t);
+        self.t_guess = t;
+        Ok(t)
     }
 
     /// [`Self::log_bubble_pressure`] of the current `x` at the temperature of the last sweep, from its kept
@@ -100,6 +190,9 @@ impl<'a> Evaluator<'a> {
 
     /// Bubble temperature of `self.x` at `p`; leaves γ_i p_sat,i(T) in `k`.
     fn bubble(&mut self, p: f64) -> Result<f64, PostError> {
+        if self.halley {
+            return self.bubble_halley(p);
+        }
         let lnp = p.ln();
         // start where the vapour pressures are known (the last sweep), else at the first guess
         let (t0, mut f0) = if self.t_swept.is_finite() {
@@ -178,7 +271,7 @@ impl<'a> Evaluator<'a> {
         };
         let mut num = 0.0;
         let mut den = 0.0;
-        for ((x, w), k) in self.x.iter().zip(self.weights).zip(&self.k) {
+        for ((x, w), k) in self.x.iter().zip(&self.weights).zip(&self.k) {
             num += x * w * k;
             den += x * w;
         }
@@ -229,6 +322,40 @@ pub fn integrate(
     if n == 0 || x0.len() != n || weights.len() != n {
         return Err(PostError::Input { what: "rayleigh path", message: "components, fractions and weights differ in length".into() });
     }
+    check_path(x0, fractions, max_step)?;
+    let t_start = match mode {
+        PathMode::Isobaric(p) => {
+            if !(p.is_finite() && p > 0.0) {
+                return Err(PostError::Input { what: "pressure", message: format!("{p} Pa must be positive") });
+            }
+            cold_start(components, x0)
+        }
+        PathMode::Isothermal(t) => {
+            if !(t.is_finite() && t > 0.0) {
+                return Err(PostError::Input { what: "temperature", message: format!("{t} K must be positive") });
+            }
+            t
+        }
+    };
+    let ideal = activity.is_ideal();
+    let mut ev = Evaluator::new(components, activity, weights, mode, t_start);
+    if let PathMode::Isothermal(t) = mode {
+        for (k, c) in ev.k.iter_mut().zip(components) {
+            *k = c.vapor_pressure(t);
+        }
+        if ev.k.iter().any(|k| !(k.is_finite() && *k > 0.0)) {
+            return Err(PostError::Input { what: "weathering temperature", message: format!("vapour pressures at {t} K are not all positive") });
+        }
+        if ideal {
+            let total: f64 = x0.iter().sum();
+            return Ok((isothermal(&ev.k, x0, total, weights, fractions, t), PathCounts { evaluations: 0, sweeps: 0 }));
+        }
+    }
+    rk4_path(&mut ev, x0, fractions, max_step)
+}
+
+/// Checks of a path's start and its requested fractions shared by [`integrate`] and [`IsobaricSeries`].
+fn check_path(x0: &[f64], fractions: &[f64], max_step: f64) -> Result<(), PostError> {
     if x0.iter().any(|x| !(x.is_finite() && *x > 0.0)) {
         return Err(PostError::Input { what: "rayleigh path", message: "every component needs a positive amount".into() });
     }
@@ -242,51 +369,61 @@ pub fn integrate(
         }
         last = f;
     }
-    let t_start = match mode {
-        PathMode::Isobaric(p) => {
-            if !(p.is_finite() && p > 0.0) {
-                return Err(PostError::Input { what: "pressure", message: format!("{p} Pa must be positive") });
-            }
-            components.iter().zip(x0).map(|(c, x)| x * c.normal_boiling_point()).sum::<f64>()
-        }
-        PathMode::Isothermal(t) => {
-            if !(t.is_finite() && t > 0.0) {
-                return Err(PostError::Input { what: "temperature", message: format!("{t} K must be positive") });
-            }
-            t
-        }
-    };
-    let ideal = activity.is_ideal();
-    let mut ev = Evaluator {
-        components,
-        vapor_pressures: VaporPressures::new(components),
-        activity,
-        weights,
-        mode,
-        x: x0.to_vec(),
-        k: vec![0.0; n],
-        p_sat: vec![0.0; n],
-        t_swept: f64::NAN,
-        t_guess: t_start,
-        // Trouton's rule, ΔH/(R T_b) ≈ 10.5, for the first slope of ln p against 1/T
-        slope: -10.5 * t_start,
-        evaluations: 0,
-        sweeps: 0,
-    };
-    if let PathMode::Isothermal(t) = mode {
-        for (k, c) in ev.k.iter_mut().zip(components) {
-            *k = c.vapor_pressure(t);
-        }
-        if ev.k.iter().any(|k| !(k.is_finite() && *k > 0.0)) {
-            return Err(PostError::Input { what: "weathering temperature", message: format!("vapour pressures at {t} K are not all positive") });
+    Ok(())
+}
+
+/// First temperature of a bubble solve without a previous one: the mole-fraction mean normal boiling point \[K\].
+fn cold_start(components: &[Arc<Component>], x0: &[f64]) -> f64 {
+    components.iter().zip(x0).map(|(c, x)| x * c.normal_boiling_point()).sum::<f64>()
+}
+
+impl<'a> Evaluator<'a> {
+    /// An evaluator with nothing swept yet, whose first bubble solve starts at `t_start`.
+    fn new(components: &'a [Arc<Component>], activity: Activity, weights: &[f64], mode: PathMode, t_start: f64) -> Self {
+        let n = components.len();
+        let halley = activity.is_ideal() && matches!(mode, PathMode::Isobaric(_));
+        Evaluator {
+            components,
+            vapor_pressures: VaporPressures::new(components),
+            activity,
+            weights: weights.to_vec(),
+            mode,
+            x: vec![0.0; n],
+            k: vec![0.0; n],
+            p_sat: vec![0.0; n],
+            slope_b: vec![0.0; if halley { n } else { 0 }],
+            curvature_b: vec![0.0; if halley { n } else { 0 }],
+            halley,
+            t_swept: f64::NAN,
+            t_guess: t_start,
+            // Trouton's rule, ΔH/(R T_b) ≈ 10.5, for the first slope of ln p against 1/T
+            slope: -10.5 * t_start,
+            keep: false,
+            kept: None,
+            evaluations: 0,
+            sweeps: 0,
         }
     }
+
+    /// Keep the last sweep (the first bubble point of a path) when asked to ([`IsobaricSeries`]).
+    fn after_first_solve(&mut self) {
+        if !self.keep {
+            return;
+        }
+        self.keep = false;
+        let k = self.kept.get_or_insert_with(|| KeptSweep { t: f64::NAN, p_sat: vec![], slope_b: vec![], curvature_b: vec![], slope: 0.0 });
+        k.t = self.t_swept;
+        k.slope = self.slope;
+        k.p_sat.clone_from(&self.p_sat);
+        k.slope_b.clone_from(&self.slope_b);
+        k.curvature_b.clone_from(&self.curvature_b);
+    }
+}
+
+/// The RK4 path from `x0` through `fractions` (checked by the caller) with the evaluator as it stands.
+fn rk4_path(ev: &mut Evaluator, x0: &[f64], fractions: &[f64], max_step: f64) -> Result<(Vec<PathPoint>, PathCounts), PostError> {
+    let n = x0.len();
     let total: f64 = x0.iter().sum();
-    if let PathMode::Isothermal(t) = mode {
-        if ideal {
-            return Ok((isothermal(&ev.k, x0, total, weights, fractions, t), PathCounts { evaluations: 0, sweeps: 0 }));
-        }
-    }
     let mut ln_n: Vec<f64> = x0.iter().map(|x| (x / total).ln()).collect();
     let mut stage = vec![0.0; n];
     let mut k1 = vec![0.0; n];
@@ -297,6 +434,7 @@ pub fn integrate(
     let mut phi = 0.0;
     // k1 at the current state and its temperature
     let mut t_here = ev.rhs(&ln_n, &mut k1)?;
+    ev.after_first_solve();
     for &f in fractions {
         let phi_target = -(1.0 - f).ln();
         let span = phi_target - phi;
@@ -326,6 +464,68 @@ pub fn integrate(
         out.push(PathPoint { evaporated_fraction: f, temperature: t_here, mole_fractions: ev.x.clone() });
     }
     Ok((out, PathCounts { evaluations: ev.evaluations, sweeps: ev.sweeps }))
+}
+
+/// The sweep kept at the first bubble point of the last path of an [`IsobaricSeries`].
+#[derive(Debug, Clone)]
+struct KeptSweep {
+    t: f64,
+    p_sat: Vec<f64>,
+    slope_b: Vec<f64>,
+    curvature_b: Vec<f64>,
+    slope: f64,
+}
+
+/// Constant-pressure paths of one list of components from one start composition after another (the residues of
+/// one droplet run): each path is [`integrate`]'s, except that its first bubble solve starts from the sweep
+/// kept at the previous path's first bubble point (an exact residual and derivatives for the new composition,
+/// no evaporation), and the vapour-pressure segments stay remembered. The points agree with [`integrate`]'s to
+/// the bubble solve's tolerance (about 1e-8 K).
+pub struct IsobaricSeries<'a> {
+    ev: Evaluator<'a>,
+}
+
+impl<'a> IsobaricSeries<'a> {
+    /// A series at pressure `p` \[Pa\] with per-mole basis `weights`.
+    pub fn new(components: &'a [Arc<Component>], weights: &[f64], p: f64, activity: ActivityModel) -> Result<Self, PostError> {
+        let activity = Activity::new(activity, components).map_err(|e| PostError::Input { what: "activity", message: e.to_string() })?;
+        if components.is_empty() || weights.len() != components.len() {
+            return Err(PostError::Input { what: "rayleigh path", message: "components and weights differ in length".into() });
+        }
+        if !(p.is_finite() && p > 0.0) {
+            return Err(PostError::Input { what: "pressure", message: format!("{p} Pa must be positive") });
+        }
+        Ok(IsobaricSeries { ev: Evaluator::new(components, activity, weights, PathMode::Isobaric(p), f64::NAN) })
+    }
+
+    /// The path from mole fractions `x0` (every one positive), as [`integrate`] with `PathMode::Isobaric`.
+    pub fn path(&mut self, x0: &[f64], fractions: &[f64], max_step: f64) -> Result<(Vec<PathPoint>, PathCounts), PostError> {
+        let ev = &mut self.ev;
+        if x0.len() != ev.x.len() {
+            return Err(PostError::Input { what: "rayleigh path", message: "components and fractions differ in length".into() });
+        }
+        check_path(x0, fractions, max_step)?;
+        ev.evaluations = 0;
+        ev.sweeps = 0;
+        match &ev.kept {
+            Some(k) if ev.halley => {
+                ev.t_swept = k.t;
+                ev.t_guess = k.t;
+                ev.slope = k.slope;
+                ev.p_sat.copy_from_slice(&k.p_sat);
+                ev.slope_b.copy_from_slice(&k.slope_b);
+                ev.curvature_b.copy_from_slice(&k.curvature_b);
+            }
+            _ => {
+                let t_start = cold_start(ev.components, x0);
+                ev.t_swept = f64::NAN;
+                ev.t_guess = t_start;
+                ev.slope = -10.5 * t_start;
+            }
+        }
+        ev.keep = ev.halley;
+        rk4_path(ev, x0, fractions, max_step)
+    }
 }
 
 /// Closed-form constant-temperature path: n_i = x0_i exp(−k_i s); `p_sat` holds p_sat,i(T).

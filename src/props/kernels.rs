@@ -214,6 +214,21 @@ fn horner_column<const N: usize>(c: &[[f64; N]; COEFFICIENTS], j: usize, u: f64)
     v
 }
 
+/// Horner evaluation of interpolant `j` of a group's coefficients at u with its first and second derivatives in
+/// u (the value has the bits of [`horner_column`]: the derivative sums do not touch it).
+#[inline(always)]
+fn horner_column_derivatives<const N: usize>(c: &[[f64; N]; COEFFICIENTS], j: usize, u: f64) -> (f64, f64, f64) {
+    let mut v = c[COEFFICIENTS - 1][j];
+    let mut d1 = 0.0;
+    let mut d2 = 0.0;
+    for k in (0..COEFFICIENTS - 1).rev() {
+        d2 = d2 * u + d1;
+        d1 = d1 * u + v;
+        v = v * u + c[k][j];
+    }
+    (v, d1, 2.0 * d2)
+}
+
 /// Horner evaluation of the interpolants of a group at u, side by side (each value has the bits of
 /// [`horner`] on its own coefficients: the same operations in the same order).
 #[inline(always)]
@@ -432,6 +447,9 @@ fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
     poly
 }
 
+/// Temperature step of the central differences of [`VaporPressures::at_with_slopes`] where no kernel serves \[K\].
+pub const SLOPE_STEP: f64 = 0.01;
+
 /// Vapour pressures of a fixed list of components at one temperature after another (the sweeps of bubble-point,
 /// distillation and flash-point iterations), each with the bits of [`Component::vapor_pressure`]: a component
 /// evaluating through its kernels remembers the segment of its last temperature, so a sweep at a temperature in
@@ -483,6 +501,29 @@ impl<'a> VaporPressures<'a> {
             }
         }
         self.search(i, t)
+    }
+
+    /// [`Self::at`] (the same bits) with the first and second derivatives of ln p_sat in t \[1/K, 1/K²\]:
+    /// analytic from the kernel's interpolant of ln p, else central differences of the direct evaluation
+    /// (step [`SLOPE_STEP`]).
+    #[inline]
+    pub fn at_with_slopes(&mut self, i: usize, t: f64) -> (f64, f64, f64) {
+        let last = &self.last[i];
+        if !(last.group.is_some() && t >= last.lo && t < last.hi) {
+            self.search(i, t);
+        }
+        let last = &self.last[i];
+        match last.group {
+            Some(g) if t >= last.lo && t < last.hi => {
+                let (v, d1, d2) = horner_column_derivatives(&g.c, VAPOR_PRESSURE, (t - last.mid) * last.inv_half);
+                (v.exp() * last.scale, d1 * last.inv_half, d2 * last.inv_half * last.inv_half)
+            }
+            _ => {
+                let c = &self.components[i];
+                let (lo, mid, hi) = (c.vapor_pressure(t - SLOPE_STEP).ln(), c.vapor_pressure(t), c.vapor_pressure(t + SLOPE_STEP).ln());
+                (mid, (hi - lo) / (2.0 * SLOPE_STEP), (hi - 2.0 * mid.ln() + lo) / (SLOPE_STEP * SLOPE_STEP))
+            }
+        }
     }
 
     /// [`Self::at`] when `t` lies outside the remembered segment: find its segment and remember it.

@@ -22,7 +22,7 @@ use crate::props::liquid;
 
 use super::indicators::{blend_cetane, component_flash_point, indicators, liaw_flash_point, near_critical, IndicatorOptions, IndicatorSelection, ViscosityRule};
 use super::indicators::{T_40C, T_MINUS_20C, T_MINUS_40C};
-use super::rayleigh::{basis_weights, IsobaricSeries};
+use super::rayleigh::{basis_weights, polish_exponent, taylor_exp, IsobaricSeries, POLISH_LIMIT, POLISH_RESIDUAL};
 use super::{normalised, PostError};
 
 /// Keys the series computes itself (the others go to [`indicators`]).
@@ -73,6 +73,8 @@ struct FlashSeries<'a> {
     curvature_b: Vec<f64>,
     /// Temperature of the last sweep \[K\] (NaN before the first).
     t_swept: f64,
+    /// Taylor moves of the kept values since the vapour pressures were last evaluated.
+    polished: usize,
 }
 
 impl FlashSeries<'_> {
@@ -88,6 +90,7 @@ impl FlashSeries<'_> {
             s += self.a[i] * ps;
         }
         self.t_swept = t;
+        self.polished = 0;
         s.ln()
     }
 
@@ -130,7 +133,18 @@ impl FlashSeries<'_> {
             let newton = g / d1;
             let step = if factor.is_finite() && (0.5..=2.0).contains(&factor) { newton / factor } else { newton };
             let b1 = (b0 - step).clamp(b0 / 1.3, b0 * 1.3);
-            self.sweep(1.0 / b1);
+            if g.abs() < POLISH_RESIDUAL && self.polished < POLISH_LIMIT {
+                // a short step: the kept values move along their Taylor series (as the distillation's bubble solve)
+                self.polished += 1;
+                let db = b1 - b0;
+                for i in 0..self.a.len() {
+                    self.p_sat[i] *= taylor_exp(polish_exponent(self.slope_b[i], self.curvature_b[i], db));
+                    self.slope_b[i] += self.curvature_b[i] * db;
+                }
+                self.t_swept = 1.0 / b1;
+            } else {
+                self.sweep(1.0 / b1);
+            }
         }
         None
     }
@@ -218,6 +232,7 @@ impl<'a> ResidueSeries<'a> {
                     slope_b: vec![0.0; n],
                     curvature_b: vec![0.0; n],
                     t_swept: f64::NAN,
+                    polished: 0,
                 });
             }
         }
@@ -291,5 +306,81 @@ impl<'a> ResidueSeries<'a> {
     fn direct_values(&self, mass_fractions: &[f64]) -> Result<Vec<Option<f64>>, PostError> {
         let ind = indicators(self.components, mass_fractions, &self.opts)?;
         Ok(self.keys.iter().map(|k| ind.get(k).flatten()).collect())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::data::Library;
+    use crate::fuel::Fuel;
+    use crate::post::{weathering_residues, INDICATOR_KEYS};
+
+    /// Residues of demo-wide (open-vessel evaporation at 420 K, 0 to 95 %) through the kernels, as an
+    /// uncertainty sample evaluates them.
+    fn residues() -> (Vec<Arc<Component>>, Vec<Vec<f64>>) {
+        let l = Library::embedded().unwrap();
+        let fuel = Fuel::resolve("demo-wide", &l).unwrap();
+        let comps = crate::props::kernels::run_components(&fuel.components, crate::props::kernels::PropertyEvaluation::Kernels);
+        let fractions: Vec<f64> = (0..20).map(|i| f64::from(i) * 0.05).collect();
+        let res = weathering_residues(&comps, &fuel.mass_fractions, 420.0, &fractions, ActivityModel::Ideal).unwrap();
+        (comps, res.into_iter().map(|r| r.mass_fractions).collect())
+    }
+
+    /// Every key the series computes itself, against `indicators` on each residue: the blends have the same
+    /// bits, the distillation temperatures agree to 1e-7 K and the flash point to 1e-9 K.
+    #[test]
+    fn series_matches_indicators() {
+        let (comps, residues) = residues();
+        let keys: Vec<&'static str> = SERIES_KEYS.to_vec();
+        let opts = IndicatorOptions::default();
+        let mut series = ResidueSeries::new(&comps, &opts, &keys).unwrap();
+        assert!(!series.direct);
+        let (mut worst_curve, mut worst_flash) = (0.0f64, 0.0f64);
+        for w in &residues {
+            let fast = series.values(w).unwrap();
+            let full = indicators(&comps, w, &opts).unwrap();
+            for (key, v) in keys.iter().zip(&fast) {
+                let d = full.get(key).unwrap();
+                match *key {
+                    k if curve_node(k).is_some() => worst_curve = worst_curve.max((v.unwrap() - d.unwrap()).abs()),
+                    "flash_point_K" => worst_flash = worst_flash.max((v.unwrap() - d.unwrap()).abs()),
+                    _ => assert_eq!(v.map(f64::to_bits), d.map(f64::to_bits), "{key}"),
+                }
+            }
+        }
+        eprintln!("largest differences: distillation {worst_curve:.2e} K, flash point {worst_flash:.2e} K");
+        assert!(worst_curve < 1e-7 && worst_flash < 1e-9, "{worst_curve} {worst_flash}");
+    }
+
+    /// What the series does not handle goes to `indicators` itself (the same bits): activity coefficients, the
+    /// Refutas rule, a key outside the series, a residue with an absent component; and unknown keys are refused.
+    #[test]
+    fn other_cases_are_the_direct_call() {
+        let (comps, residues) = residues();
+        let check = |opts: &IndicatorOptions, keys: &[&'static str], w: &[f64], expect_direct: bool| {
+            let mut series = ResidueSeries::new(&comps, opts, keys).unwrap();
+            assert_eq!(series.direct, expect_direct, "{keys:?}");
+            let fast = series.values(w).unwrap();
+            let full = indicators(&comps, w, opts).unwrap();
+            for (key, v) in keys.iter().zip(&fast) {
+                assert_eq!(v.map(f64::to_bits), full.get(key).unwrap().map(f64::to_bits), "{key}");
+            }
+        };
+        let unifac = IndicatorOptions { activity: ActivityModel::Unifac, ..Default::default() };
+        check(&unifac, &["t50_K", "flash_point_K", "dcn"], &residues[3], true);
+        let refutas = IndicatorOptions { viscosity_rule: ViscosityRule::Refutas, ..Default::default() };
+        check(&refutas, &["kinematic_viscosity_minus20C_m2_s", "dcn"], &residues[3], true);
+        check(&IndicatorOptions::default(), &["t50_K", "lhv_J_kg"], &residues[3], true);
+        let mut absent = residues[3].clone();
+        absent[0] = 0.0;
+        check(&IndicatorOptions::default(), &["t50_K", "flash_point_K", "density_15C_kg_m3"], &absent, false);
+        assert!(ResidueSeries::new(&comps, &IndicatorOptions::default(), &["no_such_key"]).is_err());
+        // every key the series computes is an indicator key
+        assert!(SERIES_KEYS.iter().all(|k| INDICATOR_KEYS.iter().any(|(i, _)| i == k)));
+        // bad options: the same error as indicators
+        let bad = IndicatorOptions { max_step: 2.0, ..Default::default() };
+        let mut series = ResidueSeries::new(&comps, &bad, &["t50_K"]).unwrap();
+        assert_eq!(series.values(&residues[0]).unwrap_err(), indicators(&comps, &residues[0], &bad).unwrap_err());
     }
 }

@@ -730,6 +730,29 @@ mod tests {
 
     /// The sweep evaluator gives the bits of `Component::vapor_pressure` for kernel, rescaled and direct
     /// components, at temperatures that stay in a segment, jump between segments and leave the kernel range.
+    /// The values of `at_with_slopes` have the bits of `at`; its derivatives of ln p match central differences
+    /// of the same kernel (and of the direct evaluation where no kernel serves).
+    #[test]
+    fn vapour_pressure_slopes_match_differences() {
+        let lib = Library::embedded().unwrap();
+        let fuel = crate::fuel::Fuel::resolve("demo-wide", &lib).unwrap();
+        for comps in [run_components(&fuel.components, PropertyEvaluation::Kernels), run_components(&fuel.components, PropertyEvaluation::Direct)] {
+            let mut plain = VaporPressures::new(&comps);
+            let mut sloped = VaporPressures::new(&comps);
+            for i in 0..comps.len() {
+                for t in [300.0, 351.7, 423.4, 480.1, 140.0] {
+                    let (p, d1, d2) = sloped.at_with_slopes(i, t);
+                    assert_eq!(p.to_bits(), plain.at(i, t).to_bits(), "{} at {t}", comps[i].id);
+                    let h = 0.05;
+                    let ln = |t: f64| comps[i].vapor_pressure(t).ln();
+                    let (fd1, fd2) = ((ln(t + h) - ln(t - h)) / (2.0 * h), (ln(t + h) - 2.0 * ln(t) + ln(t - h)) / (h * h));
+                    assert!((d1 / fd1 - 1.0).abs() < 1e-5, "{} at {t}: {d1} vs {fd1}", comps[i].id);
+                    assert!((d2 - fd2).abs() < 1e-3 * fd2.abs() + 1e-7, "{} at {t}: {d2} vs {fd2}", comps[i].id);
+                }
+            }
+        }
+    }
+
     #[test]
     fn vapor_pressure_sweeps_have_the_bits_of_the_component() {
         let lib = Library::embedded().unwrap();

@@ -70,6 +70,9 @@ struct Evaluator<'a> {
     slope: f64,
     /// Taylor moves of the kept sweep since the vapour pressures were last evaluated.
     polished: usize,
+    /// First and second derivatives in 1/T of ln Σ x_i p_sat,i at the last sweep for the current `x` (ideal
+    /// liquid).
+    derivatives: (f64, f64),
     /// Whether the next bubble solve's sweep is to be kept as the start of the next path ([`IsobaricSeries`]).
     keep: bool,
     /// The sweep kept at the first bubble point of the last path (ideal liquid only).
@@ -129,35 +132,71 @@ impl<'a> Evaluator<'a> {
     fn log_bubble_pressure_with_slopes(&mut self, t: f64) -> f64 {
         self.sweeps += 1;
         self.polished = 0;
-        let mut s = 0.0;
+        let (mut s, mut m1, mut m2) = (0.0, 0.0, 0.0);
         let (t2, t3) = (t * t, t * t * t);
         for i in 0..self.x.len() {
             let (ps, d1, d2) = self.vapor_pressures.at_with_slopes(i, t);
+            let (h, c) = (-t2 * d1, t2 * t2 * d2 + 2.0 * t3 * d1);
             self.p_sat[i] = ps;
             self.k[i] = ps;
-            self.slope_b[i] = -t2 * d1;
-            self.curvature_b[i] = t2 * t2 * d2 + 2.0 * t3 * d1;
-            s += self.x[i] * ps;
+            self.slope_b[i] = h;
+            self.curvature_b[i] = c;
+            let w = self.x[i] * ps;
+            s += w;
+            m1 += w * h;
+            m2 += w * (c + h * h);
         }
         self.t_swept = t;
+        self.set_derivatives(s, m1, m2);
         s.ln()
     }
 
-    /// First and second derivatives in b = 1/T of ln Σ x_i p_sat,i at the last sweep for the current `x` (ideal
-    /// liquid): the p_sat-weighted mean of the slopes, and the weighted mean of curvature + slope² less the
-    /// squared mean.
+    /// Keep the derivatives in 1/T of ln Σ x_i p_sat,i from the sums Σ x_i p_sat,i (`s`), Σ x_i p_sat,i h_i (`m1`)
+    /// and Σ x_i p_sat,i (c_i + h_i²) (`m2`), with h_i, c_i the first and second derivatives of ln p_sat,i: the
+    /// p_sat-weighted mean slope, and the weighted mean of curvature + slope² less the squared mean.
     #[inline]
-    fn bubble_derivatives(&self) -> (f64, f64) {
+    fn set_derivatives(&mut self, s: f64, m1: f64, m2: f64) {
+        let d1 = m1 / s;
+        self.derivatives = (d1, m2 / s - d1 * d1);
+    }
+
+    /// ln Σ x_i p_sat,i of the current `x` at the last sweep (ideal liquid), with `k` = p_sat and the derivatives
+    /// kept (no vapour-pressure evaluation).
+    #[inline]
+    fn halley_at_last_sweep(&mut self) -> f64 {
         let (mut s, mut m1, mut m2) = (0.0, 0.0, 0.0);
         for i in 0..self.x.len() {
-            let w = self.x[i] * self.p_sat[i];
-            let h = self.slope_b[i];
+            let (ps, h) = (self.p_sat[i], self.slope_b[i]);
+            self.k[i] = ps;
+            let w = self.x[i] * ps;
             s += w;
             m1 += w * h;
             m2 += w * (self.curvature_b[i] + h * h);
         }
-        let d1 = m1 / s;
-        (d1, m2 / s - d1 * d1)
+        self.set_derivatives(s, m1, m2);
+        s.ln()
+    }
+
+    /// Move the last sweep by `db` in 1/T along the Taylor series of each ln p_sat,i (no evaluation); returns
+    /// ln Σ x_i p_sat,i there and keeps `k` and the derivatives.
+    #[inline]
+    fn polish(&mut self, db: f64) -> f64 {
+        self.polished += 1;
+        let (mut s, mut m1, mut m2) = (0.0, 0.0, 0.0);
+        for i in 0..self.x.len() {
+            let c = self.curvature_b[i];
+            let ps = self.p_sat[i] * taylor_exp(polish_exponent(self.slope_b[i], c, db));
+            let h = self.slope_b[i] + c * db;
+            self.p_sat[i] = ps;
+            self.slope_b[i] = h;
+            self.k[i] = ps;
+            let w = self.x[i] * ps;
+            s += w;
+            m1 += w * h;
+            m2 += w * (c + h * h);
+        }
+        self.set_derivatives(s, m1, m2);
+        s.ln()
     }
 
     /// Bubble temperature of an ideal `self.x` at `p` by Halley's method in 1/T on the analytic derivatives,
@@ -166,7 +205,7 @@ impl<'a> Evaluator<'a> {
     fn bubble_halley(&mut self, p: f64) -> Result<f64, PostError> {
         let lnp = p.ln();
         let (mut t0, mut f0) = if self.t_swept.is_finite() {
-            (self.t_swept, self.log_bubble_pressure_at_last_sweep() - lnp)
+            (self.t_swept, self.halley_at_last_sweep() - lnp)
         } else {
             (self.t_guess, self.log_bubble_pressure(self.t_guess) - lnp)
         };
@@ -174,7 +213,7 @@ impl<'a> Evaluator<'a> {
             return Ok(t0);
         }
         for _ in 0..40 {
-            let (d1, d2) = self.bubble_derivatives();
+            let (d1, d2) = self.derivatives;
             let b0 = 1.0 / t0;
             // Newton's step f/f', corrected by Halley's factor where it is moderate
             let newton = if d1.is_finite() && d1 < 0.0 { f0 / d1 } else { f0 / self.slope };
@@ -184,17 +223,9 @@ impl<'a> Evaluator<'a> {
             let t1 = 1.0 / b1;
             let f1 = if f0.abs() < POLISH_RESIDUAL && self.polished < POLISH_LIMIT {
                 // a short step: move the last sweep along the Taylor series of each ln p_sat,i in 1/T
-                self.polished += 1;
-                let db = b1 - b0;
-                let mut s = 0.0;
-                for i in 0..self.x.len() {
-                    self.p_sat[i] *= taylor_exp(polish_exponent(self.slope_b[i], self.curvature_b[i], db));
-                    self.slope_b[i] += self.curvature_b[i] * db;
-                    self.k[i] = self.p_sat[i];
-                    s += self.x[i] * self.p_sat[i];
-                }
+                let f = self.polish(b1 - b0) - lnp;
                 self.t_swept = t1;
-                s.ln() - lnp
+                f
             } else {
                 self.log_bubble_pressure(t1) - lnp
             };
@@ -438,6 +469,7 @@ impl<'a> Evaluator<'a> {
             // Trouton's rule, ΔH/(R T_b) ≈ 10.5, for the first slope of ln p against 1/T
             slope: -10.5 * t_start,
             polished: 0,
+            derivatives: (f64::NAN, f64::NAN),
             keep: false,
             kept: None,
             evaluations: 0,
@@ -540,13 +572,19 @@ impl<'a> IsobaricSeries<'a> {
         Ok(IsobaricSeries { ev: Evaluator::new(components, activity, weights, PathMode::Isobaric(p), f64::NAN) })
     }
 
-    /// The path from mole fractions `x0` (every one positive), as [`integrate`] with `PathMode::Isobaric`.
+    /// The path from mole fractions `x0`, as [`integrate`] with `PathMode::Isobaric` on the components whose
+    /// fraction is positive (the others have zero fractions all along).
     pub fn path(&mut self, x0: &[f64], fractions: &[f64], max_step: f64) -> Result<(Vec<PathPoint>, PathCounts), PostError> {
         let ev = &mut self.ev;
         if x0.len() != ev.x.len() {
             return Err(PostError::Input { what: "rayleigh path", message: "components and fractions differ in length".into() });
         }
-        check_path(x0, fractions, max_step)?;
+        // absent components (x = 0, ln n = −∞) stay absent and add nothing to any sum: the path of the others
+        let present: Vec<f64> = x0.iter().copied().filter(|x| *x != 0.0).collect();
+        if present.is_empty() || x0.iter().any(|x| *x < 0.0) {
+            return Err(PostError::Input { what: "rayleigh path", message: "every component needs a positive or zero amount, and one a positive amount".into() });
+        }
+        check_path(&present, fractions, max_step)?;
         ev.evaluations = 0;
         ev.sweeps = 0;
         match &ev.kept {

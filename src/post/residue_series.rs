@@ -10,7 +10,7 @@
 //! residue's flash point. The blends (density, viscosity, cetane number) have the bits of [`indicators`]; the
 //! bubble point and the distillation temperatures agree with it to the bubble solve's tolerance (about
 //! 1e-8 K) and the flash point to about 1e-10 K. Anything else (activity coefficients, the Refutas rule, other
-//! indicators, a residue with an absent component, options [`indicators`] refuses) is handed to
+//! indicators, options [`indicators`] refuses) is handed to
 //! [`indicators`] itself.
 
 use std::sync::Arc;
@@ -65,9 +65,6 @@ struct FlashSeries<'a> {
     a: Vec<f64>,
     /// 1 / p_sat,i(T_fp,i) \[1/Pa\].
     inv_p_fp: Vec<f64>,
-    /// Lowest and highest pure flash point \[K\] (the bracket of [`liaw_flash_point`]).
-    lo: f64,
-    hi: f64,
     p_sat: Vec<f64>,
     slope_b: Vec<f64>,
     curvature_b: Vec<f64>,
@@ -108,17 +105,23 @@ impl FlashSeries<'_> {
         (s.ln(), d1, m2 / s - d1 * d1)
     }
 
-    /// The flash point of mole fractions `x` (all positive) by Halley's method in 1/T; None when it does not
-    /// converge inside the bracket of [`liaw_flash_point`] (the caller then asks that function).
+    /// The flash point of mole fractions `x` by Halley's method in 1/T; None when it does not converge inside
+    /// the bracket of [`liaw_flash_point`] (the pure flash points of the components present, widened by 0.5 K;
+    /// the caller then asks that function).
     fn solve(&mut self, x: &[f64], pure_fp: &[f64]) -> Option<f64> {
-        for ((a, x), inv) in self.a.iter_mut().zip(x).zip(&self.inv_p_fp) {
+        let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
+        for (((a, x), inv), tf) in self.a.iter_mut().zip(x).zip(&self.inv_p_fp).zip(pure_fp) {
             *a = x * inv;
+            if *x > 0.0 {
+                lo = lo.min(*tf);
+                hi = hi.max(*tf);
+            }
         }
         if !self.t_swept.is_finite() {
             let t0 = x.iter().zip(pure_fp).map(|(x, t)| x * t).sum::<f64>() / x.iter().sum::<f64>();
             self.sweep(t0);
         }
-        let (lo, hi) = (self.lo - 0.5, self.hi + 0.5);
+        let (lo, hi) = (lo - 0.5, hi + 0.5);
         for _ in 0..40 {
             let (g, d1, d2) = self.at_last_sweep();
             if !(g.is_finite() && d1.is_finite() && d1 < 0.0) {
@@ -226,8 +229,6 @@ impl<'a> ResidueSeries<'a> {
                     vapor_pressures: VaporPressures::new(components),
                     a: vec![0.0; n],
                     inv_p_fp: p_fp.iter().map(|p| 1.0 / p).collect(),
-                    lo: series.pure_fp.iter().cloned().fold(f64::INFINITY, f64::min),
-                    hi: series.pure_fp.iter().cloned().fold(f64::NEG_INFINITY, f64::max),
                     p_sat: vec![0.0; n],
                     slope_b: vec![0.0; n],
                     curvature_b: vec![0.0; n],
@@ -248,9 +249,7 @@ impl<'a> ResidueSeries<'a> {
         let components = self.components;
         let w = normalised(components, mass_fractions, "mass fractions")?;
         let x = liquid::mass_to_mole(components, &w);
-        if x.iter().any(|v| !(*v > 0.0)) {
-            return self.direct_values(mass_fractions);
-        }
+
         // the distillation curve (as indicators: through the nodes up to the last requested one)
         let curve: Option<Vec<f64>> = match (self.last_node, self.distillation.as_mut()) {
             (Some(last), Some(series)) => {
@@ -349,12 +348,29 @@ mod tests {
                 }
             }
         }
+        // residues without their first or their last component (left out of the sums, as indicators does)
+        for drop in [0, comps.len() - 1] {
+            for w in &residues[..3] {
+                let mut w = w.clone();
+                w[drop] = 0.0;
+                let fast = series.values(&w).unwrap();
+                let full = indicators(&comps, &w, &opts).unwrap();
+                for (key, v) in keys.iter().zip(&fast) {
+                    let d = full.get(key).unwrap();
+                    match *key {
+                        k if curve_node(k).is_some() => worst_curve = worst_curve.max((v.unwrap() - d.unwrap()).abs()),
+                        "flash_point_K" => worst_flash = worst_flash.max((v.unwrap() - d.unwrap()).abs()),
+                        _ => assert_eq!(v.map(f64::to_bits), d.map(f64::to_bits), "{key}"),
+                    }
+                }
+            }
+        }
         eprintln!("largest differences: distillation {worst_curve:.2e} K, flash point {worst_flash:.2e} K");
         assert!(worst_curve < 1e-7 && worst_flash < 1e-9, "{worst_curve} {worst_flash}");
     }
 
     /// What the series does not handle goes to `indicators` itself (the same bits): activity coefficients, the
-    /// Refutas rule, a key outside the series, a residue with an absent component; and unknown keys are refused.
+    /// Refutas rule, a key outside the series; and unknown keys are refused.
     #[test]
     fn other_cases_are_the_direct_call() {
         let (comps, residues) = residues();
@@ -372,9 +388,7 @@ mod tests {
         let refutas = IndicatorOptions { viscosity_rule: ViscosityRule::Refutas, ..Default::default() };
         check(&refutas, &["kinematic_viscosity_minus20C_m2_s", "dcn"], &residues[3], true);
         check(&IndicatorOptions::default(), &["t50_K", "lhv_J_kg"], &residues[3], true);
-        let mut absent = residues[3].clone();
-        absent[0] = 0.0;
-        check(&IndicatorOptions::default(), &["t50_K", "flash_point_K", "density_15C_kg_m3"], &absent, false);
+
         assert!(ResidueSeries::new(&comps, &IndicatorOptions::default(), &["no_such_key"]).is_err());
         // every key the series computes is an indicator key
         assert!(SERIES_KEYS.iter().all(|k| INDICATOR_KEYS.iter().any(|(i, _)| i == k)));

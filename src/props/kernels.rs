@@ -447,7 +447,7 @@ fn fit_function(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment) -> Poly {
     poly
 }
 
-/// Temperature step of the central differences of [`VaporPressures::at_with_slopes`] where no kernel serves \[K\].
+/// Step \[K\] of the central differences of [`VaporPressures::at_with_slopes`] where no kernel serves.
 pub const SLOPE_STEP: f64 = 0.01;
 
 /// Vapour pressures of a fixed list of components at one temperature after another (the sweeps of bubble-point,
@@ -503,20 +503,18 @@ impl<'a> VaporPressures<'a> {
         self.search(i, t)
     }
 
-    /// [`Self::at`] (the same bits) with the first and second derivatives of ln p_sat in t \[1/K, 1/K²\]:
-    /// analytic from the kernel's interpolant of ln p, else central differences of the direct evaluation
-    /// (step [`SLOPE_STEP`]).
+    /// [`Self::at`] (the same bits) with the first and second derivatives of ln p_sat in t \[1/K, 1/K²\]: analytic
+    /// from the kernel's interpolant of ln p, else central differences of the direct evaluation ([`SLOPE_STEP`]).
     #[inline]
     pub fn at_with_slopes(&mut self, i: usize, t: f64) -> (f64, f64, f64) {
         let last = &self.last[i];
         if !(last.group.is_some() && t >= last.lo && t < last.hi) {
             self.search(i, t);
         }
-        let last = &self.last[i];
-        match last.group {
-            Some(g) if t >= last.lo && t < last.hi => {
-                let (v, d1, d2) = horner_column_derivatives(&g.c, VAPOR_PRESSURE, (t - last.mid) * last.inv_half);
-                (v.exp() * last.scale, d1 * last.inv_half, d2 * last.inv_half * last.inv_half)
+        match self.last[i] {
+            LastSegment { group: Some(g), lo, hi, mid, inv_half, scale } if t >= lo && t < hi => {
+                let (v, d1, d2) = horner_column_derivatives(&g.c, VAPOR_PRESSURE, (t - mid) * inv_half);
+                (v.exp() * scale, d1 * inv_half, d2 * inv_half * inv_half)
             }
             _ => {
                 let c = &self.components[i];
@@ -737,14 +735,12 @@ mod tests {
         let lib = Library::embedded().unwrap();
         let fuel = crate::fuel::Fuel::resolve("demo-wide", &lib).unwrap();
         for comps in [run_components(&fuel.components, PropertyEvaluation::Kernels), run_components(&fuel.components, PropertyEvaluation::Direct)] {
-            let mut plain = VaporPressures::new(&comps);
-            let mut sloped = VaporPressures::new(&comps);
+            let (mut plain, mut sloped) = (VaporPressures::new(&comps), VaporPressures::new(&comps));
             for i in 0..comps.len() {
                 for t in [300.0, 351.7, 423.4, 480.1, 140.0] {
                     let (p, d1, d2) = sloped.at_with_slopes(i, t);
                     assert_eq!(p.to_bits(), plain.at(i, t).to_bits(), "{} at {t}", comps[i].id);
-                    let h = 0.05;
-                    let ln = |t: f64| comps[i].vapor_pressure(t).ln();
+                    let (h, ln) = (0.05, |t: f64| comps[i].vapor_pressure(t).ln());
                     let (fd1, fd2) = ((ln(t + h) - ln(t - h)) / (2.0 * h), (ln(t + h) - 2.0 * ln(t) + ln(t - h)) / (h * h));
                     assert!((d1 / fd1 - 1.0).abs() < 1e-5, "{} at {t}: {d1} vs {fd1}", comps[i].id);
                     assert!((d2 - fd2).abs() < 1e-3 * fd2.abs() + 1e-7, "{} at {t}: {d2} vs {fd2}", comps[i].id);

@@ -92,21 +92,21 @@ const BUBBLE_TOL: f64 = 1e-10;
 /// Below this residual a Halley step of an ideal-liquid solve moves the last sweep's vapour pressures along
 /// their Taylor series in 1/T instead of evaluating them again: the step in ln p_sat,i is then below about
 /// 3e-4, where the series ([`polish_exponent`], [`taylor_exp`]) is exact to about 1e-15 relative.
-pub(crate) const POLISH_RESIDUAL: f64 = 1e-4;
+pub const POLISH_RESIDUAL: f64 = 1e-4;
 
 /// Most Taylor moves in a row (over consecutive solves) before the vapour pressures are evaluated again
 /// (bounds the drift of the kept values).
-pub(crate) const POLISH_LIMIT: usize = 16;
+pub const POLISH_LIMIT: usize = 16;
 
 /// Change of ln p_sat over a step `db` in 1/T from its first and second derivatives there (`slope`, `curvature`).
 #[inline]
-pub(crate) fn polish_exponent(slope: f64, curvature: f64, db: f64) -> f64 {
+pub fn polish_exponent(slope: f64, curvature: f64, db: f64) -> f64 {
     db * (slope + 0.5 * curvature * db)
 }
 
 /// exp(e) for |e| below about 1e-3 by its Taylor polynomial of degree 4 (relative error below e⁵/120).
 #[inline]
-pub(crate) fn taylor_exp(e: f64) -> f64 {
+pub fn taylor_exp(e: f64) -> f64 {
     1.0 + e * (1.0 + e * (0.5 + e * (1.0 / 6.0 + e * (1.0 / 24.0))))
 }
 

@@ -360,11 +360,11 @@ fn reduce(inputs: &DropletInputs, run: &RunResult, z: Vec<f64>, grid: &[f64], se
     // leaves every residue value out, as a residue table would
     let indicator_options = IndicatorOptions { activity: inputs.liquid.activity, ..settings.indicator_options.clone() };
     let keys = RESIDUE_KEYS.map(|(key, _)| key);
-    let values: Result<Vec<(f64, Vec<Option<f64>>)>, PostError> = ResidueSeries::new(&inputs.fuel.components, &indicator_options, &keys)
-        .and_then(|mut series| residues.iter().map(|r| Ok((r.evaporated_fraction, series.values(&r.mass_fractions)?))).collect());
+    let values: Result<Vec<Vec<Option<f64>>>, PostError> =
+        ResidueSeries::new(&inputs.fuel.components, &indicator_options, &keys).and_then(|mut series| residues.iter().map(|r| series.values(&r.mass_fractions)).collect());
     if let Ok(rows) = values {
-        for (fraction, row) in rows {
-            if let Some(j) = settings.residue_fractions.iter().position(|f| *f == fraction) {
+        for (r, row) in residues.iter().zip(rows) {
+            if let Some(j) = settings.residue_fractions.iter().position(|f| *f == r.evaporated_fraction) {
                 for (m, v) in row.into_iter().enumerate().take(RESIDUE_KEYS.len()) {
                     residue[j][m] = v.filter(|v| v.is_finite());
                 }

@@ -15,7 +15,7 @@ use crate::post::droplet::{residues_along_history, Layer};
 use crate::post::residue_series::ResidueSeries;
 use crate::post::{IndicatorOptions, PostError};
 
-use super::factors::{perturbed, resolve, Factor, FactorKind, IndicatorInput};
+use super::factors::{perturbed_reusing, resolve, Factor, FactorKind, IndicatorInput, Spare};
 use super::random::{counter_uniform, mix64, truncated_normal, Xoshiro256};
 use super::spec::{property_keys, Distribution, UncertaintySpec};
 use super::stats::{above_noise, percentile_sorted, rank_design, rank_r2_with, regression_samples, sorted_finite, spearman, RankDesign, Statistics, PERCENTILES};
@@ -438,10 +438,12 @@ pub fn run(nominal: &DropletInputs, spec: &UncertaintySpec, settings: &Settings,
     let samples: Vec<SampleRecord> = pool.install(|| {
         (0..settings.samples)
             .into_par_iter()
-            .map(|i| {
+            // each worker keeps the component copies of its last sample and overwrites them for the next
+            .map_init(Spare::default, |spare, i| {
                 let z = design.draws(&factors, i);
-                let inputs = perturbed(run_nominal, &factors, &z);
+                let inputs = perturbed_reusing(run_nominal, &factors, &z, spare);
                 let r = evaluate(&inputs, z, &grid, settings);
+                spare.recover(run_nominal, inputs);
                 if let Some(p) = progress {
                     p(done.fetch_add(1, std::sync::atomic::Ordering::Relaxed) + 1);
                 }

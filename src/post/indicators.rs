@@ -476,7 +476,7 @@ const NEAR_CRITICAL_MARGIN: f64 = 0.01;
 /// temperature ([`liquid::subcritical_bubble_point_with`]), given the distillation's bubble point `t_bubble`;
 /// None when it lies below. For an ideal liquid (one root of Σ x_i p_sat,i(T) = p) a bubble point more than
 /// [`NEAR_CRITICAL_MARGIN`] below the pseudo-critical temperature answers without a second solve.
-fn near_critical(components: &[Arc<Component>], x: &[f64], opts: &IndicatorOptions, t_bubble: f64) -> Option<String> {
+pub(super) fn near_critical(components: &[Arc<Component>], x: &[f64], opts: &IndicatorOptions, t_bubble: f64) -> Option<String> {
     if opts.activity == ActivityModel::Ideal && t_bubble < liquid::pseudo_critical_temperature(components, x) - NEAR_CRITICAL_MARGIN {
         return None;
     }

@@ -12,6 +12,7 @@ pub mod input_spread;
 pub mod limits;
 pub mod mixture_rules;
 pub mod rayleigh;
+pub mod residue_series;
 pub mod weathering;
 
 use std::sync::Arc;

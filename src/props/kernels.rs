@@ -265,6 +265,22 @@ fn horner_column<const N: usize>(group: &PolyGroup<N>, j: usize, u: f64) -> f64 
     }
 }
 
+/// Horner evaluation of interpolant `j` of a group's coefficients at u with its first and second derivatives in
+/// u (the value has the bits of [`horner_column`]: the derivative sums do not touch it).
+#[inline(always)]
+fn horner_column_derivatives<const N: usize>(group: &PolyGroup<N>, j: usize, u: f64) -> (f64, f64, f64) {
+    let (c, top) = (&group.c, group.degree.min(COEFFICIENTS - 1));
+    let mut v = c[top][j];
+    let mut d1 = 0.0;
+    let mut d2 = 0.0;
+    for k in (0..top).rev() {
+        d2 = d2 * u + d1;
+        d1 = d1 * u + v;
+        v = v * u + c[k][j];
+    }
+    (v, d1, 2.0 * d2)
+}
+
 /// Horner evaluation of the interpolants of a group at u, side by side (each value has the bits of
 /// [`horner`] on its own coefficients: the same operations in the same order).
 #[inline(always)]
@@ -517,6 +533,9 @@ fn fit_function_truncated(direct: &dyn Fn(f64) -> f64, log: bool, seg: &Segment,
     poly
 }
 
+/// Step \[K\] of the central differences of [`VaporPressures::at_with_slopes`] where no kernel serves.
+pub const SLOPE_STEP: f64 = 0.01;
+
 /// Vapour pressures of a fixed list of components at one temperature after another (the sweeps of bubble-point,
 /// distillation and flash-point iterations), each with the bits of [`Component::vapor_pressure`]: a component
 /// evaluating through its kernels remembers the segment of its last temperature, so a sweep at a temperature in
@@ -568,6 +587,27 @@ impl<'a> VaporPressures<'a> {
             }
         }
         self.search(i, t)
+    }
+
+    /// [`Self::at`] (the same bits) with the first and second derivatives of ln p_sat in t \[1/K, 1/K²\]: analytic
+    /// from the kernel's interpolant of ln p, else central differences of the direct evaluation ([`SLOPE_STEP`]).
+    #[inline]
+    pub fn at_with_slopes(&mut self, i: usize, t: f64) -> (f64, f64, f64) {
+        let last = &self.last[i];
+        if !(last.group.is_some() && t >= last.lo && t < last.hi) {
+            self.search(i, t);
+        }
+        match self.last[i] {
+            LastSegment { group: Some(g), lo, hi, mid, inv_half, scale } if t >= lo && t < hi => {
+                let (v, d1, d2) = horner_column_derivatives(g, VAPOR_PRESSURE, (t - mid) * inv_half);
+                (v.exp() * scale, d1 * inv_half, d2 * inv_half * inv_half)
+            }
+            _ => {
+                let c = &self.components[i];
+                let (lo, mid, hi) = (c.vapor_pressure(t - SLOPE_STEP).ln(), c.vapor_pressure(t), c.vapor_pressure(t + SLOPE_STEP).ln());
+                (mid, (hi - lo) / (2.0 * SLOPE_STEP), (hi - 2.0 * mid.ln() + lo) / (SLOPE_STEP * SLOPE_STEP))
+            }
+        }
     }
 
     /// [`Self::at`] when `t` lies outside the remembered segment: find its segment and remember it.

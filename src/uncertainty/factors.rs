@@ -261,6 +261,40 @@ pub fn resolve(spec: &UncertaintySpec, nominal: &DropletInputs) -> Result<(Vec<F
 /// The droplet inputs of one sample: `nominal` with each factor set from its standard draw `z[k]`. Inputs
 /// no factor touches keep their exact nominal values (so zero spreads reproduce the deterministic run).
 pub fn perturbed(nominal: &DropletInputs, factors: &[Factor], z: &[f64]) -> DropletInputs {
+    perturbed_reusing(nominal, factors, z, &mut Spare::default())
+}
+
+/// Component copies of finished samples kept for the next sample on the same worker: a copy differs from its
+/// nominal component only in its property scales, flash point and cetane number, so overwriting those gives
+/// the copy [`perturbed`] would make, without copying the rest (names, sources, correlations) again.
+#[derive(Default)]
+pub struct Spare {
+    components: Vec<Option<Arc<crate::data::Component>>>,
+}
+
+impl Spare {
+    /// Keep the component copies of a finished sample's inputs (those that are not the nominal components).
+    pub fn recover(&mut self, nominal: &DropletInputs, inputs: DropletInputs) {
+        let n = nominal.fuel.components.len();
+        if self.components.len() != n {
+            self.components = vec![None; n];
+        }
+        for (i, c) in inputs.fuel.components.into_iter().enumerate().take(n) {
+            if !Arc::ptr_eq(&c, &nominal.fuel.components[i]) {
+                self.components[i] = Some(c);
+            }
+        }
+    }
+
+    /// A kept copy of component `i` that nothing else holds.
+    fn take(&mut self, i: usize) -> Option<Arc<crate::data::Component>> {
+        self.components.get_mut(i).and_then(Option::take).filter(|c| Arc::strong_count(c) == 1 && Arc::weak_count(c) == 0)
+    }
+}
+
+/// [`perturbed`], overwriting kept component copies from `spare` instead of copying the nominal components
+/// (the same inputs).
+pub fn perturbed_reusing(nominal: &DropletInputs, factors: &[Factor], z: &[f64], spare: &mut Spare) -> DropletInputs {
     let mut inp = nominal.clone();
     let n = inp.fuel.components.len();
     let mut composition: Option<Vec<f64>> = None;
@@ -298,14 +332,36 @@ pub fn perturbed(nominal: &DropletInputs, factors: &[Factor], z: &[f64]) -> Drop
             continue;
         }
         let base = &nominal.fuel.components[i];
+        // an estimated flash point becomes a sample value with the estimate's own marker
+        let fp_source = base.constants.flash_point.as_ref().map_or("estimated:butler-1956", |f| f.source.as_str());
+        let flash_point = |t: f64| Sourced { value: t, source: fp_source.to_string(), uncertainty: None, note: None, kind: None };
+        if let (Some(s), Some(mut kept)) = (s, spare.take(i)) {
+            // a kept copy made by `with_property_scales` of this very component (the kernels it shares, none built
+            // for it alone)
+            let same_kernels = |c: &crate::data::Component| Arc::ptr_eq(&c.kernels.shared, &base.kernels.shared) && c.kernels.active.is_some() == base.kernels.active.is_some() && c.kernels.twin.get().is_none();
+            if let Some(c) = Arc::get_mut(&mut kept).filter(|c| same_kernels(c)) {
+                // the fields a sample changes, set as the copy below would have them
+                c.property_scales = s;
+                match (flash_points[i], &mut c.constants.flash_point) {
+                    (Some(t), Some(f)) if f.source == fp_source && f.uncertainty.is_none() && f.note.is_none() && f.kind.is_none() => f.value = t,
+                    (Some(t), f) => *f = Some(flash_point(t)),
+                    (None, f) => {
+                        if *f != base.constants.flash_point {
+                            *f = base.constants.flash_point.clone();
+                        }
+                    }
+                }
+                c.constants.cetane_number.value = cetane_numbers[i].unwrap_or(base.constants.cetane_number.value);
+                inp.fuel.components[i] = kept;
+                continue;
+            }
+        }
         let mut c = match s {
             Some(s) => base.with_property_scales(s),
             None => (**base).clone(),
         };
         if let Some(t) = flash_points[i] {
-            // an estimated flash point becomes a sample value with the estimate's own marker
-            let source = c.constants.flash_point.as_ref().map_or_else(|| "estimated:butler-1956".to_string(), |f| f.source.clone());
-            c.constants.flash_point = Some(Sourced { value: t, source, uncertainty: None, note: None, kind: None });
+            c.constants.flash_point = Some(flash_point(t));
         }
         if let Some(cn) = cetane_numbers[i] {
             c.constants.cetane_number.value = cn;
@@ -377,6 +433,39 @@ mod tests {
         for (a, b) in same.fuel.components.iter().zip(&inp.fuel.components) {
             assert_eq!(a.vapor_pressure(350.0), b.vapor_pressure(350.0));
         }
+    }
+
+    /// Overwriting kept copies gives the inputs a fresh copy gives (every component equal, the same property
+    /// bits), sample after sample, with property, flash-point and cetane factors, through the kernels.
+    #[test]
+    fn reused_copies_equal_fresh_ones() {
+        let lib = Library::embedded().unwrap();
+        let inp = crate::model::inputs::with_kernels(&nominal("demo-wide")).unwrap_or_else(|| nominal("demo-wide"));
+        let mut spec = UncertaintySpec::default();
+        spec.indicator_inputs.enabled = true;
+        spec.indicator_inputs.scale = 1.0;
+        spec.add_composition("aromatics=10%", "c", &lib).unwrap();
+        let (f, _) = resolve(&spec, &inp).unwrap();
+        let mut spare = Spare::default();
+        let mut reused = 0;
+        for sample in 0..4 {
+            let z: Vec<f64> = (0..f.len()).map(|k| ((k * 7 + sample * 3) % 11) as f64 / 5.0 - 1.0).collect();
+            let fresh = perturbed(&inp, &f, &z);
+            let kept_before = spare.components.iter().filter(|c| c.is_some()).count();
+            let again = perturbed_reusing(&inp, &f, &z, &mut spare);
+            reused += kept_before - spare.components.iter().filter(|c| c.is_some()).count();
+            assert_eq!(fresh.fuel.mass_fractions, again.fuel.mass_fractions);
+            for (a, b) in fresh.fuel.components.iter().zip(&again.fuel.components) {
+                assert_eq!(a.as_ref(), b.as_ref());
+                assert_eq!(a.kernels.active.is_some(), b.kernels.active.is_some());
+                for t in [300.0, 420.0] {
+                    assert_eq!(a.vapor_pressure(t).to_bits(), b.vapor_pressure(t).to_bits());
+                    assert_eq!(a.liquid_density(t).to_bits(), b.liquid_density(t).to_bits());
+                }
+            }
+            spare.recover(&inp, again);
+        }
+        assert_eq!(reused, 3 * inp.fuel.len(), "every copy of samples 2 to 4 reused");
     }
 
     #[test]

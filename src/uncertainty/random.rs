@@ -100,8 +100,9 @@ pub const TRUNCATION: f64 = 3.0;
 /// Standard normal truncated to ±[`TRUNCATION`], by inversion of a uniform `u` in (0, 1): the draw keeps the
 /// stratification of a Latin-hypercube design.
 pub fn truncated_normal(u: f64) -> f64 {
-    let lo = normal_cdf(-TRUNCATION);
-    let hi = normal_cdf(TRUNCATION);
+    // Φ(∓TRUNCATION), computed once per process (the same bits as at every call)
+    static BOUNDS: std::sync::OnceLock<(f64, f64)> = std::sync::OnceLock::new();
+    let &(lo, hi) = BOUNDS.get_or_init(|| (normal_cdf(-TRUNCATION), normal_cdf(TRUNCATION)));
     normal_quantile(lo + u * (hi - lo)).clamp(-TRUNCATION, TRUNCATION)
 }
 

@@ -12,9 +12,10 @@ use serde::Serialize;
 use crate::model::droplet::Status;
 use crate::model::{simulate, DropletInputs, HistoryRow, RunResult};
 use crate::post::droplet::{residues_along_history, Layer};
-use crate::post::{residue_table, IndicatorOptions, IndicatorSelection};
+use crate::post::residue_series::ResidueSeries;
+use crate::post::{IndicatorOptions, PostError};
 
-use super::factors::{perturbed, resolve, Factor, FactorKind, IndicatorInput};
+use super::factors::{perturbed_reusing, resolve, Factor, FactorKind, IndicatorInput, Spare};
 use super::random::{counter_uniform, mix64, truncated_normal, Xoshiro256};
 use super::spec::{property_keys, Distribution, UncertaintySpec};
 use super::stats::{above_noise, percentile_sorted, rank_design, rank_r2_with, regression_samples, sorted_finite, spearman, RankDesign, Statistics, PERCENTILES};
@@ -344,11 +345,6 @@ fn empty_record(status: SampleStatus, z: Vec<f64>, grid: &[f64], settings: &Sett
     }
 }
 
-/// The indicators of [`RESIDUE_KEYS`] (all of them should a key ever not be an indicator key).
-fn residue_selection() -> IndicatorSelection {
-    IndicatorSelection::of(&RESIDUE_KEYS.map(|(key, _)| key)).unwrap_or_default()
-}
-
 /// A finished droplet run reduced to a record.
 fn reduce(inputs: &DropletInputs, run: &RunResult, z: Vec<f64>, grid: &[f64], settings: &Settings) -> SampleRecord {
     let o = &run.outcome;
@@ -359,13 +355,18 @@ fn reduce(inputs: &DropletInputs, run: &RunResult, z: Vec<f64>, grid: &[f64], se
     let (d2, surface_temperature) = on_grid(&run.history, grid, status == SampleStatus::Evaporated);
     let mut residue = vec![[None; 6]; settings.residue_fractions.len()];
     let residues = residues_along_history(&run.history, &settings.residue_fractions, Layer::Mean);
-    // only the indicators of RESIDUE_KEYS are read: the others are not computed
-    let indicator_options = IndicatorOptions { activity: inputs.liquid.activity, selection: residue_selection(), ..settings.indicator_options.clone() };
-    if let Ok(rows) = residue_table(&inputs.fuel.components, &residues, &indicator_options) {
-        for row in rows {
-            if let Some(j) = settings.residue_fractions.iter().position(|f| *f == row.evaporated_fraction) {
-                for (m, (key, _)) in RESIDUE_KEYS.iter().enumerate() {
-                    residue[j][m] = row.indicators.get(key).flatten().filter(|v| v.is_finite());
+    // only the indicators of RESIDUE_KEYS are computed, one residue after another sharing the per-component work
+    // and starting each solve from the previous residue's (post::residue_series); an error on any residue
+    // leaves every residue value out, as a residue table would
+    let indicator_options = IndicatorOptions { activity: inputs.liquid.activity, ..settings.indicator_options.clone() };
+    let keys = RESIDUE_KEYS.map(|(key, _)| key);
+    let values: Result<Vec<Vec<Option<f64>>>, PostError> =
+        ResidueSeries::new(&inputs.fuel.components, &indicator_options, &keys).and_then(|mut series| residues.iter().map(|r| series.values(&r.mass_fractions)).collect());
+    if let Ok(rows) = values {
+        for (r, row) in residues.iter().zip(rows) {
+            if let Some(j) = settings.residue_fractions.iter().position(|f| *f == r.evaporated_fraction) {
+                for (m, v) in row.into_iter().enumerate().take(RESIDUE_KEYS.len()) {
+                    residue[j][m] = v.filter(|v| v.is_finite());
                 }
             }
         }
@@ -437,10 +438,12 @@ pub fn run(nominal: &DropletInputs, spec: &UncertaintySpec, settings: &Settings,
     let samples: Vec<SampleRecord> = pool.install(|| {
         (0..settings.samples)
             .into_par_iter()
-            .map(|i| {
+            // each worker keeps the component copies of its last sample and overwrites them for the next
+            .map_init(Spare::default, |spare, i| {
                 let z = design.draws(&factors, i);
-                let inputs = perturbed(run_nominal, &factors, &z);
+                let inputs = perturbed_reusing(run_nominal, &factors, &z, spare);
                 let r = evaluate(&inputs, z, &grid, settings);
+                spare.recover(run_nominal, inputs);
                 if let Some(p) = progress {
                     p(done.fetch_add(1, std::sync::atomic::Ordering::Relaxed) + 1);
                 }

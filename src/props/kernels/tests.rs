@@ -167,3 +167,25 @@ fn scales_apply_on_top_and_direct_copy_is_direct() {
     let changed = with_kernels(&Arc::new(changed));
     assert!((changed.vapor_pressure(400.0) / (0.5 * p) - 1.0).abs() < 1e-7);
 }
+
+/// The values of `at_with_slopes` have the bits of `at`; its derivatives of ln p match central differences
+/// of the same kernel (and of the direct evaluation where no kernel serves).
+#[test]
+fn vapour_pressure_slopes_match_differences() {
+    let lib = Library::embedded().unwrap();
+    // every library component (the props layer does not read fuels)
+    let all: Vec<Arc<Component>> = lib.components().to_vec();
+    for comps in [run_components(&all, PropertyEvaluation::Kernels), run_components(&all, PropertyEvaluation::Direct)] {
+        let (mut plain, mut sloped) = (VaporPressures::new(&comps), VaporPressures::new(&comps));
+        for i in 0..comps.len() {
+            for t in [300.0, 351.7, 423.4, 480.1, 140.0] {
+                let (p, d1, d2) = sloped.at_with_slopes(i, t);
+                assert_eq!(p.to_bits(), plain.at(i, t).to_bits(), "{} at {t}", comps[i].id);
+                let (h, ln) = (0.05, |t: f64| comps[i].vapor_pressure(t).ln());
+                let (fd1, fd2) = ((ln(t + h) - ln(t - h)) / (2.0 * h), (ln(t + h) - 2.0 * ln(t) + ln(t - h)) / (h * h));
+                assert!((d1 / fd1 - 1.0).abs() < 1e-5, "{} at {t}: {d1} vs {fd1}", comps[i].id);
+                assert!((d2 - fd2).abs() < 1e-3 * fd2.abs() + 1e-7, "{} at {t}: {d2} vs {fd2}", comps[i].id);
+            }
+        }
+    }
+}

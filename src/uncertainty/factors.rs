@@ -356,10 +356,9 @@ pub fn perturbed_reusing(nominal: &DropletInputs, factors: &[Factor], z: &[f64],
                 continue;
             }
         }
-        let mut c = match s {
-            Some(s) => base.with_property_scales(s),
-            None => (**base).clone(),
-        };
+        // a copy that changes only its flash point or cetane number keeps the properties, hence the kernels
+        // (a plain clone would start without them and fit its own in every sample)
+        let mut c = base.with_property_scales(s.unwrap_or(base.property_scales));
         if let Some(t) = flash_points[i] {
             c.constants.flash_point = Some(flash_point(t));
         }

@@ -373,7 +373,11 @@ impl Sweep<'_> {
                 row[l] = v;
             }
         }
-        let rows: [(f64, f64, f64, f64); L] = std::array::from_fn(|l| self.surface_row(&inputs[l], work[n - 1][l]));
+        // (a plain loop: `std::array::from_fn` left a closure call per column)
+        let mut rows = [(0.0, 0.0, 0.0, 0.0); L];
+        for (l, row) in rows.iter_mut().enumerate() {
+            *row = self.surface_row(&inputs[l], work[n - 1][l]);
+        }
         let mut prev = work[0];
         for v in prev.iter_mut() {
             *v = storage[0] * *v / d[0];

@@ -461,13 +461,17 @@ impl Model {
         }
         let _ = mdot_a;
         next.mass = total_mass;
+        // (the test written without branches, so that the loop runs two cells at a time: !(u ≥ −1e-6) holds for
+        // NaN, −∞ and u < −1e-6, the second term for +∞, as !u.is_finite() | (u < −1e-6))
         let mut bad = false;
         for column in next.y.chunks_exact_mut(ny).take(n) {
+            let mut column_bad = false;
             for (v, &sum) in column.iter_mut().zip(&*cell_sums) {
                 let u = if sum > 0.0 { *v / sum } else { *v };
                 *v = u;
-                bad |= !u.is_finite() | (u < -1e-6);
+                column_bad |= !(u >= -1e-6) | (u == f64::INFINITY);
             }
+            bad |= column_bad;
         }
         if bad || next.temp.iter().any(|v| !v.is_finite()) || !next.surface_t.is_finite() {
             return Err("non-physical values".into());
@@ -486,9 +490,14 @@ impl Model {
     fn row(&mut self, s: &State, m0: f64, d0: f64) -> HistoryRow {
         let liq = self.liquid(s);
         let sy = s.surface_y.clone();
+        // a settled state (surface.rs) has its film from the surface solve: the row takes it and its species rates
+        // (the solve's surface before the normalisation that differs from 1 by the solve's tolerance, about 1e-9)
+        let settled = if s.boiling { None } else { self.settled_film(s) };
         let f = if s.boiling {
             let radius = 0.5 * (6.0 * s.mass / (std::f64::consts::PI * liq.density)).cbrt();
             self.boiling_film(s, &liq, radius).0
+        } else if let Some(f) = settled {
+            f
         } else {
             self.film_at(&sy, s.surface_t, s.mass, liq.density, s.velocity)
         };

@@ -234,6 +234,18 @@ impl Model {
         self.settled.rates.copy_from_slice(&self.rates);
     }
 
+    /// The film of the kept surface solution when `s` is the state it was found for (as [`Model::settled_solution`])
+    /// and it evaporates or condenses (|ṁ| > 1e-300), with its species rates copied to `self.rates`.
+    pub(super) fn settled_film(&mut self, s: &State) -> Option<super::FilmResult> {
+        let k = &self.settled;
+        let same = k.valid && k.time.to_bits() == s.time.to_bits() && k.mass.to_bits() == s.mass.to_bits() && k.solution.temperature.to_bits() == s.surface_t.to_bits();
+        if !same || !(k.solution.film.evaporation_rate.abs() > 1e-300) {
+            return None;
+        }
+        self.rates.copy_from_slice(&k.rates);
+        Some(k.solution.film)
+    }
+
     /// The kept surface solution when `s` is the state it was found for (same time, mass and surface temperature),
     /// with a copy of its species rates.
     pub(super) fn settled_solution(&mut self, s: &State) -> Option<(SurfaceSolution, Vec<f64>)> {
@@ -532,6 +544,53 @@ mod tests {
                 }
             }
         }
+    }
+
+    /// The history row of a settled state takes the film of its surface solve: the row carries that film, and it
+    /// agrees with a fresh evaluation at the state's (normalised) surface to well below the solve's tolerance.
+    #[test]
+    fn settled_row_film_matches_a_fresh_evaluation() {
+        use super::super::{attempt_step, first_step, grown_step, step_tolerance, Attempt, Model, Stats};
+        use crate::model::inputs::{DropletInputs, LiquidHeat, LiquidMixing};
+        let lib = crate::data::Library::embedded().unwrap();
+        let comps = ["n-heptane", "n-decane", "n-hexadecane"].map(|id| lib.component(id).unwrap().clone()).to_vec();
+        let fuel = crate::fuel::Fuel::from_fractions("row", comps, &[0.3, 0.3, 0.4], crate::fuel::Basis::Mass).unwrap();
+        let mut inp = DropletInputs::new(fuel, crate::props::gas::AmbientGas::air(&lib).unwrap(), 800.0, 101_325.0, 50e-6, 300.0);
+        inp.liquid.mixing = LiquidMixing::Diffusion;
+        inp.liquid.heat = LiquidHeat::Conduction;
+        inp.liquid.nodes = 12;
+        let (mut model, mut state, m0, _) = Model::prepare(&inp).unwrap();
+        let tol = step_tolerance(inp.rtol);
+        let mut dt = first_step(inp.initial_diameter);
+        let mut stats = Stats::default();
+        let mut checked = 0;
+        for _ in 0..60 {
+            match attempt_step(&mut model, &state, &mut dt, tol, m0, &mut stats) {
+                Attempt::Accepted(new, err, _) => {
+                    state = new;
+                    dt = grown_step(dt, tol, err);
+                }
+                Attempt::Retry => continue,
+                Attempt::Failed(e) => panic!("{e}"),
+            }
+            let kept = model.settled_film(&state).expect("an accepted evaporating state is settled");
+            let kept_rates = model.rates.clone();
+            let row = model.row(&state, m0, inp.initial_diameter);
+            assert_eq!(row.film.evaporation_rate.to_bits(), kept.evaporation_rate.to_bits());
+            assert_eq!(row.film.heat_to_liquid.to_bits(), kept.heat_to_liquid.to_bits());
+            let liq = model.liquid(&state);
+            let surface = state.surface_y.clone();
+            let fresh = model.film_at(&surface, state.surface_t, state.mass, liq.density, state.velocity);
+            let close = |a: f64, b: f64, scale: f64| (a - b).abs() <= 1e-8 * scale;
+            assert!(close(kept.evaporation_rate, fresh.evaporation_rate, fresh.evaporation_rate.abs()), "{kept:?} vs {fresh:?}");
+            assert!(close(kept.heat_to_liquid, fresh.heat_to_liquid, fresh.heat_from_gas.abs()), "{kept:?} vs {fresh:?}");
+            assert!(close(kept.reynolds, fresh.reynolds, fresh.reynolds));
+            for (a, b) in kept_rates.iter().zip(&model.rates) {
+                assert!(close(*a, *b, fresh.evaporation_rate.abs()), "{a} vs {b}");
+            }
+            checked += 1;
+        }
+        assert!(checked >= 40, "{checked} states checked");
     }
 
     #[test]

@@ -183,7 +183,12 @@ pub(super) fn uncertainty(lib: &Library, args: &UncertaintyArgs) -> Result<(), C
     for (label, run) in &runs {
         let dir = if single { args.out.clone() } else { args.out.join(safe_name(label)) };
         pool.install(|| out::write_run(&dir, run))?;
-        let charts = if args.no_plots { vec![] } else { out::write_band_charts(&dir, &[LabelledBands::of(label, run)])? };
+        let charts = if args.no_plots {
+            vec![]
+        } else {
+            super::common::release_freed_memory();
+            out::write_band_charts(&dir, &[LabelledBands::of(label, run)])?
+        };
         text.push_str(&report(label, run));
         let prefix = if single { String::new() } else { format!("{}/", safe_name(label)) };
         sections.push(output::html::UncertaintySection { heading: label.clone(), prefix, charts, files: out::FILES.iter().map(|f| f.to_string()).collect() });

@@ -110,6 +110,43 @@ pub fn taylor_exp(e: f64) -> f64 {
     1.0 + e * (1.0 + e * (0.5 + e * (1.0 / 6.0 + e * (1.0 / 24.0))))
 }
 
+/// First and second derivatives of ln p_sat in b = 1/T at `t` from those in T (`d1`, `d2`; d/db = −T² d/dT).
+#[inline]
+pub fn slopes_in_inverse_temperature(t: f64, d1: f64, d2: f64) -> (f64, f64) {
+    let (t2, t3) = (t * t, t * t * t);
+    (-t2 * d1, t2 * t2 * d2 + 2.0 * t3 * d1)
+}
+
+/// Move one kept vapour pressure and its slope in 1/T by `db` along their Taylor series (`curvature` stays).
+#[inline]
+pub fn taylor_move(p_sat: &mut f64, slope: &mut f64, curvature: f64, db: f64) {
+    *p_sat *= taylor_exp(polish_exponent(*slope, curvature, db));
+    *slope += curvature * db;
+}
+
+/// Sums Σ w_i, Σ w_i h_i and Σ w_i (c_i + h_i²) of the terms w_i = a_i p_sat,i of a sum whose members have the
+/// first and second derivatives h_i, c_i of ln p_sat,i in 1/T: [`LogSumMoments::derivatives`] gives the sum's.
+#[derive(Debug, Clone, Copy, Default)]
+pub struct LogSumMoments(f64, f64, f64);
+
+impl LogSumMoments {
+    /// Add one member (its term `w`, slope `h` and curvature `c`).
+    #[inline]
+    pub fn add(&mut self, w: f64, h: f64, c: f64) {
+        self.0 += w;
+        self.1 += w * h;
+        self.2 += w * (c + h * h);
+    }
+
+    /// ln of the sum, and its first and second derivatives in 1/T (the weighted mean slope; the weighted mean
+    /// of curvature + slope² less the squared mean).
+    #[inline]
+    pub fn derivatives(self) -> (f64, f64, f64) {
+        let d1 = self.1 / self.0;
+        (self.0.ln(), d1, self.2 / self.0 - d1 * d1)
+    }
+}
+
 impl<'a> Evaluator<'a> {
     /// ln Σ x_i γ_i p_sat,i(t), filling `k` with γ_i p_sat,i(t) (a vapour-pressure sweep at `t`).
     #[inline]
@@ -135,49 +172,39 @@ impl<'a> Evaluator<'a> {
     fn log_bubble_pressure_with_slopes(&mut self, t: f64) -> f64 {
         self.sweeps += 1;
         self.polished = 0;
-        let (mut s, mut m1, mut m2) = (0.0, 0.0, 0.0);
-        let (t2, t3) = (t * t, t * t * t);
+        let mut sums = LogSumMoments::default();
         for i in 0..self.x.len() {
             let (ps, d1, d2) = self.vapor_pressures.at_with_slopes(i, t);
-            let (h, c) = (-t2 * d1, t2 * t2 * d2 + 2.0 * t3 * d1);
+            let (h, c) = slopes_in_inverse_temperature(t, d1, d2);
             self.p_sat[i] = ps;
             self.k[i] = ps;
             self.slope_b[i] = h;
             self.curvature_b[i] = c;
-            let w = self.x[i] * ps;
-            s += w;
-            m1 += w * h;
-            m2 += w * (c + h * h);
+            sums.add(self.x[i] * ps, h, c);
         }
         self.t_swept = t;
-        self.set_derivatives(s, m1, m2);
-        s.ln()
+        self.keep_derivatives(sums)
     }
 
-    /// Keep the derivatives in 1/T of ln Σ x_i p_sat,i from the sums Σ x_i p_sat,i (`s`), Σ x_i p_sat,i h_i (`m1`)
-    /// and Σ x_i p_sat,i (c_i + h_i²) (`m2`), with h_i, c_i the first and second derivatives of ln p_sat,i: the
-    /// p_sat-weighted mean slope, and the weighted mean of curvature + slope² less the squared mean.
+    /// Keep the derivatives in 1/T of ln Σ x_i p_sat,i from `sums`; returns ln Σ x_i p_sat,i.
     #[inline]
-    fn set_derivatives(&mut self, s: f64, m1: f64, m2: f64) {
-        let d1 = m1 / s;
-        self.derivatives = (d1, m2 / s - d1 * d1);
+    fn keep_derivatives(&mut self, sums: LogSumMoments) -> f64 {
+        let (ln_s, d1, d2) = sums.derivatives();
+        self.derivatives = (d1, d2);
+        ln_s
     }
 
     /// ln Σ x_i p_sat,i of the current `x` at the last sweep (ideal liquid), with `k` = p_sat and the derivatives
     /// kept (no vapour-pressure evaluation).
     #[inline]
     fn halley_at_last_sweep(&mut self) -> f64 {
-        let (mut s, mut m1, mut m2) = (0.0, 0.0, 0.0);
+        let mut sums = LogSumMoments::default();
         for i in 0..self.x.len() {
-            let (ps, h) = (self.p_sat[i], self.slope_b[i]);
+            let ps = self.p_sat[i];
             self.k[i] = ps;
-            let w = self.x[i] * ps;
-            s += w;
-            m1 += w * h;
-            m2 += w * (self.curvature_b[i] + h * h);
+            sums.add(self.x[i] * ps, self.slope_b[i], self.curvature_b[i]);
         }
-        self.set_derivatives(s, m1, m2);
-        s.ln()
+        self.keep_derivatives(sums)
     }
 
     /// Move the last sweep by `db` in 1/T along the Taylor series of each ln p_sat,i (no evaluation); returns
@@ -185,21 +212,14 @@ impl<'a> Evaluator<'a> {
     #[inline]
     fn polish(&mut self, db: f64) -> f64 {
         self.polished += 1;
-        let (mut s, mut m1, mut m2) = (0.0, 0.0, 0.0);
+        let mut sums = LogSumMoments::default();
         for i in 0..self.x.len() {
             let c = self.curvature_b[i];
-            let ps = self.p_sat[i] * taylor_exp(polish_exponent(self.slope_b[i], c, db));
-            let h = self.slope_b[i] + c * db;
-            self.p_sat[i] = ps;
-            self.slope_b[i] = h;
-            self.k[i] = ps;
-            let w = self.x[i] * ps;
-            s += w;
-            m1 += w * h;
-            m2 += w * (c + h * h);
+            taylor_move(&mut self.p_sat[i], &mut self.slope_b[i], c, db);
+            self.k[i] = self.p_sat[i];
+            sums.add(self.x[i] * self.p_sat[i], self.slope_b[i], c);
         }
-        self.set_derivatives(s, m1, m2);
-        s.ln()
+        self.keep_derivatives(sums)
     }
 
     /// Bubble temperature of an ideal `self.x` at `p` by Halley's method in 1/T on the analytic derivatives,
@@ -242,6 +262,12 @@ impl<'a> Evaluator<'a> {
             t0 = t1;
             f0 = f1;
         }
+        self.bubble_fallback(p)
+    }
+
+    /// Bubble temperature of `self.x` at `p` by the bracketed search of the props layer (when an iteration does
+    /// not converge), with its sweep kept as the start of the next solve.
+    fn bubble_fallback(&mut self, p: f64) -> Result<f64, PostError> {
         let t = liquid::bubble_point_with(self.components, &mut self.activity, &self.x, p)?;
         self.log_bubble_pressure(t);
         self.t_guess = t;
@@ -302,11 +328,7 @@ impl<'a> Evaluator<'a> {
             b0 = b1;
             f0 = f1;
         }
-        // Robust fallback: bracketed search of the props layer.
-        let t = liquid::bubble_point_with(self.components, &mut self.activity, &self.x, p)?;
-        self.log_bubble_pressure(t);
-        self.t_guess = t;
-        Ok(t)
+        self.bubble_fallback(p)
     }
 
     /// Right-hand side d ln n_i / dφ at `ln_n`, written to `out`; returns the temperature.
@@ -494,6 +516,19 @@ impl<'a> Evaluator<'a> {
         k.slope_b.clone_from(&self.slope_b);
         k.curvature_b.clone_from(&self.curvature_b);
     }
+
+    /// Start from the sweep [`Self::after_first_solve`] kept (ideal liquid); false when there is none.
+    fn restore_kept_sweep(&mut self) -> bool {
+        let Some(k) = self.kept.as_ref().filter(|_| self.halley) else { return false };
+        self.t_swept = k.t;
+        self.t_guess = k.t;
+        self.slope = k.slope;
+        self.polished = k.polished;
+        self.p_sat.copy_from_slice(&k.p_sat);
+        self.slope_b.copy_from_slice(&k.slope_b);
+        self.curvature_b.copy_from_slice(&k.curvature_b);
+        true
+    }
 }
 
 /// The RK4 path from `x0` through `fractions` (checked by the caller) with the evaluator as it stands.
@@ -590,23 +625,12 @@ impl<'a> IsobaricSeries<'a> {
         check_path(&present, fractions, max_step)?;
         ev.evaluations = 0;
         ev.sweeps = 0;
-        match &ev.kept {
-            Some(k) if ev.halley => {
-                ev.t_swept = k.t;
-                ev.t_guess = k.t;
-                ev.slope = k.slope;
-                ev.polished = k.polished;
-                ev.p_sat.copy_from_slice(&k.p_sat);
-                ev.slope_b.copy_from_slice(&k.slope_b);
-                ev.curvature_b.copy_from_slice(&k.curvature_b);
-            }
-            _ => {
-                let t_start = cold_start(ev.components, x0);
-                ev.t_swept = f64::NAN;
-                ev.polished = 0;
-                ev.t_guess = t_start;
-                ev.slope = -10.5 * t_start;
-            }
+        if !ev.restore_kept_sweep() {
+            let t_start = cold_start(ev.components, x0);
+            ev.t_swept = f64::NAN;
+            ev.polished = 0;
+            ev.t_guess = t_start;
+            ev.slope = -10.5 * t_start;
         }
         ev.keep = ev.halley;
         rk4_path(ev, x0, fractions, max_step)

@@ -22,7 +22,7 @@ use crate::props::liquid;
 
 use super::indicators::{blend_cetane, component_flash_point, indicators, liaw_flash_point, near_critical, IndicatorOptions, IndicatorSelection, ViscosityRule};
 use super::indicators::{T_40C, T_MINUS_20C, T_MINUS_40C};
-use super::rayleigh::{basis_weights, polish_exponent, taylor_exp, IsobaricSeries, POLISH_LIMIT, POLISH_RESIDUAL};
+use super::rayleigh::{basis_weights, slopes_in_inverse_temperature, taylor_move, IsobaricSeries, LogSumMoments, POLISH_LIMIT, POLISH_RESIDUAL};
 use super::{normalised, PostError};
 
 /// Keys the series computes itself (the others go to [`indicators`]).
@@ -77,13 +77,11 @@ struct FlashSeries<'a> {
 impl FlashSeries<'_> {
     /// ln Σ a_i p_sat,i(t), keeping p_sat,i and the derivatives of ln p_sat,i in b = 1/T.
     fn sweep(&mut self, t: f64) -> f64 {
-        let (t2, t3) = (t * t, t * t * t);
         let mut s = 0.0;
         for i in 0..self.a.len() {
             let (ps, d1, d2) = self.vapor_pressures.at_with_slopes(i, t);
             self.p_sat[i] = ps;
-            self.slope_b[i] = -t2 * d1;
-            self.curvature_b[i] = t2 * t2 * d2 + 2.0 * t3 * d1;
+            (self.slope_b[i], self.curvature_b[i]) = slopes_in_inverse_temperature(t, d1, d2);
             s += self.a[i] * ps;
         }
         self.t_swept = t;
@@ -93,16 +91,11 @@ impl FlashSeries<'_> {
 
     /// The residual at the last sweep for the current `a`, and its first and second derivatives in 1/T.
     fn at_last_sweep(&self) -> (f64, f64, f64) {
-        let (mut s, mut m1, mut m2) = (0.0, 0.0, 0.0);
+        let mut sums = LogSumMoments::default();
         for i in 0..self.a.len() {
-            let w = self.a[i] * self.p_sat[i];
-            let h = self.slope_b[i];
-            s += w;
-            m1 += w * h;
-            m2 += w * (self.curvature_b[i] + h * h);
+            sums.add(self.a[i] * self.p_sat[i], self.slope_b[i], self.curvature_b[i]);
         }
-        let d1 = m1 / s;
-        (s.ln(), d1, m2 / s - d1 * d1)
+        sums.derivatives()
     }
 
     /// The flash point of mole fractions `x` by Halley's method in 1/T; None when it does not converge inside
@@ -141,8 +134,7 @@ impl FlashSeries<'_> {
                 self.polished += 1;
                 let db = b1 - b0;
                 for i in 0..self.a.len() {
-                    self.p_sat[i] *= taylor_exp(polish_exponent(self.slope_b[i], self.curvature_b[i], db));
-                    self.slope_b[i] += self.curvature_b[i] * db;
+                    taylor_move(&mut self.p_sat[i], &mut self.slope_b[i], self.curvature_b[i], db);
                 }
                 self.t_swept = 1.0 / b1;
             } else {

@@ -41,6 +41,8 @@ pub struct WellMixed {
     pub last: FilmResult,
     /// Surface temperature used in the last rhs call \[K\].
     pub last_surface_temperature: f64,
+    /// Droplet diameter of the last rhs call \[m\] (from its kernel liquid density).
+    last_diameter: f64,
     initial_mass: f64,
     /// Rows carry the liquid and vapour mass fractions (false: empty fractions, for observers that keep no rows).
     rows_with_fractions: bool,
@@ -134,6 +136,7 @@ impl WellMixed {
         self.latent = latent;
         self.last = f;
         self.last_surface_temperature = t_s;
+        self.last_diameter = d;
         for i in 0..n {
             let rate = self.film.species_rate[i];
             dydt[i] = -rate;
@@ -186,6 +189,7 @@ impl WellMixed {
             x_probe: vec![0.0; n],
             last: FilmResult::default(),
             last_surface_temperature: t0,
+            last_diameter: inp.initial_diameter,
             initial_mass: m0,
             rows_with_fractions: true,
         };
@@ -343,8 +347,8 @@ impl WellMixed {
             self.evaluate(y, dydt);
         }
         let m: f64 = y[..n].iter().map(|v| v.max(0.0)).sum();
-        let rho = liquid::density(&self.film.setup.components, &self.w, self.last_surface_temperature);
-        let d = (6.0 * m / (std::f64::consts::PI * rho)).cbrt();
+        // the last rhs call was at `y`: a fresh row's own, or an accepted step's last stage (first same as last)
+        let d = if m > 0.0 { self.last_diameter } else { 0.0 };
         let mdot = self.last.evaporation_rate;
         let vapor: Vec<f64> = if !self.rows_with_fractions {
             vec![]

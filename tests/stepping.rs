@@ -37,9 +37,12 @@ fn rel(a: f64, b: f64) -> f64 {
 
 /// Advance to each of the one-shot run's row times: the state there matches the row (mass, surface temperature,
 /// velocity) within 1e-6 relative, and the life ends at the same time.
-fn matches_one_shot_at_row_times(resolved: bool) {
+fn matches_one_shot_at_row_times(resolved: bool, rtol: Option<f64>) {
     let lib = Library::embedded().unwrap();
-    let inp = inputs(&lib, "demo-wide", resolved);
+    let mut inp = inputs(&lib, "demo-wide", resolved);
+    if let Some(rtol) = rtol {
+        inp.rtol = rtol;
+    }
     let run = one_shot(&inp);
     let life = run.outcome.lifetime.unwrap();
     let mut stepper = Stepper::new(&inp).unwrap();
@@ -66,12 +69,20 @@ fn matches_one_shot_at_row_times(resolved: bool) {
 
 #[test]
 fn well_mixed_steps_match_the_one_shot_run() {
-    matches_one_shot_at_row_times(false);
+    matches_one_shot_at_row_times(false, None);
+}
+
+/// The same at rtol 1e-11, where the well-mixed run takes the 8(5,3) pair (its dense output at the step ends
+/// the caller asks for, its end of life).
+#[test]
+fn well_mixed_steps_match_the_one_shot_run_with_the_eighth_order_pair() {
+    assert_eq!(dropcut::model::integrator::Method::Auto.resolve(1e-11), dropcut::model::integrator::Method::Order8);
+    matches_one_shot_at_row_times(false, Some(1e-11));
 }
 
 #[test]
 fn resolved_steps_match_the_one_shot_run() {
-    matches_one_shot_at_row_times(true);
+    matches_one_shot_at_row_times(true, None);
 }
 
 /// A whole life in equal steps; returns the exchanges, the first and the final state.

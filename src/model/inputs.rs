@@ -66,6 +66,8 @@ pub struct DropletInputs {
     pub vapour_diffusion: VapourDiffusion,
     /// Pure-component properties from per-component kernels (default) or by direct evaluation.
     pub properties: crate::props::kernels::PropertyEvaluation,
+    /// Runge–Kutta pair of the well-mixed liquid (default: chosen by `rtol`, [`crate::model::integrator::Method::Auto`]).
+    pub integrator: crate::model::integrator::Method,
 }
 
 /// How species mix inside the droplet.
@@ -143,6 +145,7 @@ impl DropletInputs {
             drag: DragLaw::default(),
             vapour_diffusion: VapourDiffusion::default(),
             properties: Default::default(),
+            integrator: Default::default(),
         }
     }
 }

@@ -1,6 +1,12 @@
-//! Adaptive explicit Runge–Kutta integrator: Dormand–Prince 5(4) with FSAL, the error control and step-size
-//! rule of Hairer, Nørsett & Wanner (Solving ODEs I, 2nd ed., §II.4–5), and its 4th-order dense output
-//! (ibid. §II.6) for locating events by bisection. Buffers are allocated once; stepping never allocates.
+//! Adaptive explicit Runge–Kutta integrators of Dormand and Prince: the 5(4) pair with FSAL, the error control
+//! and step-size rule of Hairer, Nørsett & Wanner (Solving ODEs I, 2nd ed., §II.4–5) and its 4th-order dense
+//! output (ibid. §II.6); and for tight tolerances the 8(5,3) pair with its 7th-order dense output (ibid. §II.5,
+//! §II.6; their DOP853), whose three extra dense-output stages are spent only in a step whose dense output is
+//! used ([`DormandPrince::prepare_dense`]). Events are located on the dense output by Brent's method. Buffers
+//! are allocated once; stepping never allocates.
+
+#[path = "integrator/dop853_tableau.rs"]
+mod dop853_tableau;
 
 /// An ODE system y' = f(t, y) of fixed dimension.
 pub trait OdeSystem {
@@ -28,6 +34,34 @@ pub struct Tolerances {
     pub rtol: f64,
     /// Absolute tolerance per unknown.
     pub atol: Vec<f64>,
+}
+
+/// Which Dormand–Prince pair a stepper uses.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, serde::Serialize, serde::Deserialize)]
+pub enum Method {
+    /// The 5(4) pair above a relative tolerance of [`EIGHTH_ORDER_FROM`], the 8(5,3) pair at or below it.
+    #[default]
+    Auto,
+    /// Dormand–Prince 5(4), 7 stages (6 per step with first same as last), 4th-order dense output.
+    Order5,
+    /// Dormand–Prince 8(5,3), 12 stages per step (13 with first same as last), 7th-order dense output from 3 more.
+    Order8,
+}
+
+/// Relative tolerance at and below which [`Method::Auto`] takes the 8(5,3) pair (docs/model.md, "Integrator":
+/// from 1e-10 down it reaches the 5(4) pair's accuracy at the same tolerance with 1.4–2.3× fewer right-hand
+/// sides on whole droplet lives; at 1e-8–1e-9 it saves 1.1–1.8× but is up to 10× less accurate).
+pub const EIGHTH_ORDER_FROM: f64 = 1e-10;
+
+impl Method {
+    /// The pair a run at relative tolerance `rtol` uses ([`Method::Order5`] or [`Method::Order8`]).
+    pub fn resolve(self, rtol: f64) -> Method {
+        match self {
+            Method::Auto if rtol <= EIGHTH_ORDER_FROM => Method::Order8,
+            Method::Auto => Method::Order5,
+            m => m,
+        }
+    }
 }
 
 const C2: f64 = 1.0 / 5.0;
@@ -101,6 +135,25 @@ pub struct DormandPrince {
     h_acc: f64,
     /// ln of the previous accepted step's error (at least 1e-2), for the predictive controller.
     ln_err_acc: f64,
+    /// The 8(5,3) pair's stages and dense output (None: the 5(4) pair).
+    eighth: Option<Box<Eighth>>,
+    /// The system's last right-hand-side call was at (t, y) (an accepted step's last stage, or a restart).
+    system_at_end: bool,
+}
+
+/// Buffers of the 8(5,3) pair.
+#[derive(Debug, Clone)]
+struct Eighth {
+    /// Stages k_0..k_15 (k_12 = f at the step's end; k_13..k_15 the dense output's extra stages).
+    k: [Vec<f64>; dop853_tableau::STAGES_DENSE],
+    /// State at the start of the last accepted step.
+    y_old: Vec<f64>,
+    /// Terms of the 7th-order interpolant of the last accepted step.
+    terms: [Vec<f64>; 7],
+    /// The interpolant of the last accepted step is built.
+    dense_ready: bool,
+    /// k_12 of the last accepted step is still to become the next step's k_0.
+    fsal_pending: bool,
 }
 
 /// Why a step failed.
@@ -121,7 +174,15 @@ pub enum StepError {
 impl DormandPrince {
     /// New stepper at (t0, y0) with a first step guess `h0` (0 = automatic).
     pub fn new<S: OdeSystem>(sys: &mut S, t0: f64, y0: &[f64], tol: Tolerances, h0: f64, h_max: f64) -> Self {
+        Self::with_method(sys, t0, y0, tol, h0, h_max, Method::Auto)
+    }
+
+    /// New stepper as [`DormandPrince::new`] with the pair chosen by `method` (resolved at `tol.rtol`).
+    pub fn with_method<S: OdeSystem>(sys: &mut S, t0: f64, y0: &[f64], tol: Tolerances, h0: f64, h_max: f64, method: Method) -> Self {
         let n = y0.len();
+        let eighth = (method.resolve(tol.rtol) == Method::Order8).then(|| {
+            Box::new(Eighth { k: std::array::from_fn(|_| vec![0.0; n]), y_old: vec![0.0; n], terms: std::array::from_fn(|_| vec![0.0; n]), dense_ready: false, fsal_pending: false })
+        });
         let z = || vec![0.0; n];
         let mut s = DormandPrince {
             n,
@@ -142,6 +203,8 @@ impl DormandPrince {
             ln_fac_old: (1e-4f64).ln(),
             h_acc: 0.0,
             ln_err_acc: 0.0,
+            eighth,
+            system_at_end: true,
         };
         sys.rhs(t0, &s.y, &mut s.k[0]);
         s.stats.rhs_calls += 1;
@@ -149,7 +212,27 @@ impl DormandPrince {
         if s.h <= 0.0 {
             s.h = s.initial_step(sys);
         }
+        if let Some(e) = &mut s.eighth {
+            e.k[0].copy_from_slice(&s.k[0]);
+        }
+        s.system_at_end = s.stats.rhs_calls == 1;
         s
+    }
+
+    /// The pair this stepper uses ([`Method::Order5`] or [`Method::Order8`]).
+    pub fn method(&self) -> Method {
+        if self.eighth.is_some() {
+            Method::Order8
+        } else {
+            Method::Order5
+        }
+    }
+
+    /// True when the system's last right-hand-side call was at the current (t, y): after an accepted step (its
+    /// last stage) or a restart, and false after the starting-step probe or [`DormandPrince::prepare_dense`]
+    /// moved it (a caller that reads quantities the system kept from its last call evaluates it again).
+    pub fn system_at_end(&self) -> bool {
+        self.system_at_end
     }
 
     fn norm(&self, v: &[f64], y: &[f64]) -> f64 {
@@ -177,7 +260,10 @@ impl DormandPrince {
             self.err[i] = self.k[1][i] - self.k[0][i];
         }
         let d2 = self.norm(&self.err, &self.y) / h0;
-        let h1 = if d1.max(d2) <= 1e-15 { (h0 * 1e-3).max(1e-6) } else { (0.01 / d1.max(d2)).powf(0.2) };
+        // (0.01/max(d1, d2))^(1/(p+1)) with p the order of the error estimate's lower member (4, or 7 for the
+        // 8(5,3) pair as in Hairer's DOP853)
+        let exponent = if self.eighth.is_some() { 1.0 / 8.0 } else { 0.2 };
+        let h1 = if d1.max(d2) <= 1e-15 { (h0 * 1e-3).max(1e-6) } else { (0.01 / d1.max(d2)).powf(exponent) };
         (100.0 * h0).min(h1).min(self.h_max)
     }
 
@@ -188,6 +274,9 @@ impl DormandPrince {
     /// the smaller step (Hairer & Wanner, Solving ODEs II, §IV.8); after a rejection the step shrinks by at most [`MAX_SHRINK_AFTER_REJECTION`] and the step
     /// that follows the next acceptance does not grow (Hairer, Nørsett & Wanner, Solving ODEs I, §II.4).
     pub fn step<S: OdeSystem>(&mut self, sys: &mut S) -> Result<f64, StepError> {
+        if self.eighth.is_some() {
+            return self.step_eighth(sys);
+        }
         let n = self.n;
         let mut rejected_here = false;
         loop {
@@ -299,6 +388,7 @@ impl DormandPrince {
                 std::mem::swap(&mut self.y, &mut self.y_new);
                 self.k.swap(0, 6);
                 self.stats.steps += 1;
+                self.system_at_end = true;
                 self.h = h_new.min(self.h_max);
                 return Ok(self.t);
             }
@@ -309,8 +399,21 @@ impl DormandPrince {
         }
     }
 
-    /// Dense output of the last accepted step at time `t` (t_old ≤ t ≤ t) into `out`.
+    /// Dense output of the last accepted step at time `t` (t_old ≤ t ≤ t) into `out`. With the 8(5,3) pair,
+    /// [`DormandPrince::prepare_dense`] must have been called after the step (a missing call is a bug and panics).
     pub fn dense(&self, t: f64, out: &mut [f64]) {
+        if let Some(e) = &self.eighth {
+            assert!(e.dense_ready, "dense output of the 8(5,3) pair used before prepare_dense (a bug)");
+            let theta = if self.h_last > 0.0 { (t - self.t_old) / self.h_last } else { 1.0 };
+            let theta1 = 1.0 - theta;
+            let [f0, f1, f2, f3, f4, f5, f6] = &e.terms;
+            for i in 0..self.n {
+                // y_old + θ(F0 + θ'(F1 + θ(F2 + θ'(F3 + θ(F4 + θ'(F5 + θ F6)))))), θ' = 1 − θ
+                let inner = f4[i] + theta1 * (f5[i] + theta * f6[i]);
+                out[i] = e.y_old[i] + theta * (f0[i] + theta1 * (f1[i] + theta * (f2[i] + theta1 * (f3[i] + theta * inner))));
+            }
+            return;
+        }
         let theta = if self.h_last > 0.0 { (t - self.t_old) / self.h_last } else { 1.0 };
         let theta1 = 1.0 - theta;
         for i in 0..self.n {
@@ -322,7 +425,15 @@ impl DormandPrince {
     pub fn reset<S: OdeSystem>(&mut self, sys: &mut S, t: f64, y: &[f64]) {
         self.t = t;
         self.y.copy_from_slice(y);
-        sys.rhs(t, &self.y, &mut self.k[0]);
+        match &mut self.eighth {
+            Some(e) => {
+                // the last step's interpolant, if built, stays usable (its stages are no longer needed)
+                sys.rhs(t, &self.y, &mut e.k[0]);
+                e.fsal_pending = false;
+            }
+            None => sys.rhs(t, &self.y, &mut self.k[0]),
+        }
+        self.system_at_end = true;
         self.stats.rhs_calls += 1;
         self.h = (self.h * 0.1).max(1e-12);
         self.h_acc = 0.0;
@@ -331,6 +442,149 @@ impl DormandPrince {
     /// Next step size the controller proposes \[s\].
     pub fn proposed_step(&self) -> f64 {
         self.h
+    }
+
+    /// Derivative of unknown `i` at the start and at the end of the last accepted step (read right after
+    /// [`DormandPrince::step`], before a restart).
+    pub fn step_slopes(&self, i: usize) -> (f64, f64) {
+        match &self.eighth {
+            Some(e) => (e.k[0][i], e.k[dop853_tableau::STAGES][i]),
+            // after an accepted step k_0 holds f at its end and k_6 f at its start
+            None => (self.k[6][i], self.k[0][i]),
+        }
+    }
+
+    /// Build the dense output of the last accepted step if it is not built yet: nothing to do for the 5(4) pair;
+    /// three more right-hand sides for the 8(5,3) pair (the system is then left at the last of them, see
+    /// [`DormandPrince::system_at_end`]). Call it after a step and before the first [`DormandPrince::dense`] or
+    /// [`locate_event`] on that step, and before a [`DormandPrince::reset`] that is to be followed by them.
+    pub fn prepare_dense<S: OdeSystem>(&mut self, sys: &mut S) {
+        use dop853_tableau::{A, C, D, STAGES, STAGES_DENSE};
+        let n = self.n;
+        let (h, t_old) = (self.h_last, self.t_old);
+        let Some(e) = &mut self.eighth else { return };
+        if e.dense_ready {
+            return;
+        }
+        assert!(e.fsal_pending, "dense output of the 8(5,3) pair prepared after a restart (a bug)");
+        let ys = &mut self.y_stage[..n];
+        for s in STAGES + 1..STAGES_DENSE {
+            stage_state(ys, &e.y_old[..n], h, &A[s][..s], &e.k[..s]);
+            sys.rhs(t_old + C[s] * h, ys, &mut e.k[s]);
+        }
+        self.stats.rhs_calls += (STAGES_DENSE - STAGES - 1) as u64;
+        self.system_at_end = false;
+        let (y, y_old) = (&self.y[..n], &e.y_old[..n]);
+        let [f0, f1, f2, rest @ ..] = &mut e.terms;
+        let (k0, k_end) = (&e.k[0][..n], &e.k[STAGES][..n]);
+        for i in 0..n {
+            let dy = y[i] - y_old[i];
+            f0[i] = dy;
+            f1[i] = h * k0[i] - dy;
+            f2[i] = 2.0 * dy - h * (k_end[i] + k0[i]);
+        }
+        for (term, d) in rest.iter_mut().zip(&D) {
+            stage_state(&mut term[..n], &[], h, d, &e.k);
+        }
+        e.dense_ready = true;
+    }
+
+    /// One step of the 8(5,3) pair (retrying after rejections), with the step-size rule of Hairer's DOP853
+    /// (err^(1/8), safety 0.9, growth ≤ 6×, shrink ≤ 3×, no growth right after a rejection).
+    fn step_eighth<S: OdeSystem>(&mut self, sys: &mut S) -> Result<f64, StepError> {
+        use dop853_tableau::{A, B, C, E3, E5, STAGES};
+        let n = self.n;
+        let mut rejected_here = false;
+        {
+            let e = self.eighth.as_mut().expect("8(5,3) buffers");
+            if e.fsal_pending {
+                e.k.swap(0, STAGES);
+                e.fsal_pending = false;
+            }
+            e.dense_ready = false;
+        }
+        loop {
+            let h = self.h.min(self.h_max);
+            if h.abs() < 1e-14 * self.t.abs().max(1e-300) || h < 1e-300 {
+                return Err(StepError::StepTooSmall { t: self.t });
+            }
+            let t = self.t;
+            let e = self.eighth.as_mut().expect("8(5,3) buffers");
+            let (y, ys, yn) = (&self.y[..n], &mut self.y_stage[..n], &mut self.y_new[..n]);
+            for s in 1..STAGES {
+                stage_state(ys, y, h, &A[s][..s], &e.k[..s]);
+                sys.rhs(t + C[s] * h, ys, &mut e.k[s]);
+            }
+            stage_state(yn, y, h, &B, &e.k[..STAGES]);
+            sys.rhs(t + h, yn, &mut e.k[STAGES]);
+            self.stats.rhs_calls += STAGES as u64;
+            self.system_at_end = false;
+            if yn.iter().chain(e.k[STAGES][..n].iter()).any(|v| !v.is_finite()) {
+                self.stats.rejected += 1;
+                rejected_here = true;
+                self.h = h * 0.1;
+                if self.h < 1e-300 {
+                    return Err(StepError::NonFinite { t: self.t });
+                }
+                continue;
+            }
+            // error: the 5th-order estimate damped by the 3rd-order one (Hairer's DOP853),
+            // err = |h| Σe5² / sqrt(n (Σe5² + 0.01 Σe3²)), each component scaled by atol + rtol·max(|y|, |y_new|)
+            let (mut sum5, mut sum3) = (0.0, 0.0);
+            let atol = &self.tol.atol[..n];
+            for i in 0..n {
+                let sc = atol[i] + self.tol.rtol * y[i].abs().max(yn[i].abs());
+                let (mut e5, mut e3) = (0.0, 0.0);
+                for (j, k) in e.k[..=STAGES].iter().enumerate() {
+                    e5 += E5[j] * k[i];
+                    e3 += E3[j] * k[i];
+                }
+                sum5 += (e5 / sc) * (e5 / sc);
+                sum3 += (e3 / sc) * (e3 / sc);
+            }
+            let denominator = sum5 + 0.01 * sum3;
+            let err = if denominator > 0.0 { h.abs() * sum5 / (denominator * n as f64).sqrt() } else { 0.0 };
+            let fac11 = err.max(1e-300).powf(1.0 / 8.0);
+            if err <= 1.0 {
+                let mut h_new = h / (fac11 / 0.9).clamp(1.0 / 6.0, 3.0);
+                if rejected_here {
+                    h_new = h_new.min(h);
+                }
+                e.y_old[..n].copy_from_slice(y);
+                e.fsal_pending = true;
+                self.t_old = t;
+                self.h_last = h;
+                self.t = t + h;
+                std::mem::swap(&mut self.y, &mut self.y_new);
+                self.stats.steps += 1;
+                self.system_at_end = true;
+                self.h = h_new.min(self.h_max);
+                return Ok(self.t);
+            }
+            self.stats.rejected += 1;
+            rejected_here = true;
+            self.h = h / (fac11 / 0.9).clamp(1.0, 3.0);
+        }
+    }
+}
+
+/// `out = base + h Σ_j a_j k_j` over the stages with a nonzero coefficient (one pass over the unknowns per
+/// stage; an empty `base` means zero).
+#[inline]
+fn stage_state(out: &mut [f64], base: &[f64], h: f64, a: &[f64], k: &[Vec<f64>]) {
+    let n = out.len();
+    if base.is_empty() {
+        out.fill(0.0);
+    } else {
+        out.copy_from_slice(&base[..n]);
+    }
+    for (aj, kj) in a.iter().zip(k) {
+        if *aj != 0.0 {
+            let c = h * aj;
+            for (o, v) in out.iter_mut().zip(&kj[..n]) {
+                *o += c * v;
+            }
+        }
     }
 }
 
@@ -371,7 +625,7 @@ mod tests {
     #[test]
     fn exponential_decay_and_event() {
         let mut sys = Decay;
-        let mut dp = DormandPrince::new(&mut sys, 0.0, &[1.0], Tolerances { rtol: 1e-10, atol: vec![1e-12] }, 0.0, 1.0);
+        let mut dp = DormandPrince::with_method(&mut sys, 0.0, &[1.0], Tolerances { rtol: 1e-10, atol: vec![1e-12] }, 0.0, 1.0, Method::Order5);
         let mut buf = [0.0];
         let mut t_half = None;
         while dp.t < 2.0 {
@@ -396,10 +650,108 @@ mod tests {
         }
     }
 
+    /// The transcribed 8(5,3) tableau satisfies what it must: each row of A sums to its node, the weights are
+    /// exact for polynomials up to degree 7 (Σ b_j c_j^(q−1) = 1/q, q = 1…8), both error estimates vanish on a
+    /// constant (Σ e_j = 0), and the dense-output stages are consistent (their rows sum to their nodes).
+    #[test]
+    fn eighth_order_tableau_satisfies_its_conditions() {
+        use super::dop853_tableau::{A, B, C, D, E3, E5, STAGES, STAGES_DENSE};
+        for s in 0..STAGES_DENSE {
+            let row: f64 = A[s][..s.max(1)].iter().sum();
+            assert!((row - C[s]).abs() < 1e-14, "row {s}: {row} vs c = {}", C[s]);
+        }
+        for q in 1..=8 {
+            let quad: f64 = (0..STAGES).map(|j| B[j] * C[j].powi(q - 1)).sum();
+            assert!((quad - 1.0 / f64::from(q)).abs() < 1e-14, "degree {}: {quad}", q - 1);
+        }
+        assert!(B.iter().zip(&A[STAGES]).all(|(b, a)| b == a), "row 12 of A holds the weights");
+        for e in [&E5[..], &E3[..]] {
+            assert!(e.iter().sum::<f64>().abs() < 1e-14);
+        }
+        // the interpolant's higher terms vanish for a constant right-hand side
+        for d in &D {
+            assert!(d.iter().sum::<f64>().abs() < 1e-12, "{}", d.iter().sum::<f64>());
+        }
+    }
+
+    /// Same state at fixed steps of h and h/2 (tolerance loose, the step bounded by h_max): the 8(5,3) pair's
+    /// global error falls by about 2^8 and its dense output's by at least 2^7.
+    #[test]
+    fn eighth_order_pair_converges_at_its_order() {
+        let run = |h: f64| {
+            let mut sys = Oscillator;
+            let tol = Tolerances { rtol: 1.0, atol: vec![1e6; 2] };
+            let mut dp = DormandPrince::with_method(&mut sys, 0.0, &[0.0, 1.0], tol, h, h, Method::Order8);
+            let mut buf = [0.0; 2];
+            let mut dense_error: f64 = 0.0;
+            while dp.t < 4.0 - 1e-12 {
+                dp.step(&mut sys).unwrap();
+                dp.prepare_dense(&mut sys);
+                let tm = dp.t_old + 0.37 * dp.h_last;
+                dp.dense(tm, &mut buf);
+                dense_error = dense_error.max((buf[0] - tm.sin()).abs());
+            }
+            assert_eq!(dp.stats.rejected, 0);
+            ((dp.y[0] - dp.t.sin()).abs(), dense_error)
+        };
+        let (coarse, coarse_dense) = run(0.4);
+        let (fine, fine_dense) = run(0.2);
+        let ratio = coarse / fine;
+        println!("fixed steps 0.4 / 0.2: step error {coarse:e} / {fine:e} = {ratio:.0}, dense {coarse_dense:e} / {fine_dense:e}");
+        assert!((150.0..450.0).contains(&ratio), "step error ratio {ratio} ({coarse:e} vs {fine:e})");
+        assert!(coarse_dense / fine_dense > 100.0, "dense error ratio {} ({coarse_dense:e} vs {fine_dense:e})", coarse_dense / fine_dense);
+    }
+
+    #[test]
+    fn eighth_order_pair_decay_event_and_work() {
+        let run = |method: Method| {
+            let mut sys = Decay;
+            let tol = Tolerances { rtol: 1e-12, atol: vec![1e-14] };
+            let mut dp = DormandPrince::with_method(&mut sys, 0.0, &[1.0], tol, 0.0, 1.0, method);
+            let mut buf = [0.0];
+            let mut t_half = None;
+            while dp.t < 3.0 {
+                let before = dp.y[0];
+                dp.step(&mut sys).unwrap();
+                if before > 0.5 && dp.y[0] <= 0.5 {
+                    dp.prepare_dense(&mut sys);
+                    t_half = Some(locate_event(&dp, |y| y[0] - 0.5, &mut buf, 1e-15));
+                }
+            }
+            assert_eq!(dp.method(), method.resolve(1e-12));
+            ((dp.y[0] / (-dp.t).exp() - 1.0).abs(), (t_half.unwrap() - std::f64::consts::LN_2).abs(), dp.stats.rhs_calls)
+        };
+        let (err8, event8, calls8) = run(Method::Auto);
+        let (err5, _, calls5) = run(Method::Order5);
+        println!("decay at rtol 1e-12: 8(5,3) {calls8} rhs, error {err8:e}, event {event8:e}; 5(4) {calls5} rhs, error {err5:e}");
+        assert!(err8 < 1e-11 && event8 < 1e-12, "error {err8:e}, event {event8:e}");
+        assert!(err5 < 1e-10);
+        assert!(calls8 * 2 < calls5, "8(5,3): {calls8} right-hand sides, 5(4): {calls5}");
+    }
+
+    #[test]
+    fn methods_resolve_by_tolerance() {
+        assert_eq!(Method::Auto.resolve(1e-6), Method::Order5);
+        assert_eq!(Method::Auto.resolve(1e-9), Method::Order5);
+        assert_eq!(Method::Auto.resolve(EIGHTH_ORDER_FROM), Method::Order8);
+        assert_eq!(Method::Order5.resolve(1e-12), Method::Order5);
+        assert_eq!(Method::Order8.resolve(1e-3), Method::Order8);
+    }
+
+    #[test]
+    #[should_panic(expected = "before prepare_dense")]
+    fn eighth_order_dense_output_needs_preparing() {
+        let mut sys = Decay;
+        let mut dp = DormandPrince::with_method(&mut sys, 0.0, &[1.0], Tolerances { rtol: 1e-9, atol: vec![1e-12] }, 0.0, 1.0, Method::Order8);
+        dp.step(&mut sys).unwrap();
+        let mut out = [0.0];
+        dp.dense(dp.t, &mut out);
+    }
+
     #[test]
     fn dense_output_is_accurate() {
         let mut sys = Oscillator;
-        let mut dp = DormandPrince::new(&mut sys, 0.0, &[0.0, 1.0], Tolerances { rtol: 1e-9, atol: vec![1e-12; 2] }, 0.0, 10.0);
+        let mut dp = DormandPrince::with_method(&mut sys, 0.0, &[0.0, 1.0], Tolerances { rtol: 1e-9, atol: vec![1e-12; 2] }, 0.0, 10.0, Method::Order5);
         let mut buf = [0.0; 2];
         let mut worst: f64 = 0.0;
         while dp.t < 10.0 {

@@ -498,7 +498,7 @@ impl Stepper {
                 let mut y0 = y.clone();
                 y0[n + 1] = speed;
                 let tol = WellMixed::tolerances(self.inputs.rtol, n, state.initial_mass, state.speed_scale);
-                (Box::new(DormandPrince::new(sys, state.time, &y0, tol, state.step, h_max)), None)
+                (Box::new(DormandPrince::with_method(sys, state.time, &y0, tol, state.step, h_max, self.inputs.integrator)), None)
             }
         };
         let mut regime_in_last_step = sys.regime();
@@ -517,7 +517,7 @@ impl Stepper {
             regime_in_last_step = sys.regime();
             integrate_step(sys, &mut stepper, &self.inputs)?;
             self.y_end.copy_from_slice(&stepper.y);
-            if let Some(te) = end_of_life(&stepper, n, state.initial_mass, self.inputs.end_mass_fraction, &mut self.buf, &mut self.y_end) {
+            if let Some(te) = end_of_life(&mut stepper, sys, n, state.initial_mass, self.inputs.end_mass_fraction, &mut self.buf, &mut self.y_end) {
                 stepper.y.copy_from_slice(&self.y_end);
                 stepper.t = te;
                 finished_at = Some(te);
@@ -535,6 +535,7 @@ impl Stepper {
             (if finished { stepper.t } else { t_target }, stepper.y.clone(), sys.regime())
         } else {
             let mut y_new = vec![0.0; 2 * n + 2];
+            stepper.prepare_dense(sys);
             stepper.dense(t_target, &mut y_new);
             (t_target, y_new, regime_in_last_step)
         };

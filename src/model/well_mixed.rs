@@ -398,14 +398,45 @@ pub(crate) fn integrate_step(sys: &mut WellMixed, stepper: &mut DormandPrince, i
 
 /// End of life inside the last accepted step: the time where `end_mass_fraction` of the initial mass `m0`
 /// remains (located on the dense output), with the state there written to `y_end`; None while more remains.
-pub(crate) fn end_of_life(stepper: &DormandPrince, n: usize, m0: f64, end_mass_fraction: f64, buf: &mut [f64], y_end: &mut [f64]) -> Option<f64> {
+pub(crate) fn end_of_life(stepper: &mut DormandPrince, sys: &mut WellMixed, n: usize, m0: f64, end_mass_fraction: f64, buf: &mut [f64], y_end: &mut [f64]) -> Option<f64> {
     let t_now = stepper.t;
     if remaining(&stepper.y, n, m0) > end_mass_fraction {
         return None;
     }
+    stepper.prepare_dense(sys);
     let te = locate_event(stepper, |y| remaining(y, n, m0) - end_mass_fraction, buf, 1e-12 * t_now.max(1e-9));
     stepper.dense(te, y_end);
     Some(te)
+}
+
+/// Highest temperature (unknown `n`) on the dense output of the last accepted step, by golden-section search
+/// (the step's temperature rises at its start and falls at its end: one interior peak) \[K\].
+fn temperature_peak(stepper: &DormandPrince, n: usize, buf: &mut [f64]) -> f64 {
+    let ratio = 0.5 * (5f64.sqrt() - 1.0);
+    let (mut a, mut b) = (stepper.t_old, stepper.t);
+    let mut at = |t: f64| {
+        stepper.dense(t, buf);
+        buf[n]
+    };
+    let (mut c, mut d) = (b - ratio * (b - a), a + ratio * (b - a));
+    let (mut fc, mut fd) = (at(c), at(d));
+    // 0.618^48 ≈ 1e-10 of the step: the peak value is then exact to round-off (it is flat at the peak)
+    for _ in 0..48 {
+        if fc >= fd {
+            b = d;
+            d = c;
+            fd = fc;
+            c = b - ratio * (b - a);
+            fc = at(c);
+        } else {
+            a = c;
+            c = d;
+            fc = fd;
+            d = a + ratio * (b - a);
+            fd = at(d);
+        }
+    }
+    fc.max(fd)
 }
 
 /// A change of heat regime found in the last accepted step; the integrator was restarted at its time.
@@ -437,6 +468,7 @@ pub(crate) fn regime_change(sys: &mut WellMixed, stepper: &mut DormandPrince, fi
     let n = sys.n;
     let t_now = stepper.t;
     if sys.regime == Regime::Evaporating && !fixed_temperature && sys.last.surface_vapor_mole_fraction >= BOILING_THRESHOLD {
+        stepper.prepare_dense(sys);
         let onset = {
             let f = &mut *sys;
             locate_event(
@@ -464,6 +496,7 @@ pub(crate) fn regime_change(sys: &mut WellMixed, stepper: &mut DormandPrince, fi
         return Some(RegimeChange::Onset { time: onset, entered, hold_temperature: y_end[n] });
     }
     if sys.regime == Regime::Boiling && !fixed_temperature && sys.heat_at_hold(y_end) <= 0.0 {
+        stepper.prepare_dense(sys);
         let exit = {
             let f = &mut *sys;
             locate_event(stepper, |y| f.heat_at_hold(y), buf, 1e-10 * t_now.max(1e-9))
@@ -506,7 +539,7 @@ pub(crate) fn simulate_well_mixed(inp: &DropletInputs, observer: &mut dyn Observ
     let m0 = sys.initial_mass;
     let tol = WellMixed::tolerances(inp.rtol, n, m0, y0[n + 1]);
     let mut dydt = vec![0.0; 2 * n + 2];
-    let mut stepper = DormandPrince::new(&mut sys, 0.0, &y0, tol, 0.0, inp.max_time / 20.0);
+    let mut stepper = DormandPrince::with_method(&mut sys, 0.0, &y0, tol, 0.0, inp.max_time / 20.0, inp.integrator);
     let mut history = RunRows::new(observer.history_times());
     let mut stagnation = super::guard::StagnationGuard::default();
     let wants_rows = observer.wants_rows();
@@ -541,20 +574,31 @@ pub(crate) fn simulate_well_mixed(inp: &DropletInputs, observer: &mut dyn Observ
         let rem_now = remaining(&stepper.y, n, m0);
         for (k, lvl) in LEVELS.iter().enumerate() {
             if log.crossing[k].is_none() && rem_prev > *lvl && rem_now <= *lvl {
+                stepper.prepare_dense(&mut sys);
                 log.crossing[k] = Some(locate_event(&stepper, |y| remaining(y, n, m0) - lvl, &mut buf, 1e-12 * stepper.t.max(1e-9)));
             }
         }
         let _ = t_prev;
+        if sys.regime() == Regime::Evaporating && !inp.fixed_temperature {
+            // a temperature peak inside the step (rising at its start, falling at its end) is found on the
+            // dense output, so the highest surface temperature does not depend on where the steps fall
+            let (rise, fall) = stepper.step_slopes(n);
+            if rise > 0.0 && fall < 0.0 {
+                stepper.prepare_dense(&mut sys);
+                log.watch.max_surface_temperature = log.watch.max_surface_temperature.max(temperature_peak(&stepper, n, &mut buf));
+            }
+        }
         y_end.copy_from_slice(&stepper.y);
         let mut t_now = stepper.t;
-        let end = end_of_life(&stepper, n, m0, inp.end_mass_fraction, &mut buf, &mut y_end);
+        let end = end_of_life(&mut stepper, &mut sys, n, m0, inp.end_mass_fraction, &mut buf, &mut y_end);
         let finished = end.is_some();
         if let Some(te) = end {
             t_now = te;
             log.lifetime = Some(te);
             log.status = Status::Evaporated;
         }
-        let mut row = sys.row(inp.initial_diameter, m0, t_now, &y_end, &mut dydt, finished);
+        // evaluated again unless the system is still at the step's end (the 8(5,3) pair's dense output moves it)
+        let mut row = sys.row(inp.initial_diameter, m0, t_now, &y_end, &mut dydt, finished || !stepper.system_at_end());
         log.watch.observe(&comps, &sys.w, &row, t_now);
         let regime_in_step = sys.regime();
         let mut changed = false;
@@ -574,6 +618,8 @@ pub(crate) fn simulate_well_mixed(inp: &DropletInputs, observer: &mut dyn Observ
             let regime_after = sys.regime();
             sys.set_regime(regime_in_step);
             while let Some(ts) = history.take_due(t_now, !event) {
+                // (after a regime change's restart the interpolant was built before it)
+                stepper.prepare_dense(&mut sys);
                 stepper.dense(ts, &mut y_sample);
                 let sample = sys.row(inp.initial_diameter, m0, ts, &y_sample, &mut dydt, true);
                 history.push(sample, RowKind::Sample);

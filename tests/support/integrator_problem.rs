@@ -8,7 +8,7 @@ use std::cell::RefCell;
 use dropcut::data::Library;
 use dropcut::fuel::Fuel;
 use dropcut::model::droplet::{NoHistory, WellMixed};
-use dropcut::model::integrator::{DormandPrince, OdeSystem, Tolerances};
+use dropcut::model::integrator::{DormandPrince, Method, OdeSystem, Tolerances};
 use dropcut::model::{simulate, DropletInputs, Motion};
 use dropcut::props::gas::AmbientGas;
 use ode_solvers::{DVector, Dopri5, OutputType, System};
@@ -55,14 +55,20 @@ pub fn problem(rtol: f64) -> Problem {
     Problem { inputs, end_time: 0.5 * lifetime, tolerances: Tolerances { rtol, atol } }
 }
 
-/// Integrate with the project's own Dormand–Prince stepper to the end time (dense output at the end).
+/// Integrate with the project's own Dormand–Prince 5(4) stepper to the end time (dense output at the end).
 pub fn own(p: &Problem) -> Outcome {
+    own_with(p, Method::Order5)
+}
+
+/// Integrate with the project's own stepper and pair `method` to the end time (dense output at the end).
+pub fn own_with(p: &Problem, method: Method) -> Outcome {
     let (mut sys, y0) = WellMixed::new(&p.inputs);
-    let mut stepper = DormandPrince::new(&mut sys, 0.0, &y0, p.tolerances.clone(), 0.0, p.inputs.max_time / 20.0);
+    let mut stepper = DormandPrince::with_method(&mut sys, 0.0, &y0, p.tolerances.clone(), 0.0, p.inputs.max_time / 20.0, method);
     while stepper.t < p.end_time {
         stepper.step(&mut sys).unwrap();
     }
     let mut state = vec![0.0; y0.len()];
+    stepper.prepare_dense(&mut sys);
     stepper.dense(p.end_time, &mut state);
     Outcome { state, rhs_calls: stepper.stats.rhs_calls, steps: stepper.stats.steps, rejected: stepper.stats.rejected }
 }

@@ -343,7 +343,9 @@ impl WellMixed {
             self.evaluate(y, dydt);
         }
         let m: f64 = y[..n].iter().map(|v| v.max(0.0)).sum();
-        let rho = liquid::density(&self.film.setup.components, &self.w, self.last_surface_temperature);
+        // the liquid density of the evaluation at y (its composition at its surface temperature), as
+        // `liquid::density` gives it
+        let rho = self.film.liquid_density;
         let d = (6.0 * m / (std::f64::consts::PI * rho)).cbrt();
         let mdot = self.last.evaporation_rate;
         let vapor: Vec<f64> = if !self.rows_with_fractions {

@@ -337,7 +337,7 @@ impl<'a> Evaluator<'a> {
         let m = ln_n.iter().cloned().fold(f64::NEG_INFINITY, f64::max);
         let mut s = 0.0;
         for (x, l) in self.x.iter_mut().zip(ln_n) {
-            *x = (l - m).exp();
+            *x = crate::numerics::exp(l - m);
             s += *x;
         }
         for x in self.x.iter_mut() {

@@ -19,6 +19,7 @@ use std::sync::{Arc, OnceLock};
 
 use crate::data::component::KernelSlot;
 use crate::data::Component;
+use crate::numerics::exp;
 use crate::props::gas::AmbientGas;
 
 /// Degree + 1 of the interpolating polynomial of a segment.
@@ -360,7 +361,7 @@ impl PropertyKernels {
         if !ok {
             return None;
         }
-        Some(if property == VAPOR_PRESSURE { value.exp() } else { value })
+        Some(if property == VAPOR_PRESSURE { exp(value) } else { value })
     }
 
     /// Unscaled vapour pressure, liquid density, latent heat and liquid heat capacity of `c` at `t` from one
@@ -375,7 +376,7 @@ impl PropertyKernels {
             return None;
         }
         let mut v = horner_group(g, (t - seg.mid) * seg.inv_half);
-        v[0] = v[0].exp();
+        v[0] = exp(v[0]);
         Some(v)
     }
 
@@ -583,7 +584,7 @@ impl<'a> VaporPressures<'a> {
         if let Some(g) = last.group {
             if t >= last.lo && t < last.hi {
                 // as PropertyKernels::eval: the interpolant of ln p, then exp, then the scale
-                return horner_column(g, VAPOR_PRESSURE, (t - last.mid) * last.inv_half).exp() * last.scale;
+                return exp(horner_column(g, VAPOR_PRESSURE, (t - last.mid) * last.inv_half)) * last.scale;
             }
         }
         self.search(i, t)
@@ -600,7 +601,7 @@ impl<'a> VaporPressures<'a> {
         match self.last[i] {
             LastSegment { group: Some(g), lo, hi, mid, inv_half, scale } if t >= lo && t < hi => {
                 let (v, d1, d2) = horner_column_derivatives(g, VAPOR_PRESSURE, (t - mid) * inv_half);
-                (v.exp() * scale, d1 * inv_half, d2 * inv_half * inv_half)
+                (exp(v) * scale, d1 * inv_half, d2 * inv_half * inv_half)
             }
             _ => {
                 let c = &self.components[i];
@@ -621,7 +622,7 @@ impl<'a> VaporPressures<'a> {
                 if g.ok[VAPOR_PRESSURE] {
                     let scale = c.property_scales[VAPOR_PRESSURE];
                     self.last[i] = LastSegment { lo: seg.lo, hi: seg.hi, mid: seg.mid, inv_half: seg.inv_half, scale, group: Some(g) };
-                    return horner_column(g, VAPOR_PRESSURE, (t - seg.mid) * seg.inv_half).exp() * scale;
+                    return exp(horner_column(g, VAPOR_PRESSURE, (t - seg.mid) * seg.inv_half)) * scale;
                 }
             }
         }

@@ -497,44 +497,34 @@ pub fn fmt_f64(v: f64) -> Option<String> {
 /// (value = 0.d₁d₂… × 10^point).
 fn decimal_digits(text: &str, out: &mut [u8; 32]) -> (usize, i32) {
     let bytes = text.as_bytes();
-    let mut len = 0;
-    let mut point = 0i32;
-    let mut seen_point = false;
-    let mut i = 0;
-    while i < bytes.len() {
-        let b = bytes[i];
-        match b {
-            b'.' => seen_point = true,
-            b'0'..=b'9' => {
-                if len == 0 && b == b'0' {
-                    // a leading zero: after the point it moves the point left
-                    if seen_point {
-                        point -= 1;
-                    }
-                } else {
-                    if len < out.len() {
-                        out[len] = b;
-                        len += 1;
-                    }
-                    if !seen_point {
-                        point += 1;
-                    }
-                }
-            }
-            b'e' | b'E' => {
-                let (negative, digits) = match bytes.get(i + 1) {
-                    Some(b'-') => (true, &bytes[i + 2..]),
-                    Some(b'+') => (false, &bytes[i + 2..]),
-                    _ => (false, &bytes[i + 1..]),
-                };
-                let exp = digits.iter().fold(0i32, |e, d| e * 10 + i32::from(d.wrapping_sub(b'0')));
-                point += if negative { -exp } else { exp };
-                break;
-            }
-            _ => {}
+    // `mantissa` e `exponent`; the mantissa `int.frac`
+    let (mantissa, exponent) = match bytes.iter().position(|&b| b == b'e' || b == b'E') {
+        Some(i) => {
+            let (negative, digits) = match bytes.get(i + 1) {
+                Some(b'-') => (true, &bytes[i + 2..]),
+                Some(b'+') => (false, &bytes[i + 2..]),
+                _ => (false, &bytes[i + 1..]),
+            };
+            let e = digits.iter().fold(0i32, |e, d| e * 10 + i32::from(d.wrapping_sub(b'0')));
+            (&bytes[..i], if negative { -e } else { e })
         }
-        i += 1;
-    }
+        None => (bytes, 0),
+    };
+    let (int, frac) = match mantissa.iter().position(|&b| b == b'.') {
+        Some(i) => (&mantissa[..i], &mantissa[i + 1..]),
+        None => (mantissa, &mantissa[mantissa.len()..]),
+    };
+    // leading zeros of the digits int ++ frac: before the point they are not counted, after it each moves the
+    // point left
+    let lead_int = int.iter().take_while(|&&b| b == b'0').count();
+    let lead_frac = if lead_int == int.len() { frac.iter().take_while(|&&b| b == b'0').count() } else { 0 };
+    let point = (int.len() - lead_int) as i32 - lead_frac as i32 + exponent;
+    let (int, frac) = (&int[lead_int..], &frac[lead_frac..]);
+    let mut len = int.len().min(out.len());
+    out[..len].copy_from_slice(&int[..len]);
+    let more = frac.len().min(out.len() - len);
+    out[len..len + more].copy_from_slice(&frac[..more]);
+    len += more;
     while len > 1 && out[len - 1] == b'0' {
         len -= 1;
     }

@@ -82,6 +82,8 @@ struct PolyGroup<const N: usize> {
     degree: usize,
     /// Whether each interpolant passed its check (else the direct evaluation applies to it).
     ok: [bool; N],
+    /// Whether every interpolant passed its check.
+    all_ok: bool,
 }
 
 /// Properties (in [`Component::correlations`] order) a droplet evaluates at the surface temperature: vapour
@@ -311,7 +313,7 @@ fn horner_group<const N: usize>(group: &PolyGroup<N>, u: f64) -> [f64; N] {
 
 /// The interpolants of `properties` of `c` on `seg`, fitted one by one ([`fit`]) and stored as a group.
 fn fit_group<const N: usize>(c: &Component, properties: [usize; N], seg: &Segment) -> PolyGroup<N> {
-    let mut group = PolyGroup { c: [[0.0; N]; COEFFICIENTS], degree: 0, ok: [false; N] };
+    let mut group = PolyGroup { c: [[0.0; N]; COEFFICIENTS], degree: 0, ok: [false; N], all_ok: false };
     for (j, &property) in properties.iter().enumerate() {
         let poly = fit(c, property, seg);
         group.ok[j] = poly.ok;
@@ -320,6 +322,7 @@ fn fit_group<const N: usize>(c: &Component, properties: [usize; N], seg: &Segmen
             group.c[k][j] = poly.c[k];
         }
     }
+    group.all_ok = group.ok.iter().all(|ok| *ok);
     group
 }
 
@@ -372,7 +375,7 @@ impl PropertyKernels {
         let s = self.segment_of(t)?;
         let seg = &self.segments[s];
         let g = self.liquid[s].get_or_init(|| fit_group(c, LIQUID_GROUP, seg));
-        if !(g.ok[0] && g.ok[1] && g.ok[2] && g.ok[3]) {
+        if !g.all_ok {
             return None;
         }
         let mut v = horner_group(g, (t - seg.mid) * seg.inv_half);
@@ -387,7 +390,7 @@ impl PropertyKernels {
         let s = self.segment_of(t)?;
         let seg = &self.segments[s];
         let g = self.vapour[s].get_or_init(|| fit_group(c, VAPOUR_GROUP, seg));
-        if !(g.ok[0] && g.ok[1] && g.ok[2]) {
+        if !g.all_ok {
             return None;
         }
         Some(horner_group(g, (t - seg.mid) * seg.inv_half))

@@ -48,13 +48,16 @@ pub fn exp(x: f64) -> f64 {
     if !(x.abs() < 700.0) {
         return x.exp();
     }
-    let kd = (x * exp_table::INV_LN2_N + ROUND_SHIFT) - ROUND_SHIFT;
+    // k = round(128 x/ln 2) in the low bits of `shifted` (two's complement below bit 51)
+    let shifted = x * exp_table::INV_LN2_N + ROUND_SHIFT;
+    let k_bits = shifted.to_bits();
+    let kd = shifted - ROUND_SHIFT;
     // |k| ≤ 129 300 < 2^17: k × LN2_HI_N is exact, and so is x − k × LN2_HI_N (within a factor 2 of x when k ≠ 0)
     let r = (x - kd * exp_table::LN2_HI_N) - kd * exp_table::LN2_LO_N;
-    let k = kd as i64;
-    let (t_bits, remainder) = exp_table::EXP2_TABLE[(k & 127) as usize];
-    // 2^(k/128) = 2^(k >> 7) × 2^(j/128): the power of two goes into the exponent field (no overflow below 700)
-    let scale = f64::from_bits(t_bits.wrapping_add(((k >> 7) as u64) << 52));
+    let (t_bits, remainder) = exp_table::EXP2_TABLE[(k_bits & 127) as usize];
+    // 2^(k/128) = 2^(k >> 7) × 2^(j/128): the power of two goes into the exponent field (no overflow below 700;
+    // bits 7..18 of k_bits are those of k >> 7 modulo 2^12, and the shift drops the rest)
+    let scale = f64::from_bits(t_bits.wrapping_add((k_bits >> 7) << 52));
     let r2 = r * r;
     let em1 = r + r2 * (0.5 + r * (1.0 / 6.0 + r * (1.0 / 24.0 + r * (1.0 / 120.0))));
     scale + scale * (remainder + em1)

@@ -272,16 +272,35 @@ fn horner_column<const N: usize>(group: &PolyGroup<N>, j: usize, u: f64) -> f64 
 /// u (the value has the bits of [`horner_column`]: the derivative sums do not touch it).
 #[inline(always)]
 fn horner_column_derivatives<const N: usize>(group: &PolyGroup<N>, j: usize, u: f64) -> (f64, f64, f64) {
-    let (c, top) = (&group.c, group.degree.min(COEFFICIENTS - 1));
-    let mut v = c[top][j];
-    let mut d1 = 0.0;
-    let mut d2 = 0.0;
-    for k in (0..top).rev() {
-        d2 = d2 * u + d1;
-        d1 = d1 * u + v;
-        v = v * u + c[k][j];
+    /// Horner steps from power TOP down (a constant, so the loop unrolls).
+    #[inline(always)]
+    fn from<const N: usize, const TOP: usize>(c: &[[f64; N]; COEFFICIENTS], j: usize, u: f64) -> (f64, f64, f64) {
+        let mut v = c[TOP][j];
+        let mut d1 = 0.0;
+        let mut d2 = 0.0;
+        for k in (0..TOP).rev() {
+            d2 = d2 * u + d1;
+            d1 = d1 * u + v;
+            v = v * u + c[k][j];
+        }
+        (v, d1, 2.0 * d2)
     }
-    (v, d1, 2.0 * d2)
+    // each degree its own unrolled loop (the operations of a loop from the degree down: the same bits)
+    let c = &group.c;
+    match group.degree {
+        0 => from::<N, 0>(c, j, u),
+        1 => from::<N, 1>(c, j, u),
+        2 => from::<N, 2>(c, j, u),
+        3 => from::<N, 3>(c, j, u),
+        4 => from::<N, 4>(c, j, u),
+        5 => from::<N, 5>(c, j, u),
+        6 => from::<N, 6>(c, j, u),
+        7 => from::<N, 7>(c, j, u),
+        8 => from::<N, 8>(c, j, u),
+        9 => from::<N, 9>(c, j, u),
+        10 => from::<N, 10>(c, j, u),
+        _ => from::<N, { COEFFICIENTS - 1 }>(c, j, u),
+    }
 }
 
 /// Horner evaluation of the interpolants of a group at u, side by side (each value has the bits of

@@ -43,7 +43,7 @@ const ROUND_SHIFT: f64 = 6_755_399_441_055_744.0;
 /// e^x = 2^(k/128) e^r with k = round(128 x/ln 2), |r| ≤ ln 2/256, the table 2^(j/128) with its relative
 /// remainder ([`exp_table`], mpmath), and e^r − 1 by its Taylor polynomial of degree 5 (dropped terms below
 /// 6e-19). About half the instructions of `f64::exp`; |x| ≥ 700, infinities and NaN go to `f64::exp`.
-#[inline]
+#[inline(always)]
 pub fn exp(x: f64) -> f64 {
     if !(x.abs() < 700.0) {
         return x.exp();

@@ -389,7 +389,7 @@ impl PropertyKernels {
     /// Unscaled vapour pressure, liquid density, latent heat and liquid heat capacity of `c` at `t` from one
     /// segment look-up; None unless all four are served (each value has the bits [`PropertyKernels::eval`]
     /// gives it).
-    #[inline]
+    #[inline(always)]
     pub fn liquid_group(&self, c: &Component, t: f64) -> Option<[f64; 4]> {
         let s = self.segment_of(t)?;
         let seg = &self.segments[s];
@@ -404,7 +404,7 @@ impl PropertyKernels {
 
     /// Unscaled ideal-gas heat capacity, vapour viscosity and vapour conductivity of `c` at `t` from one
     /// segment look-up; None unless all three are served (bits as [`PropertyKernels::eval`]).
-    #[inline]
+    #[inline(always)]
     pub fn vapour_group(&self, c: &Component, t: f64) -> Option<[f64; 3]> {
         let s = self.segment_of(t)?;
         let seg = &self.segments[s];
@@ -600,7 +600,7 @@ impl<'a> VaporPressures<'a> {
     }
 
     /// Vapour pressure of component `i` at `t` \[Pa\] (the bits of `components[i].vapor_pressure(t)`).
-    #[inline]
+    #[inline(always)]
     pub fn at(&mut self, i: usize, t: f64) -> f64 {
         let last = &self.last[i];
         if let Some(g) = last.group {
@@ -614,7 +614,7 @@ impl<'a> VaporPressures<'a> {
 
     /// [`Self::at`] (the same bits) with the first and second derivatives of ln p_sat in t \[1/K, 1/K²\]: analytic
     /// from the kernel's interpolant of ln p, else central differences of the direct evaluation ([`SLOPE_STEP`]).
-    #[inline]
+    #[inline(always)]
     pub fn at_with_slopes(&mut self, i: usize, t: f64) -> (f64, f64, f64) {
         let last = &self.last[i];
         if !(last.group.is_some() && t >= last.lo && t < last.hi) {

@@ -49,13 +49,15 @@ pub struct WellMixed {
 impl WellMixed {
     fn unpack(&mut self, y: &[f64]) -> f64 {
         let n = self.n;
+        // slices of one length: the loops need no bounds checks
+        let (y, w) = (&y[..n], &mut self.w[..n]);
         let mut m = 0.0;
         for i in 0..n {
             m += y[i].max(0.0);
         }
         let m_safe = m.max(1e-300);
         for i in 0..n {
-            self.w[i] = y[i].max(0.0) / m_safe;
+            w[i] = y[i].max(0.0) / m_safe;
         }
         liquid::mass_to_mole_into(&self.film.setup.components, &self.w, &mut self.x);
         m

@@ -37,12 +37,12 @@ pub fn cbrt(x: f64) -> f64 {
 /// (1.5 × 2^52).
 const ROUND_SHIFT: f64 = 6_755_399_441_055_744.0;
 
-/// e^x within about 0.51 ulp (the standard library's exponential rounds to within about 0.5 ulp: the two give
-/// the same bits for all but about one argument in a thousand, 1 ulp apart there), in plain IEEE
-/// arithmetic without a library call: Tang's table method (Tang 1989, ACM Trans. Math. Softw. 15:144),
-/// e^x = 2^(k/128) e^r with k = round(128 x/ln 2), |r| ≤ ln 2/256, the table 2^(j/128) with its relative
-/// remainder ([`exp_table`], mpmath), and e^r − 1 by its Taylor polynomial of degree 5 (dropped terms below
-/// 6e-19). About half the instructions of `f64::exp`; |x| ≥ 700, infinities and NaN go to `f64::exp`.
+/// e^x in plain IEEE arithmetic without a library call: Tang's table method (Tang 1989, ACM Trans. Math.
+/// Softw. 15:144), e^x = 2^(k/128) e^r with k = round(128 x/ln 2), |r| ≤ ln 2/256, the table 2^(j/128) with its
+/// relative remainder (src/numerics/exp_table.rs, from mpmath), and e^r − 1 by its Taylor polynomial of degree 5
+/// (dropped terms below 6e-19); the final rounding dominates its error (about 0.5 ulp, as the standard
+/// library's). Measured against `f64::exp`: at most 1 ulp apart, the same bits for all but about one argument
+/// in a thousand. About half the instructions of `f64::exp`; |x| ≥ 700, infinities and NaN go to `f64::exp`.
 #[inline(always)]
 pub fn exp(x: f64) -> f64 {
     if !(x.abs() < 700.0) {

@@ -384,10 +384,14 @@ impl Film {
     /// \[J/(kg·K)\] (mass-weighted), the values of `props::liquid::density` and `heat_capacity` bit for bit.
     pub fn liquid_state(&mut self, w: &[f64], t: f64, latent: &mut [f64]) -> (f64, f64) {
         let (mut inv_rho, mut cp) = (0.0, 0.0);
-        for (i, c) in self.setup.components.iter().enumerate() {
-            let point = c.liquid_point_via(kernels_for(&self.kernels, i, c), t);
+        // slices of one length: the loop needs no bounds checks
+        let n = self.setup.components.len();
+        let (comps, kept, w, latent, vapor_pressures) = (&self.setup.components[..n], &self.kernels[..], &w[..n], &mut latent[..n], &mut self.vapor_pressures[..n]);
+        for i in 0..n {
+            let c = &comps[i];
+            let point = c.liquid_point_via(kernels_for(kept, i, c), t);
             latent[i] = point.latent_heat;
-            self.vapor_pressures[i] = point.vapor_pressure;
+            vapor_pressures[i] = point.vapor_pressure;
             inv_rho += w[i] / point.density;
             cp += w[i] * point.heat_capacity;
         }
@@ -414,16 +418,20 @@ impl Film {
         let mut sum_xw = 0.0;
         let filled = self.vapor_pressure_temperature.take() == Some(t);
         let gamma = self.setup.activity.gammas(x, t);
-        for i in 0..x.len() {
-            let p_sat = if filled { self.vapor_pressures[i] } else { self.setup.components[i].vapor_pressure(t) };
+        // slices of one length: the loops need no bounds checks
+        let n = x.len();
+        let (gamma, comps, vapor_pressures, molar_mass) = (&gamma[..n], &self.setup.components[..n], &self.vapor_pressures[..n], &self.molar_mass[..n]);
+        let (surface_mole, surface_mass) = (&mut self.surface_mole[..n], &mut self.surface_mass[..n]);
+        for i in 0..n {
+            let p_sat = if filled { vapor_pressures[i] } else { comps[i].vapor_pressure(t) };
             let xs = x[i] * gamma[i] * p_sat / p;
-            self.surface_mole[i] = xs;
+            surface_mole[i] = xs;
             sum_x += xs;
-            sum_xw += xs * self.molar_mass[i];
+            sum_xw += xs * molar_mass[i];
         }
         let denom = sum_xw + (1.0 - sum_x).max(0.0) * self.setup.gas.molar_mass;
-        for i in 0..x.len() {
-            self.surface_mass[i] = self.surface_mole[i] * self.molar_mass[i] / denom;
+        for i in 0..n {
+            surface_mass[i] = surface_mole[i] * molar_mass[i] / denom;
         }
         sum_x
     }

@@ -41,8 +41,6 @@ pub struct WellMixed {
     pub last: FilmResult,
     /// Surface temperature used in the last rhs call \[K\].
     pub last_surface_temperature: f64,
-    /// Droplet diameter of the last rhs call \[m\] (from its kernel liquid density).
-    last_diameter: f64,
     initial_mass: f64,
     /// Rows carry the liquid and vapour mass fractions (false: empty fractions, for observers that keep no rows).
     rows_with_fractions: bool,
@@ -51,13 +49,15 @@ pub struct WellMixed {
 impl WellMixed {
     fn unpack(&mut self, y: &[f64]) -> f64 {
         let n = self.n;
+        // slices of one length: the loops need no bounds checks
+        let (y, w) = (&y[..n], &mut self.w[..n]);
         let mut m = 0.0;
         for i in 0..n {
             m += y[i].max(0.0);
         }
         let m_safe = m.max(1e-300);
         for i in 0..n {
-            self.w[i] = y[i].max(0.0) / m_safe;
+            w[i] = y[i].max(0.0) / m_safe;
         }
         liquid::mass_to_mole_into(&self.film.setup.components, &self.w, &mut self.x);
         m
@@ -136,7 +136,6 @@ impl WellMixed {
         self.latent = latent;
         self.last = f;
         self.last_surface_temperature = t_s;
-        self.last_diameter = d;
         for i in 0..n {
             let rate = self.film.species_rate[i];
             dydt[i] = -rate;
@@ -189,7 +188,6 @@ impl WellMixed {
             x_probe: vec![0.0; n],
             last: FilmResult::default(),
             last_surface_temperature: t0,
-            last_diameter: inp.initial_diameter,
             initial_mass: m0,
             rows_with_fractions: true,
         };
@@ -347,8 +345,10 @@ impl WellMixed {
             self.evaluate(y, dydt);
         }
         let m: f64 = y[..n].iter().map(|v| v.max(0.0)).sum();
-        // the last rhs call was at `y`: a fresh row's own, or an accepted step's last stage (first same as last)
-        let d = if m > 0.0 { self.last_diameter } else { 0.0 };
+        // the liquid density of the evaluation at y (its composition at its surface temperature), as
+        // `liquid::density` gives it
+        let rho = self.film.liquid_density;
+        let d = (6.0 * m / (std::f64::consts::PI * rho)).cbrt();
         let mdot = self.last.evaporation_rate;
         let vapor: Vec<f64> = if !self.rows_with_fractions {
             vec![]

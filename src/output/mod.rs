@@ -438,12 +438,20 @@ pub fn metadata_text(text: &str) -> String {
 /// test compares both on millions of values).
 #[inline]
 pub fn fmt_f64(v: f64) -> Option<String> {
+    let mut s = String::new();
+    write_f64(v, &mut s).then_some(s)
+}
+
+/// [`fmt_f64`] appended to `s` (no allocation of its own); false (and nothing appended) for NaN or infinity.
+pub fn write_f64(v: f64, s: &mut String) -> bool {
+    use std::fmt::Write;
     if !v.is_finite() {
-        return None;
+        return false;
     }
     let a = v.abs();
     if a == 0.0 {
-        return Some(if v.is_sign_negative() { "-0" } else { "0" }.to_string());
+        s.push_str(if v.is_sign_negative() { "-0" } else { "0" });
+        return true;
     }
     let mut buffer = zmij::Buffer::new();
     let mut store = [0u8; 32];
@@ -457,11 +465,13 @@ pub fn fmt_f64(v: f64) -> Option<String> {
         e => ((bits & ((1 << 52) - 1)) | (1 << 52), e - 1075),
     };
     if point - (exponent + mantissa.trailing_zeros() as i32) <= 19 {
-        return Some(if (1e-4..1e7).contains(&a) { format!("{v}") } else { format!("{v:e}") });
+        // writing into a String cannot fail
+        let _ = if (1e-4..1e7).contains(&a) { write!(s, "{v}") } else { write!(s, "{v:e}") };
+        return true;
     }
     // the digits are ASCII
     let digits = std::str::from_utf8(&store[..len]).unwrap_or("0");
-    let mut s = String::with_capacity(len + 8);
+    s.reserve(len + 8);
     if v < 0.0 {
         s.push('-');
     }
@@ -486,10 +496,9 @@ pub fn fmt_f64(v: f64) -> Option<String> {
             s.push('.');
             s.push_str(&digits[1..]);
         }
-        s.push('e');
-        s.push_str(&(point - 1).to_string());
+        let _ = write!(s, "e{}", point - 1);
     }
-    Some(s)
+    true
 }
 
 /// The significant digits (no leading or trailing zeros) of a positive decimal written as `ddd.ddd` or
@@ -497,44 +506,34 @@ pub fn fmt_f64(v: f64) -> Option<String> {
 /// (value = 0.d₁d₂… × 10^point).
 fn decimal_digits(text: &str, out: &mut [u8; 32]) -> (usize, i32) {
     let bytes = text.as_bytes();
-    let mut len = 0;
-    let mut point = 0i32;
-    let mut seen_point = false;
-    let mut i = 0;
-    while i < bytes.len() {
-        let b = bytes[i];
-        match b {
-            b'.' => seen_point = true,
-            b'0'..=b'9' => {
-                if len == 0 && b == b'0' {
-                    // a leading zero: after the point it moves the point left
-                    if seen_point {
-                        point -= 1;
-                    }
-                } else {
-                    if len < out.len() {
-                        out[len] = b;
-                        len += 1;
-                    }
-                    if !seen_point {
-                        point += 1;
-                    }
-                }
-            }
-            b'e' | b'E' => {
-                let (negative, digits) = match bytes.get(i + 1) {
-                    Some(b'-') => (true, &bytes[i + 2..]),
-                    Some(b'+') => (false, &bytes[i + 2..]),
-                    _ => (false, &bytes[i + 1..]),
-                };
-                let exp = digits.iter().fold(0i32, |e, d| e * 10 + i32::from(d.wrapping_sub(b'0')));
-                point += if negative { -exp } else { exp };
-                break;
-            }
-            _ => {}
+    // `mantissa` e `exponent`; the mantissa `int.frac`
+    let (mantissa, exponent) = match bytes.iter().position(|&b| b == b'e' || b == b'E') {
+        Some(i) => {
+            let (negative, digits) = match bytes.get(i + 1) {
+                Some(b'-') => (true, &bytes[i + 2..]),
+                Some(b'+') => (false, &bytes[i + 2..]),
+                _ => (false, &bytes[i + 1..]),
+            };
+            let e = digits.iter().fold(0i32, |e, d| e * 10 + i32::from(d.wrapping_sub(b'0')));
+            (&bytes[..i], if negative { -e } else { e })
         }
-        i += 1;
-    }
+        None => (bytes, 0),
+    };
+    let (int, frac) = match mantissa.iter().position(|&b| b == b'.') {
+        Some(i) => (&mantissa[..i], &mantissa[i + 1..]),
+        None => (mantissa, &mantissa[mantissa.len()..]),
+    };
+    // leading zeros of the digits int ++ frac: before the point they are not counted, after it each moves the
+    // point left
+    let lead_int = int.iter().take_while(|&&b| b == b'0').count();
+    let lead_frac = if lead_int == int.len() { frac.iter().take_while(|&&b| b == b'0').count() } else { 0 };
+    let point = (int.len() - lead_int) as i32 - lead_frac as i32 + exponent;
+    let (int, frac) = (&int[lead_int..], &frac[lead_frac..]);
+    let mut len = int.len().min(out.len());
+    out[..len].copy_from_slice(&int[..len]);
+    let more = frac.len().min(out.len() - len);
+    out[len..len + more].copy_from_slice(&frac[..more]);
+    len += more;
     while len > 1 && out[len - 1] == b'0' {
         len -= 1;
     }
@@ -578,6 +577,36 @@ impl CsvTable {
         let row = self.format_row(cells, path_for_errors)?;
         self.rows.push(row);
         Ok(())
+    }
+
+    /// The text of a whole row, its cells as [`CsvTable::format_row`] gives them joined by commas, in one string
+    /// (no string per cell); kept as a row of this one cell, [`CsvTable::render`] writes the same text as the row
+    /// of separate cells would give.
+    pub fn format_row_text(&self, cells: Vec<Cell>, path_for_errors: &str) -> Result<String, OutputError> {
+        let mut row = String::with_capacity(24 * cells.len());
+        for (i, c) in cells.into_iter().enumerate() {
+            if i > 0 {
+                row.push(',');
+            }
+            let ok = match c {
+                Cell::Num(v) | Cell::Opt(Some(v)) => write_f64(v, &mut row),
+                Cell::Opt(None) => true,
+                Cell::Text(t) => {
+                    if t.contains([',', '"', '\n']) {
+                        row.push('"');
+                        row.push_str(&t.replace('"', "\"\""));
+                        row.push('"');
+                    } else {
+                        row.push_str(&t);
+                    }
+                    true
+                }
+            };
+            if !ok {
+                return Err(OutputError::NonFinite { path: path_for_errors.into(), column: self.header.get(i).cloned().unwrap_or_default() });
+            }
+        }
+        Ok(row)
     }
 
     /// The text of a row as [`CsvTable::push`] appends it (for rows formatted on several threads and appended
@@ -684,5 +713,17 @@ mod tests {
         }
         assert_eq!(fmt_f64(f64::NAN), None);
         assert_eq!(fmt_f64(f64::INFINITY), None);
+    }
+
+    /// A row formatted as one string is the row of separate cells joined by commas, and refuses what it refuses.
+    #[test]
+    fn row_text_is_the_joined_cells() {
+        use super::{Cell, CsvTable};
+        let t = CsvTable::new(vec!["a".into(), "b".into(), "c".into(), "d".into(), "e".into(), "f".into()]);
+        let cells = || vec![Cell::Num(3.0), Cell::Text("x, \"y\"".into()), Cell::Opt(None), Cell::Opt(Some(-1.25e-9)), Cell::Num(0.1 + 0.2), Cell::Text("plain".into())];
+        assert_eq!(t.format_row_text(cells(), "p").unwrap(), t.format_row(cells(), "p").unwrap().join(","));
+        assert_eq!(t.format_row_text(vec![], "p").unwrap(), "");
+        let bad = t.format_row_text(vec![Cell::Num(1.0), Cell::Opt(Some(f64::NAN))], "p").unwrap_err().to_string();
+        assert_eq!(bad, t.format_row(vec![Cell::Num(1.0), Cell::Opt(Some(f64::NAN))], "p").unwrap_err().to_string());
     }
 }

@@ -204,7 +204,8 @@ pub fn samples_table(run: &UncertaintyRun) -> Result<CsvTable, OutputError> {
             if let Some(j) = at50 {
                 cells.extend(s.residue[j].iter().map(|v| Cell::Opt(*v)));
             }
-            t.format_row(cells, "samples.csv")
+            // one string per row (the joined text as its only cell: the same file, no string per cell)
+            t.format_row_text(cells, "samples.csv").map(|text| vec![text])
         })
         .collect::<Vec<_>>()
         .into_iter()

@@ -173,14 +173,17 @@ impl<'a> Evaluator<'a> {
         self.sweeps += 1;
         self.polished = 0;
         let mut sums = LogSumMoments::default();
-        for i in 0..self.x.len() {
+        // slices of one length: the loop needs no bounds checks
+        let n = self.x.len();
+        let (x, p_sat, k, slope_b, curvature_b) = (&self.x[..n], &mut self.p_sat[..n], &mut self.k[..n], &mut self.slope_b[..n], &mut self.curvature_b[..n]);
+        for i in 0..n {
             let (ps, d1, d2) = self.vapor_pressures.at_with_slopes(i, t);
             let (h, c) = slopes_in_inverse_temperature(t, d1, d2);
-            self.p_sat[i] = ps;
-            self.k[i] = ps;
-            self.slope_b[i] = h;
-            self.curvature_b[i] = c;
-            sums.add(self.x[i] * ps, h, c);
+            p_sat[i] = ps;
+            k[i] = ps;
+            slope_b[i] = h;
+            curvature_b[i] = c;
+            sums.add(x[i] * ps, h, c);
         }
         self.t_swept = t;
         self.keep_derivatives(sums)
@@ -199,10 +202,12 @@ impl<'a> Evaluator<'a> {
     #[inline]
     fn halley_at_last_sweep(&mut self) -> f64 {
         let mut sums = LogSumMoments::default();
-        for i in 0..self.x.len() {
-            let ps = self.p_sat[i];
-            self.k[i] = ps;
-            sums.add(self.x[i] * ps, self.slope_b[i], self.curvature_b[i]);
+        let n = self.x.len();
+        let (x, p_sat, k, slope_b, curvature_b) = (&self.x[..n], &self.p_sat[..n], &mut self.k[..n], &self.slope_b[..n], &self.curvature_b[..n]);
+        for i in 0..n {
+            let ps = p_sat[i];
+            k[i] = ps;
+            sums.add(x[i] * ps, slope_b[i], curvature_b[i]);
         }
         self.keep_derivatives(sums)
     }
@@ -213,11 +218,13 @@ impl<'a> Evaluator<'a> {
     fn polish(&mut self, db: f64) -> f64 {
         self.polished += 1;
         let mut sums = LogSumMoments::default();
-        for i in 0..self.x.len() {
-            let c = self.curvature_b[i];
-            taylor_move(&mut self.p_sat[i], &mut self.slope_b[i], c, db);
-            self.k[i] = self.p_sat[i];
-            sums.add(self.x[i] * self.p_sat[i], self.slope_b[i], c);
+        let n = self.x.len();
+        let (x, p_sat, k, slope_b, curvature_b) = (&self.x[..n], &mut self.p_sat[..n], &mut self.k[..n], &mut self.slope_b[..n], &self.curvature_b[..n]);
+        for i in 0..n {
+            let c = curvature_b[i];
+            taylor_move(&mut p_sat[i], &mut slope_b[i], c, db);
+            k[i] = p_sat[i];
+            sums.add(x[i] * p_sat[i], slope_b[i], c);
         }
         self.keep_derivatives(sums)
     }
@@ -337,7 +344,7 @@ impl<'a> Evaluator<'a> {
         let m = ln_n.iter().cloned().fold(f64::NEG_INFINITY, f64::max);
         let mut s = 0.0;
         for (x, l) in self.x.iter_mut().zip(ln_n) {
-            *x = (l - m).exp();
+            *x = crate::numerics::exp(l - m);
             s += *x;
         }
         for x in self.x.iter_mut() {

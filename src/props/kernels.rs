@@ -19,6 +19,7 @@ use std::sync::{Arc, OnceLock};
 
 use crate::data::component::KernelSlot;
 use crate::data::Component;
+use crate::numerics::exp;
 use crate::props::gas::AmbientGas;
 
 /// Degree + 1 of the interpolating polynomial of a segment.
@@ -81,6 +82,8 @@ struct PolyGroup<const N: usize> {
     degree: usize,
     /// Whether each interpolant passed its check (else the direct evaluation applies to it).
     ok: [bool; N],
+    /// Whether every interpolant passed its check.
+    all_ok: bool,
 }
 
 /// Properties (in [`Component::correlations`] order) a droplet evaluates at the surface temperature: vapour
@@ -269,16 +272,35 @@ fn horner_column<const N: usize>(group: &PolyGroup<N>, j: usize, u: f64) -> f64 
 /// u (the value has the bits of [`horner_column`]: the derivative sums do not touch it).
 #[inline(always)]
 fn horner_column_derivatives<const N: usize>(group: &PolyGroup<N>, j: usize, u: f64) -> (f64, f64, f64) {
-    let (c, top) = (&group.c, group.degree.min(COEFFICIENTS - 1));
-    let mut v = c[top][j];
-    let mut d1 = 0.0;
-    let mut d2 = 0.0;
-    for k in (0..top).rev() {
-        d2 = d2 * u + d1;
-        d1 = d1 * u + v;
-        v = v * u + c[k][j];
+    /// Horner steps from power TOP down (a constant, so the loop unrolls).
+    #[inline(always)]
+    fn from<const N: usize, const TOP: usize>(c: &[[f64; N]; COEFFICIENTS], j: usize, u: f64) -> (f64, f64, f64) {
+        let mut v = c[TOP][j];
+        let mut d1 = 0.0;
+        let mut d2 = 0.0;
+        for k in (0..TOP).rev() {
+            d2 = d2 * u + d1;
+            d1 = d1 * u + v;
+            v = v * u + c[k][j];
+        }
+        (v, d1, 2.0 * d2)
     }
-    (v, d1, 2.0 * d2)
+    // each degree its own unrolled loop (the operations of a loop from the degree down: the same bits)
+    let c = &group.c;
+    match group.degree {
+        0 => from::<N, 0>(c, j, u),
+        1 => from::<N, 1>(c, j, u),
+        2 => from::<N, 2>(c, j, u),
+        3 => from::<N, 3>(c, j, u),
+        4 => from::<N, 4>(c, j, u),
+        5 => from::<N, 5>(c, j, u),
+        6 => from::<N, 6>(c, j, u),
+        7 => from::<N, 7>(c, j, u),
+        8 => from::<N, 8>(c, j, u),
+        9 => from::<N, 9>(c, j, u),
+        10 => from::<N, 10>(c, j, u),
+        _ => from::<N, { COEFFICIENTS - 1 }>(c, j, u),
+    }
 }
 
 /// Horner evaluation of the interpolants of a group at u, side by side (each value has the bits of
@@ -310,7 +332,7 @@ fn horner_group<const N: usize>(group: &PolyGroup<N>, u: f64) -> [f64; N] {
 
 /// The interpolants of `properties` of `c` on `seg`, fitted one by one ([`fit`]) and stored as a group.
 fn fit_group<const N: usize>(c: &Component, properties: [usize; N], seg: &Segment) -> PolyGroup<N> {
-    let mut group = PolyGroup { c: [[0.0; N]; COEFFICIENTS], degree: 0, ok: [false; N] };
+    let mut group = PolyGroup { c: [[0.0; N]; COEFFICIENTS], degree: 0, ok: [false; N], all_ok: false };
     for (j, &property) in properties.iter().enumerate() {
         let poly = fit(c, property, seg);
         group.ok[j] = poly.ok;
@@ -319,6 +341,7 @@ fn fit_group<const N: usize>(c: &Component, properties: [usize; N], seg: &Segmen
             group.c[k][j] = poly.c[k];
         }
     }
+    group.all_ok = group.ok.iter().all(|ok| *ok);
     group
 }
 
@@ -360,33 +383,33 @@ impl PropertyKernels {
         if !ok {
             return None;
         }
-        Some(if property == VAPOR_PRESSURE { value.exp() } else { value })
+        Some(if property == VAPOR_PRESSURE { exp(value) } else { value })
     }
 
     /// Unscaled vapour pressure, liquid density, latent heat and liquid heat capacity of `c` at `t` from one
     /// segment look-up; None unless all four are served (each value has the bits [`PropertyKernels::eval`]
     /// gives it).
-    #[inline]
+    #[inline(always)]
     pub fn liquid_group(&self, c: &Component, t: f64) -> Option<[f64; 4]> {
         let s = self.segment_of(t)?;
         let seg = &self.segments[s];
         let g = self.liquid[s].get_or_init(|| fit_group(c, LIQUID_GROUP, seg));
-        if !(g.ok[0] && g.ok[1] && g.ok[2] && g.ok[3]) {
+        if !g.all_ok {
             return None;
         }
         let mut v = horner_group(g, (t - seg.mid) * seg.inv_half);
-        v[0] = v[0].exp();
+        v[0] = exp(v[0]);
         Some(v)
     }
 
     /// Unscaled ideal-gas heat capacity, vapour viscosity and vapour conductivity of `c` at `t` from one
     /// segment look-up; None unless all three are served (bits as [`PropertyKernels::eval`]).
-    #[inline]
+    #[inline(always)]
     pub fn vapour_group(&self, c: &Component, t: f64) -> Option<[f64; 3]> {
         let s = self.segment_of(t)?;
         let seg = &self.segments[s];
         let g = self.vapour[s].get_or_init(|| fit_group(c, VAPOUR_GROUP, seg));
-        if !(g.ok[0] && g.ok[1] && g.ok[2]) {
+        if !g.all_ok {
             return None;
         }
         Some(horner_group(g, (t - seg.mid) * seg.inv_half))
@@ -577,13 +600,13 @@ impl<'a> VaporPressures<'a> {
     }
 
     /// Vapour pressure of component `i` at `t` \[Pa\] (the bits of `components[i].vapor_pressure(t)`).
-    #[inline]
+    #[inline(always)]
     pub fn at(&mut self, i: usize, t: f64) -> f64 {
         let last = &self.last[i];
         if let Some(g) = last.group {
             if t >= last.lo && t < last.hi {
                 // as PropertyKernels::eval: the interpolant of ln p, then exp, then the scale
-                return horner_column(g, VAPOR_PRESSURE, (t - last.mid) * last.inv_half).exp() * last.scale;
+                return exp(horner_column(g, VAPOR_PRESSURE, (t - last.mid) * last.inv_half)) * last.scale;
             }
         }
         self.search(i, t)
@@ -591,7 +614,7 @@ impl<'a> VaporPressures<'a> {
 
     /// [`Self::at`] (the same bits) with the first and second derivatives of ln p_sat in t \[1/K, 1/K²\]: analytic
     /// from the kernel's interpolant of ln p, else central differences of the direct evaluation ([`SLOPE_STEP`]).
-    #[inline]
+    #[inline(always)]
     pub fn at_with_slopes(&mut self, i: usize, t: f64) -> (f64, f64, f64) {
         let last = &self.last[i];
         if !(last.group.is_some() && t >= last.lo && t < last.hi) {
@@ -600,7 +623,7 @@ impl<'a> VaporPressures<'a> {
         match self.last[i] {
             LastSegment { group: Some(g), lo, hi, mid, inv_half, scale } if t >= lo && t < hi => {
                 let (v, d1, d2) = horner_column_derivatives(g, VAPOR_PRESSURE, (t - mid) * inv_half);
-                (v.exp() * scale, d1 * inv_half, d2 * inv_half * inv_half)
+                (exp(v) * scale, d1 * inv_half, d2 * inv_half * inv_half)
             }
             _ => {
                 let c = &self.components[i];
@@ -621,7 +644,7 @@ impl<'a> VaporPressures<'a> {
                 if g.ok[VAPOR_PRESSURE] {
                     let scale = c.property_scales[VAPOR_PRESSURE];
                     self.last[i] = LastSegment { lo: seg.lo, hi: seg.hi, mid: seg.mid, inv_half: seg.inv_half, scale, group: Some(g) };
-                    return horner_column(g, VAPOR_PRESSURE, (t - seg.mid) * seg.inv_half).exp() * scale;
+                    return exp(horner_column(g, VAPOR_PRESSURE, (t - seg.mid) * seg.inv_half)) * scale;
                 }
             }
         }

@@ -266,7 +266,8 @@ pub fn perturbed(nominal: &DropletInputs, factors: &[Factor], z: &[f64]) -> Drop
 
 /// Component copies of finished samples kept for the next sample on the same worker: a copy differs from its
 /// nominal component only in its property scales, flash point and cetane number, so overwriting those gives
-/// the copy [`perturbed`] would make, without copying the rest (names, sources, correlations) again.
+/// the copy [`perturbed`] would make, without copying the rest (names, sources, correlations) again (also when
+/// only the flash point or cetane number of a component is sampled).
 #[derive(Default)]
 pub struct Spare {
     components: Vec<Option<Arc<crate::data::Component>>>,
@@ -335,7 +336,9 @@ pub fn perturbed_reusing(nominal: &DropletInputs, factors: &[Factor], z: &[f64],
         // an estimated flash point becomes a sample value with the estimate's own marker
         let fp_source = base.constants.flash_point.as_ref().map_or("estimated:butler-1956", |f| f.source.as_str());
         let flash_point = |t: f64| Sourced { value: t, source: fp_source.to_string(), uncertainty: None, note: None, kind: None };
-        if let (Some(s), Some(mut kept)) = (s, spare.take(i)) {
+        // a copy is kept whether the sample scaled its properties or not (no property factor: the nominal scales)
+        if let Some(mut kept) = spare.take(i) {
+            let s = s.unwrap_or(base.property_scales);
             // a kept copy made by `with_property_scales` of this very component (the kernels it shares, none built
             // for it alone)
             let same_kernels = |c: &crate::data::Component| Arc::ptr_eq(&c.kernels.shared, &base.kernels.shared) && c.kernels.active.is_some() == base.kernels.active.is_some() && c.kernels.twin.get().is_none();
@@ -435,16 +438,25 @@ mod tests {
     }
 
     /// Overwriting kept copies gives the inputs a fresh copy gives (every component equal, the same property
-    /// bits), sample after sample, with property, flash-point and cetane factors, through the kernels.
+    /// bits), sample after sample, with property, flash-point and cetane factors, through the kernels; and with
+    /// flash-point and cetane factors alone.
     #[test]
     fn reused_copies_equal_fresh_ones() {
+        for properties in [true, false] {
+            reused_copies_equal_fresh_ones_with(properties);
+        }
+    }
+
+    fn reused_copies_equal_fresh_ones_with(properties: bool) {
         let lib = Library::embedded().unwrap();
         let inp = crate::model::inputs::with_kernels(&nominal("demo-wide")).unwrap_or_else(|| nominal("demo-wide"));
         let mut spec = UncertaintySpec::default();
+        spec.properties.enabled = properties;
         spec.indicator_inputs.enabled = true;
         spec.indicator_inputs.scale = 1.0;
         spec.add_composition("aromatics=10%", "c", &lib).unwrap();
         let (f, _) = resolve(&spec, &inp).unwrap();
+        assert_eq!(f.iter().any(|f| matches!(f.kind, FactorKind::Property { .. })), properties);
         let mut spare = Spare::default();
         let mut reused = 0;
         for sample in 0..4 {

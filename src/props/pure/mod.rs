@@ -438,7 +438,7 @@ impl Component {
 
     /// [`Component::vapor_properties`] through the kernels `kernels`, which must be this copy's
     /// ([`super::kernels::active`]; a caller that evaluates often keeps them instead of looking them up per call).
-    #[inline]
+    #[inline(always)]
     pub fn vapor_properties_via(&self, kernels: Option<&super::kernels::PropertyKernels>, t: f64) -> (f64, f64, f64) {
         let s = &self.property_scales;
         if let Some(k) = kernels {
@@ -460,7 +460,7 @@ impl Component {
 
     /// [`Component::liquid_point`] through the kernels `kernels`, which must be this copy's
     /// ([`super::kernels::active`]; a caller that evaluates often keeps them instead of looking them up per call).
-    #[inline]
+    #[inline(always)]
     pub fn liquid_point_via(&self, kernels: Option<&super::kernels::PropertyKernels>, t: f64) -> LiquidPoint {
         let s = &self.property_scales;
         if let Some(k) = kernels {

@@ -162,8 +162,9 @@ impl Model {
     fn liquid_properties(&mut self, s: &State) -> Liquid {
         let t_mean = self.tgrid.mean(&s.temp);
         let comps = &self.comps;
-        // density, heat capacity, viscosity and conductivity in one pass over the components
-        let mix = liquid::transport_mix(comps, &self.w_mean, &self.x_mean, t_mean);
+        // density, heat capacity, viscosity and conductivity in one pass over the components, through the film's
+        // components (their property kernels when the run evaluates through kernels, else the direct correlations)
+        let mix = liquid::transport_mix(&self.film.setup.components, &self.w_mean, &self.x_mean, t_mean);
         let w_b = liquid::molar_mass(comps, &self.x_mean);
         let v_a: f64 = self.x_mean.iter().zip(&self.molar_volume_b).map(|(x, v)| x * v).sum();
         Liquid {
@@ -186,7 +187,7 @@ impl Model {
     fn film_with(&mut self, surface_y: &[f64], t_s: f64, mass: f64, rho: f64, speed: f64, heat_inward: Option<f64>) -> FilmResult {
         liquid::mass_to_mole_into(&self.comps, surface_y, &mut self.x_surf);
         // latent heats and vapour pressures from one kernel look-up per component (the film keeps the latter)
-        let _ = self.film.liquid_state(surface_y, t_s, &mut self.latent);
+        self.film.surface_liquid_state(t_s, &mut self.latent);
         let d = (6.0 * mass.max(1e-300) / (std::f64::consts::PI * rho)).cbrt();
         self.film.liquid_density = rho;
         let x = std::mem::take(&mut self.x_surf);
@@ -591,7 +592,11 @@ impl Model {
         let rho0 = liquid::density(&comps, w0, t0);
         let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
         let x0 = inp.fuel.mole_fractions();
-        let t_hold0 = boiling_hold_temperature(&comps, &mut film.setup.activity, &x0, inp.pressure).unwrap_or(f64::INFINITY);
+        // the hold temperature decides only whether the droplet flashes at injection: an ideal liquid whose bubble
+        // pressure 1 K above the start is still below the threshold starts below it (Raoult's bubble pressure rises
+        // with the temperature), and the search is skipped
+        let below_hold = film.setup.activity.is_ideal() && liquid::bubble_pressure(&comps, &x0, t0 + 1.0) < BOILING_THRESHOLD * inp.pressure;
+        let t_hold0 = if below_hold { f64::INFINITY } else { boiling_hold_temperature(&comps, &mut film.setup.activity, &x0, inp.pressure).unwrap_or(f64::INFINITY) };
         let mut masses: Vec<f64> = w0.iter().map(|w| w * m0).collect();
         let mut t_start = t0;
         let mut flash = None;

@@ -451,6 +451,19 @@ impl Component {
         (cp * s[IDEAL_GAS_HEAT_CAPACITY], mu * s[VAPOR_VISCOSITY], kv * s[VAPOR_CONDUCTIVITY])
     }
 
+    /// Vapour pressure \[Pa\] and latent heat \[J/kg\] at `t` through the kernels `kernels` (which must be this copy's),
+    /// the bits of those fields of [`Component::liquid_point_via`].
+    #[inline]
+    pub fn pressure_and_latent_via(&self, kernels: Option<&super::kernels::PropertyKernels>, t: f64) -> (f64, f64) {
+        let s = &self.property_scales;
+        if let Some(k) = kernels {
+            if let Some([p, l]) = k.pressure_and_latent(self, t) {
+                return (p * s[VAPOR_PRESSURE], l * s[LATENT_HEAT]);
+            }
+        }
+        (self.vapor_pressure(t), self.latent_heat(t))
+    }
+
     /// Vapour pressure, liquid density, latent heat and liquid heat capacity at `t` (the values, bit for bit,
     /// of the four single-property methods), from one kernel look-up when this copy has kernels.
     #[inline]

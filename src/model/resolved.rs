@@ -583,10 +583,10 @@ impl Model {
         let rho0 = liquid::density(&comps, w0, t0);
         let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
         let x0 = inp.fuel.mole_fractions();
-        // the hold temperature decides only whether the droplet flashes at injection: an ideal liquid whose bubble
-        // pressure 1 K above the start is still below the threshold starts below it (Raoult's bubble pressure rises
-        // with the temperature), and the search is skipped
-        let below_hold = film.setup.activity.is_ideal() && liquid::bubble_pressure(&comps, &x0, t0 + 1.0) < BOILING_THRESHOLD * inp.pressure;
+        // the hold temperature decides only whether the droplet flashes at injection: a start well below it (bubble
+        // pressure at t0 under 90 % of the hold pressure; it rises with temperature) is told by one bubble-pressure
+        // evaluation instead of the root search, as in the well-mixed model
+        let below_hold = film.setup.activity.bubble_pressure(&comps, &x0, t0) < 0.9 * BOILING_THRESHOLD * inp.pressure;
         let t_hold0 = if below_hold { f64::INFINITY } else { boiling_hold_temperature(&comps, &mut film.setup.activity, &x0, inp.pressure).unwrap_or(f64::INFINITY) };
         let mut masses: Vec<f64> = w0.iter().map(|w| w * m0).collect();
         let mut t_start = t0;

@@ -399,6 +399,18 @@ impl Film {
         (1.0 / inv_rho, cp)
     }
 
+    /// The component latent heats at `t` \[J/kg\] to `latent`, with the vapour pressures kept for the next surface
+    /// equilibrium at exactly `t`: the part of [`Film::liquid_state`] a caller without the mixture density and heat
+    /// capacity needs (the same bits).
+    pub fn surface_liquid_state(&mut self, t: f64, latent: &mut [f64]) {
+        for (i, c) in self.setup.components.iter().enumerate() {
+            let (p_sat, l) = c.pressure_and_latent_via(kernels_for(&self.kernels, i, c), t);
+            latent[i] = l;
+            self.vapor_pressures[i] = p_sat;
+        }
+        self.vapor_pressure_temperature = Some(t);
+    }
+
     /// Bubble point of liquid mole fractions `x` at the film pressure, with the film's activity model \[K\].
     pub fn bubble_point(&mut self, x: &[f64]) -> Result<f64, PropertyError> {
         liquid::bubble_point_with(&self.setup.components, &mut self.setup.activity, x, self.setup.pressure)

@@ -162,8 +162,9 @@ impl Model {
     fn liquid_properties(&mut self, s: &State) -> Liquid {
         let t_mean = self.tgrid.mean(&s.temp);
         let comps = &self.comps;
-        // density, heat capacity, viscosity and conductivity in one pass over the components
-        let mix = liquid::transport_mix(comps, &self.w_mean, &self.x_mean, t_mean);
+        // density, heat capacity, viscosity and conductivity in one pass over the components, through the film's
+        // components (their property kernels when the run evaluates through kernels, else the direct correlations)
+        let mix = liquid::transport_mix(&self.film.setup.components, &self.w_mean, &self.x_mean, t_mean);
         let w_b = liquid::molar_mass(comps, &self.x_mean);
         let v_a: f64 = self.x_mean.iter().zip(&self.molar_volume_b).map(|(x, v)| x * v).sum();
         Liquid {
@@ -186,7 +187,7 @@ impl Model {
     fn film_with(&mut self, surface_y: &[f64], t_s: f64, mass: f64, rho: f64, speed: f64, heat_inward: Option<f64>) -> FilmResult {
         liquid::mass_to_mole_into(&self.comps, surface_y, &mut self.x_surf);
         // latent heats and vapour pressures from one kernel look-up per component (the film keeps the latter)
-        let _ = self.film.liquid_state(surface_y, t_s, &mut self.latent);
+        self.film.surface_liquid_state(t_s, &mut self.latent);
         let d = (6.0 * mass.max(1e-300) / (std::f64::consts::PI * rho)).cbrt();
         self.film.liquid_density = rho;
         let x = std::mem::take(&mut self.x_surf);
@@ -401,54 +402,20 @@ impl Model {
         }
         // Liquid inventory per component straight from the conservative solve; the evaporated masses are what
         // left it (so liquid + evaporated = initial holds exactly), and cell sums are renormalised to 1.
-        // One pass per column gives its inventory before and after the step and adds it to the cell sums (the
-        // same sums in the same order as separate passes), a second divides by the sums and checks the values.
         let widths = &self.ygrid.widths[..ny];
         let cell_sums = &mut self.cell_sums[..ny];
         cell_sums.fill(0.0);
-        // Σ_j Δη_j Y_ij of each column after and before the step, four columns side by side (independent
-        // chains; each sum in cell order, and each cell sum over the columns in column order, as column by column)
+        // Σ_j Δη_j Y_ij of each column after and before the step (four partial sums over the cells, independent
+        // chains), and each cell's sum over the columns (in column order, contiguous over the cells)
         let sums = &mut self.column_sums[..2 * n];
         let (new_sums, old_sums) = sums.split_at_mut(n);
         let y_len = n * ny;
-        let quads = n / 4 * 4 * ny;
-        let (new_wide, new_rest) = next.y[..y_len].split_at(quads);
-        let (old_wide, old_rest) = s.y[..y_len].split_at(quads);
-        for (((new4, old4), sum_new), sum_old) in new_wide.chunks_exact(4 * ny).zip(old_wide.chunks_exact(4 * ny)).zip(new_sums.chunks_exact_mut(4)).zip(old_sums.chunks_exact_mut(4)) {
-            // (float sums start from −0.0, the identity of addition)
-            let (mut acc_new, mut acc_old) = ([-0.0; 4], [-0.0; 4]);
-            let (n0, rest) = new4.split_at(ny);
-            let (n1, rest) = rest.split_at(ny);
-            let (n2, n3) = rest.split_at(ny);
-            let (o0, rest) = old4.split_at(ny);
-            let (o1, rest) = rest.split_at(ny);
-            let (o2, o3) = rest.split_at(ny);
-            let new_cols = n0.iter().zip(n1).zip(n2.iter().zip(n3));
-            let old_cols = o0.iter().zip(o1).zip(o2.iter().zip(o3));
-            for (((sum, &w), ((&v0, &v1), (&v2, &v3))), ((&u0, &u1), (&u2, &u3))) in cell_sums.iter_mut().zip(widths).zip(new_cols).zip(old_cols) {
-                acc_new[0] += w * v0;
-                acc_new[1] += w * v1;
-                acc_new[2] += w * v2;
-                acc_new[3] += w * v3;
-                acc_old[0] += w * u0;
-                acc_old[1] += w * u1;
-                acc_old[2] += w * u2;
-                acc_old[3] += w * u3;
-                *sum = *sum + v0 + v1 + v2 + v3;
-            }
-            sum_new.copy_from_slice(&acc_new);
-            sum_old.copy_from_slice(&acc_old);
-        }
-        let (new_sums, old_sums) = (&mut new_sums[n / 4 * 4..], &mut old_sums[n / 4 * 4..]);
-        for (((column, old), sum_new), sum_old) in new_rest.chunks_exact(ny).zip(old_rest.chunks_exact(ny)).zip(new_sums.iter_mut()).zip(old_sums.iter_mut()) {
-            let (mut acc_new, mut acc_old) = (-0.0, -0.0);
-            for ((sum, (&v, &v_old)), &w) in cell_sums.iter_mut().zip(column.iter().zip(old)).zip(widths) {
-                acc_new += w * v;
-                acc_old += w * v_old;
+        for ((column, old), (sum_new, sum_old)) in next.y[..y_len].chunks_exact(ny).zip(s.y[..y_len].chunks_exact(ny)).zip(new_sums.iter_mut().zip(old_sums.iter_mut())) {
+            *sum_new = weighted_sum(widths, column);
+            *sum_old = weighted_sum(widths, old);
+            for (sum, &v) in cell_sums.iter_mut().zip(column) {
                 *sum += v;
             }
-            *sum_new = acc_new;
-            *sum_old = acc_old;
         }
         let mut total_mass = 0.0;
         let (new_sums, old_sums) = sums.split_at(n);
@@ -461,13 +428,19 @@ impl Model {
         }
         let _ = mdot_a;
         next.mass = total_mass;
+        // divisors of the cells: their sums, or 1 where a sum is not positive (the value kept: v/1 = v exactly)
+        for sum in cell_sums.iter_mut() {
+            if !(*sum > 0.0) {
+                *sum = 1.0;
+            }
+        }
         // (the test written without branches, so that the loop runs two cells at a time: !(u ≥ −1e-6) holds for
         // NaN, −∞ and u < −1e-6, the second term for +∞, as !u.is_finite() | (u < −1e-6))
         let mut bad = false;
         for column in next.y.chunks_exact_mut(ny).take(n) {
             let mut column_bad = false;
             for (v, &sum) in column.iter_mut().zip(&*cell_sums) {
-                let u = if sum > 0.0 { *v / sum } else { *v };
+                let u = *v / sum;
                 *v = u;
                 column_bad |= !(u >= -1e-6) | (u == f64::INFINITY);
             }
@@ -565,6 +538,25 @@ struct StepStart {
     surface_y: Vec<f64>,
 }
 
+/// Σ_j w_j v_j in four partial sums over j (independent chains the compiler runs side by side), added pairwise.
+#[inline]
+fn weighted_sum(w: &[f64], v: &[f64]) -> f64 {
+    let mut acc = [0.0; 4];
+    let len = w.len().min(v.len());
+    let (w_wide, w_rest) = w[..len].split_at(len / 4 * 4);
+    let (v_wide, v_rest) = v[..len].split_at(len / 4 * 4);
+    for (w4, v4) in w_wide.chunks_exact(4).zip(v_wide.chunks_exact(4)) {
+        acc[0] += w4[0] * v4[0];
+        acc[1] += w4[1] * v4[1];
+        acc[2] += w4[2] * v4[2];
+        acc[3] += w4[3] * v4[3];
+    }
+    for (w, v) in w_rest.iter().zip(v_rest) {
+        acc[0] += w * v;
+    }
+    (acc[0] + acc[1]) + (acc[2] + acc[3])
+}
+
 /// Σ X_s of the start film from which an evaporating step with species diffusion in a mixture takes its second
 /// pass's fluxes from the surface state solved for the first pass's cells (the total rate grows like
 /// 1/(1 − Y_F,s) towards the bubble point; below this the film refresh at the first pass's surface is enough).
@@ -591,7 +583,11 @@ impl Model {
         let rho0 = liquid::density(&comps, w0, t0);
         let m0 = std::f64::consts::PI / 6.0 * rho0 * inp.initial_diameter.powi(3);
         let x0 = inp.fuel.mole_fractions();
-        let t_hold0 = boiling_hold_temperature(&comps, &mut film.setup.activity, &x0, inp.pressure).unwrap_or(f64::INFINITY);
+        // the hold temperature decides only whether the droplet flashes at injection: a start well below it (bubble
+        // pressure at t0 under 90 % of the hold pressure; it rises with temperature) is told by one bubble-pressure
+        // evaluation instead of the root search, as in the well-mixed model
+        let below_hold = film.setup.activity.bubble_pressure(&comps, &x0, t0) < 0.9 * BOILING_THRESHOLD * inp.pressure;
+        let t_hold0 = if below_hold { f64::INFINITY } else { boiling_hold_temperature(&comps, &mut film.setup.activity, &x0, inp.pressure).unwrap_or(f64::INFINITY) };
         let mut masses: Vec<f64> = w0.iter().map(|w| w * m0).collect();
         let mut t_start = t0;
         let mut flash = None;

@@ -402,6 +402,35 @@ impl PropertyKernels {
         Some(v)
     }
 
+    /// Unscaled vapour pressure and latent heat of `c` at `t` from its liquid group, the bits of values 0 and 2 of
+    /// [`PropertyKernels::liquid_group`] (None where it gives None): the two columns alone, for a caller that needs
+    /// no density or heat capacity.
+    #[inline]
+    pub fn pressure_and_latent(&self, c: &Component, t: f64) -> Option<[f64; 2]> {
+        let s = self.segment_of(t)?;
+        let seg = &self.segments[s];
+        let g = self.liquid[s].get_or_init(|| fit_group(c, LIQUID_GROUP, seg));
+        if !(g.ok[0] && g.ok[1] && g.ok[2] && g.ok[3]) {
+            return None;
+        }
+        let u = (t - seg.mid) * seg.inv_half;
+        Some([horner_column(g, 0, u).exp(), horner_column(g, 2, u)])
+    }
+
+    /// Unscaled liquid density and liquid heat capacity of `c` at `t` from its liquid group, the bits of values 1
+    /// and 3 of [`PropertyKernels::liquid_group`] (None where it gives None).
+    #[inline]
+    pub fn density_and_heat_capacity(&self, c: &Component, t: f64) -> Option<[f64; 2]> {
+        let s = self.segment_of(t)?;
+        let seg = &self.segments[s];
+        let g = self.liquid[s].get_or_init(|| fit_group(c, LIQUID_GROUP, seg));
+        if !(g.ok[0] && g.ok[1] && g.ok[2] && g.ok[3]) {
+            return None;
+        }
+        let u = (t - seg.mid) * seg.inv_half;
+        Some([horner_column(g, 1, u), horner_column(g, 3, u)])
+    }
+
     /// Unscaled ideal-gas heat capacity, vapour viscosity and vapour conductivity of `c` at `t` from one
     /// segment look-up; None unless all three are served (bits as [`PropertyKernels::eval`]).
     #[inline(always)]

@@ -244,14 +244,15 @@ pub struct TransportMix {
 
 /// [`density`], [`heat_capacity`], [`viscosity`] and [`conductivity`] of mass fractions `w` (mole fractions `x`)
 /// at `t` in one pass over the components, density and heat capacity from one grouped look-up per component
-/// (`Component::liquid_point`): the same values, bit for bit (each mixing sum over the components in order).
+/// (`Component::density_and_heat_capacity`): the same values, bit for bit (each mixing sum over the components in
+/// order).
 pub fn transport_mix(components: &[Arc<Component>], w: &[f64], x: &[f64], t: f64) -> TransportMix {
     // (float sums start from −0.0, as `Iterator::sum` does)
     let (mut inv_rho, mut cp, mut ln_mu, mut inv_k2) = (-0.0, -0.0, -0.0, -0.0);
     for ((c, &w), &x) in components.iter().zip(w).zip(x) {
-        let point = c.liquid_point(t);
-        inv_rho += w / point.density;
-        cp += w * point.heat_capacity;
+        let (density, heat_capacity) = c.density_and_heat_capacity(t);
+        inv_rho += w / density;
+        cp += w * heat_capacity;
         ln_mu += x * c.liquid_viscosity(t).ln();
         inv_k2 += w / c.liquid_conductivity(t).powi(2);
     }

@@ -96,3 +96,47 @@ mod boiling {
         assert!(worst < 2e-9, "largest relative difference {worst:e}");
     }
 }
+
+mod liquid_state {
+    use super::super::*;
+
+    /// The surface part of the liquid state (latent heats, kept vapour pressures) has the bits of the full one,
+    /// through kernels and directly, inside and outside the kernels' range (1000 K: the direct correlations).
+    #[test]
+    fn surface_liquid_state_has_the_bits_of_the_full_one() {
+        let lib = crate::data::Library::embedded().unwrap();
+        let ids = ["n-heptane", "n-dodecane", "toluene", "n-hexadecane"];
+        let direct: Vec<std::sync::Arc<crate::data::Component>> = ids.iter().map(|id| lib.component(id).unwrap().clone()).collect();
+        for mode in [crate::props::kernels::PropertyEvaluation::Kernels, crate::props::kernels::PropertyEvaluation::Direct] {
+            let comps = crate::props::kernels::run_components(&direct, mode);
+            let setup = FilmSetup {
+                components: comps,
+                gas: crate::props::gas::AmbientGas::air(&lib).unwrap(),
+                pressure: 101_325.0,
+                ambient_temperature: 800.0,
+                ambient_vapor: vec![0.0; 4],
+                reference_weight: 1.0 / 3.0,
+                correlation: TransferCorrelation::Clift,
+                non_equilibrium: false,
+                extra_heat: ExtraHeat::default(),
+                drag: DragLaw::YuenChen,
+                activity: Activity::ideal(4),
+                vapour_diffusion: VapourDiffusion::Mixture,
+            };
+            let (mut full, mut part) = (Film::new(setup.clone()), Film::new(setup));
+            let w = [0.4, 0.3, 0.2, 0.1];
+            for t in [250.0, 300.0, 347.3, 420.0, 505.5, 1000.0] {
+                let (mut l_full, mut l_part) = ([0.0; 4], [0.0; 4]);
+                let _ = full.liquid_state(&w, t, &mut l_full);
+                part.surface_liquid_state(t, &mut l_part);
+                for (a, b) in l_full.iter().zip(&l_part) {
+                    assert_eq!(a.to_bits(), b.to_bits(), "{mode:?} {t}");
+                }
+                for (a, b) in full.vapor_pressures.iter().zip(&part.vapor_pressures) {
+                    assert_eq!(a.to_bits(), b.to_bits(), "{mode:?} {t}");
+                }
+                assert_eq!(part.vapor_pressure_temperature, Some(t));
+            }
+        }
+    }
+}

@@ -80,9 +80,11 @@ pub(crate) enum Attempt {
 }
 
 /// The outcome of one candidate step of length `h` from `state` (start data `st`): the Richardson combination
-/// of a full step and two half steps with its surface settled, and the step-doubling error norm; Err(reason,
-/// retry factor) when a step failed or the combination is not physical.
-fn candidate(model: &mut Model, state: &State, st: &StepStart, h: f64, m0: f64) -> Result<(State, f64), String> {
+/// of a full step and two half steps, and the step-doubling error norm; Err(reason, retry factor) when a step
+/// failed or the combination is not physical. The surface of the combination is settled (`settle_surface`) when
+/// `settle` is true or the error norm is within `tol`: a rejected candidate is not settled, so that the kept
+/// surface solution stays the one of `state`, from which the retry starts.
+fn candidate(model: &mut Model, state: &State, st: &StepStart, h: f64, m0: f64, tol: f64, settle: bool) -> Result<(State, f64), String> {
     let full = model.step(state, st, h)?;
     let mid = model.step(state, st, 0.5 * h)?;
     let mid_start = model.start(&mid)?;
@@ -98,7 +100,9 @@ fn candidate(model: &mut Model, state: &State, st: &StepStart, h: f64, m0: f64) 
     if !(new.mass > 0.0) || new.temp.iter().any(|v| !v.is_finite()) {
         return Err("non-physical Richardson combination".into());
     }
-    model.settle_surface(&mut new);
+    if settle || err <= tol {
+        model.settle_surface(&mut new);
+    }
     Ok((new, err))
 }
 
@@ -117,7 +121,7 @@ const EVENT_TOLERANCE: f64 = 1e-4;
 pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: f64, m0: f64, stats: &mut Stats) -> Attempt {
     let start = model.start(state);
     let outcome = match &start {
-        Ok(st) => candidate(model, state, st, *dt, m0),
+        Ok(st) => candidate(model, state, st, *dt, m0, tol, false),
         Err(e) => Err(e.clone()),
     };
     stats.rhs_calls = model.film_calls;
@@ -156,7 +160,7 @@ pub(crate) fn attempt_step(model: &mut Model, state: &State, dt: &mut f64, tol: 
             let mut past = (*dt, None);
             let tolerance = crate::numerics::root::Tolerance::relative(EVENT_TOLERANCE).with_max_iterations(40);
             let _ = crate::numerics::root::brent_from(
-                |h| match candidate(model, state, st, h, m0) {
+                |h| match candidate(model, state, st, h, m0, tol, true) {
                     Ok((c, e)) => {
                         let g = model.regime_event(state.boiling, &c).unwrap_or(f64::NAN);
                         if g <= 0.0 && h < past.0 {

@@ -451,6 +451,30 @@ impl Component {
         (cp * s[IDEAL_GAS_HEAT_CAPACITY], mu * s[VAPOR_VISCOSITY], kv * s[VAPOR_CONDUCTIVITY])
     }
 
+    /// Vapour pressure \[Pa\] and latent heat \[J/kg\] at `t`: those fields of [`Component::liquid_point_via`], bit for bit.
+    #[inline]
+    pub fn pressure_and_latent_via(&self, kernels: Option<&super::kernels::PropertyKernels>, t: f64) -> (f64, f64) {
+        let s = &self.property_scales;
+        if let Some(k) = kernels {
+            if let Some([p, l]) = k.pressure_and_latent(self, t) {
+                return (p * s[VAPOR_PRESSURE], l * s[LATENT_HEAT]);
+            }
+        }
+        (self.vapor_pressure(t), self.latent_heat(t))
+    }
+
+    /// Liquid density \[kg/m³\] and heat capacity \[J/(kg·K)\] at `t`: those fields of [`Component::liquid_point`], bit for bit.
+    #[inline]
+    pub fn density_and_heat_capacity(&self, t: f64) -> (f64, f64) {
+        let s = &self.property_scales;
+        if let Some(k) = super::kernels::active(self) {
+            if let Some([rho, cp]) = k.density_and_heat_capacity(self, t) {
+                return (rho * s[LIQUID_DENSITY], cp * s[LIQUID_HEAT_CAPACITY]);
+            }
+        }
+        (self.liquid_density(t), self.liquid_heat_capacity(t))
+    }
+
     /// Vapour pressure, liquid density, latent heat and liquid heat capacity at `t` (the values, bit for bit,
     /// of the four single-property methods), from one kernel look-up when this copy has kernels.
     #[inline]

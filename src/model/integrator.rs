@@ -234,6 +234,30 @@ impl DormandPrince {
         self.system_at_end
     }
 
+    /// Takes the attempted step from `t` of size `h` (its end state in `y_new`), proposes `h_new` (at most the
+    /// largest step) for the next one, and returns the new time.
+    fn accept(&mut self, t: f64, h: f64, h_new: f64) -> f64 {
+        self.t_old = t;
+        self.h_last = h;
+        self.t = t + h;
+        std::mem::swap(&mut self.y, &mut self.y_new);
+        self.stats.steps += 1;
+        self.system_at_end = true;
+        self.h = h_new.min(self.h_max);
+        self.t
+    }
+
+    /// Counts an attempt whose stages went non-finite as rejected and retries from a tenth of its step `h`
+    /// (an error once the step falls below 1e-300 s).
+    fn retry_after_non_finite(&mut self, h: f64) -> Result<(), StepError> {
+        self.stats.rejected += 1;
+        self.h = h * 0.1;
+        if self.h < 1e-300 {
+            return Err(StepError::NonFinite { t: self.t });
+        }
+        Ok(())
+    }
+
     fn norm(&self, v: &[f64], y: &[f64]) -> f64 {
         let mut acc = 0.0;
         for i in 0..self.n {
@@ -322,12 +346,8 @@ impl DormandPrince {
             }
             self.stats.rhs_calls += 6;
             if self.y_new.iter().chain(self.k[6].iter()).any(|v| !v.is_finite()) {
-                self.stats.rejected += 1;
                 rejected_here = true;
-                self.h = h * 0.1;
-                if self.h < 1e-300 {
-                    return Err(StepError::NonFinite { t: self.t });
-                }
+                self.retry_after_non_finite(h)?;
                 continue;
             }
             // error norm with max(|y|, |y_new|) scaling
@@ -381,15 +401,8 @@ impl DormandPrince {
                         r4[i] = h * (D1 * k0[i] + D3 * k2[i] + D4 * k3[i] + D5 * k4[i] + D6 * k5[i] + D7 * k6[i]);
                     }
                 }
-                self.t_old = t;
-                self.h_last = h;
-                self.t = t + h;
-                std::mem::swap(&mut self.y, &mut self.y_new);
                 self.k.swap(0, 6);
-                self.stats.steps += 1;
-                self.system_at_end = true;
-                self.h = h_new.min(self.h_max);
-                return Ok(self.t);
+                return Ok(self.accept(t, h, h_new));
             }
             self.stats.rejected += 1;
             rejected_here = true;
@@ -519,12 +532,8 @@ impl DormandPrince {
             self.stats.rhs_calls += STAGES as u64;
             self.system_at_end = false;
             if yn.iter().chain(e.k[STAGES][..n].iter()).any(|v| !v.is_finite()) {
-                self.stats.rejected += 1;
                 rejected_here = true;
-                self.h = h * 0.1;
-                if self.h < 1e-300 {
-                    return Err(StepError::NonFinite { t: self.t });
-                }
+                self.retry_after_non_finite(h)?;
                 continue;
             }
             // error: the 5th-order estimate damped by the 3rd-order one (Hairer's DOP853),
@@ -551,14 +560,7 @@ impl DormandPrince {
                 }
                 e.y_old[..n].copy_from_slice(y);
                 e.fsal_pending = true;
-                self.t_old = t;
-                self.h_last = h;
-                self.t = t + h;
-                std::mem::swap(&mut self.y, &mut self.y_new);
-                self.stats.steps += 1;
-                self.system_at_end = true;
-                self.h = h_new.min(self.h_max);
-                return Ok(self.t);
+                return Ok(self.accept(t, h, h_new));
             }
             self.stats.rejected += 1;
             rejected_here = true;

@@ -251,16 +251,7 @@ impl RadialGrid {
         }
         let mut work = std::mem::take(&mut self.work);
         work.resize(n * LANES, 0.0);
-        let sweep = Sweep {
-            a: &self.a[..n],
-            cp: &self.cp[..n],
-            d: &self.d[..n],
-            storage: &self.storage[..n],
-            g_s: g_scale * self.factors[n],
-            b_last: self.b[n - 1],
-            mdot,
-            full,
-        };
+        let sweep = self.sweep(g_scale, mdot, full);
         let (u, surface) = (&mut u[..count * n], &mut surface[..count]);
         // groups of LANES columns, then of four, then single columns (`source` of a group: its old values)
         let wide_len = count / LANES * LANES * n;
@@ -299,22 +290,14 @@ impl RadialGrid {
         let n = self.len();
         let last = n - 1;
         // weights γ_j, j = 0..N−2, from the surface side inward
-        let gamma = &mut self.gamma[..last];
+        let weights = &mut self.gamma[..last];
         let mut product = 1.0;
-        for (j, g) in gamma.iter_mut().enumerate().rev() {
+        for (j, g) in weights.iter_mut().enumerate().rev() {
             *g = self.storage[j] / self.d[j] * product;
             product *= -self.a[j] / self.d[j];
         }
-        let sweep = Sweep {
-            a: &self.a[..n],
-            cp: &self.cp[..n],
-            d: &self.d[..n],
-            storage: &self.storage[..n],
-            g_s: g_scale * self.factors[n],
-            b_last: self.b[n - 1],
-            mdot,
-            full: false,
-        };
+        let sweep = self.sweep(g_scale, mdot, false);
+        let gamma = &self.gamma[..last];
         let a_last = self.a[last];
         for (k, (input, surface_k)) in inputs.iter().zip(surface.iter_mut()).enumerate() {
             let column = match old {
@@ -322,24 +305,26 @@ impl RadialGrid {
                 None => &u[k * n..(k + 1) * n],
             };
             let (inner, outer) = column.split_at(last);
-            // (four partial sums: independent chains)
-            let mut acc = [0.0; 4];
-            let (wide, rest) = inner.split_at(last / 4 * 4);
-            let (g_wide, g_rest) = gamma.split_at(last / 4 * 4);
-            for (x, g) in wide.chunks_exact(4).zip(g_wide.chunks_exact(4)) {
-                acc[0] += g[0] * x[0];
-                acc[1] += g[1] * x[1];
-                acc[2] += g[2] * x[2];
-                acc[3] += g[3] * x[3];
-            }
-            for (x, g) in rest.iter().zip(g_rest) {
-                acc[0] += g * x;
-            }
-            let prev = (acc[0] + acc[1]) + (acc[2] + acc[3]);
+            let prev = crate::numerics::linalg::dot(gamma, inner);
             let (alpha, beta, piv, rhs_last) = sweep.surface_row(input, outer[0]);
             let next = (rhs_last - a_last * prev) / piv;
             u[k * n + last] = next;
             *surface_k = alpha * next + beta;
+        }
+    }
+
+    /// The sweep of a multi-column step over the factors and storage coefficients set for it.
+    fn sweep(&self, g_scale: f64, mdot: f64, full: bool) -> Sweep<'_> {
+        let n = self.len();
+        Sweep {
+            a: &self.a[..n],
+            cp: &self.cp[..n],
+            d: &self.d[..n],
+            storage: &self.storage[..n],
+            g_s: g_scale * self.factors[n],
+            b_last: self.b[n - 1],
+            mdot,
+            full,
         }
     }
 

@@ -411,8 +411,8 @@ impl Model {
         let (new_sums, old_sums) = sums.split_at_mut(n);
         let y_len = n * ny;
         for ((column, old), (sum_new, sum_old)) in next.y[..y_len].chunks_exact(ny).zip(s.y[..y_len].chunks_exact(ny)).zip(new_sums.iter_mut().zip(old_sums.iter_mut())) {
-            *sum_new = weighted_sum(widths, column);
-            *sum_old = weighted_sum(widths, old);
+            *sum_new = crate::numerics::linalg::dot(widths, column);
+            *sum_old = crate::numerics::linalg::dot(widths, old);
             for (sum, &v) in cell_sums.iter_mut().zip(column) {
                 *sum += v;
             }
@@ -538,24 +538,6 @@ struct StepStart {
     surface_y: Vec<f64>,
 }
 
-/// Σ_j w_j v_j in four partial sums over j (independent chains the compiler runs side by side), added pairwise.
-#[inline]
-fn weighted_sum(w: &[f64], v: &[f64]) -> f64 {
-    let mut acc = [0.0; 4];
-    let len = w.len().min(v.len());
-    let (w_wide, w_rest) = w[..len].split_at(len / 4 * 4);
-    let (v_wide, v_rest) = v[..len].split_at(len / 4 * 4);
-    for (w4, v4) in w_wide.chunks_exact(4).zip(v_wide.chunks_exact(4)) {
-        acc[0] += w4[0] * v4[0];
-        acc[1] += w4[1] * v4[1];
-        acc[2] += w4[2] * v4[2];
-        acc[3] += w4[3] * v4[3];
-    }
-    for (w, v) in w_rest.iter().zip(v_rest) {
-        acc[0] += w * v;
-    }
-    (acc[0] + acc[1]) + (acc[2] + acc[3])
-}
 
 /// Σ X_s of the start film from which an evaporating step with species diffusion in a mixture takes its second
 /// pass's fluxes from the surface state solved for the first pass's cells (the total rate grows like

@@ -3,6 +3,26 @@
 
 use nalgebra::{DMatrix, DVector};
 
+/// Σ_j w_j v_j over the shorter length, in four partial sums (independent chains the processor runs side by side)
+/// added pairwise: a fixed summation order, so the same inputs give the same bits everywhere.
+#[inline]
+pub fn dot(w: &[f64], v: &[f64]) -> f64 {
+    let mut acc = [0.0; 4];
+    let len = w.len().min(v.len());
+    let (w_wide, w_rest) = w[..len].split_at(len / 4 * 4);
+    let (v_wide, v_rest) = v[..len].split_at(len / 4 * 4);
+    for (w4, v4) in w_wide.chunks_exact(4).zip(v_wide.chunks_exact(4)) {
+        acc[0] += w4[0] * v4[0];
+        acc[1] += w4[1] * v4[1];
+        acc[2] += w4[2] * v4[2];
+        acc[3] += w4[3] * v4[3];
+    }
+    for (w, v) in w_rest.iter().zip(v_rest) {
+        acc[0] += w * v;
+    }
+    (acc[0] + acc[1]) + (acc[2] + acc[3])
+}
+
 /// A lower Cholesky factor ([`cholesky`]), for [`solve_lower`].
 pub type Factor = DMatrix<f64>;
 
@@ -78,6 +98,22 @@ pub fn solve(a: &[f64], b: &[f64], m: usize) -> Option<Vec<f64>> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// The four-chain dot product: exact on integers for every length 0–11 (whole groups of four and the rest),
+    /// stops at the shorter slice, and adds its chains pairwise ((c0 + c1) + (c2 + c3)).
+    #[test]
+    fn dot_in_four_chains() {
+        for n in 0..12 {
+            let w: Vec<f64> = (0..n).map(|j| (j + 1) as f64).collect();
+            let v: Vec<f64> = (0..n).map(|j| (2 * j) as f64 - 3.0).collect();
+            let want: f64 = w.iter().zip(&v).map(|(a, b)| a * b).sum();
+            assert_eq!(dot(&w, &v), want, "length {n}");
+            assert_eq!(dot(&w, &v[..n / 2]), w.iter().zip(&v[..n / 2]).map(|(a, b)| a * b).sum::<f64>());
+        }
+        // chains: 1e16 in chain 0 and 1.0 in chain 1 are added before the chain-2 and chain-3 terms
+        let (w, v) = ([1.0; 4], [1e16, 1.0, 1.0, -1e16]);
+        assert_eq!(dot(&w, &v), (1e16 + 1.0) + (1.0 - 1e16));
+    }
 
     #[test]
     fn least_squares_reproduces_an_exact_polynomial_and_a_hand_fit() {

@@ -397,20 +397,19 @@ impl PropertyKernels {
     /// no density or heat capacity.
     #[inline]
     pub fn pressure_and_latent(&self, c: &Component, t: f64) -> Option<[f64; 2]> {
-        let s = self.segment_of(t)?;
-        let seg = &self.segments[s];
-        let g = self.liquid[s].get_or_init(|| fit_group(c, LIQUID_GROUP, seg));
-        if !(g.ok[0] && g.ok[1] && g.ok[2] && g.ok[3]) {
-            return None;
-        }
-        let u = (t - seg.mid) * seg.inv_half;
-        Some([horner_column(g, 0, u).exp(), horner_column(g, 2, u)])
+        self.liquid_columns(c, t, 0, 2).map(|[ln_p, latent]| [ln_p.exp(), latent])
     }
 
     /// Unscaled liquid density and liquid heat capacity of `c` at `t` from its liquid group, the bits of values 1
     /// and 3 of [`PropertyKernels::liquid_group`] (None where it gives None).
     #[inline]
     pub fn density_and_heat_capacity(&self, c: &Component, t: f64) -> Option<[f64; 2]> {
+        self.liquid_columns(c, t, 1, 3)
+    }
+
+    /// Columns `first` and `second` of the liquid group of `c` at `t` (None unless the whole group is served).
+    #[inline(always)]
+    fn liquid_columns(&self, c: &Component, t: f64, first: usize, second: usize) -> Option<[f64; 2]> {
         let s = self.segment_of(t)?;
         let seg = &self.segments[s];
         let g = self.liquid[s].get_or_init(|| fit_group(c, LIQUID_GROUP, seg));
@@ -418,7 +417,7 @@ impl PropertyKernels {
             return None;
         }
         let u = (t - seg.mid) * seg.inv_half;
-        Some([horner_column(g, 1, u), horner_column(g, 3, u)])
+        Some([horner_column(g, first, u), horner_column(g, second, u)])
     }
 
     /// Unscaled ideal-gas heat capacity, vapour viscosity and vapour conductivity of `c` at `t` from one

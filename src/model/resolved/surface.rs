@@ -567,15 +567,14 @@ mod tests {
         }
     }
 
-    /// The history row of a settled state takes the film of its surface solve: the row carries that film, and it
-    /// agrees with a fresh evaluation at the state's (normalised) surface to well below the solve's tolerance.
-    #[test]
-    fn settled_row_film_matches_a_fresh_evaluation() {
+    /// Runs the first 60 step attempts of a 3-component droplet (n-heptane/n-decane/n-hexadecane, 12 cells, 800 K
+    /// air) and calls `check` after each accepted step with the model and the accepted state; returns how many.
+    fn each_accepted_step(name: &str, mut check: impl FnMut(&mut super::super::Model, &super::super::State, f64, f64)) -> usize {
         use super::super::{attempt_step, first_step, grown_step, step_tolerance, Attempt, Model, Stats};
         use crate::model::inputs::{DropletInputs, LiquidHeat, LiquidMixing};
         let lib = crate::data::Library::embedded().unwrap();
         let comps = ["n-heptane", "n-decane", "n-hexadecane"].map(|id| lib.component(id).unwrap().clone()).to_vec();
-        let fuel = crate::fuel::Fuel::from_fractions("row", comps, &[0.3, 0.3, 0.4], crate::fuel::Basis::Mass).unwrap();
+        let fuel = crate::fuel::Fuel::from_fractions(name, comps, &[0.3, 0.3, 0.4], crate::fuel::Basis::Mass).unwrap();
         let mut inp = DropletInputs::new(fuel, crate::props::gas::AmbientGas::air(&lib).unwrap(), 800.0, 101_325.0, 50e-6, 300.0);
         inp.liquid.mixing = LiquidMixing::Diffusion;
         inp.liquid.heat = LiquidHeat::Conduction;
@@ -594,12 +593,23 @@ mod tests {
                 Attempt::Retry => continue,
                 Attempt::Failed(e) => panic!("{e}"),
             }
-            let kept = model.settled_film(&state).expect("an accepted evaporating state is settled");
+            check(&mut model, &state, m0, inp.initial_diameter);
+            checked += 1;
+        }
+        checked
+    }
+
+    /// The history row of a settled state takes the film of its surface solve: the row carries that film, and it
+    /// agrees with a fresh evaluation at the state's (normalised) surface to well below the solve's tolerance.
+    #[test]
+    fn settled_row_film_matches_a_fresh_evaluation() {
+        let checked = each_accepted_step("row", |model, state, m0, d0| {
+            let kept = model.settled_film(state).expect("an accepted evaporating state is settled");
             let kept_rates = model.rates.clone();
-            let row = model.row(&state, m0, inp.initial_diameter);
+            let row = model.row(state, m0, d0);
             assert_eq!(row.film.evaporation_rate.to_bits(), kept.evaporation_rate.to_bits());
             assert_eq!(row.film.heat_to_liquid.to_bits(), kept.heat_to_liquid.to_bits());
-            let liq = model.liquid(&state);
+            let liq = model.liquid(state);
             let surface = state.surface_y.clone();
             let fresh = model.film_at(&surface, state.surface_t, state.mass, liq.density, state.velocity);
             let close = |a: f64, b: f64, scale: f64| (a - b).abs() <= 1e-8 * scale;
@@ -609,8 +619,7 @@ mod tests {
             for (a, b) in kept_rates.iter().zip(&model.rates) {
                 assert!(close(*a, *b, fresh.evaporation_rate.abs()), "{a} vs {b}");
             }
-            checked += 1;
-        }
+        });
         assert!(checked >= 40, "{checked} states checked");
     }
 
@@ -619,40 +628,16 @@ mod tests {
     /// returns within 1e-4 relative (3.4e-6 measured), over the first 60 steps of a 3-component droplet with 12 cells.
     #[test]
     fn kept_slope_matches_a_fresh_difference() {
-        use super::super::{attempt_step, first_step, grown_step, step_tolerance, Attempt, Model, Stats};
-        use crate::model::inputs::{DropletInputs, LiquidHeat, LiquidMixing};
-        let lib = crate::data::Library::embedded().unwrap();
-        let comps = ["n-heptane", "n-decane", "n-hexadecane"].map(|id| lib.component(id).unwrap().clone()).to_vec();
-        let fuel = crate::fuel::Fuel::from_fractions("slope", comps, &[0.3, 0.3, 0.4], crate::fuel::Basis::Mass).unwrap();
-        let mut inp = DropletInputs::new(fuel, crate::props::gas::AmbientGas::air(&lib).unwrap(), 800.0, 101_325.0, 50e-6, 300.0);
-        inp.liquid.mixing = LiquidMixing::Diffusion;
-        inp.liquid.heat = LiquidHeat::Conduction;
-        inp.liquid.nodes = 12;
-        let (mut model, mut state, m0, _) = Model::prepare(&inp).unwrap();
-        let tol = step_tolerance(inp.rtol);
-        let mut dt = first_step(inp.initial_diameter);
-        let mut stats = Stats::default();
         let mut worst = 0.0f64;
-        let mut checked = 0;
-        for _ in 0..60 {
-            match attempt_step(&mut model, &state, &mut dt, tol, m0, &mut stats) {
-                Attempt::Accepted(new, err, _) => {
-                    state = new;
-                    dt = grown_step(dt, tol, err);
-                }
-                Attempt::Retry => continue,
-                Attempt::Failed(e) => panic!("{e}"),
-            }
+        let checked = each_accepted_step("slope", |model, state, _, _| {
             let kept = model.settled.solution;
-            let liq = model.liquid(&state);
+            let liq = model.liquid(state);
             let surface = state.surface_y.clone();
             let f0 = model.film_at(&surface, state.surface_t, state.mass, liq.density, state.velocity);
             let f1 = model.film_at(&surface, state.surface_t + 0.01, state.mass, liq.density, state.velocity);
             let fresh = (f1.heat_to_liquid - f0.heat_to_liquid) / 0.01;
-            let dev = (kept.dq - fresh).abs() / fresh.abs();
-            worst = worst.max(dev);
-            checked += 1;
-        }
+            worst = worst.max((kept.dq - fresh).abs() / fresh.abs());
+        });
         eprintln!("kept dQ_L/dT_s against a fresh difference: largest relative deviation {worst:e} over {checked} states");
         assert!(checked >= 40, "{checked} states checked");
         assert!(worst < 1e-4, "largest relative deviation {worst:e}");

@@ -428,6 +428,8 @@ const CASES: &[Case] = &[
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--injected", "--velocity", "20", "--drag", "stokes"], ["--drag", "stokes", "yuen-chen"]),
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--vapour-diffusion", "binary"], ["--vapour-diffusion", "binary", "mixture", "species"]),
     case!(["sweep", "@spec-vapour-diffusion-unknown.toml", "--out", "{out}"], ["conditions.vapour-diffusion", "stefan-maxwell", "mixture"]),
+    case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--integrator", "rk4"], ["--integrator", "rk4", "dp54", "dp853"]),
+    case!(["sweep", "@spec-integrator-unknown.toml", "--out", "{out}"], ["conditions.integrator", "rk45", "auto"]),
     // ------------------------------------------------------------------ liquid activity model (UNIFAC)
     case!(["simulate", "n-decane", "--no-plots", "--out", "{out}", "--activity", "raoult"], ["--activity", "raoult", "unifac"]),
     case!(["--components", "%comp-unifac-unknown-group.toml", "components"], ["unifac-groups.CH9", "unknown original-UNIFAC subgroup 'CH9'"]),

@@ -2,6 +2,7 @@
 //! the project's own Dormand–Prince 5(4) stepper and by `ode_solvers::Dopri5` at equal tolerances must reach
 //! the same state, and the own stepper must not need more right-hand-side evaluations. Timing is measured by
 //! `cargo bench --bench integrators` (a test on a shared machine cannot time reliably).
+mod common;
 #[path = "support/integrator_problem.rs"]
 mod problem;
 
@@ -160,4 +161,51 @@ fn own_eighth_order_pair_on_whole_lives() {
         println!("{name}, rtol 1e-6, {method:?}: peak {peak:.9} K, highest row {highest_row:.9} K, reference {:.9} K", reference[4]);
         assert!(peak > highest_row && (peak / reference[4] - 1.0).abs() < 1e-6, "{method:?}: peak {peak} vs reference {}", reference[4]);
     }
+}
+
+/// `--integrator` end to end through the binary: each choice reaches the well-mixed run and the input echo names
+/// the pair that ran; both pairs agree on the lifetime to well within the tolerance; a sweep varies it as a
+/// condition and writes it as a summary column.
+#[test]
+fn integrator_option_reaches_the_run_and_the_outputs() {
+    use common::{ok, p, scratch};
+    let dir = scratch("integrator_choice", "option");
+    let run = |extra: &[&str], name: &str| {
+        let out = dir.join(name);
+        let mut args = vec!["simulate", "n-decane", "--no-plots", "--json", "--out", p(&out)];
+        args.extend_from_slice(extra);
+        serde_json::from_str::<serde_json::Value>(&ok(&args)).expect("json")
+    };
+    let echo = |v: &serde_json::Value| v["input"]["integrator"].as_str().unwrap_or_else(|| panic!("no input.integrator in {}", v["input"])).to_string();
+    let rhs = |v: &serde_json::Value| v["integrator"]["rhs_calls"].as_u64().unwrap();
+    let life = |v: &serde_json::Value| v["lifetime_s"].as_f64().unwrap();
+    let auto6 = run(&[], "auto6");
+    let dp853_6 = run(&["--integrator", "dp853"], "dp853-6");
+    let auto11 = run(&["--rtol", "1e-11"], "auto11");
+    let dp54_11 = run(&["--rtol", "1e-11", "--integrator", "dp54"], "dp54-11");
+    assert_eq!(echo(&auto6), "auto: dp54");
+    assert_eq!(echo(&dp853_6), "dp853");
+    assert_eq!(echo(&auto11), "auto: dp853");
+    assert_eq!(echo(&dp54_11), "dp54");
+    // the choice changes the step sequence (different work) but not the answer beyond the tolerances
+    assert_ne!(rhs(&auto6), rhs(&dp853_6));
+    assert!((life(&auto6) / life(&dp853_6) - 1.0).abs() < 1e-4, "{} vs {}", life(&auto6), life(&dp853_6));
+    assert!((life(&auto11) / life(&dp54_11) - 1.0).abs() < 1e-8, "{} vs {}", life(&auto11), life(&dp54_11));
+    assert!(rhs(&auto11) < rhs(&dp54_11), "8(5,3) {} vs 5(4) {} right-hand sides at 1e-11", rhs(&auto11), rhs(&dp54_11));
+    let resolved = run(&["--liquid-mixing", "diffusion", "--nodes", "10"], "resolved");
+    assert_eq!(echo(&resolved), "auto: resolved liquid, own implicit steps");
+
+    let spec = dir.join("spec.toml");
+    std::fs::write(&spec, "fuels = [\"n-decane\"]\n[conditions]\nintegrator = [\"dp54\", \"dp853\"]\nrtol = \"1e-10\"\n").unwrap();
+    let out = dir.join("sweep");
+    ok(&["sweep", p(&spec), "--threads", "1", "--out", p(&out)]);
+    let summary = std::fs::read_to_string(out.join("summary.csv")).unwrap();
+    let mut rows = summary.lines().filter(|l| !l.starts_with('#'));
+    let header: Vec<&str> = rows.next().unwrap().split(',').collect();
+    let col = header.iter().position(|h| *h == "integrator").expect("integrator column");
+    let life_col = header.iter().position(|h| *h == "lifetime_s").expect("lifetime column");
+    let rows: Vec<Vec<&str>> = rows.map(|l| l.split(',').collect()).collect();
+    assert_eq!(rows.iter().map(|r| r[col]).collect::<Vec<_>>(), ["dp54", "dp853"]);
+    let (a, b): (f64, f64) = (rows[0][life_col].parse().unwrap(), rows[1][life_col].parse().unwrap());
+    assert!((a / b - 1.0).abs() < 1e-7, "sweep lifetimes {a} / {b}");
 }

@@ -225,7 +225,7 @@ def simulate(
     ``diameter``, ``droplet_temperature``, ``velocity``, ``injected``, ``correlation``, ``drag``, ``rtol``,
     ``max_time``, ``ambient_vapor``, ``liquid_mixing``, ``liquid_heat``, ``nodes``, ``non_equilibrium``,
     ``liquid_diffusivity_factor``, ``liquid_conductivity_factor``, ``radiation``, ``absorption_efficiency``,
-    ``fibre_diameter``, ``fibre_conductivity``, ``fibre_stems``, ``activity``, ``vapour_diffusion``), with the command line's defaults
+    ``fibre_diameter``, ``fibre_conductivity``, ``fibre_stems``, ``activity``, ``vapour_diffusion``, ``integrator``), with the command line's defaults
     for those not given (or given as None). Quantities are SI floats or strings with units (``"800K"``).
     ``limits``: ``"aviation"`` or a limits file, for the in-window columns of ``residue``.
     ``history_times``: history rows at these times instead of at every integrator step, as ``--history-times``:

@@ -5,6 +5,7 @@ use std::sync::Arc;
 
 use crate::model::droplet::{LiquidHeat, LiquidMixing};
 use crate::model::film::{DragLaw, Radiation, SupportFibre, VapourDiffusion};
+use crate::model::integrator::Method;
 use crate::model::{Motion, TransferCorrelation};
 use crate::props::activity::{Activity, ActivityModel};
 use crate::units::Quantity;
@@ -23,6 +24,8 @@ pub const LIQUID_MIXING: [&str; 2] = ["well-mixed", "diffusion"];
 pub const LIQUID_HEAT: [&str; 2] = ["uniform", "conduction"];
 /// Words of `activity`.
 pub const ACTIVITY_MODELS: [&str; 2] = ["ideal", "unifac"];
+/// Words of `integrator`.
+pub const INTEGRATORS: [&str; 3] = ["auto", "dp54", "dp853"];
 /// Keywords of `radiation`.
 pub const RADIATION_WORDS: [&str; 2] = ["off", "ambient"];
 /// Keyword of `fibre-diameter` (no fibre).
@@ -31,7 +34,7 @@ pub const FIBRE_WORDS: [&str; 1] = ["none"];
 const LIQUID_FACTOR_NOTE: &str = "the liquid layers would grow thinner than the radial grid can follow and the run stalls or fails";
 
 /// Every run condition, in the order of sweep case ids and summary columns.
-pub static CONDITIONS: [Condition; 25] = [
+pub static CONDITIONS: [Condition; 26] = [
     Condition {
         key: "ambient-temperature",
         column: "ambient_temperature_K",
@@ -505,6 +508,24 @@ pub static CONDITIONS: [Condition; 25] = [
             Ok(())
         },
         get: |i| Some(Value::Choice(i.vapour_diffusion.as_str())),
+    },
+    Condition {
+        key: "integrator",
+        column: "integrator",
+        kind: Kind::Choice(&INTEGRATORS),
+        unit: "",
+        default: "auto",
+        range: Range::NONE,
+        below_min: "",
+        help: "Runge–Kutta pair of the well-mixed liquid's time integration: auto (Dormand–Prince 5(4) above rtol 1e-10, 8(5,3) at or below), dp54 or dp853 (the resolved liquid takes its own implicit steps and ignores it).",
+        example: "dp853",
+        long_help_only: false,
+        set: |i, v| {
+            let name = word(v)?;
+            i.integrator = Method::parse(name).ok_or_else(|| unknown_word(name, &INTEGRATORS))?;
+            Ok(())
+        },
+        get: |i| Some(Value::Choice(i.integrator.as_str())),
     },
 ];
 

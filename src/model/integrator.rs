@@ -61,6 +61,20 @@ impl Method {
             m => m,
         }
     }
+
+    /// The word of this choice in run conditions and outputs: `auto`, `dp54` or `dp853`.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Method::Auto => "auto",
+            Method::Order5 => "dp54",
+            Method::Order8 => "dp853",
+        }
+    }
+
+    /// The choice a word names ([`Method::as_str`]), None for any other word.
+    pub fn parse(word: &str) -> Option<Method> {
+        [Method::Auto, Method::Order5, Method::Order8].into_iter().find(|m| m.as_str() == word)
+    }
 }
 
 const C2: f64 = 1.0 / 5.0;

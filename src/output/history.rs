@@ -128,6 +128,9 @@ pub struct InputEcho {
     pub reference_weight: f64,
     /// Relative tolerance.
     pub rtol: f64,
+    /// Runge–Kutta pair of the run: `dp54` or `dp853`, `auto: dp54` (`auto: dp853`) for the one `auto` took at
+    /// this tolerance, `<choice>: resolved liquid, own implicit steps` for the resolved liquid.
+    pub integrator: String,
     /// Time limit \[s\].
     pub max_time_s: f64,
     /// Liquid model.
@@ -139,6 +142,19 @@ pub struct InputEcho {
     /// Radiation and supporting-fibre heat (absent for a free droplet in a transparent gas).
     #[serde(skip_serializing_if = "crate::model::film::ExtraHeat::is_none")]
     pub extra_heat: crate::model::film::ExtraHeat,
+}
+
+/// The `integrator` echo of a run: the choice and the pair it takes at the run's tolerance.
+fn integrator_echo(inp: &DropletInputs) -> String {
+    use crate::model::integrator::Method;
+    if inp.liquid.is_resolved() {
+        format!("{}: resolved liquid, own implicit steps", inp.integrator.as_str())
+    } else {
+        match inp.integrator {
+            Method::Auto => format!("auto: {}", Method::Auto.resolve(inp.rtol).as_str()),
+            chosen => chosen.as_str().to_string(),
+        }
+    }
 }
 
 impl InputEcho {
@@ -158,6 +174,7 @@ impl InputEcho {
             correlation: inp.correlation.as_str().into(),
             reference_weight: inp.reference_weight,
             rtol: inp.rtol,
+            integrator: integrator_echo(inp),
             max_time_s: inp.max_time,
             liquid_model: format!(
                 "species {:?}, heat {:?}, {} radial cells, non-equilibrium surface {}, activity {}",

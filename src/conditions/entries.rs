@@ -24,8 +24,8 @@ pub const LIQUID_MIXING: [&str; 2] = ["well-mixed", "diffusion"];
 pub const LIQUID_HEAT: [&str; 2] = ["uniform", "conduction"];
 /// Words of `activity`.
 pub const ACTIVITY_MODELS: [&str; 2] = ["ideal", "unifac"];
-/// Words of `integrator`.
-pub const INTEGRATORS: [&str; 3] = ["auto", "dp54", "dp853"];
+/// Words of `integrator` (the model's own words, [`Method::as_str`]).
+pub const INTEGRATORS: [&str; 3] = [Method::Auto.as_str(), Method::Order5.as_str(), Method::Order8.as_str()];
 /// Keywords of `radiation`.
 pub const RADIATION_WORDS: [&str; 2] = ["off", "ambient"];
 /// Keyword of `fibre-diameter` (no fibre).

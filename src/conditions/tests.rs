@@ -37,6 +37,14 @@ fn every_setter_and_getter_round_trips_the_example() {
         c.apply(&mut inp, &v).unwrap();
         assert_eq!((c.get)(&inp), Some(v.clone()), "{}", c.key);
         assert_ne!(before, Some(v), "{}: the example leaves the inputs unchanged", c.key);
+        // every word of a choice reaches the inputs and reads back as itself
+        if let Kind::Choice(words) = c.kind {
+            for word in words.iter() {
+                let mut inp = defaults.clone();
+                c.apply(&mut inp, &Value::Choice(word)).unwrap_or_else(|e| panic!("{} = {word}: {e}", c.key));
+                assert_eq!((c.get)(&inp), Some(Value::Choice(word)), "{} = {word}", c.key);
+            }
+        }
     }
 }
 

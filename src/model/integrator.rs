@@ -63,7 +63,7 @@ impl Method {
     }
 
     /// The word of this choice in run conditions and outputs: `auto`, `dp54` or `dp853`.
-    pub fn as_str(self) -> &'static str {
+    pub const fn as_str(self) -> &'static str {
         match self {
             Method::Auto => "auto",
             Method::Order5 => "dp54",

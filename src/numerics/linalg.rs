@@ -1,5 +1,6 @@
-//! Dense linear algebra through `nalgebra`: linear least squares (Householder QR with column equilibration),
-//! symmetric positive-definite systems (Cholesky) and square systems (LU with partial pivoting).
+//! Dense linear algebra: a fixed-order dot product, and through `nalgebra` linear least squares (Householder QR
+//! with column equilibration), symmetric positive-definite systems (Cholesky) and square systems (LU with partial
+//! pivoting).
 
 use nalgebra::{DMatrix, DVector};
 
